@@ -1,0 +1,66 @@
+// Facts derived once per procedure and shared by all rules: parsed conditions, the step index, the step graph.
+import type { PathKey } from '../parse/read-source.ts';
+import type { Procedure } from '../model/procedure.ts';
+import { walkBlocks, walkSteps, type StepPlace } from '../model/walk-steps.ts';
+import type { ConditionParseResult } from './conditions/ast.ts';
+import { parseCondition } from './conditions/parse.ts';
+import { resolveCondition, type ResolveProblem } from './conditions/resolve.ts';
+import { compileStepGraph, type StepGraph } from './step-graph.ts';
+import { collectQuantities, type QuantitySite } from './quantity-sites.ts';
+
+export interface ConditionSite {
+  path: PathKey[];
+  text: string;
+  role: 'until' | 'when' | 'trips-when';
+  /** The step the condition ends, or the interlock tag. */
+  owner?: string;
+  result: ConditionParseResult;
+  /** Undeclared names, unit mismatches ... (empty when the text did not parse). */
+  problems: ResolveProblem[];
+}
+
+export interface ProcedureFacts {
+  procedure: Procedure;
+  steps: StepPlace[];
+  stepById: Map<string, StepPlace>;
+  conditions: ConditionSite[];
+  conditionAt(path: readonly PathKey[]): ConditionSite | undefined;
+  /** Setpoints and operating limits, parsed. */
+  quantities: QuantitySite[];
+  readonly graph: StepGraph;
+}
+
+export function collectFacts(procedure: Procedure): ProcedureFacts {
+  const steps = walkSteps(procedure.steps);
+  const stepById = new Map<string, StepPlace>();
+  for (const s of steps) if (s.step.id && !stepById.has(s.step.id)) stepById.set(s.step.id, s);
+
+  const conditions: ConditionSite[] = [];
+  const signals = procedure.signals;
+  const add = (text: string, path: PathKey[], role: ConditionSite['role'], owner?: string) => {
+    const result = parseCondition(text);
+    const problems = result.ok ? resolveCondition(result.condition, signals) : [];
+    conditions.push({ path, text, role, owner, result, problems });
+  };
+  for (const s of steps) if (s.step.until) add(s.step.until.value, s.step.until.path, 'until', s.step.id);
+  for (const block of walkBlocks(procedure.steps)) {
+    if (block.kind !== 'choose') continue;
+    for (const b of block.branches) if (b.when) add(b.when.value, b.when.path, 'when');
+  }
+  for (const i of procedure.interlocks) if (i.tripsWhen.value) add(i.tripsWhen.value, i.tripsWhen.path, 'trips-when', i.tag);
+  const byPath = new Map(conditions.map((c) => [c.path.join('\u0000'), c]));
+
+  let graph: StepGraph | undefined;
+  return {
+    procedure,
+    steps,
+    stepById,
+    conditions,
+    conditionAt: (path) => byPath.get(path.join('\u0000')),
+    quantities: collectQuantities(procedure, steps),
+    get graph() {
+      graph ??= compileStepGraph(procedure);
+      return graph;
+    },
+  };
+}

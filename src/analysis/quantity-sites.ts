@@ -1,0 +1,67 @@
+// Collects every quantity written for a signal (setpoints, operating limits) and what is wrong with it.
+import type { PathKey } from '../parse/read-source.ts';
+import type { Procedure } from '../model/procedure.ts';
+import type { StepPlace } from '../model/walk-steps.ts';
+import { isKnownUnit, parseQuantity, sameDimension } from './units.ts';
+
+export type QuantityProblem =
+  | { kind: 'undeclared-name'; message: string; hint: string }
+  | { kind: 'unit-mismatch'; message: string; hint: string }
+  | { kind: 'unknown-unit'; message: string; hint: string }
+  | { kind: 'bad-quantity'; message: string; hint: string };
+
+export interface QuantitySite {
+  role: 'setpoint' | 'limit-low' | 'limit-high';
+  signal: string;
+  text: string;
+  path: PathKey[];
+  /** The step that sets it (for setpoints). */
+  step?: string;
+  quantity?: { value: number; unit: string };
+  problems: QuantityProblem[];
+}
+
+export function collectQuantities(procedure: Procedure, steps: StepPlace[]): QuantitySite[] {
+  const sites: QuantitySite[] = [];
+  const add = (role: QuantitySite['role'], signal: string, text: string, path: PathKey[], step?: string) => {
+    const problems: QuantityProblem[] = [];
+    const declared = procedure.signals[signal];
+    if (!declared) {
+      problems.push({
+        kind: 'undeclared-name',
+        message: `'${signal}' is not a declared signal.`,
+        hint: `Declare it under 'signals' with its text, unit and range, or correct the name.`,
+      });
+    }
+    const parsed = parseQuantity(text);
+    let quantity: QuantitySite['quantity'];
+    if (!parsed.ok) {
+      const unitOnly = text.trim().split(/\s+/).slice(1).join(' ');
+      problems.push(unitOnly && !isKnownUnit(unitOnly)
+        ? { kind: 'unknown-unit', message: `'${unitOnly}' is not a unit Stepwright knows.`, hint: 'Use a unit from the format reference, e.g. degC, bar, kg, L/min.' }
+        : { kind: 'bad-quantity', message: `'${text}' is not a quantity: ${parsed.message}`, hint: parsed.hint });
+    } else {
+      quantity = { value: parsed.value, unit: parsed.unit };
+      if (declared?.unit && !sameDimension(parsed.unit, declared.unit)) {
+        problems.push({
+          kind: 'unit-mismatch',
+          message: `'${text}' is in ${parsed.unit}, which cannot be converted to ${signal}'s unit ${declared.unit}.`,
+          hint: `Write the value in ${declared.unit} or a unit of the same kind.`,
+        });
+      } else if (declared && !declared.unit) {
+        problems.push({
+          kind: 'unit-mismatch',
+          message: `'${signal}' has no unit, so it cannot take the quantity '${text}'.`,
+          hint: `Give the signal a unit and range under 'signals'.`,
+        });
+      }
+    }
+    sites.push({ role, signal, text, path, step, quantity, problems });
+  };
+  for (const { step } of steps) for (const s of step.set) add('setpoint', s.signal, s.quantity, s.path, step.id);
+  for (const limit of procedure.limits) {
+    if (limit.low) add('limit-low', limit.signal, limit.low.value, limit.low.path);
+    if (limit.high) add('limit-high', limit.signal, limit.high.value, limit.high.path);
+  }
+  return sites;
+}

@@ -1,0 +1,95 @@
+// What a rule is: its metadata (id, summary, default severity, docs, source) and its check.
+import type { Diagnostic, RelatedPlace, Severity, SourceRange } from '../parse/diagnostic.ts';
+import type { ParsedSource, PathKey } from '../parse/read-source.ts';
+import type { Procedure } from '../model/procedure.ts';
+import type { SchemaIssue } from '../model/validate.ts';
+import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
+
+export type RuleCategory = 'syntax' | 'structure' | 'sequence' | 'conditions' | 'limits' | 'document-control' | 'safety' | 'writing' | 'history';
+
+export interface RuleMeta {
+  /** Permanent kebab-case id; also the file name. */
+  id: string;
+  /** One line: what the rule reports. */
+  summary: string;
+  category: RuleCategory;
+  defaultSeverity: Severity;
+  /** Markdown: why the rule exists and how to fix what it reports. */
+  docs: string;
+  /** Published source the rule rests on, when there is one. */
+  source?: string;
+  examples?: { good: string; bad: string };
+}
+
+export interface Report {
+  /** Where: a YAML path (value or key), or an explicit range. */
+  path?: readonly PathKey[];
+  part?: 'key' | 'value';
+  range?: SourceRange;
+  message: string;
+  hint?: string;
+  /** Overrides the rule's default severity for this one report (the configuration still wins). */
+  severity?: Severity;
+  related?: Array<{ path?: readonly PathKey[]; range?: SourceRange; file?: string; message: string }>;
+  trace?: string[];
+}
+
+export interface FileContext {
+  file: string;
+  source: ParsedSource;
+  /** Null when the front-matter could not be read at all. */
+  procedure: Procedure | null;
+  schemaIssues: SchemaIssue[];
+  /** Parsed conditions, the step graph and other derived facts, computed once and shared. */
+  facts: ProcedureFacts | null;
+  /** Today's date as YYYY-MM-DD (injected so tests control the clock). */
+  today: string;
+  report(report: Report): void;
+}
+
+export interface ManualContext {
+  files: FileContext[];
+  today: string;
+  /** Report against one of the files. */
+  report(file: FileContext, report: Report): void;
+}
+
+export interface FileRule {
+  meta: RuleMeta;
+  scope: 'file';
+  check(context: FileContext): void;
+}
+
+export interface ManualRule {
+  meta: RuleMeta;
+  scope: 'manual';
+  check(context: ManualContext): void;
+}
+
+export type Rule = FileRule | ManualRule;
+
+export function defineFileRule(meta: RuleMeta, check: (context: FileContext) => void): FileRule {
+  return { meta, scope: 'file', check };
+}
+
+export function defineManualRule(meta: RuleMeta, check: (context: ManualContext) => void): ManualRule {
+  return { meta, scope: 'manual', check };
+}
+
+export function toDiagnostic(rule: RuleMeta, severity: Severity, source: ParsedSource, report: Report): Diagnostic {
+  const range = report.range ?? (report.path ? source.rangeOf(report.path, report.part) : source.rangeOf([]));
+  const related: RelatedPlace[] | undefined = report.related?.map((r) => {
+    const at = r.range ?? (r.path ? source.rangeOf(r.path) : source.rangeOf([]));
+    return { file: r.file ?? source.file, line: at.line, column: at.column, message: r.message };
+  });
+  return {
+    file: source.file,
+    ...range,
+    severity,
+    rule: rule.id,
+    message: report.message,
+    ...(report.hint ? { hint: report.hint } : {}),
+    ...(related && related.length ? { related } : {}),
+    ...(report.trace && report.trace.length ? { trace: report.trace } : {}),
+  };
+}

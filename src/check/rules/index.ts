@@ -1,0 +1,59 @@
+// The registry of every rule, keyed by its permanent id.
+import type { Rule } from '../define-rule.ts';
+import approvalMissing from './approval-missing.ts';
+import authorOnlyApprover from './author-only-approver.ts';
+import badIdFormat from './bad-id-format.ts';
+import conditionSyntax from './condition-syntax.ts';
+import duplicateProcedureId from './duplicate-procedure-id.ts';
+import duplicateStepId from './duplicate-step-id.ts';
+import effectiveBeforeApproval from './effective-before-approval.ts';
+import effectiveDateMissing from './effective-date-missing.ts';
+import gotoCrossesParallel from './goto-crosses-parallel.ts';
+import gotoUnknownStep from './goto-unknown-step.ts';
+import hazardUnknownStep from './hazard-unknown-step.ts';
+import invalidValue from './invalid-value.ts';
+import missingFrontMatter from './missing-front-matter.ts';
+import missingRequiredKey from './missing-required-key.ts';
+import reviewOverdue from './review-overdue.ts';
+import setpointAtTrip from './setpoint-at-trip.ts';
+import setpointOutsideLimits from './setpoint-outside-limits.ts';
+import stepWithoutTransition from './step-without-transition.ts';
+import thresholdOutsideRange from './threshold-outside-range.ts';
+import undeclaredName from './undeclared-name.ts';
+import unitMismatch from './unit-mismatch.ts';
+import unknownKey from './unknown-key.ts';
+import unknownUnit from './unknown-unit.ts';
+import valueNotAllowed from './value-not-allowed.ts';
+import yamlSyntax from './yaml-syntax.ts';
+
+export const rules = {
+  'approval-missing': approvalMissing,
+  'author-only-approver': authorOnlyApprover,
+  'bad-id-format': badIdFormat,
+  'condition-syntax': conditionSyntax,
+  'duplicate-procedure-id': duplicateProcedureId,
+  'duplicate-step-id': duplicateStepId,
+  'effective-before-approval': effectiveBeforeApproval,
+  'effective-date-missing': effectiveDateMissing,
+  'goto-crosses-parallel': gotoCrossesParallel,
+  'goto-unknown-step': gotoUnknownStep,
+  'hazard-unknown-step': hazardUnknownStep,
+  'invalid-value': invalidValue,
+  'missing-front-matter': missingFrontMatter,
+  'missing-required-key': missingRequiredKey,
+  'review-overdue': reviewOverdue,
+  'setpoint-at-trip': setpointAtTrip,
+  'setpoint-outside-limits': setpointOutsideLimits,
+  'step-without-transition': stepWithoutTransition,
+  'threshold-outside-range': thresholdOutsideRange,
+  'undeclared-name': undeclaredName,
+  'unit-mismatch': unitMismatch,
+  'unknown-key': unknownKey,
+  'unknown-unit': unknownUnit,
+  'value-not-allowed': valueNotAllowed,
+  'yaml-syntax': yamlSyntax,
+} satisfies Record<string, Rule>;
+
+export type RuleId = keyof typeof rules;
+
+export const allRules: Rule[] = Object.values(rules);

@@ -1,0 +1,112 @@
+// Runs every rule over a set of procedure sources and returns the diagnostics, sorted by place.
+import { compareDiagnostics, type Diagnostic, type Severity } from '../parse/diagnostic.ts';
+import { readSource, type ParsedSource } from '../parse/read-source.ts';
+import { buildProcedure } from '../model/build-procedure.ts';
+import type { Procedure } from '../model/procedure.ts';
+import { validateFrontMatter } from '../model/validate.ts';
+import { collectFacts, type ProcedureFacts } from '../analysis/procedure-facts.ts';
+import { toDiagnostic, type FileContext, type Report, type Rule, type RuleMeta } from './define-rule.ts';
+import { allRules } from './rules/index.ts';
+
+export type SourceInput = { file: string; text: string } | { file: string; error: string };
+
+/** Decides a rule's severity for one file: 'off' silences it; undefined keeps the rule's choice. */
+export type SeverityPolicy = (rule: string, file: string) => Severity | 'off' | undefined;
+
+export interface CheckOptions {
+  /** Today's date, YYYY-MM-DD. */
+  today: string;
+  rules?: Rule[];
+  severity?: SeverityPolicy;
+}
+
+export interface CheckedFile {
+  file: string;
+  source: ParsedSource | null;
+  procedure: Procedure | null;
+  facts: ProcedureFacts | null;
+  diagnostics: Diagnostic[];
+}
+
+export interface CheckResult {
+  files: CheckedFile[];
+  diagnostics: Diagnostic[];
+}
+
+/** Reads one source into the shared model: the same reading the site uses. */
+export function readProcedure(file: string, text: string): { source: ParsedSource; procedure: Procedure | null; schemaIssues: ReturnType<typeof validateFrontMatter>; facts: ProcedureFacts | null } {
+  const source = readSource(file, text);
+  const readable = source.doc !== null && source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
+  const schemaIssues = readable ? validateFrontMatter(source.data) : [];
+  const procedure = readable ? buildProcedure(file, source.data, source.body, source.bodyText) : null;
+  const facts = procedure ? collectFacts(procedure) : null;
+  return { source, procedure, schemaIssues, facts };
+}
+
+export function checkSources(inputs: SourceInput[], options: CheckOptions): CheckResult {
+  const rules = options.rules ?? allRules;
+  const files: CheckedFile[] = [];
+  const contexts: FileContext[] = [];
+  const sink = new Map<FileContext, Diagnostic[]>();
+
+  const emit = (context: FileContext, meta: RuleMeta, report: Report) => {
+    const chosen = options.severity?.(meta.id, context.file);
+    if (chosen === 'off') return;
+    const severity = chosen ?? report.severity ?? meta.defaultSeverity;
+    sink.get(context)!.push(toDiagnostic(meta, severity, context.source, report));
+  };
+
+  for (const input of inputs) {
+    if ('error' in input) {
+      files.push({
+        file: input.file, source: null, procedure: null, facts: null,
+        diagnostics: [{
+          file: input.file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'error', rule: 'unreadable-file',
+          message: `The file could not be read: ${input.error}`, hint: 'Check that the file exists, is readable and is UTF-8 text.',
+        }],
+      });
+      continue;
+    }
+    const { source, procedure, schemaIssues, facts } = readProcedure(input.file, input.text);
+    let current: RuleMeta = rules[0]?.meta;
+    const context: FileContext = {
+      file: input.file, source, procedure, schemaIssues, facts, today: options.today,
+      report: (report) => emit(context, current, report),
+    };
+    sink.set(context, []);
+    contexts.push(context);
+    for (const rule of rules) {
+      if (rule.scope !== 'file') continue;
+      current = rule.meta;
+      runGuarded(rule, () => rule.check(context), context, emit);
+    }
+  }
+
+  for (const rule of rules) {
+    if (rule.scope !== 'manual') continue;
+    runGuarded(rule, () => rule.check({ files: contexts, today: options.today, report: (ctx, report) => emit(ctx, rule.meta, report) }), contexts[0], emit);
+  }
+
+  for (const context of contexts) {
+    files.push({
+      file: context.file, source: context.source, procedure: context.procedure, facts: context.facts,
+      diagnostics: sink.get(context)!.sort(compareDiagnostics),
+    });
+  }
+  files.sort((a, b) => a.file.localeCompare(b.file));
+  return { files, diagnostics: files.flatMap((f) => f.diagnostics).sort(compareDiagnostics) };
+}
+
+/** A rule that fails on odd input must not take the whole check down; it becomes one internal diagnostic. */
+function runGuarded(rule: Rule, run: () => void, context: FileContext | undefined, emit: (c: FileContext, m: RuleMeta, r: Report) => void): void {
+  try {
+    run();
+  } catch (error) {
+    if (!context) return;
+    emit(context, rule.meta, {
+      severity: 'error',
+      message: `Rule '${rule.meta.id}' could not finish on this file (${(error as Error)?.message ?? String(error)}).`,
+      hint: 'This is a fault in Stepwright, not in the procedure; other rules still ran. Please report it with the file.',
+    });
+  }
+}

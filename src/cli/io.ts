@@ -1,0 +1,31 @@
+// What a command may touch of the outside world; tests pass their own.
+export interface OutputStream {
+  write(text: string): unknown;
+  isTTY?: boolean;
+}
+
+export interface CliIo {
+  stdout: OutputStream;
+  stderr: OutputStream;
+  cwd: string;
+  env: Record<string, string | undefined>;
+  /** The clock; tests fix it. */
+  now?: () => Date;
+}
+
+export function todayOf(io: CliIo): string {
+  const fixed = io.env.STEPWRIGHT_TODAY;
+  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) return fixed;
+  return (io.now?.() ?? new Date()).toISOString().slice(0, 10);
+}
+
+export function useColour(io: CliIo, stream: OutputStream): boolean {
+  if (io.env.NO_COLOR !== undefined && io.env.NO_COLOR !== '') return false;
+  if (io.env.FORCE_COLOR && io.env.FORCE_COLOR !== '0') return true;
+  return stream.isTTY === true;
+}
+
+/** Thrown for bad command lines; main turns it into a message and exit code 2. */
+export class UsageError extends Error {
+  override name = 'UsageError';
+}

@@ -1,0 +1,49 @@
+// argv → command → exit code. Commands never throw to the user: failures become a message and exit 2.
+import { runCheck } from './check-command.ts';
+import { UsageError, type CliIo } from './io.ts';
+
+type Command = { summary: string; run: (argv: string[], io: CliIo) => Promise<number> };
+
+export const commands: Record<string, Command> = {
+  check: { summary: 'check procedure files and report problems', run: runCheck },
+};
+
+function mainHelp(): string {
+  const width = Math.max(...Object.keys(commands).map((c) => c.length));
+  return `Usage: stepwright <command> [options]
+
+Stepwright writes, checks and publishes operating procedures for process plants.
+
+Commands:
+${Object.entries(commands).map(([name, c]) => `  ${name.padEnd(width)}  ${c.summary}`).join('\n')}
+
+Run 'stepwright <command> --help' for a command's options.
+`;
+}
+
+export async function main(argv: string[], io: CliIo): Promise<number> {
+  const [name, ...rest] = argv;
+  if (!name || name === '--help' || name === '-h' || name === 'help') {
+    io.stdout.write(mainHelp());
+    return name ? 0 : 2;
+  }
+  if (name === '--version') {
+    io.stdout.write('stepwright 0.1.0\n');
+    return 0;
+  }
+  const command = commands[name];
+  if (!command) {
+    io.stderr.write(`stepwright: unknown command '${name}'.\n\n${mainHelp()}`);
+    return 2;
+  }
+  try {
+    return await command.run(rest, io);
+  } catch (error) {
+    if (error instanceof UsageError || (error as { code?: string }).code?.startsWith?.('ERR_PARSE_ARGS')) {
+      io.stderr.write(`stepwright ${name}: ${(error as Error).message}\nRun 'stepwright ${name} --help' for usage.\n`);
+      return 2;
+    }
+    io.stderr.write(`stepwright ${name}: internal failure: ${(error as Error)?.message ?? String(error)}\nThis is a fault in Stepwright; please report it with the input that caused it.\n`);
+    return 2;
+  }
+}

@@ -1,0 +1,175 @@
+// Builds the typed Procedure from front-matter data, tolerating whatever the author wrote so checks still run.
+import type { Root } from 'mdast';
+import type { PathKey } from '../parse/read-source.ts';
+import type {
+  Approval, ChooseBlock, ChooseBranch, Hazard, Interlock, Limit, Located, ParallelBlock, Procedure, SequenceItem, Signal, Step,
+} from './procedure.ts';
+
+type Data = Record<string, unknown>;
+
+const stepKeys = new Set(['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note']);
+const branchKeys = new Set(['when', 'otherwise', 'steps', 'goto']);
+
+export function buildProcedure(file: string, data: unknown, body: Root, bodyText: string): Procedure {
+  const d = asRecord(data);
+  return {
+    file,
+    id: asText(d.id) ?? '',
+    title: asText(d.title) ?? '',
+    kind: asText(d.kind) ?? '',
+    revision: typeof d.revision === 'number' ? d.revision : Number.NaN,
+    status: asText(d.status) ?? '',
+    effective: asText(d.effective),
+    reviewBy: asText(d['review-by']),
+    owner: asText(d.owner),
+    author: asText(d.author),
+    change: asText(d.change),
+    approvals: asArray(d.approvals).map((a, i) => buildApproval(a, ['approvals', i])),
+    equipment: asArray(d.equipment).map((e) => String(e)),
+    ppe: asArray(d.ppe).map((e) => String(e)),
+    signals: buildSignals(d.signals),
+    limits: Object.entries(asRecord(d.limits)).map(([signal, v]) => buildLimit(signal, v, ['limits', signal])),
+    interlocks: asArray(d.interlocks).map((v, i) => buildInterlock(v, ['interlocks', i])),
+    hazards: asArray(d.hazards).map((v, i) => buildHazard(v, ['hazards', i])),
+    steps: buildSequence(d.steps, ['steps']),
+    body,
+    bodyText,
+    data: d,
+  };
+}
+
+function buildApproval(value: unknown, path: PathKey[]): Approval {
+  const a = asRecord(value);
+  return { role: asText(a.role) ?? '', name: asText(a.name) ?? '', date: asText(a.date) ?? '', meaning: asText(a.meaning) ?? '', path };
+}
+
+function buildSignals(value: unknown): Record<string, Signal> {
+  const out: Record<string, Signal> = {};
+  for (const [name, v] of Object.entries(asRecord(value))) {
+    const s = asRecord(v);
+    const range = Array.isArray(s.range) && s.range.length === 2 && s.range.every((n) => typeof n === 'number')
+      ? (s.range as [number, number]) : undefined;
+    const values = Array.isArray(s.values) ? (s.values.filter((x) => ['string', 'number', 'boolean'].includes(typeof x)) as Signal['values']) : undefined;
+    out[name] = { name, text: asText(s.text) ?? name, unit: asText(s.unit), range, values, path: ['signals', name] };
+  }
+  return out;
+}
+
+function buildLimit(signal: string, value: unknown, path: PathKey[]): Limit {
+  const l = asRecord(value);
+  return {
+    signal,
+    low: located(l.low, [...path, 'low']),
+    high: located(l.high, [...path, 'high']),
+    consequence: asText(l.consequence),
+    correction: asText(l.correction),
+    path,
+  };
+}
+
+function buildInterlock(value: unknown, path: PathKey[]): Interlock {
+  const l = asRecord(value);
+  return {
+    tag: asText(l.tag) ?? '',
+    tripsWhen: located(l['trips-when'], [...path, 'trips-when']) ?? { value: '', path: [...path, 'trips-when'] },
+    action: asText(l.action) ?? '',
+    path,
+  };
+}
+
+function buildHazard(value: unknown, path: PathKey[]): Hazard {
+  const h = asRecord(value);
+  const at = Array.isArray(h.at) ? h.at : h.at === undefined ? [] : [h.at];
+  return {
+    level: (asText(h.level) ?? 'notice') as Hazard['level'],
+    hazard: asText(h.hazard) ?? '',
+    consequence: asText(h.consequence),
+    avoid: asText(h.avoid),
+    at: at.map((s, i) => ({ value: String(s), path: Array.isArray(h.at) ? [...path, 'at', i] : [...path, 'at'] })),
+    path,
+  };
+}
+
+export function buildSequence(value: unknown, path: PathKey[]): SequenceItem[] {
+  return asArray(value).flatMap((item, i): SequenceItem[] => {
+    const itemPath = [...path, i];
+    const r = asRecord(item);
+    if ('parallel' in r) return [buildParallel(r, itemPath)];
+    if ('choose' in r) return [buildChoose(r, itemPath)];
+    if ('step' in r || 'do' in r) return [buildStep(r, itemPath)];
+    return [];
+  });
+}
+
+function buildStep(r: Data, path: PathKey[]): Step {
+  const actions = Array.isArray(r.do) ? r.do.map((a) => String(a)) : r.do === undefined ? [] : [String(r.do)];
+  const extra: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(r)) if (!stepKeys.has(k)) extra[k] = v;
+  return {
+    kind: 'step',
+    id: asText(r.step) ?? '',
+    actions,
+    phase: asText(r.phase),
+    set: Object.entries(asRecord(r.set)).map(([signal, q]) => ({ signal, quantity: String(q), path: [...path, 'set', signal] })),
+    params: Object.entries(asRecord(r.params)).map(([name, v]) => ({
+      name, value: typeof v === 'number' || typeof v === 'boolean' ? v : String(v), path: [...path, 'params', name],
+    })),
+    until: located(r.until, [...path, 'until']),
+    confirm: located(r.confirm, [...path, 'confirm']),
+    expect: located(r.expect, [...path, 'expect']),
+    signOff: asText(r['sign-off']),
+    note: asText(r.note),
+    path,
+    extra,
+  };
+}
+
+function buildParallel(r: Data, path: PathKey[]): ParallelBlock {
+  return {
+    kind: 'parallel',
+    branches: Object.entries(asRecord(r.parallel)).map(([name, seq]) => ({
+      name, items: buildSequence(seq, [...path, 'parallel', name]), path: [...path, 'parallel', name],
+    })),
+    path,
+  };
+}
+
+function buildChoose(r: Data, path: PathKey[]): ChooseBlock {
+  return {
+    kind: 'choose',
+    branches: asArray(r.choose).map((b, i): ChooseBranch => {
+      const bp = [...path, 'choose', i];
+      const br = asRecord(b);
+      const extra: Record<string, unknown> = {};
+      for (const [k, v] of Object.entries(br)) if (!branchKeys.has(k)) extra[k] = v;
+      return {
+        when: located(br.when, [...bp, 'when']),
+        otherwise: br.otherwise === true,
+        items: 'steps' in br ? buildSequence(br.steps, [...bp, 'steps']) : undefined,
+        goto: located(br.goto, [...bp, 'goto']),
+        path: bp,
+        extra,
+      };
+    }),
+    path,
+  };
+}
+
+function located(value: unknown, path: PathKey[]): Located<string> | undefined {
+  if (value === undefined || value === null) return undefined;
+  if (typeof value === 'object') return undefined;
+  return { value: String(value), path };
+}
+
+function asRecord(value: unknown): Data {
+  return value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as Data) : {};
+}
+
+function asArray(value: unknown): unknown[] {
+  return Array.isArray(value) ? value : [];
+}
+
+function asText(value: unknown): string | undefined {
+  if (value === undefined || value === null || typeof value === 'object') return undefined;
+  return String(value);
+}

@@ -1,0 +1,135 @@
+// The typed procedure every later stage works on: identity, safety content and the step sequence.
+import type { PathKey } from '../parse/read-source.ts';
+import type { Root } from 'mdast';
+import type { hazardLevels, kinds, statuses } from './schema.ts';
+
+export type Kind = (typeof kinds)[number];
+export type Status = (typeof statuses)[number];
+export type HazardLevel = (typeof hazardLevels)[number];
+
+/** A value from the front-matter with the YAML path where it was written. */
+export interface Located<T> {
+  value: T;
+  path: PathKey[];
+}
+
+export interface Approval {
+  role: string;
+  name: string;
+  date: string;
+  meaning: string;
+  path: PathKey[];
+}
+
+export interface Signal {
+  name: string;
+  text: string;
+  unit?: string;
+  range?: [number, number];
+  values?: Array<string | number | boolean>;
+  path: PathKey[];
+}
+
+export interface Limit {
+  signal: string;
+  low?: Located<string>;
+  high?: Located<string>;
+  consequence?: string;
+  correction?: string;
+  path: PathKey[];
+}
+
+export interface Interlock {
+  tag: string;
+  tripsWhen: Located<string>;
+  action: string;
+  path: PathKey[];
+}
+
+export interface Hazard {
+  level: HazardLevel;
+  hazard: string;
+  consequence?: string;
+  avoid?: string;
+  at: Located<string>[];
+  path: PathKey[];
+}
+
+export interface Setpoint {
+  signal: string;
+  quantity: string;
+  path: PathKey[];
+}
+
+export interface Step {
+  kind: 'step';
+  id: string;
+  actions: string[];
+  phase?: string;
+  set: Setpoint[];
+  params: Array<{ name: string; value: string | number | boolean; path: PathKey[] }>;
+  until?: Located<string>;
+  confirm?: Located<string>;
+  expect?: Located<string>;
+  signOff?: string;
+  note?: string;
+  path: PathKey[];
+  /** Extra keys added beyond the core contract, kept as written for later stages. */
+  extra: Record<string, unknown>;
+}
+
+export interface ParallelBranch {
+  name: string;
+  items: SequenceItem[];
+  path: PathKey[];
+}
+
+export interface ParallelBlock {
+  kind: 'parallel';
+  branches: ParallelBranch[];
+  path: PathKey[];
+}
+
+export interface ChooseBranch {
+  when?: Located<string>;
+  otherwise: boolean;
+  items?: SequenceItem[];
+  goto?: Located<string>;
+  path: PathKey[];
+  /** Extra keys added beyond the core contract (e.g. loop counts). */
+  extra: Record<string, unknown>;
+}
+
+export interface ChooseBlock {
+  kind: 'choose';
+  branches: ChooseBranch[];
+  path: PathKey[];
+}
+
+export type SequenceItem = Step | ParallelBlock | ChooseBlock;
+
+export interface Procedure {
+  file: string;
+  id: string;
+  title: string;
+  kind: Kind | string;
+  revision: number;
+  status: Status | string;
+  effective?: string;
+  reviewBy?: string;
+  owner?: string;
+  author?: string;
+  change?: string;
+  approvals: Approval[];
+  equipment: string[];
+  ppe: string[];
+  signals: Record<string, Signal>;
+  limits: Limit[];
+  interlocks: Interlock[];
+  hazards: Hazard[];
+  steps: SequenceItem[];
+  body: Root;
+  bodyText: string;
+  /** The front-matter as plain data, for diffs and exports. */
+  data: Record<string, unknown>;
+}

@@ -1,0 +1,134 @@
+// The one schema of a procedure's front-matter: the CLI, the site and the editor's JSON Schema all use it.
+import { z } from 'zod';
+
+export const procedureIdPattern = /^[A-Z0-9][A-Z0-9-]*$/;
+export const stepIdPattern = /^[a-z0-9][a-z0-9-]*$/;
+const isoDate = /^\d{4}-\d{2}-\d{2}$/;
+
+export const kinds = [
+  'normal', 'batch', 'startup', 'startup-after-turnaround', 'shutdown', 'emergency-shutdown', 'emergency', 'temporary',
+] as const;
+export const statuses = ['draft', 'in-review', 'approved', 'effective', 'superseded', 'retired'] as const;
+export const hazardLevels = ['danger', 'warning', 'caution', 'notice'] as const;
+
+const text = z.string().trim().min(1, 'must not be empty');
+const date = z
+  .string()
+  .regex(isoDate, 'must be a date written YYYY-MM-DD')
+  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), 'is not a calendar date');
+/** A quantity written as text, e.g. "238 degC"; its unit is checked by the rules, not here. */
+const quantityText = z.union([z.string(), z.number()]);
+
+export const approvalSchema = z.strictObject({
+  role: text.describe('The signer\'s role, e.g. "Process engineer", "Shift supervisor".'),
+  name: text.describe('Printed name of the signer.'),
+  date: date.describe('Date of the signature, YYYY-MM-DD.'),
+  meaning: text.describe('What the signature attests, e.g. "Approved for use".'),
+});
+
+export const signalSchema = z.strictObject({
+  text: text.describe('What the signal is, in plant words.'),
+  unit: z.string().optional().describe('Unit of measurement (for numeric signals).'),
+  range: z.tuple([z.number(), z.number()]).optional().describe('Declared range [low, high] in the signal\'s unit.'),
+  values: z.array(z.union([z.string(), z.boolean(), z.number()])).min(1).optional().describe('Allowed values of an enumerated or boolean signal.'),
+});
+
+export const limitSchema = z.strictObject({
+  low: quantityText.optional().describe('Low operating limit, a quantity such as "15 degC".'),
+  high: quantityText.optional().describe('High operating limit, a quantity such as "245 degC".'),
+  consequence: z.string().optional().describe('Consequence of deviating from the limit.'),
+  correction: z.string().optional().describe('Steps required to correct or avoid the deviation.'),
+});
+
+export const interlockSchema = z.strictObject({
+  tag: text.describe('Tag of the safety system, e.g. TSHH-210.'),
+  'trips-when': text.describe('The trip condition, e.g. "TI-210 >= 255 degC".'),
+  action: text.describe('What the interlock does when it trips.'),
+});
+
+export const hazardSchema = z.strictObject({
+  level: z.enum(hazardLevels).describe('Signal word: danger, warning, caution or notice.'),
+  hazard: text.describe('The hazard.'),
+  consequence: z.string().optional().describe('The consequence of not avoiding the hazard.'),
+  avoid: z.string().optional().describe('How to avoid the hazard.'),
+  at: z.array(z.string()).optional().describe('Step ids the message is repeated before.'),
+});
+
+const doSchema = z.union([text, z.array(text).min(1)]);
+
+export const stepSchema = z.strictObject({
+  step: z.string().regex(stepIdPattern, 'must be lower-case letters, digits and hyphens, starting with a letter or digit')
+    .describe('Step id, unique in the file, stable across revisions.'),
+  do: doSchema.describe('The action: a sentence that starts with a verb, or a list of actions done together.'),
+  phase: z.string().optional().describe('Equipment phase the step runs (ISA-88 sense), e.g. charge, heat.'),
+  set: z.record(z.string(), quantityText).optional().describe('Setpoints {signal: quantity}.'),
+  params: z.record(z.string(), z.union([z.string(), z.number(), z.boolean()])).optional().describe('Other phase parameters.'),
+  until: z.string().optional().describe('The transition condition that ends the step.'),
+  confirm: z.string().optional().describe('An operator check that ends the step when confirmed.'),
+  expect: z.union([z.string(), z.number()]).optional().describe('Typical duration, e.g. "40 min" or "30..50 min".'),
+  'sign-off': z.string().optional().describe('Role whose signature is needed before going on (a hold point).'),
+  note: z.string().optional().describe('Extra information for the operator; never an action.'),
+});
+
+export type StepInput = z.infer<typeof stepSchema>;
+
+export interface ParallelInput {
+  parallel: Record<string, SequenceItemInput[]>;
+}
+export interface BranchInput {
+  when?: string;
+  otherwise?: boolean;
+  steps?: SequenceItemInput[];
+  goto?: string;
+}
+export interface ChooseInput {
+  choose: BranchInput[];
+}
+export type SequenceItemInput = StepInput | ParallelInput | ChooseInput;
+
+export const sequenceSchema: z.ZodType<SequenceItemInput[]> = z.lazy(() => z.array(sequenceItemSchema));
+
+export const parallelSchema: z.ZodType<ParallelInput> = z.strictObject({
+  parallel: z.record(z.string().regex(stepIdPattern, 'branch names must be lower-case letters, digits and hyphens'), sequenceSchema)
+    .describe('Branches that run at once; the block ends when every branch has ended.'),
+});
+
+export const branchSchema: z.ZodType<BranchInput> = z.strictObject({
+  when: z.string().optional().describe('The condition that selects this branch.'),
+  otherwise: z.literal(true).optional().describe('Taken when no other branch is true.'),
+  steps: sequenceSchema.optional().describe('Steps of the branch; they rejoin after the block.'),
+  goto: z.string().optional().describe('Step id to jump to after the branch (a loop).'),
+});
+
+export const chooseSchema: z.ZodType<ChooseInput> = z.strictObject({
+  choose: z.array(branchSchema).min(1).describe('Alternative branches; exactly one is taken.'),
+});
+
+/** Picks the item schema by the key the author used, so errors speak about the intended kind of item. */
+export const sequenceItemSchema: z.ZodType<SequenceItemInput> = z.lazy(() =>
+  z.union([stepSchema, parallelSchema, chooseSchema]),
+);
+
+export const procedureSchema = z.strictObject({
+  id: z.string().regex(procedureIdPattern, 'must be upper-case letters, digits and hyphens, e.g. U2-K210-BATCH-001')
+    .describe('Document number, unique in the manual, used in URLs.'),
+  title: text.describe('What the procedure does, on which equipment.'),
+  kind: z.enum(kinds).describe('The operating phase the procedure covers.'),
+  revision: z.number().int().min(0).describe('Bumped on every change of content.'),
+  status: z.enum(statuses).describe('Life-cycle state.'),
+  effective: date.optional().describe('When this revision took effect (required from approved on).'),
+  'review-by': date.optional().describe('Next periodic review.'),
+  owner: z.string().optional().describe('The responsible group.'),
+  author: z.string().optional().describe('Who wrote this revision.'),
+  change: z.string().optional().describe('Why this revision exists, with any change-control reference.'),
+  approvals: z.array(approvalSchema).optional().describe('Sign-offs with printed name, date and meaning.'),
+  equipment: z.array(z.string()).optional().describe('Equipment tags the procedure operates.'),
+  ppe: z.array(z.string()).optional().describe('Protective equipment required.'),
+  signals: z.record(z.string(), signalSchema).optional().describe('Everything a condition may name.'),
+  limits: z.record(z.string(), limitSchema).optional().describe('Operating limits per signal.'),
+  interlocks: z.array(interlockSchema).optional().describe('Safety systems and their functions.'),
+  hazards: z.array(hazardSchema).optional().describe('Safety messages, pulled to the top and repeated before steps.'),
+  steps: sequenceSchema.describe('The sequence: steps and blocks, run in order.'),
+});
+
+export type ProcedureInput = z.infer<typeof procedureSchema>;

@@ -1,0 +1,220 @@
+// Reads a procedure file into YAML nodes that keep their positions and an mdast tree of the body.
+import { LineCounter, parseDocument, isMap, isSeq, isScalar, isPair, isNode, type Document, type Node, type Pair } from 'yaml';
+import { unified } from 'unified';
+import remarkParse from 'remark-parse';
+import type { Root } from 'mdast';
+import type { Diagnostic, SourceRange } from './diagnostic.ts';
+import { splitFrontMatter } from './split-front-matter.ts';
+
+export type PathKey = string | number;
+
+export interface ParsedSource {
+  file: string;
+  text: string;
+  /** The YAML document, or null when the file has no front-matter. */
+  doc: Document.Parsed | null;
+  /** Plain data of the front-matter (null when it could not be read). */
+  data: unknown;
+  body: Root;
+  bodyText: string;
+  /** 1-based line where the markdown body starts. */
+  bodyStartLine: number;
+  /** Problems found while reading: YAML syntax, missing front-matter, too deep or too many aliases. */
+  diagnostics: Diagnostic[];
+  /** Where the value (or, with part 'key', the key) at a path of the front-matter is written. */
+  rangeOf(path: readonly PathKey[], part?: 'key' | 'value'): SourceRange;
+  /** Where characters [from, to) of the scalar string at a path are written. */
+  rangeInScalar(path: readonly PathKey[], from: number, to: number): SourceRange;
+}
+
+const limits = { maxAliasCount: 100, maxDepth: 200 };
+
+export function readSource(file: string, text: string): ParsedSource {
+  const split = splitFrontMatter(text);
+  const fileLines = createOffsetToPosition(text);
+  const diagnostics: Diagnostic[] = [];
+  const bodyStartLine = fileLines(split.bodyOffset).line;
+  const body = parseBody(split.body, bodyStartLine);
+  let doc: Document.Parsed | null = null;
+  let data: unknown = null;
+
+  const at = (offset: number, endOffset = offset): SourceRange => {
+    const s = fileLines(offset);
+    const e = fileLines(Math.max(offset, endOffset));
+    return { line: s.line, column: s.column, endLine: e.line, endColumn: e.column };
+  };
+
+  if (split.yaml === null) {
+    diagnostics.push({
+      file, ...at(0), severity: 'error', rule: 'missing-front-matter',
+      message: 'The file has no YAML front-matter, so it holds no procedure.',
+      hint: 'Start the file with a line "---", the procedure keys (id, title, kind, steps, ...), and a closing "---".',
+    });
+  } else {
+    if (split.unclosed) {
+      diagnostics.push({
+        file, ...at(0, 3), severity: 'error', rule: 'yaml-syntax',
+        message: 'The front-matter opened with "---" is never closed.',
+        hint: 'Add a line "---" after the last front-matter key, before the narrative text.',
+      });
+    }
+    const lineCounter = new LineCounter();
+    doc = parseDocument(split.yaml, { lineCounter, prettyErrors: false, uniqueKeys: true, strict: true });
+    const yamlLineOffset = fileLines(split.yamlOffset).line - 1;
+    for (const error of doc.errors) {
+      const pos = lineCounter.linePos(error.pos[0]);
+      const end = lineCounter.linePos(error.pos[1]);
+      diagnostics.push({
+        file, line: pos.line + yamlLineOffset, column: pos.col, endLine: end.line + yamlLineOffset, endColumn: end.col,
+        severity: 'error', rule: 'yaml-syntax',
+        message: `The front-matter is not valid YAML: ${firstLine(error.message)}`,
+        hint: yamlHint(error.code),
+      });
+    }
+    if (doc.errors.length === 0) {
+      const depth = maxDepth(doc.contents, limits.maxDepth);
+      if (depth > limits.maxDepth) {
+        diagnostics.push({
+          file, ...at(split.yamlOffset), severity: 'error', rule: 'yaml-syntax',
+          message: `The front-matter nests deeper than ${limits.maxDepth} levels; it was not read.`,
+          hint: 'A procedure needs only a few levels of nesting. Flatten the blocks or split the procedure.',
+        });
+      } else {
+        try {
+          data = doc.toJS({ maxAliasCount: limits.maxAliasCount });
+        } catch (error) {
+          diagnostics.push({
+            file, ...at(split.yamlOffset), severity: 'error', rule: 'yaml-syntax',
+            message: `The front-matter could not be expanded: ${firstLine((error as Error).message)}`,
+            hint: 'Avoid YAML aliases (*name) that expand to many copies; write the values out.',
+          });
+        }
+      }
+    }
+    // Positions from the YAML document are offsets into the YAML text; shift them into the file.
+    const base = split.yamlOffset;
+    const docRef = doc;
+    const nodeRange = (node: Node | Pair | null | undefined): [number, number] | null => {
+      if (!node) return null;
+      if (isPair(node)) {
+        const k = nodeRange(node.key as Node);
+        const v = nodeRange(node.value as Node);
+        if (k && v) return [k[0], v[1]];
+        return k ?? v;
+      }
+      const range = (node as Node).range;
+      return range ? [range[0], range[1]] : null;
+    };
+    const locate = (path: readonly PathKey[], part: 'key' | 'value'): { node: Node | null; key: Node | null } => {
+      let current: unknown = docRef.contents;
+      let lastKey: Node | null = null;
+      for (const segment of path) {
+        if (isMap(current)) {
+          const pair = current.items.find((p) => (isScalar(p.key) ? String(p.key.value) : String(p.key)) === String(segment));
+          if (!pair) break;
+          lastKey = isNode(pair.key) ? pair.key : null;
+          current = pair.value;
+          if (current === null) { current = pair.key; break; }
+        } else if (isSeq(current)) {
+          const item = current.items[Number(segment)];
+          if (item === undefined) break;
+          lastKey = null;
+          current = item;
+        } else break;
+      }
+      return { node: isNode(current) ? current : null, key: part === 'key' ? lastKey : null };
+    };
+    const rangeOf = (path: readonly PathKey[], part: 'key' | 'value' = 'value'): SourceRange => {
+      const { node, key } = locate(path, part);
+      const r = nodeRange(part === 'key' && key ? key : node);
+      if (!r) return at(base);
+      return at(base + r[0], base + trimTrailingSpace(split.yaml!, r[0], r[1]));
+    };
+    const rangeInScalar = (path: readonly PathKey[], from: number, to: number): SourceRange => {
+      const { node } = locate(path, 'value');
+      if (!node || !isScalar(node) || !node.range) return rangeOf(path);
+      const quoted = node.type === 'QUOTE_DOUBLE' || node.type === 'QUOTE_SINGLE';
+      const isBlock = node.type === 'BLOCK_LITERAL' || node.type === 'BLOCK_FOLDED';
+      if (isBlock) return rangeOf(path);
+      const start = base + node.range[0] + (quoted ? 1 : 0);
+      return at(start + from, start + to);
+    };
+    return { file, text, doc, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar };
+  }
+  const rangeOf = (): SourceRange => at(0);
+  return { file, text, doc, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar: rangeOf };
+}
+
+function parseBody(markdown: string, startLine: number): Root {
+  const tree = unified().use(remarkParse).parse(markdown) as Root;
+  // Shift body positions so they point into the whole file.
+  const shift = startLine - 1;
+  if (shift > 0) {
+    const visit = (node: { position?: { start: { line: number }; end: { line: number } }; children?: unknown[] }) => {
+      if (node.position) {
+        node.position.start.line += shift;
+        node.position.end.line += shift;
+      }
+      for (const child of node.children ?? []) visit(child as typeof node);
+    };
+    visit(tree as unknown as Parameters<typeof visit>[0]);
+  }
+  return tree;
+}
+
+function createOffsetToPosition(text: string) {
+  const starts = [0];
+  for (let i = 0; i < text.length; i++) if (text.charCodeAt(i) === 10) starts.push(i + 1);
+  return (offset: number) => {
+    const o = Math.max(0, Math.min(offset, text.length));
+    let lo = 0;
+    let hi = starts.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (starts[mid] <= o) lo = mid;
+      else hi = mid - 1;
+    }
+    return { line: lo + 1, column: o - starts[lo] + 1 };
+  };
+}
+
+function trimTrailingSpace(text: string, start: number, end: number): number {
+  let e = end;
+  while (e > start && /\s/.test(text[e - 1] ?? '')) e--;
+  return e;
+}
+
+function maxDepth(node: unknown, limit: number): number {
+  // Iterative so that absurdly deep input cannot overflow the stack.
+  let deepest = 0;
+  const stack: Array<[unknown, number]> = [[node, 1]];
+  while (stack.length > 0) {
+    const [current, depth] = stack.pop()!;
+    if (depth > deepest) deepest = depth;
+    if (deepest > limit) return deepest;
+    if (isMap(current)) for (const pair of current.items) stack.push([pair.value, depth + 1]);
+    else if (isSeq(current)) for (const item of current.items) stack.push([item, depth + 1]);
+  }
+  return deepest;
+}
+
+function firstLine(message: string): string {
+  return message.split('\n')[0].trim();
+}
+
+function yamlHint(code: string): string {
+  switch (code) {
+    case 'DUPLICATE_KEY':
+      return 'Each key may appear once in a mapping; remove or rename the repeated key.';
+    case 'BAD_INDENT':
+    case 'MISSING_CHAR':
+      return 'Check the indentation: items of one list or mapping start in the same column.';
+    case 'BLOCK_AS_IMPLICIT_KEY':
+    case 'MULTILINE_IMPLICIT_KEY':
+      return 'A key must fit on one line and end with ": ". Quote text that contains ": ".';
+    case 'TAB_AS_INDENT':
+      return 'Indent with spaces, not tabs.';
+    default:
+      return 'Quote text that contains ":", "#", "[" or "{", and keep the indentation consistent.';
+  }
+}
