@@ -1,0 +1,229 @@
+// Quantities with units: parsing, dimensions and exact conversions, on a private mathjs instance.
+import { all, create, type Unit } from 'mathjs';
+import { closest, distance } from 'fastest-levenshtein';
+
+/** A problem with a unit or quantity, as plain data for diagnostics. */
+export interface UnitError {
+  ok: false;
+  message: string;
+  hint: string;
+}
+
+export type ParsedQuantity = { ok: true; value: number; unit: string } | UnitError;
+/** A duration in seconds; a single value has `min === max`. */
+export type ParsedDuration = { ok: true; min: number; max: number } | UnitError;
+
+const math = create(all, {});
+
+// mathjs rounds mmHg to 133.322 Pa and makes torr an alias of it; NIST SP 811 keeps them apart, so redefine both.
+math.createUnit('mmHg', { definition: '133.322387415 Pa' }, { override: true });
+math.createUnit('Torr', { definition: `${101325 / 760} Pa`, aliases: ['torr'] }, { override: true });
+// mathjs derives psi from a rounded pound-force; use the exact definition (lb × standard gravity / in²).
+math.createUnit('psi', { definition: `${(0.45359237 * 9.80665) / 0.0254 ** 2} Pa` }, { override: true });
+// Ratios the plant writes as units; mathjs has none of them.
+math.createUnit('percent', { definition: '0.01' });
+math.createUnit('ppm', { definition: '1e-6' });
+
+/** Units people write in procedures; used for "did you mean" hints. */
+export const commonUnits = [
+  'degC', 'degF', 'K', 'Pa', 'kPa', 'MPa', 'bar', 'mbar', 'psi', 'mmHg', 'Torr', 'atm',
+  'kg', 'g', 'lb', 't', 'L', 'm3', 'gal', 's', 'min', 'h', '%', 'percent', 'ppm', 'mg/g',
+  'kg/h', 't/h', 'L/min', 'L/h', 'm3/h', 'gal/min', 'degC/min', 'degC/h', 'kW', 'rpm', 'm', 'mm', 'A', 'V',
+] as const;
+
+const dimensionNames: Record<string, string> = {
+  '': 'ratio',
+  'temperature': 'temperature',
+  'mass·length^-1·time^-2': 'pressure',
+  'mass': 'mass',
+  'length^3': 'volume',
+  'length': 'length',
+  'time': 'time',
+  'mass·time^-1': 'mass flow',
+  'length^3·time^-1': 'volume flow',
+  'temperature·time^-1': 'temperature rate',
+  'mass·length^2·time^-3': 'power',
+  'current': 'electric current',
+  'time·current': 'electric charge',
+};
+
+const baseNames = ['mass', 'length', 'time', 'current', 'temperature', 'luminous intensity', 'amount', 'angle', 'bit'];
+
+interface UnitFacts {
+  /** Stable key for the physical dimension, e.g. "pressure" or "mass·length^-2". */
+  dimension: string;
+  /** Factor to SI base for differences (no offset). */
+  scale: number;
+}
+
+/** What mathjs really keeps per unit part (its type file calls `prefix` a string). */
+interface MathjsUnitPart {
+  unit: { value: number; offset: number };
+  prefix: { value: number };
+  power: number;
+}
+
+const factsCache = new Map<string, UnitFacts | UnitError>();
+
+/** Spellings mathjs cannot read but plant people write. */
+function normalizeUnit(unit: string): string {
+  return unit.replaceAll('%', 'percent').replaceAll('°C', 'degC').replaceAll('°F', 'degF');
+}
+
+function unitError(message: string, hint: string): UnitError {
+  return { ok: false, message, hint };
+}
+
+function suggestUnit(unit: string): string {
+  const exact = commonUnits.find((u) => u.toLowerCase() === unit.toLowerCase());
+  if (exact) return `Did you mean ${exact}? Units are case-sensitive.`;
+  const near = closest(unit, commonUnits);
+  if (distance(unit, near) <= Math.max(1, Math.floor(unit.length / 3))) return `Did you mean ${near}?`;
+  return 'Write a unit such as degC, kPa, mmHg, kg, m3/h, min or %.';
+}
+
+function dimensionKey(u: Unit): string {
+  const parts: string[] = [];
+  u.dimensions.forEach((power, i) => {
+    if (power === 0) return;
+    parts.push(power === 1 ? baseNames[i] : `${baseNames[i]}^${power}`);
+  });
+  const key = parts.join('·');
+  return dimensionNames[key] ?? key;
+}
+
+function describe(unit: string): UnitFacts | UnitError {
+  const cached = factsCache.get(unit);
+  if (cached) return cached;
+  const facts = readUnit(unit);
+  factsCache.set(unit, facts);
+  return facts;
+}
+
+function readUnit(unit: string): UnitFacts | UnitError {
+  const trimmed = unit.trim();
+  if (trimmed === '') return unitError('The unit is missing.', 'Write a unit such as degC, kPa, kg or min.');
+  if (/\s/.test(trimmed)) return unitError(`The unit '${trimmed}' contains a space.`, 'Write the unit without spaces, e.g. m3/h.');
+  if (/^[\d.+-]/.test(trimmed)) return unitError(`'${trimmed}' is not a unit.`, 'Write a unit such as degC, kPa, kg or min.');
+  let parsed: Unit;
+  try {
+    parsed = math.unit(normalizeUnit(trimmed));
+  } catch {
+    return unitError(`'${trimmed}' is not a known unit.`, suggestUnit(trimmed));
+  }
+  if (parsed.value !== null) return unitError(`'${trimmed}' is not a unit.`, 'Write a unit such as degC, kPa, kg or min.');
+  let scale = 1;
+  for (const part of parsed.units as unknown as MathjsUnitPart[]) {
+    // mathjs accepts "kdegC"; a prefixed temperature scale is nonsense in a procedure.
+    if (part.unit.offset !== 0 && part.prefix.value !== 1) {
+      return unitError(`'${trimmed}' is not a known unit.`, suggestUnit(trimmed));
+    }
+    scale *= (part.unit.value * part.prefix.value) ** part.power;
+  }
+  return { dimension: dimensionKey(parsed), scale };
+}
+
+export function isKnownUnit(unit: string): boolean {
+  return !('ok' in describe(unit));
+}
+
+/** Why a unit is not usable, or null when it is. */
+export function checkUnit(unit: string): UnitError | null {
+  const facts = describe(unit);
+  return 'ok' in facts ? facts : null;
+}
+
+/** A stable key per physical dimension ("temperature", "pressure", "ratio", ...), or null for an unknown unit. */
+export function unitDimension(unit: string): string | null {
+  const facts = describe(unit);
+  return 'ok' in facts ? null : facts.dimension;
+}
+
+export function sameDimension(a: string, b: string): boolean {
+  const da = unitDimension(a);
+  return da !== null && da === unitDimension(b);
+}
+
+function sameKnownDimension(from: string, to: string): [UnitFacts, UnitFacts] | null {
+  const a = describe(from);
+  const b = describe(to);
+  if ('ok' in a || 'ok' in b || a.dimension !== b.dimension) return null;
+  return [a, b];
+}
+
+/** Converts an absolute value, with the offset for temperature scales (20 degC = 68 degF); null when impossible. */
+export function convert(value: number, from: string, to: string): number | null {
+  if (!sameKnownDimension(from, to)) return null;
+  return math.unit(value, normalizeUnit(from.trim())).toNumber(normalizeUnit(to.trim()));
+}
+
+/** Converts a difference, without offset (a 10 degC rise is an 18 degF rise); null when impossible. */
+export function convertDifference(value: number, from: string, to: string): number | null {
+  const pair = sameKnownDimension(from, to);
+  if (!pair) return null;
+  return (value * pair[0].scale) / pair[1].scale;
+}
+
+/** The value in SI base units (K, Pa, kg, m^3, s, plain ratio), so numbers in different units compare directly. */
+export function toBase(value: number, unit: string): number | null {
+  const facts = describe(unit);
+  if ('ok' in facts) return null;
+  return math.unit(value, normalizeUnit(unit.trim())).toSI().toNumber();
+}
+
+/** The inverse of toBase. */
+export function fromBase(value: number, unit: string): number | null {
+  const facts = describe(unit);
+  if ('ok' in facts) return null;
+  // Only offset units (degC, degF) have a base value at zero; every unit is linear apart from that.
+  const zero = toBase(0, unit) ?? 0;
+  return (value - zero) / facts.scale;
+}
+
+/** A number as people write it: no float noise such as 0.30000000000000004. */
+export function formatNumber(value: number): string {
+  if (Object.is(value, -0)) return '0';
+  return String(Number(value.toPrecision(12)));
+}
+
+/** "238 degC", "15 %"; the unit is shown as written. */
+export function formatQuantity(value: number, unit: string): string {
+  return `${formatNumber(value)} ${unit}`;
+}
+
+const numberPattern = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?/;
+
+/** Reads "238 degC", "-5 degC", "15 %", "2.5 m3/h". */
+export function parseQuantity(text: string): ParsedQuantity {
+  const trimmed = text.trim();
+  if (trimmed === '') return unitError('The quantity is empty.', 'Write a number with its unit, e.g. 238 degC.');
+  const match = numberPattern.exec(trimmed);
+  if (!match) return unitError(`'${trimmed}' does not start with a number.`, 'Write a number with its unit, e.g. 238 degC.');
+  const rest = trimmed.slice(match[0].length).trim();
+  if (/^,\d/.test(rest)) return unitError(`'${trimmed}' uses a comma in the number.`, 'Write decimals with a point, e.g. 2.5 m3/h.');
+  if (rest === '') return unitError(`'${trimmed}' has no unit.`, 'Write its unit after the number, as in 238 degC or 600 kg.');
+  const problem = checkUnit(rest);
+  if (problem) return problem;
+  return { ok: true, value: Number(match[0]), unit: rest };
+}
+
+/** Reads an `expect` duration: "40 min", "2 h", or a range "30..50 min" / "30 min..1 h"; gives seconds. */
+export function parseDuration(text: string): ParsedDuration {
+  const hint = 'Write a time such as 40 min, 2 h or a range 30..50 min.';
+  const parts = text.split('..');
+  if (parts.length > 2) return unitError(`'${text.trim()}' has more than one '..'.`, hint);
+  const seconds: number[] = [];
+  const last = parseQuantity(parts[parts.length - 1]);
+  if (!last.ok) return { ...last, hint };
+  for (const part of parts) {
+    // In "30..50 min" the first number borrows the unit of the second.
+    const q = /^\s*[+-]?[\d.]+(?:[eE][+-]?\d+)?\s*$/.test(part) && parts.length === 2 ? parseQuantity(`${part} ${last.unit}`) : parseQuantity(part);
+    if (!q.ok) return { ...q, hint };
+    if (unitDimension(q.unit) !== 'time') return unitError(`'${q.unit}' is not a unit of time.`, hint);
+    if (q.value < 0) return unitError(`A duration cannot be negative ('${part.trim()}').`, hint);
+    seconds.push(toBase(q.value, q.unit) ?? Number.NaN);
+  }
+  const [min, max = min] = seconds;
+  if (min > max) return unitError(`The range '${text.trim()}' runs backwards.`, 'Write the shorter time first, e.g. 30..50 min.');
+  return { ok: true, min, max };
+}
