@@ -34,6 +34,15 @@ export interface Report {
   trace?: string[];
 }
 
+/** The previous committed version of a file, for rules that judge a change (supplied by the caller). */
+export interface FileHistory {
+  /** The commit (or ref) the previous text was read from. */
+  commit: string;
+  text: string;
+  source: ParsedSource;
+  procedure: Procedure | null;
+}
+
 export interface FileContext {
   file: string;
   source: ParsedSource;
@@ -44,6 +53,8 @@ export interface FileContext {
   facts: ProcedureFacts | null;
   /** Today's date as YYYY-MM-DD (injected so tests control the clock). */
   today: string;
+  /** The previous committed version, when the caller knows it; history rules do nothing without it. */
+  history?: FileHistory;
   report(report: Report): void;
 }
 

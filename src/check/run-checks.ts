@@ -5,7 +5,7 @@ import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { validateFrontMatter } from '../model/validate.ts';
 import { collectFacts, type ProcedureFacts } from '../analysis/procedure-facts.ts';
-import { toDiagnostic, type FileContext, type Report, type Rule, type RuleMeta } from './define-rule.ts';
+import { toDiagnostic, type FileContext, type FileHistory, type Report, type Rule, type RuleMeta } from './define-rule.ts';
 import { allRules } from './rules/index.ts';
 
 export type SourceInput = { file: string; text: string } | { file: string; error: string };
@@ -18,6 +18,8 @@ export interface CheckOptions {
   today: string;
   rules?: Rule[];
   severity?: SeverityPolicy;
+  /** The previous committed version of a file (e.g. from git), for the history rules. */
+  previous?: (file: string) => { text: string; commit: string } | undefined;
 }
 
 export interface CheckedFile {
@@ -71,6 +73,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     let current: RuleMeta = rules[0]?.meta;
     const context: FileContext = {
       file: input.file, source, procedure, schemaIssues, facts, today: options.today,
+      history: readPrevious(input.file, options),
       report: (report) => emit(context, current, report),
     };
     sink.set(context, []);
@@ -95,6 +98,13 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   }
   files.sort((a, b) => a.file.localeCompare(b.file));
   return { files, diagnostics: files.flatMap((f) => f.diagnostics).sort(compareDiagnostics) };
+}
+
+function readPrevious(file: string, options: CheckOptions): FileHistory | undefined {
+  const previous = options.previous?.(file);
+  if (!previous) return undefined;
+  const { source, procedure } = readProcedure(file, previous.text);
+  return { commit: previous.commit, text: previous.text, source, procedure };
 }
 
 /** A rule that fails on odd input must not take the whole check down; it becomes one internal diagnostic. */
