@@ -79,8 +79,8 @@ function chooseAlternative(errors: RawIssue[][], input: unknown): number {
 
 const keysByContext: Record<string, string[]> = {
   procedure: ['id', 'title', 'kind', 'revision', 'status', 'effective', 'review-by', 'owner', 'author', 'change', 'approvals', 'equipment', 'ppe', 'signals', 'limits', 'interlocks', 'hazards', 'steps'],
-  step: ['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note'],
-  branch: ['when', 'otherwise', 'steps', 'goto'],
+  step: ['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note', 'call'],
+  branch: ['when', 'otherwise', 'steps', 'goto', 'repeat'],
   approval: ['role', 'name', 'date', 'meaning'],
   signal: ['text', 'unit', 'range', 'values'],
   limit: ['low', 'high', 'consequence', 'correction'],
@@ -138,7 +138,7 @@ function article(expected: string): string {
 function dedupe(issues: SchemaIssue[]): SchemaIssue[] {
   const seen = new Set<string>();
   return issues.filter((i) => {
-    const key = `${i.code}:${i.path.join('.')}`;
+    const key = i.code === 'unknown-key' ? `${i.path.join('.')}` : `value:${i.path.join('.')}`;
     if (seen.has(key)) return false;
     seen.add(key);
     return true;

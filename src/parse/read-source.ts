@@ -61,7 +61,8 @@ export function readSource(file: string, text: string): ParsedSource {
     const lineCounter = new LineCounter();
     doc = parseDocument(split.yaml, { lineCounter, prettyErrors: false, uniqueKeys: true, strict: true });
     const yamlLineOffset = fileLines(split.yamlOffset).line - 1;
-    for (const error of doc.errors) {
+    // Only the first error: later ones are nearly always knock-on effects of it.
+    for (const error of doc.errors.slice(0, 1)) {
       const pos = lineCounter.linePos(error.pos[0]);
       const end = lineCounter.linePos(error.pos[1]);
       diagnostics.push({

@@ -13,7 +13,7 @@ export interface FrontMatterSplit {
   unclosed: boolean;
 }
 
-const fence = /^---[ \t]*$/;
+const fence = /^---[ \t]*(#.*)?$/;
 const closingFence = /^(---|\.\.\.)[ \t]*$/;
 
 export function splitFrontMatter(text: string): FrontMatterSplit {

@@ -26,6 +26,7 @@ or meaning is authorship.`,
     if (!p.approvals.every(isAuthor)) return;
     ctx.report({
       path: ['approvals'],
+      part: 'key',
       message: `All approvals are by the author${p.author ? ` (${p.author})` : ''}; nobody independent has signed.`,
       hint: 'Have a second qualified person review and approve this revision.',
     });
