@@ -54,6 +54,8 @@ interface UnitFacts {
   dimension: string;
   /** Factor to SI base for differences (no offset). */
   scale: number;
+  /** Added before scaling for absolute values: 273.15 for degC, 459.67 for degF, 0 otherwise. */
+  offset: number;
 }
 
 /** What mathjs really keeps per unit part (its type file calls `prefix` a string). */
@@ -120,7 +122,10 @@ function readUnit(unit: string): UnitFacts | UnitError {
     }
     scale *= (part.unit.value * part.prefix.value) ** part.power;
   }
-  return { dimension: dimensionKey(parsed), scale };
+  // mathjs applies an offset only to a lone unit to the first power (degC, not degC/min); so do we.
+  const [only] = parsed.units as unknown as MathjsUnitPart[];
+  const offset = parsed.units.length === 1 && only.power === 1 ? only.unit.offset : 0;
+  return { dimension: dimensionKey(parsed), scale, offset };
 }
 
 export function isKnownUnit(unit: string): boolean {
@@ -144,6 +149,15 @@ export function sameDimension(a: string, b: string): boolean {
   return da !== null && da === unitDimension(b);
 }
 
+/**
+ * Drops the last-bit noise of the offset arithmetic (100 degC would be 211.99999999999994 degF), so a setpoint
+ * written in one unit and a limit written in another compare equal when they are equal. 15 digits is below
+ * what a double holds for sure and far above any plant reading.
+ */
+function clean(value: number): number {
+  return Number.isFinite(value) ? Number(value.toPrecision(15)) : value;
+}
+
 function sameKnownDimension(from: string, to: string): [UnitFacts, UnitFacts] | null {
   const a = describe(from);
   const b = describe(to);
@@ -153,31 +167,31 @@ function sameKnownDimension(from: string, to: string): [UnitFacts, UnitFacts] | 
 
 /** Converts an absolute value, with the offset for temperature scales (20 degC = 68 degF); null when impossible. */
 export function convert(value: number, from: string, to: string): number | null {
-  if (!sameKnownDimension(from, to)) return null;
-  return math.unit(value, normalizeUnit(from.trim())).toNumber(normalizeUnit(to.trim()));
+  const pair = sameKnownDimension(from, to);
+  if (!pair) return null;
+  const [a, b] = pair;
+  return clean(((value + a.offset) * a.scale) / b.scale - b.offset);
 }
 
 /** Converts a difference, without offset (a 10 degC rise is an 18 degF rise); null when impossible. */
 export function convertDifference(value: number, from: string, to: string): number | null {
   const pair = sameKnownDimension(from, to);
   if (!pair) return null;
-  return (value * pair[0].scale) / pair[1].scale;
+  return clean((value * pair[0].scale) / pair[1].scale);
 }
 
 /** The value in SI base units (K, Pa, kg, m^3, s, plain ratio), so numbers in different units compare directly. */
 export function toBase(value: number, unit: string): number | null {
   const facts = describe(unit);
   if ('ok' in facts) return null;
-  return math.unit(value, normalizeUnit(unit.trim())).toSI().toNumber();
+  return clean((value + facts.offset) * facts.scale);
 }
 
 /** The inverse of toBase. */
 export function fromBase(value: number, unit: string): number | null {
   const facts = describe(unit);
   if ('ok' in facts) return null;
-  // Only offset units (degC, degF) have a base value at zero; every unit is linear apart from that.
-  const zero = toBase(0, unit) ?? 0;
-  return (value - zero) / facts.scale;
+  return clean(value / facts.scale - facts.offset);
 }
 
 /** A number as people write it: no float noise such as 0.30000000000000004. */

@@ -59,10 +59,33 @@ describe('units', () => {
     expect(convert(0, 'degC', 'K')).toBeCloseTo(273.15, 9);
     expect(convert(100, 'degC', 'degF')).toBeCloseTo(212, 9);
     expect(toBase(25, 'degC')).toBeCloseTo(298.15, 9);
+    // Equal temperatures written in different units must compare equal, not differ in the last bit.
+    expect(toBase(100, 'degC')).toBe(toBase(212, 'degF'));
+    expect(toBase(-40, 'degC')).toBe(toBase(-40, 'degF'));
+    expect(convert(100, 'degC', 'degF')).toBe(212);
     // Source: NIST SP 811, Appendix B: temperature differences convert without the offset; a 10 degC rise is an 18 degF rise.
     expect(convertDifference(10, 'degC', 'degF')).toBeCloseTo(18, 9);
     expect(convertDifference(10, 'K', 'degC')).toBeCloseTo(10, 9);
     expect(convertDifference(18, 'degF', 'K')).toBeCloseTo(10, 9);
+    // A rate is a difference per time: no offset, whatever the scale.
+    expect(convert(6, 'degC/min', 'K/s')).toBeCloseTo(0.1, 12);
+    expect(convert(1, 'degC/min', 'degF/h')).toBeCloseTo(108, 9);
+  });
+
+  it('converts there and back within the same dimension', () => {
+    const pressures = ['Pa', 'kPa', 'MPa', 'bar', 'psi', 'mmHg', 'Torr', 'atm'];
+    const temperatures = ['degC', 'degF', 'K'];
+    const pair = fc.oneof(
+      fc.tuple(fc.constantFrom(...pressures), fc.constantFrom(...pressures)),
+      fc.tuple(fc.constantFrom(...temperatures), fc.constantFrom(...temperatures)),
+    );
+    fc.assert(
+      fc.property(pair, fc.double({ min: -1e5, max: 1e5, noNaN: true }), ([a, b], value) => {
+        const there = convert(value, a, b)!;
+        expect(Math.abs(convert(there, b, a)! - value)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(value)));
+        expect(Math.abs(toBase(there, b)! - toBase(value, a)!)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(toBase(value, a)!)));
+      }),
+    );
   });
 
   it('treats percent and mg/g as ratios', () => {
