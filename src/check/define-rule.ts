@@ -53,6 +53,8 @@ export interface FileContext {
   facts: ProcedureFacts | null;
   /** Today's date as YYYY-MM-DD (injected so tests control the clock). */
   today: string;
+  /** Why the file could not be read, when it could not. */
+  readError?: string;
   /** The previous committed version, when the caller knows it; history rules do nothing without it. */
   history?: FileHistory;
   report(report: Report): void;

@@ -59,21 +59,13 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   };
 
   for (const input of inputs) {
-    if ('error' in input) {
-      files.push({
-        file: input.file, source: null, procedure: null, facts: null,
-        diagnostics: [{
-          file: input.file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'error', rule: 'unreadable-file',
-          message: `The file could not be read: ${input.error}`, hint: 'Check that the file exists, is readable and is UTF-8 text.',
-        }],
-      });
-      continue;
-    }
-    const { source, procedure, schemaIssues, facts } = readProcedure(input.file, input.text);
+    // An unreadable file still gets a context, so that its one diagnostic goes through the rules like any other.
+    const readError = 'error' in input ? input.error : undefined;
+    const { source, procedure, schemaIssues, facts } = 'text' in input ? readProcedure(input.file, input.text) : unreadable(input.file);
     let current: RuleMeta = rules[0]?.meta;
     const context: FileContext = {
-      file: input.file, source, procedure, schemaIssues, facts, today: options.today,
-      history: readPrevious(input.file, options),
+      file: input.file, source, procedure, schemaIssues, facts, today: options.today, readError,
+      history: readError === undefined ? readPrevious(input.file, options) : undefined,
       report: (report) => emit(context, current, report),
     };
     sink.set(context, []);
@@ -105,6 +97,11 @@ function readPrevious(file: string, options: CheckOptions): FileHistory | undefi
   if (!previous) return undefined;
   const { source, procedure } = readProcedure(file, previous.text);
   return { commit: previous.commit, text: previous.text, source, procedure };
+}
+
+function unreadable(file: string) {
+  const source = readSource(file, '');
+  return { source: { ...source, diagnostics: [] }, procedure: null, schemaIssues: [], facts: null };
 }
 
 /** A rule that fails on odd input must not take the whole check down; it becomes one internal diagnostic. */

@@ -11,11 +11,16 @@ const today = '2026-12-01';
 
 function loadFolder(ruleId: string) {
   const dir = join(root, ruleId);
-  return readdirSync(dir).filter((f) => f.endsWith('.md')).sort().map((name) => ({
-    name,
-    file: `${ruleId}/${name}`,
-    text: readFileSync(join(dir, name), 'utf8'),
-  }));
+  return readdirSync(dir).filter((f) => f.endsWith('.md')).sort().map((name) => {
+    const bytes = readFileSync(join(dir, name));
+    let error: string | undefined;
+    try {
+      new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+    } catch {
+      error = 'it is not valid UTF-8 text';
+    }
+    return { name, file: `${ruleId}/${name}`, text: bytes.toString('utf8'), error };
+  });
 }
 
 describe('rule fixtures', () => {
@@ -23,7 +28,7 @@ describe('rule fixtures', () => {
   for (const ruleId of folders) {
     it(`${ruleId}: reports exactly the marked lines`, () => {
       const files = loadFolder(ruleId);
-      const result = checkSources(files.map(({ file, text }) => ({ file, text })), { today });
+      const result = checkSources(files.map(({ file, text, error }) => (error ? { file, error } : { file, text })), { today });
       const reported = result.diagnostics.filter((d) => d.rule === ruleId).map((d) => `${d.file}:${d.line}`).sort();
       const expected = files.flatMap((f) => expectationsIn(f.text).filter((e) => e.rule === ruleId).map((e) => `${f.file}:${e.line}`)).sort();
       expect(reported).toEqual(expected);

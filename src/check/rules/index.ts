@@ -21,6 +21,7 @@ import stepWithoutTransition from './step-without-transition.ts';
 import thresholdOutsideRange from './threshold-outside-range.ts';
 import undeclaredName from './undeclared-name.ts';
 import unitMismatch from './unit-mismatch.ts';
+import unreadableFile from './unreadable-file.ts';
 import unknownKey from './unknown-key.ts';
 import unknownUnit from './unknown-unit.ts';
 import valueNotAllowed from './value-not-allowed.ts';
@@ -48,6 +49,7 @@ export const rules = {
   'threshold-outside-range': thresholdOutsideRange,
   'undeclared-name': undeclaredName,
   'unit-mismatch': unitMismatch,
+  'unreadable-file': unreadableFile,
   'unknown-key': unknownKey,
   'unknown-unit': unknownUnit,
   'value-not-allowed': valueNotAllowed,
