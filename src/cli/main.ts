@@ -1,11 +1,13 @@
 // argv → command → exit code. Commands never throw to the user: failures become a message and exit 2.
 import { runCheck } from './check-command.ts';
+import { runSchema } from './schema-command.ts';
 import { UsageError, type CliIo } from './io.ts';
 
 type Command = { summary: string; run: (argv: string[], io: CliIo) => Promise<number> };
 
 export const commands: Record<string, Command> = {
   check: { summary: 'check procedure files and report problems', run: runCheck },
+  schema: { summary: 'print or write the JSON Schema of the front-matter for editors', run: runSchema },
 };
 
 function mainHelp(): string {

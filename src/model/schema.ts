@@ -68,6 +68,13 @@ export const stepSchema = z.strictObject({
   expect: z.union([z.string(), z.number()]).optional().describe('Typical duration, e.g. "40 min" or "30..50 min".'),
   'sign-off': z.string().optional().describe('Role whose signature is needed before going on (a hold point).'),
   note: z.string().optional().describe('Extra information for the operator; never an action.'),
+  call: z.union([
+    z.string().regex(procedureIdPattern, 'must be a procedure id, e.g. U2-K210-INERT-001'),
+    z.strictObject({
+      procedure: z.string().regex(procedureIdPattern, 'must be a procedure id, e.g. U2-K210-INERT-001').describe('Id of the called procedure.'),
+      revision: z.number().int().min(0).optional().describe('The revision of the called procedure this step was written and reviewed against.'),
+    }),
+  ]).optional().describe('Runs another procedure (a shared operation) as this step; the step ends when that procedure ends.'),
 });
 
 export type StepInput = z.infer<typeof stepSchema>;
@@ -80,6 +87,7 @@ export interface BranchInput {
   otherwise?: boolean;
   steps?: SequenceItemInput[];
   goto?: string;
+  repeat?: { expected: number; max: number };
 }
 export interface ChooseInput {
   choose: BranchInput[];
@@ -98,6 +106,10 @@ export const branchSchema: z.ZodType<BranchInput> = z.strictObject({
   otherwise: z.literal(true).optional().describe('Taken when no other branch is true.'),
   steps: sequenceSchema.optional().describe('Steps of the branch; they rejoin after the block.'),
   goto: z.string().optional().describe('Step id to jump to after the branch (a loop).'),
+  repeat: z.strictObject({
+    expected: z.number().min(0).describe('Typical number of times the jump is taken in one run, e.g. 1.5.'),
+    max: z.number().int().min(0).describe('Most times the jump can be taken in one run.'),
+  }).optional().describe('How often a loop repeats, for cycle-time estimates.'),
 });
 
 export const chooseSchema: z.ZodType<ChooseInput> = z.strictObject({
