@@ -98,6 +98,8 @@ function describe(unit: string): UnitFacts | UnitError {
   const cached = factsCache.get(unit);
   if (cached) return cached;
   const facts = readUnit(unit);
+  // Procedures use a few dozen units; only garbage input could grow the cache without end.
+  if (factsCache.size > 5000) factsCache.clear();
   factsCache.set(unit, facts);
   return facts;
 }
