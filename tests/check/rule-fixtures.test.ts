@@ -11,7 +11,7 @@ const today = '2026-12-01';
 
 function loadFolder(ruleId: string) {
   const dir = join(root, ruleId);
-  return readdirSync(dir).filter((f) => f.endsWith('.md')).sort().map((name) => {
+  return readdirSync(dir).filter((f) => f.endsWith('.md') && !f.endsWith(previousSuffix)).sort().map((name) => {
     const bytes = readFileSync(join(dir, name));
     let error: string | undefined;
     try {
@@ -23,12 +23,21 @@ function loadFolder(ruleId: string) {
   });
 }
 
+// History rules compare with the previous committed version: `x.previous.md` next to `x.md` plays that part.
+const previousSuffix = '.previous.md';
+function previousOf(ruleId: string) {
+  return (file: string) => {
+    const path = join(root, ruleId, file.slice(ruleId.length + 1).replace(/\.md$/, previousSuffix));
+    return existsSync(path) ? { text: readFileSync(path, 'utf8'), commit: 'fixture' } : undefined;
+  };
+}
+
 describe('rule fixtures', () => {
   const folders = existsSync(root) ? readdirSync(root).sort() : [];
   for (const ruleId of folders) {
     it(`${ruleId}: reports exactly the marked lines`, () => {
       const files = loadFolder(ruleId);
-      const result = checkSources(files.map(({ file, text, error }) => (error ? { file, error } : { file, text })), { today });
+      const result = checkSources(files.map(({ file, text, error }) => (error ? { file, error } : { file, text })), { today, previous: previousOf(ruleId) });
       const reported = result.diagnostics.filter((d) => d.rule === ruleId).map((d) => `${d.file}:${d.line}`).sort();
       const expected = files.flatMap((f) => expectationsIn(f.text).filter((e) => e.rule === ruleId).map((e) => `${f.file}:${e.line}`)).sort();
       expect(reported).toEqual(expected);

@@ -8,6 +8,7 @@ import duplicateProcedureId from './duplicate-procedure-id.ts';
 import duplicateStepId from './duplicate-step-id.ts';
 import effectiveBeforeApproval from './effective-before-approval.ts';
 import effectiveDateMissing from './effective-date-missing.ts';
+import effectiveEditedInPlace from './effective-edited-in-place.ts';
 import gotoCrossesParallel from './goto-crosses-parallel.ts';
 import gotoUnknownStep from './goto-unknown-step.ts';
 import hazardUnknownStep from './hazard-unknown-step.ts';
@@ -15,8 +16,11 @@ import invalidValue from './invalid-value.ts';
 import missingFrontMatter from './missing-front-matter.ts';
 import missingRequiredKey from './missing-required-key.ts';
 import reviewOverdue from './review-overdue.ts';
+import revisionDecreased from './revision-decreased.ts';
+import revisionNotBumped from './revision-not-bumped.ts';
 import setpointAtTrip from './setpoint-at-trip.ts';
 import setpointOutsideLimits from './setpoint-outside-limits.ts';
+import statusLifecycle from './status-lifecycle.ts';
 import stepWithoutTransition from './step-without-transition.ts';
 import thresholdOutsideRange from './threshold-outside-range.ts';
 import undeclaredName from './undeclared-name.ts';
@@ -36,6 +40,7 @@ export const rules = {
   'duplicate-step-id': duplicateStepId,
   'effective-before-approval': effectiveBeforeApproval,
   'effective-date-missing': effectiveDateMissing,
+  'effective-edited-in-place': effectiveEditedInPlace,
   'goto-crosses-parallel': gotoCrossesParallel,
   'goto-unknown-step': gotoUnknownStep,
   'hazard-unknown-step': hazardUnknownStep,
@@ -43,8 +48,11 @@ export const rules = {
   'missing-front-matter': missingFrontMatter,
   'missing-required-key': missingRequiredKey,
   'review-overdue': reviewOverdue,
+  'revision-decreased': revisionDecreased,
+  'revision-not-bumped': revisionNotBumped,
   'setpoint-at-trip': setpointAtTrip,
   'setpoint-outside-limits': setpointOutsideLimits,
+  'status-lifecycle': statusLifecycle,
   'step-without-transition': stepWithoutTransition,
   'threshold-outside-range': thresholdOutsideRange,
   'undeclared-name': undeclaredName,
