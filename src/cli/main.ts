@@ -1,5 +1,6 @@
 // argv → command → exit code. Commands never throw to the user: failures become a message and exit 2.
 import { runCheck } from './check-command.ts';
+import { runNew } from './new-command.ts';
 import { runSchema } from './schema-command.ts';
 import { UsageError, type CliIo } from './io.ts';
 
@@ -7,6 +8,7 @@ type Command = { summary: string; run: (argv: string[], io: CliIo) => Promise<nu
 
 export const commands: Record<string, Command> = {
   check: { summary: 'check procedure files and report problems', run: runCheck },
+  new: { summary: 'write a new procedure of a given kind, with TODO placeholders', run: runNew },
   schema: { summary: 'print or write the JSON Schema of the front-matter for editors', run: runSchema },
 };
 

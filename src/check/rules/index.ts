@@ -15,6 +15,7 @@ import hazardUnknownStep from './hazard-unknown-step.ts';
 import invalidValue from './invalid-value.ts';
 import missingFrontMatter from './missing-front-matter.ts';
 import missingRequiredKey from './missing-required-key.ts';
+import placeholderText from './placeholder-text.ts';
 import reviewOverdue from './review-overdue.ts';
 import revisionDecreased from './revision-decreased.ts';
 import revisionNotBumped from './revision-not-bumped.ts';
@@ -47,6 +48,7 @@ export const rules = {
   'invalid-value': invalidValue,
   'missing-front-matter': missingFrontMatter,
   'missing-required-key': missingRequiredKey,
+  'placeholder-text': placeholderText,
   'review-overdue': reviewOverdue,
   'revision-decreased': revisionDecreased,
   'revision-not-bumped': revisionNotBumped,

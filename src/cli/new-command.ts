@@ -1,0 +1,90 @@
+// `stepwright new KIND ID`: writes a new procedure with the sections its kind needs; never overwrites a file.
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { dirname, join, relative, resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import { checkSources } from '../check/run-checks.ts';
+import { kinds, procedureIdPattern } from '../model/schema.ts';
+import type { Kind } from '../model/procedure.ts';
+import { scaffoldProcedure } from '../render/procedure-scaffold.ts';
+import { todayOf, UsageError, type CliIo } from './io.ts';
+import { readProcedureFiles } from './read-procedure-files.ts';
+
+export const newHelp = `Usage: stepwright new KIND ID [--title TEXT] [--dir FOLDER]
+
+Writes FOLDER/<id>.md, a new draft procedure with every section its kind needs. Each thing you must
+supply is marked TODO; 'stepwright check' lists the ones left (rule placeholder-text).
+Never overwrites a file, and refuses an id the manual already uses.
+
+KIND is one of: ${kinds.join(', ')}
+ID   is the document number, upper-case letters, digits and hyphens, e.g. U2-K210-SD-002
+
+Options:
+  --title <text>    the title (otherwise a TODO placeholder)
+  --dir <folder>    where to write it (default: procedures)
+  -h, --help        show this help
+
+Exit codes: 0 written, 1 not written (file exists or id in use), 2 usage error.
+`;
+
+export async function runNew(argv: string[], io: CliIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: { title: { type: 'string' }, dir: { type: 'string', default: 'procedures' }, help: { type: 'boolean', short: 'h' } },
+    strict: true,
+  });
+  if (values.help) {
+    io.stdout.write(newHelp);
+    return 0;
+  }
+  const [kind, id, ...extra] = positionals;
+  if (!kind || !id) throw new UsageError('Give the kind and the id, e.g. stepwright new shutdown U2-K210-SD-002.');
+  if (extra.length) throw new UsageError(`Unexpected argument '${extra[0]}'; quote a title with spaces: --title "…".`);
+  if (!(kinds as readonly string[]).includes(kind)) throw new UsageError(`Unknown kind '${kind}'; use one of ${kinds.join(', ')}.`);
+  if (!procedureIdPattern.test(id)) throw new UsageError(`'${id}' is not a procedure id: use upper-case letters, digits and hyphens, e.g. U2-K210-SD-002.`);
+  if (values.title !== undefined && values.title.trim() === '') throw new UsageError('The title must not be empty.');
+
+  const folder = resolve(io.cwd, values.dir);
+  const target = join(folder, `${id.toLowerCase()}.md`);
+  const shown = relative(io.cwd, target) || target;
+  if (existsSync(target)) {
+    io.stderr.write(`stepwright new: ${shown} already exists; nothing was written.\nOpen it to edit, or choose another id.\n`);
+    return 1;
+  }
+  const inUse = idInUse(id, [values.dir, ...(existsSync(resolve(io.cwd, 'procedures')) ? ['procedures'] : [])], io.cwd);
+  if (inUse) {
+    io.stderr.write(`stepwright new: id ${id} is already used by ${inUse}; nothing was written.\nA new revision goes into that file; a new procedure needs its own id.\n`);
+    return 1;
+  }
+
+  const schemaFile = resolve(io.cwd, 'schema', 'procedure.schema.json');
+  const schemaPath = existsSync(schemaFile) ? relative(folder, schemaFile).split('\\').join('/') : undefined;
+  const text = scaffoldProcedure({ kind: kind as Kind, id, title: values.title, schemaPath });
+  mkdirSync(dirname(target), { recursive: true });
+  try {
+    // 'wx' fails if the file appeared meanwhile: never overwrite.
+    writeFileSync(target, text, { flag: 'wx' });
+  } catch (error) {
+    io.stderr.write(`stepwright new: could not write ${shown}: ${(error as Error).message}\n`);
+    return 1;
+  }
+  const checked = checkSources([{ file: shown, text }], { today: todayOf(io) });
+  const todos = checked.diagnostics.filter((d) => d.rule === 'placeholder-text').length;
+  const others = checked.diagnostics.length - todos;
+  io.stdout.write(`Created ${shown} (${kind}, draft, revision 0).
+${todos} placeholders marked TODO are waiting to be filled in${others ? `; ${others} other findings` : ''}.
+Next: fill them in, then run 'stepwright check ${shown}' and 'npm run dev' to preview it.
+`);
+  return 0;
+}
+
+function idInUse(id: string, paths: string[], cwd: string): string | undefined {
+  const existing = [...new Set(paths)].filter((p) => existsSync(resolve(cwd, p)));
+  if (!existing.length) return undefined;
+  for (const input of readProcedureFiles(existing, cwd)) {
+    if (!('text' in input)) continue;
+    const match = /^id:\s*["']?([A-Z0-9][A-Z0-9-]*)["']?\s*$/m.exec(input.text.slice(0, 4000));
+    if (match?.[1] === id) return input.file;
+  }
+  return undefined;
+}
