@@ -115,7 +115,7 @@ export function markDone(flow: Flow, place: Place, mark: Mark): Place | undefine
     (t.at.k === 'step' && t.at.id === mark.step) || (t.at.k === 'choose' && t.at.key === mark.step));
   if (index < 0) return undefined;
   const token = place.tokens[index];
-  let next: Next | undefined = token.at.k === 'choose' ? findChoose(flow, token.at.key) : flow.after.get(mark.step);
+  let next: Next | undefined = token.at.k === 'choose' ? decisionByKey(flow, token.at.key) : flow.after.get(mark.step);
   if (!next) return undefined;
   if (next.k === 'choose') {
     const option = mark.pick === undefined ? undefined : next.options[mark.pick];
@@ -171,8 +171,9 @@ function settle(flow: Flow, place: Place): Place {
   return { ...place, tokens, finished };
 }
 
-function findChoose(flow: Flow, key: string): Next | undefined {
-  const search = (next: Next, seen: Set<Next>): Next | undefined => {
+/** The decision with YAML key `key` (for a decision that does not follow a step). */
+export function decisionByKey(flow: Flow, key: string): Extract<Next, { k: 'choose' }> | undefined {
+  const search = (next: Next, seen: Set<Next>): Extract<Next, { k: 'choose' }> | undefined => {
     if (seen.has(next)) return undefined;
     seen.add(next);
     if (next.k === 'choose') {

@@ -1,11 +1,12 @@
 // Procedure → the compact step plan the placekeeping script reads from the step table's data attribute.
 import type { HazardLevel, Procedure, SequenceItem } from '../model/procedure.ts';
+import { numberSteps, type StepNumbers } from './step-numbers.ts';
 
 /** One item of a sequence: a step id, a parallel block or a decision, keyed by its YAML path. */
 export type PlanItem =
   | { step: string }
-  | { parallel: string; branches: Array<{ name: string; items: PlanItem[] }> }
-  | { choose: string; branches: PlanBranch[] };
+  | { parallel: string; number: string; branches: Array<{ name: string; letter: string; items: PlanItem[] }> }
+  | { choose: string; number: string; branches: PlanBranch[] };
 
 export interface PlanBranch {
   /** The branch condition as written, or absent for `otherwise`. */
@@ -27,14 +28,18 @@ export interface PlacekeepingPlan {
   id: string;
   revision: number;
   items: PlanItem[];
+  /** Step id → the hierarchical number the chart and table print (3A.1 …). */
+  numbers: Record<string, string>;
   hazards: PlanHazard[];
 }
 
 export function placekeepingPlan(procedure: Procedure): PlacekeepingPlan {
+  const numbers = numberSteps(procedure.steps);
   return {
     id: procedure.id,
     revision: procedure.revision,
-    items: planSequence(procedure.steps),
+    items: planSequence(procedure.steps, numbers),
+    numbers: Object.fromEntries(numbers.ofStep),
     hazards: procedure.hazards.map((h) => ({
       level: h.level,
       hazard: h.hazard,
@@ -45,19 +50,24 @@ export function placekeepingPlan(procedure: Procedure): PlacekeepingPlan {
   };
 }
 
-function planSequence(items: SequenceItem[]): PlanItem[] {
+function planSequence(items: SequenceItem[], numbers: StepNumbers): PlanItem[] {
   return items.map((item): PlanItem => {
     if (item.kind === 'step') return { step: item.id };
     const key = item.path.join('.');
     if (item.kind === 'parallel') {
-      return { parallel: key, branches: item.branches.map((b) => ({ name: b.name, items: planSequence(b.items) })) };
+      return {
+        parallel: key,
+        number: numbers.ofBlock.get(item) ?? '',
+        branches: item.branches.map((b, i) => ({ name: b.name, letter: numbers.letterOf(item, i), items: planSequence(b.items, numbers) })),
+      };
     }
     return {
       choose: key,
+      number: numbers.ofBlock.get(item) ?? '',
       branches: item.branches.map((b) => ({
         ...(b.when ? { when: b.when.value } : {}),
         ...(b.otherwise ? { otherwise: true } : {}),
-        ...(b.items ? { items: planSequence(b.items) } : {}),
+        ...(b.items ? { items: planSequence(b.items, numbers) } : {}),
         ...(b.goto ? { goto: b.goto.value } : {}),
       })),
     };

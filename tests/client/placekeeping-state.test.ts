@@ -15,12 +15,12 @@ const mark = (flow: Flow, place: Place, step: string, pick?: number) => {
 // A small plan with every kind of item: a step, a parallel block with a two-step branch, a looping decision.
 const items: PlanItem[] = [
   { step: 'a' },
-  { parallel: 'steps.1', branches: [
-    { name: 'left', items: [{ step: 'l1' }, { step: 'l2' }] },
-    { name: 'right', items: [{ step: 'r1' }] },
+  { parallel: 'steps.1', number: '2', branches: [
+    { name: 'left', letter: 'A', items: [{ step: 'l1' }, { step: 'l2' }] },
+    { name: 'right', letter: 'B', items: [{ step: 'r1' }] },
   ] },
   { step: 'sample' },
-  { choose: 'steps.3', branches: [
+  { choose: 'steps.3', number: '4', branches: [
     { when: 'x <= 12 mg/g', items: [{ step: 'cool' }] },
     { when: 'x > 12 mg/g', goto: 'sample' },
   ] },
@@ -144,5 +144,15 @@ describe('placekeeping over the demo batch procedure', () => {
 
   it('carries the hazards with the steps they name', () => {
     expect(plan.hazards.find((h) => h.at.includes('tip-anhydride'))?.level).toBeDefined();
+  });
+});
+
+describe('plan numbers', () => {
+  it('uses the step numbers the chart and table print', () => {
+    const file = 'procedures/k-210-resin/u2-k210-batch-001.md';
+    const plan = placekeepingPlan(readProcedure(file, readFileSync(file, 'utf8')).procedure!);
+    expect(plan.numbers['check-inert']).toBe('1');
+    expect(plan.numbers['charge-solvent']).toBe('3A.1');
+    expect(plan.numbers['close-chute']).toBe('3C.2');
   });
 });
