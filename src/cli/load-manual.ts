@@ -1,0 +1,69 @@
+// Reads and checks the procedures folder for a site build: the same reading as `stepwright check`,
+// plus the build date (never the wall clock, so a build is reproducible byte for byte).
+import { execFileSync } from 'node:child_process';
+import { checkSources, type CheckResult, type SourceInput } from '../check/run-checks.ts';
+import { buildManualView, type ManualView } from '../render/manual.ts';
+import { formatHuman, summarize } from './format-diagnostics.ts';
+import { readProcedureFiles } from './read-procedure-files.ts';
+
+export interface LoadedManual {
+  root: string;
+  today: string;
+  /** Where the build date came from, shown in the site footer. */
+  todaySource: 'STEPWRIGHT_TODAY' | 'last commit' | 'procedure dates';
+  inputs: SourceInput[];
+  result: CheckResult;
+  errors: number;
+  /** Present when the check found no errors. */
+  view?: ManualView;
+}
+
+export interface LoadOptions {
+  cwd: string;
+  env: Record<string, string | undefined>;
+}
+
+export function proceduresFolder(env: Record<string, string | undefined>): string {
+  return env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures';
+}
+
+/** The build date: STEPWRIGHT_TODAY, else the last commit's date, else the newest date in the procedures. */
+export function buildDate(options: LoadOptions, inputs: SourceInput[]): { today: string; source: LoadedManual['todaySource'] } {
+  const fixed = options.env.STEPWRIGHT_TODAY;
+  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) return { today: fixed, source: 'STEPWRIGHT_TODAY' };
+  try {
+    const out = execFileSync('git', ['log', '-1', '--format=%cs'], { cwd: options.cwd, encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] }).trim();
+    if (/^\d{4}-\d{2}-\d{2}$/.test(out)) return { today: out, source: 'last commit' };
+  } catch {
+    // Not a git checkout: fall back to the content itself.
+  }
+  const dates = inputs.flatMap((i) => ('text' in i ? [...i.text.matchAll(/\b(\d{4}-\d{2}-\d{2})\b/g)].map((m) => m[1]) : []));
+  return { today: dates.sort().at(-1) ?? '1970-01-01', source: 'procedure dates' };
+}
+
+export function loadManual(options: LoadOptions): LoadedManual {
+  const root = proceduresFolder(options.env);
+  const inputs = readProcedureFiles([root], options.cwd);
+  const { today, source } = buildDate(options, inputs);
+  const result = checkSources(inputs, { today });
+  const errors = result.diagnostics.filter((d) => d.severity === 'error').length;
+  const view = errors === 0 ? buildManualView({ files: result.files, root, today }) : undefined;
+  return { root, today, todaySource: source, inputs, result, errors, view };
+}
+
+/** Check output exactly as `stepwright check` prints it, for a failed build. */
+export function formatCheckFailure(loaded: LoadedManual, colour: boolean): string {
+  const texts = new Map(loaded.inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
+  return formatHuman(loaded.result.diagnostics, texts, colour) + summarize(loaded.result.diagnostics, loaded.inputs.length);
+}
+
+let cached: { key: string; loaded: LoadedManual } | undefined;
+
+/** The manual for the site's pages: read once per build; a build with check errors stops with check's report. */
+export function siteManual(): { loaded: LoadedManual; view: ManualView } {
+  const key = `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}`;
+  if (!cached || cached.key !== key) cached = { key, loaded: loadManual({ cwd: process.cwd(), env: process.env }) };
+  const { loaded } = cached;
+  if (!loaded.view) throw new Error(`The procedures have check errors; the manual was not built.\n\n${formatCheckFailure(loaded, false)}`);
+  return { loaded, view: loaded.view };
+}

@@ -1,0 +1,84 @@
+// Draws the laid-out sequence chart as a self-contained SVG string (no script, no external styles).
+import type { HazardLevel, Procedure } from '../model/procedure.ts';
+import { chartFont, layoutChart, type ChartLayout, type Shape } from './chart-layout.ts';
+import { signalWordColours } from './signal-words.ts';
+import type { StepNumbers } from './step-numbers.ts';
+
+const fontFamily = "Arial, 'Liberation Sans', Helvetica, sans-serif";
+const ink = '#1b1f24';
+
+export function escapeXml(text: string): string {
+  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');
+}
+
+export interface ChartSvgOptions {
+  /** Accessible name of the whole chart. */
+  title: string;
+  /** Builds the link target of a step; defaults to the step table row `#step-<id>`. */
+  hrefOf?: (stepId: string) => string;
+}
+
+export function renderChartSvg(procedure: Pick<Procedure, 'steps' | 'hazards'>, options: ChartSvgOptions, numbers?: StepNumbers): string {
+  return chartLayoutToSvg(layoutChart(procedure, numbers), options);
+}
+
+export function chartLayoutToSvg(layout: ChartLayout, options: ChartSvgOptions): string {
+  const hrefOf = options.hrefOf ?? ((id: string) => `#step-${id}`);
+  const parts: string[] = [];
+  parts.push(
+    `<svg xmlns="http://www.w3.org/2000/svg" class="sfc-chart" viewBox="0 0 ${layout.width} ${layout.height}" width="${layout.width}" height="${layout.height}" role="group" aria-label="${escapeXml(options.title)}" font-family="${escapeXml(fontFamily)}" font-size="${chartFont.size}" fill="${ink}">`,
+  );
+  parts.push(`<defs><marker id="sfc-arrow" viewBox="0 0 10 10" refX="5" refY="9" markerWidth="8" markerHeight="8" orient="auto"><path d="M0,0 L10,0 L5,10 z" fill="${ink}"/></marker></defs>`);
+  // Lines first, so boxes and labels paint over line ends.
+  for (const s of layout.shapes) if (s.type === 'line' || s.type === 'double' || s.type === 'single') parts.push(drawLine(s));
+  for (const s of layout.shapes) if (s.type !== 'line' && s.type !== 'double' && s.type !== 'single') parts.push(drawShape(s, hrefOf));
+  parts.push('</svg>');
+  return parts.join('');
+}
+
+function drawLine(s: Extract<Shape, { type: 'line' | 'double' | 'single' }>): string {
+  if (s.type === 'line') return `<line class="sfc-link" x1="${s.x1}" y1="${s.y1}" x2="${s.x2}" y2="${s.y2}" stroke="${ink}" stroke-width="1.5"/>`;
+  if (s.type === 'single') return `<line class="sfc-divergence" x1="${s.x1}" y1="${s.y}" x2="${s.x2}" y2="${s.y}" stroke="${ink}" stroke-width="1.5"/>`;
+  return `<g class="sfc-parallel"><line x1="${s.x1}" y1="${s.y}" x2="${s.x2}" y2="${s.y}" stroke="${ink}" stroke-width="1.5"/><line x1="${s.x1}" y1="${s.y + 4}" x2="${s.x2}" y2="${s.y + 4}" stroke="${ink}" stroke-width="1.5"/></g>`;
+}
+
+function drawShape(s: Exclude<Shape, { type: 'line' | 'double' | 'single' }>, hrefOf: (id: string) => string): string {
+  switch (s.type) {
+    case 'step':
+      return drawStep(s, hrefOf);
+    case 'bar': {
+      const text = s.label
+        .map((l, i) => `<text x="${s.labelRect.x}" y="${s.labelRect.y + (i + 1) * chartFont.line - 5}">${escapeXml(l)}</text>`)
+        .join('');
+      return `<g class="sfc-transition"${s.from ? ` data-from="${escapeXml(s.from)}"` : ''}><line class="sfc-bar" x1="${s.x - 16}" y1="${s.y}" x2="${s.x + 16}" y2="${s.y}" stroke="${ink}" stroke-width="4"/>${text}</g>`;
+    }
+    case 'jump':
+      return `<g class="sfc-jump" data-target="${escapeXml(s.target)}"><line x1="${s.x}" y1="${s.y - 8}" x2="${s.x}" y2="${s.y + 2}" stroke="${ink}" stroke-width="1.5" marker-end="url(#sfc-arrow)"/><a href="${escapeXml(hrefOf(s.target))}"><text x="${s.labelRect.x}" y="${s.labelRect.y + chartFont.line - 5}" font-weight="bold" text-decoration="underline">${escapeXml(s.label)}</text></a></g>`;
+    case 'branch-label':
+      return `<text class="sfc-branch" x="${s.rect.x}" y="${s.rect.y + chartFont.small}" font-size="${chartFont.small}" font-style="italic">${escapeXml(s.text)}</text>`;
+    case 'end':
+      return `<g class="sfc-end"><rect x="${s.rect.x}" y="${s.rect.y}" width="${s.rect.w}" height="${s.rect.h}" rx="15" fill="#fff" stroke="${ink}" stroke-width="1.5"/><text x="${s.rect.x + s.rect.w / 2}" y="${s.rect.y + 20}" text-anchor="middle" font-weight="bold">END</text></g>`;
+  }
+}
+
+function drawStep(s: Extract<Shape, { type: 'step' }>, hrefOf: (id: string) => string): string {
+  const { x, y, w, h } = s.rect;
+  const out: string[] = [];
+  out.push(`<a class="sfc-step" href="${escapeXml(hrefOf(s.id))}" data-step="${escapeXml(s.id)}" aria-label="${escapeXml(s.summary)}">`);
+  out.push(`<rect x="${x}" y="${y}" width="${w}" height="${h}" fill="#fff" stroke="${ink}" stroke-width="${s.signOff ? 3 : 1.5}"/>`);
+  // IEC 61131-3 marks the initial step with a double frame.
+  if (s.initial) out.push(`<rect x="${x + 3}" y="${y + 3}" width="${w - 6}" height="${h - 6}" fill="none" stroke="${ink}" stroke-width="1"/>`);
+  if (s.hazard) out.push(`<rect x="${x}" y="${y}" width="6" height="${h}" fill="${signalWordColours[s.hazard as HazardLevel].background}"/>`);
+  let line = y + 8 + chartFont.line - 4;
+  out.push(`<text x="${x + 10}" y="${line}" font-weight="bold">${escapeXml(s.header)}</text>`);
+  for (const l of s.lines) {
+    line += chartFont.line;
+    out.push(`<text x="${x + 10}" y="${line}">${escapeXml(l)}</text>`);
+  }
+  for (const m of s.markers) {
+    line += chartFont.small + 4;
+    out.push(`<text x="${x + 10}" y="${line}" font-size="${chartFont.small}" font-weight="bold">${escapeXml(m)}</text>`);
+  }
+  out.push('</a>');
+  return out.join('');
+}

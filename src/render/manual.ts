@@ -1,0 +1,233 @@
+// The whole operator manual as view models: checked procedures in, everything the pages print out.
+// Pure: the caller reads the files and decides the build date.
+import type { CheckedFile } from '../check/run-checks.ts';
+import type { Approval, HazardLevel, Procedure } from '../model/procedure.ts';
+import { kinds } from '../model/schema.ts';
+import { renderBodyHtml } from './body-html.ts';
+import { renderChartSvg } from './chart-svg.ts';
+import { hazardRank, signalWordColours } from './signal-words.ts';
+import { numberSteps } from './step-numbers.ts';
+import { buildStepTable, type TableRow } from './step-table.ts';
+import { tagUsesIn, type TagRole, type TagUse } from './where-used.ts';
+
+export interface ManualInput {
+  files: CheckedFile[];
+  /** The procedures folder as the files' paths begin (e.g. `procedures`), for area names. */
+  root: string;
+  /** The build date, YYYY-MM-DD, for review marks. */
+  today: string;
+}
+
+export interface Banner {
+  /** `stop` for statuses that must not be used, `hold` for not yet usable. */
+  tone: 'stop' | 'hold';
+  title: string;
+  text: string;
+}
+
+export interface ReviewMark {
+  state: 'ok' | 'due-soon' | 'overdue' | 'none';
+  text: string;
+}
+
+export interface ProcedureView {
+  id: string;
+  slug: string;
+  url: string;
+  file: string;
+  area: string;
+  title: string;
+  kind: string;
+  kindLabel: string;
+  revision: number;
+  status: string;
+  current: boolean;
+  effective?: string;
+  reviewBy?: string;
+  review: ReviewMark;
+  owner?: string;
+  author?: string;
+  change?: string;
+  approvals: Array<Pick<Approval, 'role' | 'name' | 'date' | 'meaning'>>;
+  equipment: string[];
+  ppe: string[];
+  banner?: Banner;
+  hazards: Array<{ level: HazardLevel; word: string; hazard: string; consequence?: string; avoid?: string; steps: Array<{ id: string; number: string }> }>;
+  interlocks: Array<{ tag: string; tripsWhen: string; action: string; tagUrl: string }>;
+  limits: Array<{ signal: string; text?: string; low?: string; high?: string; unit?: string; consequence?: string; correction?: string }>;
+  chartSvg: string;
+  stepCount: number;
+  rows: TableRow[];
+  bodyHtml: string;
+  tags: Array<{ tag: string; url: string }>;
+}
+
+export interface TagView {
+  tag: string;
+  slug: string;
+  url: string;
+  roles: TagRole[];
+  uses: Array<TagUse & { procedure: Pick<ProcedureView, 'id' | 'title' | 'url' | 'status' | 'revision' | 'current'> }>;
+}
+
+export interface ManualView {
+  today: string;
+  procedures: ProcedureView[];
+  areas: Array<{ area: string; kinds: Array<{ kind: string; label: string; procedures: ProcedureView[] }> }>;
+  tags: TagView[];
+}
+
+const kindLabels: Record<string, string> = {
+  normal: 'Normal operation', batch: 'Batch', startup: 'Start-up', 'startup-after-turnaround': 'Start-up after turnaround',
+  shutdown: 'Shutdown', 'emergency-shutdown': 'Emergency shutdown', emergency: 'Emergency', temporary: 'Temporary',
+};
+
+export function kindLabel(kind: string): string {
+  return kindLabels[kind] ?? kind;
+}
+
+/** URL-safe, file-name-safe form of an id or tag. */
+export function slugOf(text: string): string {
+  return text.replace(/[^A-Za-z0-9._-]+/g, '_').replace(/^\.+/, '_') || '_';
+}
+
+export function reviewMark(procedure: Pick<Procedure, 'reviewBy' | 'status'>, today: string): ReviewMark {
+  if (!procedure.reviewBy) return { state: 'none', text: 'no review date' };
+  if (procedure.status === 'superseded' || procedure.status === 'retired') return { state: 'none', text: procedure.reviewBy };
+  if (procedure.reviewBy < today) return { state: 'overdue', text: `review overdue since ${procedure.reviewBy}` };
+  if (procedure.reviewBy <= addDays(today, 30)) return { state: 'due-soon', text: `review due ${procedure.reviewBy}` };
+  return { state: 'ok', text: procedure.reviewBy };
+}
+
+export function statusBanner(procedure: Pick<Procedure, 'status' | 'effective'>, today: string): Banner | undefined {
+  switch (procedure.status) {
+    case 'draft':
+      return { tone: 'hold', title: 'DRAFT — NOT FOR USE', text: 'This procedure is a draft. It has not been approved; do not operate the plant from it.' };
+    case 'in-review':
+      return { tone: 'hold', title: 'IN REVIEW — NOT FOR USE', text: 'This procedure is being reviewed. It has not been approved; do not operate the plant from it.' };
+    case 'superseded':
+      return { tone: 'stop', title: 'SUPERSEDED — DO NOT USE', text: 'A newer revision replaces this one. Use the current revision.' };
+    case 'retired':
+      return { tone: 'stop', title: 'RETIRED — DO NOT USE', text: 'This procedure no longer applies to the plant.' };
+    case 'approved':
+      if (procedure.effective && procedure.effective > today) {
+        return { tone: 'hold', title: 'APPROVED — NOT YET EFFECTIVE', text: `This revision takes effect on ${procedure.effective}. Until then use the revision in force.` };
+      }
+      return undefined;
+    default:
+      return undefined;
+  }
+}
+
+function addDays(date: string, days: number): string {
+  const d = new Date(`${date}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + days);
+  return d.toISOString().slice(0, 10);
+}
+
+function areaOf(file: string, root: string): string {
+  const norm = file.split('\\').join('/');
+  const prefix = root.replace(/\/+$/, '') + '/';
+  const rel = norm.startsWith(prefix) ? norm.slice(prefix.length) : norm;
+  const parts = rel.split('/');
+  return parts.length > 1 ? parts[0] : '(top level)';
+}
+
+/** Splits `15 degC` into number and unit so the limits table can show the unit once. */
+function splitQuantity(text: string | undefined): { value?: string; unit?: string } {
+  if (text === undefined) return {};
+  const m = /^\s*(-?[0-9][0-9.,]*(?:e-?[0-9]+)?)\s*(.*?)\s*$/i.exec(text);
+  return m ? { value: m[1], unit: m[2] || undefined } : { value: text };
+}
+
+export function buildProcedureView(file: CheckedFile & { procedure: Procedure }, root: string, today: string): ProcedureView {
+  const p = file.procedure;
+  const numbers = numberSteps(p.steps);
+  const slug = slugOf(p.id);
+  const stepIds = new Set(file.facts?.steps.map((s) => s.step.id) ?? []);
+  const hazards = [...p.hazards]
+    .map((h, i) => ({ h, i }))
+    .sort((a, b) => hazardRank(a.h.level) - hazardRank(b.h.level) || a.i - b.i)
+    .map(({ h }) => ({
+      level: h.level, word: signalWordColours[h.level]?.word ?? String(h.level).toUpperCase(), hazard: h.hazard, consequence: h.consequence, avoid: h.avoid,
+      steps: h.at.filter((a) => stepIds.has(a.value)).map((a) => ({ id: a.value, number: numbers.ofStep.get(a.value) ?? '?' })),
+    }));
+  const limits = p.limits.map((l) => {
+    const low = splitQuantity(l.low?.value);
+    const high = splitQuantity(l.high?.value);
+    const signal = p.signals[l.signal];
+    const units = new Set([low.unit, high.unit].filter(Boolean));
+    const unit = units.size === 1 ? [...units][0] : units.size === 0 ? signal?.unit : undefined;
+    return {
+      signal: l.signal, text: signal?.text,
+      low: unit ? low.value : l.low?.value, high: unit ? high.value : l.high?.value, unit,
+      consequence: l.consequence, correction: l.correction,
+    };
+  });
+  const tagNames = [...new Set([...p.equipment, ...p.interlocks.map((i) => i.tag), ...Object.keys(p.signals)])];
+  const steps = file.facts?.steps.length ?? 0;
+  return {
+    id: p.id, slug, url: `/procedures/${slug}/`, file: p.file, area: areaOf(p.file, root),
+    title: p.title, kind: String(p.kind), kindLabel: kindLabel(String(p.kind)), revision: p.revision, status: String(p.status),
+    current: p.status !== 'superseded' && p.status !== 'retired',
+    effective: p.effective, reviewBy: p.reviewBy, review: reviewMark(p, today), owner: p.owner, author: p.author, change: p.change,
+    approvals: p.approvals.map(({ role, name, date, meaning }) => ({ role, name, date, meaning })),
+    equipment: p.equipment, ppe: p.ppe, banner: statusBanner(p, today), hazards,
+    interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, action: i.action, tagUrl: `/tags/${slugOf(i.tag)}/` })),
+    limits,
+    chartSvg: renderChartSvg(p, { title: `Sequence chart of ${p.id}, ${steps} steps` }, numbers),
+    stepCount: steps,
+    rows: buildStepTable(p, numbers),
+    bodyHtml: renderBodyHtml(p.body),
+    tags: tagNames.map((t) => ({ tag: t, url: `/tags/${slugOf(t)}/` })),
+  };
+}
+
+export function buildManualView(input: ManualInput): ManualView {
+  const readable = input.files.filter((f): f is CheckedFile & { procedure: Procedure } => f.procedure !== null && f.facts !== null);
+  const procedures = readable.map((f) => buildProcedureView(f, input.root, input.today)).sort((a, b) => a.id.localeCompare(b.id));
+  const byId = new Map(procedures.map((p) => [p.id, p]));
+
+  const areaNames = [...new Set(procedures.map((p) => p.area))].sort();
+  const kindOrder = (k: string) => {
+    const i = (kinds as readonly string[]).indexOf(k);
+    return i === -1 ? kinds.length : i;
+  };
+  const areas = areaNames.map((area) => {
+    const inArea = procedures.filter((p) => p.area === area);
+    const kindNames = [...new Set(inArea.map((p) => p.kind))].sort((a, b) => kindOrder(a) - kindOrder(b) || a.localeCompare(b));
+    return { area, kinds: kindNames.map((kind) => ({ kind, label: kindLabel(kind), procedures: inArea.filter((p) => p.kind === kind) })) };
+  });
+
+  const tagMap = new Map<string, TagView>();
+  const usedSlugs = new Set<string>();
+  for (const f of readable) {
+    const view = byId.get(f.procedure.id);
+    if (!view) continue;
+    const uses = tagUsesIn(f.procedure, f.facts!, numberSteps(f.procedure.steps));
+    for (const [tag, list] of uses) {
+      let entry = tagMap.get(tag);
+      if (!entry) {
+        let slug = slugOf(tag);
+        for (let n = 2; usedSlugs.has(slug); n++) slug = `${slugOf(tag)}-${n}`;
+        usedSlugs.add(slug);
+        entry = { tag, slug, url: `/tags/${slug}/`, roles: [], uses: [] };
+        tagMap.set(tag, entry);
+      }
+      for (const use of list) {
+        if (!entry.roles.includes(use.role)) entry.roles.push(use.role);
+        entry.uses.push({ ...use, procedure: { id: view.id, title: view.title, url: view.url, status: view.status, revision: view.revision, current: view.current } });
+      }
+    }
+  }
+  const roleOrder: TagRole[] = ['equipment', 'interlock', 'signal'];
+  const tags = [...tagMap.values()].sort((a, b) => a.tag.localeCompare(b.tag));
+  for (const t of tags) {
+    t.roles.sort((a, b) => roleOrder.indexOf(a) - roleOrder.indexOf(b));
+    t.uses.sort((a, b) => roleOrder.indexOf(a.role) - roleOrder.indexOf(b.role) || a.procedureId.localeCompare(b.procedureId));
+  }
+  // Each procedure links its tags to the page that really exists (slugs may carry a suffix).
+  for (const p of procedures) p.tags = p.tags.map(({ tag }) => ({ tag, url: tagMap.get(tag)?.url ?? `/tags/${slugOf(tag)}/` }));
+  for (const p of procedures) for (const i of p.interlocks) i.tagUrl = tagMap.get(i.tag)?.url ?? i.tagUrl;
+  return { today: input.today, procedures, areas, tags };
+}

@@ -1,0 +1,189 @@
+// Turns the step sequence into the rows of the numbered step table: hazards repeated before the steps they
+// name (DOE-STD-1029 practice), parallel blocks spelled out, decisions as "IF … THEN go to step N", loops marked.
+import type { Hazard, HazardLevel, Procedure, SequenceItem, Step } from '../model/procedure.ts';
+import { hazardRank } from './signal-words.ts';
+import { numberSteps, type StepNumbers } from './step-numbers.ts';
+
+export interface StepRow {
+  kind: 'step';
+  id: string;
+  number: string;
+  actions: string[];
+  phase?: string;
+  setpoints: Array<{ signal: string; quantity: string; text?: string }>;
+  params: Array<{ name: string; value: string }>;
+  until?: string;
+  confirm?: string;
+  expect?: string;
+  signOff?: string;
+  note?: string;
+  /** Numbers of the steps that jump back here (a loop starts at this step). */
+  loopFrom: string[];
+  /** The worst hazard level named at this step, if any. */
+  hazard?: HazardLevel;
+}
+
+export interface HazardRow {
+  kind: 'hazard';
+  level: HazardLevel;
+  hazard: string;
+  consequence?: string;
+  avoid?: string;
+  /** The step the hazard is repeated before. */
+  beforeStep: string;
+}
+
+export interface BlockRow {
+  kind: 'parallel-start' | 'parallel-end' | 'branch';
+  number: string;
+  text: string;
+}
+
+export interface DecisionRow {
+  kind: 'decision';
+  number: string;
+  /** The step whose end the decision waits for, with that step's own condition, when there is one. */
+  after?: { number: string; id: string; condition?: string };
+  choices: Array<{ text: string; targetNumber?: string; targetId?: string }>;
+}
+
+export interface JumpRow {
+  kind: 'jump';
+  number: string;
+  targetId: string;
+  targetNumber?: string;
+  /** True when the jump goes back to an earlier step: a loop. */
+  loop: boolean;
+}
+
+export type TableRow = StepRow | HazardRow | BlockRow | DecisionRow | JumpRow;
+
+/** Human form of an expected duration: `30..50 min` reads `30–50 min`. */
+export function formatDuration(text: string): string {
+  return text.replace(/\s*\.\.\s*/g, '–');
+}
+
+export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 'signals'>, numbers: StepNumbers = numberSteps(procedure.steps)): TableRow[] {
+  const rows: TableRow[] = [];
+  const hazardsAt = new Map<string, Hazard[]>();
+  for (const h of procedure.hazards) for (const at of h.at) hazardsAt.set(at.value, [...(hazardsAt.get(at.value) ?? []), h]);
+  for (const list of hazardsAt.values()) list.sort((a, b) => hazardRank(a.level) - hazardRank(b.level));
+
+  // Document order of step numbers, to tell a loop (a jump back) from a jump forward.
+  const order = new Map<string, number>();
+  let counter = 0;
+  const collectOrder = (items: SequenceItem[]) => {
+    for (const item of items) {
+      if (item.kind === 'step') order.set(item.id, counter++);
+      else for (const b of item.branches) if (b.items) collectOrder(b.items);
+    }
+  };
+  collectOrder(procedure.steps);
+
+  const loopFrom = new Map<string, string[]>();
+
+  const stepRow = (step: Step): StepRow => ({
+    kind: 'step', id: step.id, number: numbers.ofStep.get(step.id) ?? '?', actions: step.actions, phase: step.phase,
+    setpoints: step.set.map((s) => ({ signal: s.signal, quantity: s.quantity, text: procedure.signals[s.signal]?.text })),
+    params: step.params.map((p) => ({ name: p.name, value: String(p.value) })),
+    until: step.until?.value, confirm: step.confirm?.value, expect: step.expect ? formatDuration(step.expect.value) : undefined,
+    signOff: step.signOff, note: step.note, loopFrom: [],
+    hazard: hazardsAt.get(step.id)?.[0]?.level,
+  });
+
+  /** `next` names where the flow goes after this sequence ends: a step number, or a phrase. */
+  const visit = (items: SequenceItem[], next: { number?: string; id?: string; text: string }) => {
+    items.forEach((item, index) => {
+      const after = nextOf(items, index, next);
+      if (item.kind === 'step') {
+        for (const h of hazardsAt.get(item.id) ?? []) {
+          rows.push({ kind: 'hazard', level: h.level, hazard: h.hazard, consequence: h.consequence, avoid: h.avoid, beforeStep: item.id });
+        }
+        rows.push(stepRow(item));
+        return;
+      }
+      const own = numbers.ofBlock.get(item)!;
+      if (item.kind === 'parallel') {
+        const names = item.branches.map((b, i) => `${own}${numbers.letterOf(item, i)} (${b.name})`);
+        rows.push({ kind: 'parallel-start', number: own, text: `Do branches ${joinWords(names)} at the same time.` });
+        item.branches.forEach((b, i) => {
+          const letter = numbers.letterOf(item, i);
+          rows.push({ kind: 'branch', number: `${own}${letter}`, text: `Branch ${own}${letter}: ${b.name}` });
+          visit(b.items, { text: `the end of branch ${own}${letter}` });
+        });
+        rows.push({ kind: 'parallel-end', number: own, text: `Go on to ${after.number ? `step ${after.number}` : after.text} only when every branch of ${own} is done.` });
+        return;
+      }
+      const previous = items[index - 1];
+      const decision: DecisionRow = {
+        kind: 'decision', number: own, choices: [],
+        after: previous?.kind === 'step'
+          ? { number: numbers.ofStep.get(previous.id) ?? '?', id: previous.id, condition: [previous.until?.value, previous.confirm ? `confirm: ${previous.confirm.value}` : undefined].filter(Boolean).join(' and ') || undefined }
+          : undefined,
+      };
+      item.branches.forEach((b) => {
+        const condition = b.otherwise ? 'OTHERWISE' : `IF ${b.when?.value ?? '(no condition)'} THEN`;
+        const first = b.items?.length ? numbers.firstIn(b.items) : undefined;
+        const target = first
+          ? { number: first, id: b.items![0].kind === 'step' ? (b.items![0] as Step).id : undefined }
+          : b.goto ? { number: numbers.ofStep.get(b.goto.value), id: b.goto.value } : { number: after.number, id: after.id };
+        const where = target.number ? `go to step ${target.number}${target.id ? ` (${target.id})` : ''}` : `go to ${after.text}`;
+        decision.choices.push({ text: `${condition} ${where}`, targetNumber: target.number, targetId: target.id });
+      });
+      rows.push(decision);
+      item.branches.forEach((b, i) => {
+        if (!b.items?.length && !b.goto) return;
+        if (b.items?.length) visit(b.items, b.goto ? { text: '' } : after);
+        if (b.goto) {
+          const targetNumber = numbers.ofStep.get(b.goto.value);
+          const fromNumber = b.items?.length ? lastNumber(b.items, numbers) ?? own : `${own}${numbers.letterOf(item, i)}`;
+          const loop = (order.get(b.goto.value) ?? Infinity) < (b.items?.length ? (order.get(lastStepId(b.items) ?? '') ?? 0) + 1 : orderBefore(items, index));
+          if (loop) loopFrom.set(b.goto.value, [...(loopFrom.get(b.goto.value) ?? []), fromNumber]);
+          rows.push({ kind: 'jump', number: fromNumber, targetId: b.goto.value, targetNumber, loop });
+        }
+      });
+    });
+  };
+
+  const orderBefore = (items: SequenceItem[], index: number): number => {
+    for (let i = index - 1; i >= 0; i--) {
+      const id = lastStepId([items[i]]);
+      if (id) return (order.get(id) ?? 0) + 1;
+    }
+    return 0;
+  };
+
+  visit(procedure.steps, { text: 'the end of the procedure' });
+  for (const row of rows) if (row.kind === 'step') row.loopFrom = loopFrom.get(row.id) ?? [];
+  return rows;
+
+  function nextOf(items: SequenceItem[], index: number, next: { number?: string; id?: string; text: string }) {
+    const following = items[index + 1];
+    if (!following) return next;
+    const number = numbers.firstIn([following]);
+    return { number, id: following.kind === 'step' ? following.id : undefined, text: `step ${number}` };
+  }
+}
+
+function lastStepId(items: SequenceItem[]): string | undefined {
+  for (let i = items.length - 1; i >= 0; i--) {
+    const item = items[i];
+    if (item.kind === 'step') return item.id;
+    for (let b = item.branches.length - 1; b >= 0; b--) {
+      const branch = item.branches[b];
+      const id = branch.items ? lastStepId(branch.items) : undefined;
+      if (id) return id;
+    }
+  }
+  return undefined;
+}
+
+function lastNumber(items: SequenceItem[], numbers: StepNumbers): string | undefined {
+  const id = lastStepId(items);
+  return id ? numbers.ofStep.get(id) : undefined;
+}
+
+function joinWords(words: string[]): string {
+  if (words.length <= 1) return words.join('');
+  return `${words.slice(0, -1).join(', ')} and ${words[words.length - 1]}`;
+}

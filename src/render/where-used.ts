@@ -1,0 +1,58 @@
+// Cross-references for the manual: which procedures and steps use an equipment tag, an interlock or a signal.
+import type { Procedure, Step } from '../model/procedure.ts';
+import { namesIn } from '../analysis/conditions/parse.ts';
+import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
+import type { StepNumbers } from './step-numbers.ts';
+
+export type TagRole = 'equipment' | 'interlock' | 'signal';
+
+export interface TagUse {
+  role: TagRole;
+  procedureId: string;
+  /** What the procedure says about the tag (signal text, interlock action …). */
+  detail?: string;
+  steps: Array<{ id: string; number: string; action: string }>;
+}
+
+/** True when `tag` appears in `text` as a whole token (tags contain hyphens, so word boundaries are not enough). */
+export function mentionsTag(text: string, tag: string): boolean {
+  if (!tag) return false;
+  const escaped = tag.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  return new RegExp(`(?<![A-Za-z0-9_-])${escaped}(?![A-Za-z0-9_-])`).test(text);
+}
+
+function stepText(step: Step): string {
+  return [
+    ...step.actions, step.note ?? '', step.until?.value ?? '', step.confirm?.value ?? '',
+    ...step.set.map((s) => `${s.signal} ${s.quantity}`), ...step.params.map((p) => `${p.name} ${String(p.value)}`),
+  ].join('\n');
+}
+
+/** Every use of every tag in one procedure. */
+export function tagUsesIn(procedure: Procedure, facts: ProcedureFacts, numbers: StepNumbers): Map<string, TagUse[]> {
+  const uses = new Map<string, TagUse[]>();
+  const add = (tag: string, use: TagUse) => uses.set(tag, [...(uses.get(tag) ?? []), use]);
+  const steps = facts.steps.map((s) => s.step);
+  const stepsWhere = (test: (step: Step, text: string) => boolean) =>
+    steps.filter((s) => test(s, stepText(s))).map((s) => ({ id: s.id, number: numbers.ofStep.get(s.id) ?? '?', action: s.actions.join('; ') }));
+
+  for (const tag of procedure.equipment) add(tag, { role: 'equipment', procedureId: procedure.id, steps: stepsWhere((_, text) => mentionsTag(text, tag)) });
+
+  for (const interlock of procedure.interlocks) {
+    // An interlock matters at the steps that name it and at those that drive or watch the signals it trips on.
+    const site = facts.conditions.find((c) => c.role === 'trips-when' && c.owner === interlock.tag);
+    const watched = site?.result.ok ? namesIn(site.result.condition).map((n) => n.name) : [];
+    add(interlock.tag, {
+      role: 'interlock', procedureId: procedure.id, detail: `Trips when ${interlock.tripsWhen.value}: ${interlock.action}`,
+      steps: stepsWhere((step, text) => mentionsTag(text, interlock.tag) || step.set.some((s) => watched.includes(s.signal))),
+    });
+  }
+
+  for (const signal of Object.values(procedure.signals)) {
+    add(signal.name, {
+      role: 'signal', procedureId: procedure.id, detail: signal.unit ? `${signal.text} (${signal.unit})` : signal.text,
+      steps: stepsWhere((_, text) => mentionsTag(text, signal.name)),
+    });
+  }
+  return uses;
+}
