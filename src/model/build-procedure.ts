@@ -7,7 +7,7 @@ import type {
 
 type Data = Record<string, unknown>;
 
-const stepKeys = new Set(['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note']);
+const stepKeys = new Set(['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note', 'waive']);
 const branchKeys = new Set(['when', 'otherwise', 'steps', 'goto']);
 
 export function buildProcedure(file: string, data: unknown, body: Root, bodyText: string): Procedure {
@@ -31,6 +31,9 @@ export function buildProcedure(file: string, data: unknown, body: Root, bodyText
     limits: Object.entries(asRecord(d.limits)).map(([signal, v]) => buildLimit(signal, v, ['limits', signal])),
     interlocks: asArray(d.interlocks).map((v, i) => buildInterlock(v, ['interlocks', i])),
     hazards: asArray(d.hazards).map((v, i) => buildHazard(v, ['hazards', i])),
+    shutdownConditions: (Array.isArray(d['conditions-requiring']) ? d['conditions-requiring'] : [d['conditions-requiring']])
+      .map(asText).filter((c): c is string => Boolean(c?.trim())),
+    responsible: asText(d.responsible),
     steps: buildSequence(d.steps, ['steps']),
     body,
     bodyText,
@@ -119,6 +122,10 @@ function buildStep(r: Data, path: PathKey[]): Step {
     expect: located(r.expect, [...path, 'expect']),
     signOff: asText(r['sign-off']),
     note: asText(r.note),
+    waivers: asArray(r.waive).map((w, i) => {
+      const wr = asRecord(w);
+      return { rule: asText(wr.rule) ?? '', reason: asText(wr.reason), path: [...path, 'waive', i] };
+    }),
     path,
     extra,
   };

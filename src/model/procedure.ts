@@ -73,9 +73,17 @@ export interface Step {
   expect?: Located<string>;
   signOff?: string;
   note?: string;
+  /** Rules waived on this step, each with its written reason. */
+  waivers?: Waiver[];
   path: PathKey[];
   /** Extra keys added beyond the core contract, kept as written for later stages. */
   extra: Record<string, unknown>;
+}
+
+export interface Waiver {
+  rule: string;
+  reason?: string;
+  path: PathKey[];
 }
 
 export interface ParallelBranch {
@@ -127,6 +135,10 @@ export interface Procedure {
   limits: Limit[];
   interlocks: Interlock[];
   hazards: Hazard[];
+  /** Emergency shutdown: the conditions that require it (`conditions-requiring`). */
+  shutdownConditions: string[];
+  /** Emergency shutdown: who initiates it and who is in charge. */
+  responsible?: string;
   steps: SequenceItem[];
   body: Root;
   bodyText: string;

@@ -68,6 +68,10 @@ export const stepSchema = z.strictObject({
   expect: z.union([z.string(), z.number()]).optional().describe('Typical duration, e.g. "40 min" or "30..50 min".'),
   'sign-off': z.string().optional().describe('Role whose signature is needed before going on (a hold point).'),
   note: z.string().optional().describe('Extra information for the operator; never an action.'),
+  waive: z.array(z.strictObject({
+    rule: text.describe('Id of the rule waived on this step.'),
+    reason: z.string().optional().describe('Why the rule does not apply here; required (a waiver without one is an error).'),
+  })).optional().describe('Rules waived on this one step, each with a written reason.'),
   call: z.union([
     z.string().regex(procedureIdPattern, 'must be a procedure id, e.g. U2-K210-INERT-001'),
     z.strictObject({
@@ -140,6 +144,8 @@ export const procedureSchema = z.strictObject({
   limits: z.record(z.string(), limitSchema).optional().describe('Operating limits per signal.'),
   interlocks: z.array(interlockSchema).optional().describe('Safety systems and their functions.'),
   hazards: z.array(hazardSchema).optional().describe('Safety messages, pulled to the top and repeated before steps.'),
+  'conditions-requiring': z.union([text, z.array(text)]).optional().describe('Emergency shutdown: the conditions that require it.'),
+  responsible: z.string().optional().describe('Emergency shutdown: who initiates it and who is in charge.'),
   steps: sequenceSchema.describe('The sequence: steps and blocks, run in order.'),
 });
 

@@ -78,8 +78,9 @@ function chooseAlternative(errors: RawIssue[][], input: unknown): number {
 }
 
 const keysByContext: Record<string, string[]> = {
-  procedure: ['id', 'title', 'kind', 'revision', 'status', 'effective', 'review-by', 'owner', 'author', 'change', 'approvals', 'equipment', 'ppe', 'signals', 'limits', 'interlocks', 'hazards', 'steps'],
-  step: ['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note', 'call'],
+  procedure: ['id', 'title', 'kind', 'revision', 'status', 'effective', 'review-by', 'owner', 'author', 'change', 'approvals', 'equipment', 'ppe', 'signals', 'limits', 'interlocks', 'hazards', 'steps', 'conditions-requiring', 'responsible'],
+  step: ['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note', 'call', 'waive'],
+  waiver: ['rule', 'reason'],
   branch: ['when', 'otherwise', 'steps', 'goto', 'repeat'],
   approval: ['role', 'name', 'date', 'meaning'],
   signal: ['text', 'unit', 'range', 'values'],
@@ -103,6 +104,7 @@ function knownKeysAt(root: unknown, path: PathKey[]): string[] {
   if (parent === 'interlocks') return keysByContext.interlock;
   if (parent === 'hazards') return keysByContext.hazard;
   if (parent === 'choose') return keysByContext.branch;
+  if (parent === 'waive') return keysByContext.waiver;
   if (value && typeof value === 'object' && ('parallel' in value || 'choose' in value)) return ['parallel', 'choose'];
   return keysByContext.step;
 }
