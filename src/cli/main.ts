@@ -1,15 +1,21 @@
 // argv → command → exit code. Commands never throw to the user: failures become a message and exit 2.
+import { runBuild } from './build-command.ts';
 import { runCheck } from './check-command.ts';
 import { runNew } from './new-command.ts';
+import { runReview } from './review-command.ts';
 import { runSchema } from './schema-command.ts';
+import { runServe } from './serve-command.ts';
 import { UsageError, type CliIo } from './io.ts';
 
 type Command = { summary: string; run: (argv: string[], io: CliIo) => Promise<number> };
 
 export const commands: Record<string, Command> = {
+  build: { summary: 'check the procedures and build the operator manual site', run: runBuild },
   check: { summary: 'check procedure files and report problems', run: runCheck },
   new: { summary: 'write a new procedure of a given kind, with TODO placeholders', run: runNew },
+  review: { summary: 'summarise procedure changes against a git base for a pull request', run: runReview },
   schema: { summary: 'print or write the JSON Schema of the front-matter for editors', run: runSchema },
+  serve: { summary: 'serve the built manual on http://localhost:4321', run: runServe },
 };
 
 function mainHelp(): string {

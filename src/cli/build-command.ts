@@ -1,0 +1,124 @@
+// `stepwright build [folder]`: checks the procedures, builds the manual with Astro and indexes it with
+// pagefind in a temporary folder, then swaps it into place: a failed or killed build leaves the last good site.
+import { existsSync, readdirSync, renameSync, rmSync } from 'node:fs';
+import { basename, dirname, join, relative, resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import { formatCheckFailure, loadManual } from './load-manual.ts';
+import { useColour, type CliIo } from './io.ts';
+
+export const buildHelp = `Usage: stepwright build [options] [folder]
+
+Checks every procedure in the folder (default: $STEPWRIGHT_PROCEDURES or procedures/), then builds
+the operator manual as a static site and indexes it for search. A build with check errors stops
+with the same report as 'stepwright check' and leaves the last good site untouched.
+The review date marks use $STEPWRIGHT_TODAY or the date of the last commit, so builds repeat exactly.
+
+Options:
+  --out <dir>     where the site goes (default: dist)
+  --no-index      skip the search index
+  -h, --help      show this help
+
+Exit codes: 0 built, 1 check errors or a failed build, 2 usage or internal failure.
+`;
+
+export interface BuildOutcome {
+  pages: number;
+  seconds: number;
+  outDir: string;
+}
+
+export async function runBuild(argv: string[], io: CliIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: { out: { type: 'string', default: 'dist' }, 'no-index': { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } },
+    strict: true,
+  });
+  if (values.help) {
+    io.stdout.write(buildHelp);
+    return 0;
+  }
+  const started = performance.now();
+  const folder = positionals[0] ?? (io.env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures');
+  const env = { ...io.env, STEPWRIGHT_PROCEDURES: folder };
+  const loaded = loadManual({ cwd: io.cwd, env });
+  if (loaded.result.diagnostics.length > 0 || loaded.errors > 0) io.stdout.write(formatCheckFailure(loaded, useColour(io, io.stdout)));
+  const outDir = resolve(io.cwd, values.out);
+  if (loaded.errors > 0 || !loaded.view) {
+    io.stderr.write(`stepwright build: stopped, the procedures have ${loaded.errors} error${loaded.errors === 1 ? '' : 's'}. ${existsSync(outDir) ? `The last good site in ${relative(io.cwd, outDir) || '.'}/ is unchanged.` : 'No site was written.'}\n`);
+    return 1;
+  }
+
+  const tmp = `${outDir}.tmp-${process.pid}`;
+  removeStaleTemporaries(outDir);
+  try {
+    // The pages read the same folder and the same build date as the check above.
+    process.env.STEPWRIGHT_PROCEDURES = folder;
+    process.env.STEPWRIGHT_TODAY = loaded.today;
+    process.env.ASTRO_TELEMETRY_DISABLED = '1';
+    const { build } = await import('astro');
+    await build({ root: io.cwd, outDir: tmp, logLevel: 'error', mode: 'production' });
+    if (!values['no-index']) await indexSite(tmp);
+    swapInto(tmp, outDir);
+  } catch (error) {
+    rmSync(tmp, { recursive: true, force: true });
+    io.stderr.write(`stepwright build: the site could not be built: ${(error as Error)?.message ?? String(error)}\n${existsSync(outDir) ? `The last good site in ${relative(io.cwd, outDir) || '.'}/ is unchanged.\n` : ''}`);
+    return 1;
+  }
+  const seconds = (performance.now() - started) / 1000;
+  io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${loaded.view.tags.length} tag pages into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
+  return 0;
+}
+
+async function indexSite(dir: string): Promise<void> {
+  const pagefind = await import('pagefind');
+  try {
+    const { index, errors } = await pagefind.createIndex({});
+    if (!index) throw new Error(`pagefind: ${errors.join('; ')}`);
+    const added = await index.addDirectory({ path: dir });
+    if (added.errors.length) throw new Error(`pagefind: ${added.errors.join('; ')}`);
+    const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
+    if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
+  } finally {
+    await pagefind.close();
+  }
+}
+
+/** Two renames: the old site stays whole until the new one is complete. */
+function swapInto(tmp: string, outDir: string): void {
+  const old = `${outDir}.old-${process.pid}`;
+  if (existsSync(outDir)) renameSync(outDir, old);
+  renameSync(tmp, outDir);
+  rmSync(old, { recursive: true, force: true });
+}
+
+/** Removes temporary folders left by builds that were killed (their process is gone). */
+function removeStaleTemporaries(outDir: string): void {
+  const parent = dirname(outDir);
+  const prefix = `${basename(outDir)}.`;
+  let names: string[] = [];
+  try {
+    names = readdirSync(parent);
+  } catch {
+    return;
+  }
+  for (const name of names) {
+    const m = new RegExp(`^${prefix.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}(tmp|old)-(\\d+)$`).exec(name);
+    if (!m || Number(m[2]) === process.pid || isAlive(Number(m[2]))) continue;
+    if (m[1] === 'old' && !existsSync(outDir)) {
+      // A build died between the two renames: the old site is still the last good one.
+      renameSync(join(parent, name), outDir);
+      continue;
+    }
+    rmSync(join(parent, name), { recursive: true, force: true });
+  }
+}
+
+function isAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (error) {
+    return (error as NodeJS.ErrnoException).code === 'EPERM';
+  }
+}

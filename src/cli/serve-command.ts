@@ -1,0 +1,95 @@
+// `stepwright serve`: a small static file server for the built manual (gzip when the browser asks for it).
+import { createServer, type Server } from 'node:http';
+import { readFile, stat } from 'node:fs/promises';
+import { extname, join, normalize, resolve, sep } from 'node:path';
+import { gzipSync } from 'node:zlib';
+import { parseArgs } from 'node:util';
+import { UsageError, type CliIo } from './io.ts';
+
+export const serveHelp = `Usage: stepwright serve [options]
+
+Serves the built manual (see 'stepwright build') on http://localhost:4321.
+
+Options:
+  --dir <dir>     the site folder (default: dist)
+  --port <n>      port (default: 4321; 0 picks a free one)
+  --host <host>   address to listen on (default: localhost)
+  -h, --help      show this help
+`;
+
+const types: Record<string, string> = {
+  '.html': 'text/html; charset=utf-8', '.css': 'text/css; charset=utf-8', '.js': 'text/javascript; charset=utf-8',
+  '.mjs': 'text/javascript; charset=utf-8', '.json': 'application/json', '.svg': 'image/svg+xml', '.png': 'image/png',
+  '.ico': 'image/x-icon', '.webmanifest': 'application/manifest+json', '.wasm': 'application/wasm', '.txt': 'text/plain; charset=utf-8',
+  '.woff2': 'font/woff2',
+};
+const compressible = /^(text\/|application\/(json|manifest\+json)|image\/svg)/;
+
+export async function startStaticServer(dir: string, port: number, host = 'localhost'): Promise<{ server: Server; url: string }> {
+  const root = resolve(dir);
+  const server = createServer(async (req, res) => {
+    try {
+      const path = decodeURIComponent(new URL(req.url ?? '/', 'http://x').pathname);
+      let file = normalize(join(root, path));
+      if (file !== root && !file.startsWith(root + sep)) {
+        res.writeHead(403).end('Forbidden');
+        return;
+      }
+      let info = await stat(file).catch(() => null);
+      if (info?.isDirectory()) {
+        if (!path.endsWith('/')) {
+          res.writeHead(301, { location: `${path}/` }).end();
+          return;
+        }
+        file = join(file, 'index.html');
+        info = await stat(file).catch(() => null);
+      }
+      if (!info?.isFile()) {
+        const notFound = await readFile(join(root, '404.html')).catch(() => Buffer.from('Not found'));
+        res.writeHead(404, { 'content-type': 'text/html; charset=utf-8' }).end(notFound);
+        return;
+      }
+      const type = types[extname(file)] ?? 'application/octet-stream';
+      let body = await readFile(file);
+      const headers: Record<string, string> = { 'content-type': type, 'cache-control': 'no-cache' };
+      if (compressible.test(type) && /\bgzip\b/.test(String(req.headers['accept-encoding'] ?? ''))) {
+        body = gzipSync(body);
+        headers['content-encoding'] = 'gzip';
+        headers.vary = 'accept-encoding';
+      }
+      res.writeHead(200, headers).end(req.method === 'HEAD' ? undefined : body);
+    } catch {
+      res.writeHead(500).end('Server error');
+    }
+  });
+  await new Promise<void>((done, fail) => {
+    server.once('error', fail);
+    server.listen(port, host, () => done());
+  });
+  const address = server.address();
+  const actual = typeof address === 'object' && address ? address.port : port;
+  return { server, url: `http://${host}:${actual}/` };
+}
+
+export async function runServe(argv: string[], io: CliIo): Promise<number> {
+  const { values } = parseArgs({
+    args: argv,
+    options: { dir: { type: 'string', default: 'dist' }, port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' }, help: { type: 'boolean', short: 'h' } },
+    strict: true,
+  });
+  if (values.help) {
+    io.stdout.write(serveHelp);
+    return 0;
+  }
+  const port = Number(values.port);
+  if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError(`'${values.port}' is not a port number.`);
+  const dir = resolve(io.cwd, values.dir);
+  if (!(await stat(join(dir, 'index.html')).catch(() => null))) {
+    io.stderr.write(`stepwright serve: no built manual in ${values.dir}/; run 'stepwright build' first.\n`);
+    return 1;
+  }
+  const { url } = await startStaticServer(dir, port, values.host);
+  io.stdout.write(`Serving the manual from ${values.dir}/ on ${url} (Ctrl+C stops).\n`);
+  await new Promise(() => {});
+  return 0;
+}
