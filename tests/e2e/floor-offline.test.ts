@@ -1,0 +1,109 @@
+// Offline: after one visit the whole manual works with the network gone, and a newer published manual is flagged.
+import { readFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { launchChromium, requireSite, serveSite, siteDir, type SiteServer } from './floor-fixture.ts';
+
+let browser: Browser;
+let server: SiteServer;
+let context: BrowserContext;
+let page: Page;
+let manifest: { version: string; builtAt: string; files: number };
+
+beforeAll(async () => {
+  requireSite(siteDir());
+  manifest = JSON.parse(await readFile(join(siteDir(), 'offline-manifest.json'), 'utf8'));
+  server = await serveSite(siteDir());
+  browser = await launchChromium();
+});
+afterAll(async () => { await browser?.close(); await server?.close(); });
+
+async function procedureHref(p: Page, id: string): Promise<string> {
+  const href = await p.locator(`a[href*="${id.toLowerCase()}"]`).first().getAttribute('href');
+  return new URL(href!, p.url()).href;
+}
+
+/** Searches through the page's own search box when the site has one, else through the pagefind API it ships. */
+async function search(p: Page, term: string): Promise<string[]> {
+  // A string, not a function: the test runner would rewrite a dynamic import() inside a function body.
+  return p.evaluate(`(async () => {
+    const pagefind = await import('/pagefind/pagefind.js');
+    const found = await pagefind.search(${JSON.stringify(term)});
+    const data = await Promise.all(found.results.slice(0, 8).map((r) => r.data()));
+    return data.map((d) => d.url);
+  })()`);
+}
+
+describe('offline copy', () => {
+  it('is saved on the first visit and the page says when', async () => {
+    context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    page = await context.newPage();
+    await page.goto(server.url + '/');
+    await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 30_000 });
+    const status = page.locator('[data-offline-status]');
+    await expect.poll(() => status.textContent(), { timeout: 30_000 }).toMatch(/^Offline copy made \d{4}-\d\d-\d\d \d\d:\d\d/);
+    const cached = await page.evaluate(async () => {
+      const names = (await caches.keys()).filter((n) => n.startsWith('stepwright-manual-'));
+      const cache = await caches.open(names[0]);
+      return { names, count: (await cache.keys()).length };
+    });
+    expect(cached.names).toEqual([`stepwright-manual-${manifest.version}`]);
+    // Every built file plus the record of when the copy was made.
+    expect(cached.count).toBe(manifest.files + 1);
+  });
+
+  it('serves pages, search and another procedure with the network gone', async () => {
+    const batch = await procedureHref(page, 'U2-K210-BATCH-001');
+    await server.close(); // not only "offline" in the browser: the server is really gone
+    await context.setOffline(true);
+    await page.goto(batch);
+    await expect(page.locator('h1').textContent()).resolves.toContain('U2-K210-BATCH-001');
+    await expect(page.locator('[data-step-id]').count()).resolves.toBeGreaterThan(5);
+    await page.reload();
+    await expect(page.locator('h1').textContent()).resolves.toContain('U2-K210-BATCH-001');
+    const urls = await search(page, 'H-220');
+    expect(urls.length).toBeGreaterThan(0);
+    const other = urls.find((u) => !u.includes('u2-k210-batch-001'))!;
+    expect(other).toBeDefined();
+    await page.goto(new URL(other, page.url()).href);
+    await expect(page.locator('h1').count()).resolves.toBe(1);
+    await expect(page.locator('body').textContent()).resolves.toMatch(/H-220/);
+  });
+
+  it('warns when the published manual it last saw is newer, and updates when it can reach it', async () => {
+    // A fresh server has a new port, so a new origin: the copy is saved again there first.
+    server = await serveSite(siteDir());
+    await context.close();
+    context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    page = await context.newPage();
+    await page.goto(server.url + '/');
+    await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 30_000 });
+    await expect.poll(() => page.locator('[data-offline-status]').textContent(), { timeout: 30_000 }).toMatch(/^Offline copy made/);
+    const stale = page.locator('[data-offline-stale]');
+    await expect(stale.isVisible()).resolves.toBe(false);
+
+    // A newer manual is published: the server's manifest now names another version.
+    const newer = { ...manifest, version: 'f00dfeedf00dfeed', builtAt: new Date(Date.parse(manifest.builtAt) + 3_600_000).toISOString() };
+    server.override.set('/offline-manifest.json', JSON.stringify(newer));
+    await page.reload();
+    await expect.poll(() => stale.isVisible(), { timeout: 10_000 }).toBe(true);
+    await expect(stale.textContent()).resolves.toMatch(/older than the published manual/);
+
+    // Offline, the warning stays: the tablet remembers the newer manual it saw.
+    await context.setOffline(true);
+    await page.reload();
+    await expect.poll(() => stale.isVisible(), { timeout: 10_000 }).toBe(true);
+
+    // Back on the network with the new worker published, the copy is replaced and the warning goes away.
+    const worker = await readFile(join(siteDir(), 'sw.js'), 'utf8');
+    server.override.set('/sw.js', worker.replaceAll(manifest.version, newer.version));
+    await context.setOffline(false);
+    await page.reload();
+    await expect.poll(() => page.evaluate(() => caches.keys()), { timeout: 30_000 }).toEqual([`stepwright-manual-${newer.version}`]);
+    await page.reload();
+    await expect.poll(() => page.locator('[data-offline-status]').getAttribute('data-offline-version'), { timeout: 10_000 }).toBe(newer.version);
+    await expect.poll(() => stale.isVisible(), { timeout: 10_000 }).toBe(false);
+  });
+});
