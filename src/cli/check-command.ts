@@ -1,7 +1,11 @@
 // `stepwright check [paths…]`: checks procedure files and reports every problem with its place.
+import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { checkSources } from '../check/run-checks.ts';
 import { formatHuman, formatJson, summarize } from './format-diagnostics.ts';
+import { formatGithub } from './format-github.ts';
+import { GitError } from '../history/git.ts';
+import { previousFromGit, repoPath } from './repository.ts';
 import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 
@@ -12,8 +16,10 @@ file:line:column, severity, rule id, message and a hint. Paths may be files or f
 (default: procedures/). Folders are searched for *.md files.
 
 Options:
-  --format <human|json>   output format (default: human)
+  --format <human|json|github>  output format (default: human); github prints workflow annotations
   --quiet                 print errors only
+  --base <ref>            judge changes against this git ref (default: HEAD, the last commit)
+  --no-history            do not read git history (the revision and status rules stay silent)
   -h, --help              show this help
 
 Exit codes: 0 no errors (warnings allowed), 1 errors found, 2 usage or internal failure.
@@ -23,18 +29,30 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { format: { type: 'string', default: 'human' }, quiet: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } },
+    options: {
+      format: { type: 'string', default: 'human' }, quiet: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' },
+      base: { type: 'string' }, 'no-history': { type: 'boolean', default: false },
+    },
     strict: true,
   });
   if (values.help) {
     io.stdout.write(checkHelp);
     return 0;
   }
-  if (values.format !== 'human' && values.format !== 'json') throw new UsageError(`Unknown format '${values.format}'; use human or json.`);
+  if (values.format !== 'human' && values.format !== 'json' && values.format !== 'github') throw new UsageError(`Unknown format '${values.format}'; use human, json or github.`);
   const inputs = readProcedureFiles(positionals.length ? positionals : ['procedures'], io.cwd);
-  const result = checkSources(inputs, { today: todayOf(io) });
+  let history: Awaited<ReturnType<typeof previousFromGit>> = {};
+  try {
+    if (!values['no-history']) history = await previousFromGit(inputs, io, values.base);
+  } catch (error) {
+    if (!(error instanceof GitError)) throw error;
+    io.stderr.write(`stepwright check: ${error.message}\n`);
+    return 2;
+  }
+  const result = checkSources(inputs, { today: todayOf(io), previous: history.previous });
   const shown = values.quiet ? result.diagnostics.filter((d) => d.severity === 'error') : result.diagnostics;
   if (values.format === 'json') io.stdout.write(formatJson(shown));
+  else if (values.format === 'github') io.stdout.write(formatGithub(shown, (file) => (history.repo ? repoPath(history.repo, resolve(io.cwd, file)) : file)));
   else {
     const texts = new Map(inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
     io.stdout.write(formatHuman(shown, texts, useColour(io, io.stdout)));

@@ -1,0 +1,175 @@
+// `stepwright review --base <ref>`: a Markdown summary of the procedure changes since a base, for a pull request.
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import { parse as parseYaml } from 'yaml';
+import { checkSources, readProcedure } from '../check/run-checks.ts';
+import { buildProcedure } from '../model/build-procedure.ts';
+import type { Procedure } from '../model/procedure.ts';
+import { defaultReviewPolicy, parseReviewPolicy, requiredSignOffs, type PolicyEntry } from '../history/approval-policy.ts';
+import { GitError, showFile } from '../history/git.ts';
+import { changedPaths, resolveCommit, type ChangedPath } from '../history/previous-version.ts';
+import { redline } from '../history/redline.ts';
+import { renderReviewMarkdown, type ReviewedFile } from '../history/review-summary.ts';
+import { formatGithub } from './format-github.ts';
+import { todayOf, UsageError, type CliIo } from './io.ts';
+import { readProcedureFiles } from './read-procedure-files.ts';
+import { openRepository, repoPath, type Repository } from './repository.ts';
+
+export const reviewHelp = `Usage: stepwright review --base <ref> [options] [paths…]
+
+Summarises the procedure changes between the merge base of <ref> and the working copy, for a pull
+request: per changed procedure the revision and status change, the safety-relevant changes (hazards,
+interlocks, limits, setpoints, transitions on guarded signals, removed hazard messages), a table of
+step changes, the sign-offs the review policy requires, the check results and a mermaid flowchart with
+the changed steps marked. Paths default to procedures/. See docs/review.md.
+
+Options:
+  --base <ref>                 the branch or commit the change is reviewed against (required)
+  --format <markdown|github>   markdown (default) prints the summary; github prints workflow
+                               annotations for the check problems of the changed files
+  --output <file>              also write the Markdown summary to this file
+  -h, --help                   show this help
+
+Exit codes: 0 no errors in the changed files, 1 errors found, 2 usage, git or internal failure.
+`;
+
+const configFile = 'stepwright.config.yaml';
+
+export async function runReview(argv: string[], io: CliIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: {
+      base: { type: 'string' }, format: { type: 'string', default: 'markdown' }, output: { type: 'string' }, help: { type: 'boolean', short: 'h' },
+    },
+    strict: true,
+  });
+  if (values.help) {
+    io.stdout.write(reviewHelp);
+    return 0;
+  }
+  if (!values.base) throw new UsageError("Missing '--base <ref>', e.g. '--base origin/main'.");
+  if (values.format !== 'markdown' && values.format !== 'github') throw new UsageError(`Unknown format '${values.format}'; use markdown or github.`);
+
+  const repo = await openRepository(io);
+  if (!repo) {
+    io.stderr.write('stepwright review: this folder is not inside a git repository; review compares against a git base.\n');
+    return 2;
+  }
+  const policy = loadPolicy(io, repo);
+  if ('problems' in policy) {
+    io.stderr.write(`stepwright review: ${policy.file} has a bad 'review-policy':\n${policy.problems.map((p) => `  ${p}`).join('\n')}\n`);
+    return 2;
+  }
+
+  try {
+    const report = await buildReview(repo, io, values.base, positionals.length ? positionals : ['procedures'], policy);
+    const markdown = renderReviewMarkdown(report.input);
+    if (values.output) writeFileSync(resolve(io.cwd, values.output), markdown);
+    if (values.format === 'github') io.stdout.write(formatGithub(report.diagnostics, (file) => repoPath(repo, file)));
+    else io.stdout.write(markdown);
+    return report.diagnostics.some((d) => d.severity === 'error') ? 1 : 0;
+  } catch (error) {
+    if (!(error instanceof GitError)) throw error;
+    io.stderr.write(`stepwright review: ${error.message}\n`);
+    return 2;
+  }
+}
+
+async function buildReview(repo: Repository, io: CliIo, base: string, paths: string[], policy: { policy: PolicyEntry[]; source: string }) {
+  const notices: string[] = [];
+  const baseTip = await resolveCommit(repo.git, base);
+  let baseCommit = baseTip;
+  try {
+    baseCommit = (await repo.git(['merge-base', baseTip, 'HEAD'])).trim();
+  } catch {
+    notices.push(repo.shallow
+      ? `This is a shallow clone and the merge base of '${base}' and HEAD is not in it, so the change is compared with the tip of '${base}' and may include changes made there since. Fetch the full history ('git fetch --unshallow'; in GitHub Actions: actions/checkout with 'fetch-depth: 0').`
+      : `'${base}' and HEAD share no history; the change is compared with the tip of '${base}'.`);
+  }
+
+  const pathspecs = paths.map((p) => repoPath(repo, resolve(io.cwd, p)));
+  const tracked = changedPaths(await repo.git(['diff', '--name-status', '-M', '-z', baseCommit, '--', ...pathspecs]));
+  const untracked = (await repo.git(['ls-files', '--others', '--exclude-standard', '-z', '--', ...pathspecs]))
+    .split('\0').filter(Boolean).map((path): ChangedPath => ({ status: 'A', path }));
+  const changes = [...tracked, ...untracked].filter((c) => c.path.endsWith('.md')).sort((a, b) => a.path.localeCompare(b.path));
+
+  const inputs = readProcedureFiles(paths, io.cwd);
+  const inputByPath = new Map(inputs.map((i) => [repoPath(repo, resolve(io.cwd, i.file)), i]));
+  const oldTexts = new Map<string, string>();
+  await Promise.all(changes.map(async (c) => {
+    if (c.status === 'A') return;
+    const text = await showFile(repo.git, baseCommit, c.oldPath ?? c.path);
+    if (text !== undefined) oldTexts.set(c.path, text);
+  }));
+
+  const result = checkSources(inputs, {
+    today: todayOf(io),
+    previous: (file) => {
+      const text = oldTexts.get(repoPath(repo, resolve(io.cwd, file)));
+      return text === undefined ? undefined : { text, commit: `${base} (${baseCommit.slice(0, 7)})` };
+    },
+  });
+  const diagnosticsOf = new Map(result.files.map((f) => [repoPath(repo, resolve(io.cwd, f.file)), f.diagnostics]));
+
+  const files: ReviewedFile[] = [];
+  for (const c of changes) {
+    const input = inputByPath.get(c.path);
+    const newText = c.status === 'D' ? undefined : input && 'text' in input ? input.text : readIfThere(join(repo.root, c.path));
+    const oldText = oldTexts.get(c.path);
+    const before = oldText === undefined ? undefined : procedureIn(c.oldPath ?? c.path, oldText);
+    const after = newText === undefined ? undefined : procedureIn(c.path, newText);
+    if (!before && !after) continue;
+    const lines = redline(before ?? emptyProcedure(c.path), after ?? emptyProcedure(c.path));
+    files.push({
+      path: c.path,
+      ...(c.oldPath ? { oldPath: c.oldPath } : {}),
+      change: c.status === 'D' ? 'deleted' : !before ? 'added' : c.oldPath ? 'renamed' : 'modified',
+      ...(before ? { before } : {}),
+      ...(after ? { after } : {}),
+      redline: lines,
+      signOffs: requiredSignOffs(lines, policy.policy),
+      diagnostics: diagnosticsOf.get(c.path) ?? [],
+    });
+  }
+  return {
+    input: { base, baseCommit, files, policySource: policy.source, notices },
+    diagnostics: files.flatMap((f) => f.diagnostics),
+  };
+}
+
+/** A procedure file is one whose front-matter reads as a procedure; other markdown (READMEs) is skipped. */
+function procedureIn(path: string, text: string): Procedure | undefined {
+  const p = readProcedure(path, text).procedure;
+  return p && (p.id || p.steps.length) ? p : undefined;
+}
+
+function emptyProcedure(path: string): Procedure {
+  return buildProcedure(path, {}, { type: 'root', children: [] }, '');
+}
+
+function readIfThere(file: string): string | undefined {
+  try {
+    return readFileSync(file, 'utf8');
+  } catch {
+    return undefined;
+  }
+}
+
+function loadPolicy(io: CliIo, repo: Repository): { policy: PolicyEntry[]; source: string } | { problems: string[]; file: string } {
+  const file = [join(io.cwd, configFile), join(repo.root, configFile)].find((f) => existsSync(f));
+  const fallback = { policy: defaultReviewPolicy, source: 'default review policy (docs/review.md)' };
+  if (!file) return fallback;
+  let config: unknown;
+  try {
+    config = parseYaml(readFileSync(file, 'utf8'));
+  } catch (error) {
+    return { file: configFile, problems: [(error as Error).message.split('\n')[0]] };
+  }
+  const value = config && typeof config === 'object' ? (config as Record<string, unknown>)['review-policy'] : undefined;
+  if (value === undefined) return fallback;
+  const parsed = parseReviewPolicy(value);
+  if ('problems' in parsed) return { file: configFile, problems: parsed.problems };
+  return { policy: parsed.policy, source: `review policy in ${configFile}` };
+}

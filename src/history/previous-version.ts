@@ -1,0 +1,69 @@
+// Finds the previous committed version of each procedure file, for the history rules of `check` and `review`.
+import { GitError, showFile, type Git } from './git.ts';
+
+export interface PreviousVersion {
+  text: string;
+  /** Short commit id, or the ref name and commit for a base. */
+  commit: string;
+}
+
+/**
+ * Each file as it was at `base` (a ref or commit), under the name it had there (renames since are followed).
+ * `check` uses HEAD, so it judges the uncommitted change; `review` uses the pull request's base.
+ * Keys and `files[].path` are paths relative to the repository root.
+ */
+export async function previousVersions(git: Git, files: Array<{ path: string }>, base: string): Promise<Map<string, PreviousVersion>> {
+  const found = new Map<string, PreviousVersion>();
+  const commit = await resolveCommit(git, base);
+  const oldPaths = await pathsAtBase(git, commit);
+  await Promise.all(files.map(async ({ path }) => {
+    const text = await showFile(git, commit, oldPaths.get(path) ?? path);
+    if (text !== undefined) found.set(path, { text, commit: `${base} (${commit.slice(0, 7)})` });
+  }));
+  return found;
+}
+
+/** Resolves a ref to a commit id, with a message that says what to do when a shallow clone lacks it. */
+export async function resolveCommit(git: Git, ref: string): Promise<string> {
+  try {
+    return (await git(['rev-parse', '--verify', '--quiet', `${ref}^{commit}`])).trim();
+  } catch (error) {
+    if ((error as GitError).missingGit) throw error;
+    throw new GitError(
+      `The base '${ref}' is not in this clone. Fetch it first (e.g. 'git fetch origin ${ref.replace(/^origin\//, '')}'), ` +
+        "or clone with full history (GitHub Actions: actions/checkout with 'fetch-depth: 0').",
+      ['rev-parse', ref], '',
+    );
+  }
+}
+
+/** Maps each path renamed since `commit` (working tree included) to its name at `commit`. */
+export async function pathsAtBase(git: Git, commit: string): Promise<Map<string, string>> {
+  const out = await git(['diff', '--name-status', '-M', '-z', commit, '--']);
+  const map = new Map<string, string>();
+  for (const entry of changedPaths(out)) if (entry.oldPath) map.set(entry.path, entry.oldPath);
+  return map;
+}
+
+export interface ChangedPath {
+  status: 'A' | 'M' | 'D' | 'R' | 'C' | 'T' | 'U' | 'X';
+  path: string;
+  oldPath?: string;
+}
+
+/** Parses `git diff --name-status -z` output. */
+export function changedPaths(out: string): ChangedPath[] {
+  const parts = out.split('\0');
+  const entries: ChangedPath[] = [];
+  for (let i = 0; i < parts.length; ) {
+    const code = parts[i++];
+    if (!code) continue;
+    const status = code[0] as ChangedPath['status'];
+    if (status === 'R' || status === 'C') {
+      const oldPath = parts[i++];
+      const path = parts[i++];
+      entries.push({ status, path, oldPath });
+    } else entries.push({ status, path: parts[i++] });
+  }
+  return entries;
+}
