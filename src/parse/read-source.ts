@@ -5,6 +5,7 @@ import remarkParse from 'remark-parse';
 import type { Root } from 'mdast';
 import type { Diagnostic, SourceRange } from './diagnostic.ts';
 import { splitFrontMatter } from './split-front-matter.ts';
+import { prescanBodyNesting, prescanYamlNesting } from './nesting-prescan.ts';
 
 export type PathKey = string | number;
 
@@ -34,7 +35,6 @@ export function readSource(file: string, text: string): ParsedSource {
   const fileLines = createOffsetToPosition(text);
   const diagnostics: Diagnostic[] = [];
   const bodyStartLine = fileLines(split.bodyOffset).line;
-  const body = parseBody(split.body, bodyStartLine);
   let doc: Document.Parsed | null = null;
   let data: unknown = null;
 
@@ -43,6 +43,27 @@ export function readSource(file: string, text: string): ParsedSource {
     const e = fileLines(Math.max(offset, endOffset));
     return { line: s.line, column: s.column, endLine: e.line, endColumn: e.column };
   };
+
+  // The markdown parser slows steeply with nesting and can overflow the stack, so absurd bodies are refused first.
+  const bodyProblem = prescanBodyNesting(split.body);
+  let body: Root = { type: 'root', children: [] };
+  if (bodyProblem) {
+    diagnostics.push({
+      file, ...at(split.bodyOffset + bodyProblem.offset), severity: 'error', rule: 'body-too-deep',
+      message: `The narrative text nests quotes or lists ${bodyProblem.depth} columns deep; it was not read.`,
+      hint: 'A procedure\'s narrative needs only a few levels of lists and quotes. Flatten them.',
+    });
+  } else {
+    try {
+      body = parseBody(split.body, bodyStartLine);
+    } catch (error) {
+      diagnostics.push({
+        file, ...at(split.bodyOffset), severity: 'error', rule: 'body-too-deep',
+        message: `The narrative text could not be read: ${firstLine((error as Error)?.message ?? String(error))}.`,
+        hint: 'Simplify the markdown below the front-matter: fewer nested lists, quotes and emphasis marks.',
+      });
+    }
+  }
 
   if (split.yaml === null) {
     diagnostics.push({
@@ -59,7 +80,16 @@ export function readSource(file: string, text: string): ParsedSource {
       });
     }
     const lineCounter = new LineCounter();
-    doc = parseDocument(split.yaml, { lineCounter, prettyErrors: false, uniqueKeys: true, strict: true });
+    // The YAML library recurses once per level and overflows the stack on thousands of levels: refuse those first.
+    const tooDeep = prescanYamlNesting(split.yaml);
+    if (tooDeep) {
+      diagnostics.push({
+        file, ...at(split.yamlOffset + tooDeep.offset), severity: 'error', rule: 'yaml-syntax',
+        message: `The front-matter nests deeper than ${limits.maxDepth} levels; it was not read.`,
+        hint: 'A procedure needs only a few levels of nesting. Flatten the blocks or split the procedure.',
+      });
+    }
+    doc = parseDocument(tooDeep ? '' : split.yaml, { lineCounter, prettyErrors: false, uniqueKeys: true, strict: true });
     const yamlLineOffset = fileLines(split.yamlOffset).line - 1;
     // Only the first error: later ones are nearly always knock-on effects of it.
     for (const error of doc.errors.slice(0, 1)) {

@@ -2,6 +2,7 @@
 import type { Rule } from '../define-rule.ts';
 import approvalMissing from './approval-missing.ts';
 import authorOnlyApprover from './author-only-approver.ts';
+import bodyTooDeep from './body-too-deep.ts';
 import badIdFormat from './bad-id-format.ts';
 import conditionSyntax from './condition-syntax.ts';
 import duplicateProcedureId from './duplicate-procedure-id.ts';
@@ -35,6 +36,7 @@ import yamlSyntax from './yaml-syntax.ts';
 export const rules = {
   'approval-missing': approvalMissing,
   'author-only-approver': authorOnlyApprover,
+  'body-too-deep': bodyTooDeep,
   'bad-id-format': badIdFormat,
   'condition-syntax': conditionSyntax,
   'duplicate-procedure-id': duplicateProcedureId,
