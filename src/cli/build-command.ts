@@ -5,6 +5,7 @@ import { basename, dirname, join, relative, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { formatCheckFailure, loadManual } from './load-manual.ts';
 import { useColour, type CliIo } from './io.ts';
+import { writeOfflineCopy } from './write-offline-copy.ts';
 
 export const buildHelp = `Usage: stepwright build [options] [folder]
 
@@ -59,6 +60,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     const { build } = await import('astro');
     await build({ root: io.cwd, outDir: tmp, logLevel: 'error', mode: 'production' });
     if (!values['no-index']) await indexSite(tmp);
+    // Last, so the offline copy's list and version cover the pages and the search index.
+    await writeOfflineCopy(tmp, { now: new Date() });
     swapInto(tmp, outDir);
   } catch (error) {
     rmSync(tmp, { recursive: true, force: true });

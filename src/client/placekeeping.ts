@@ -14,11 +14,15 @@ export function storageKey(plan: Pick<PlacekeepingPlan, 'id' | 'revision'>): str
 }
 
 export function setUpPlacekeeping(root: Document = document): void {
-  const found = root.querySelector<HTMLElement>('[data-step-plan]');
-  if (!found) return;
-  const table: HTMLElement = found;
+  const host = root.querySelector<HTMLElement>('[data-step-plan]');
+  const firstRow = root.querySelector<HTMLElement>('tr[data-step]');
+  const found = firstRow?.closest('table');
+  if (!host || !found) return;
+  const table: HTMLTableElement = found;
   let plan: PlacekeepingPlan;
-  try { plan = JSON.parse(table.dataset.stepPlan ?? '') as PlacekeepingPlan; } catch { return; }
+  try { plan = JSON.parse(host.dataset.stepPlan ?? '') as PlacekeepingPlan; } catch { return; }
+  // The table's scroll wrapper is what the one-step view hides.
+  (table.closest('.scroll-x') ?? table).setAttribute('data-pk-table', '');
   const flow = compileFlow(plan);
   const key = storageKey(plan);
   let saved = load(key);
@@ -55,7 +59,7 @@ export function setUpPlacekeeping(root: Document = document): void {
   const dockNav = el('div', { class: 'pk-nav' });
   dock.append(dockHazards, dockNav);
 
-  const anchor = table.closest('figure, .step-table, section') ?? table;
+  const anchor = table.closest('section') ?? table;
   anchor.parentElement?.insertBefore(panel, anchor);
   root.body.append(dock);
 
@@ -90,7 +94,7 @@ export function setUpPlacekeeping(root: Document = document): void {
     return open.find((t) => t.path === saved.view) ?? open.find((t) => t.at.k !== 'join') ?? open[0];
   };
 
-  const rowOf = (id: string) => table.querySelector<HTMLTableRowElement>(`tr[data-step-id="${CSS.escape(id)}"]`);
+  const rowOf = (id: string) => table.querySelector<HTMLTableRowElement>(`tr[data-step="${CSS.escape(id)}"]`);
   const numberOf = (id: string) => plan.numbers[id] ?? id;
 
   function focusCurrent(): void {
@@ -119,8 +123,8 @@ export function setUpPlacekeeping(root: Document = document): void {
 
   function markTable(): void {
     const current = new Set(saved.on ? place.tokens.flatMap((t) => (t.at.k === 'step' ? [t.at.id] : [])) : []);
-    for (const row of table.querySelectorAll<HTMLTableRowElement>('tr[data-step-id]')) {
-      const id = row.dataset.stepId!;
+    for (const row of table.querySelectorAll<HTMLTableRowElement>('tr[data-step]')) {
+      const id = row.dataset.step!;
       const isCurrent = current.has(id);
       row.classList.toggle('pk-current', isCurrent);
       row.classList.toggle('pk-done', saved.on && (place.done[id] ?? 0) > 0 && !isCurrent);

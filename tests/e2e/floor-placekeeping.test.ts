@@ -95,7 +95,7 @@ describe('placekeeping on the batch procedure', () => {
     await expect(current.count()).resolves.toBe(1);
     await expect(current.locator('.pk-badge').textContent()).resolves.toBe('Current step');
     await expect(page.locator('tr.pk-done .pk-badge').first().textContent()).resolves.toMatch(/^Marked/);
-    await expect(page.locator('[data-step-plan]').isVisible()).resolves.toBe(true);
+    await expect(page.locator('[data-pk-table]').isVisible()).resolves.toBe(true);
   });
 
   it('can be reset', async () => {
