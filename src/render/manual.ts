@@ -86,9 +86,9 @@ export function kindLabel(kind: string): string {
   return kindLabels[kind] ?? kind;
 }
 
-/** URL-safe, file-name-safe form of an id or tag. */
+/** URL-safe, file-name-safe, lower-case form of an id or tag (URLs are case-sensitive; people type them in lower case). */
 export function slugOf(text: string): string {
-  return text.replace(/[^A-Za-z0-9._-]+/g, '_').replace(/^\.+/, '_') || '_';
+  return text.toLowerCase().replace(/[^a-z0-9._-]+/g, '_').replace(/^\.+/, '_') || '_';
 }
 
 export function reviewMark(procedure: Pick<Procedure, 'reviewBy' | 'status'>, today: string): ReviewMark {

@@ -1,0 +1,107 @@
+import { describe, expect, it } from 'vitest';
+import { checkSources } from '../../src/check/run-checks.ts';
+import { renderBodyHtml } from '../../src/render/body-html.ts';
+import { buildManualView, reviewMark, slugOf, statusBanner } from '../../src/render/manual.ts';
+import { mentionsTag } from '../../src/render/where-used.ts';
+import { readTestProcedure, procedureText } from './procedure-text.ts';
+
+describe('review marks and status banners', () => {
+  it('marks a review date before the build date as overdue, within 30 days as due soon', () => {
+    expect(reviewMark({ reviewBy: '2026-01-31', status: 'effective' }, '2026-02-01').state).toBe('overdue');
+    expect(reviewMark({ reviewBy: '2026-02-01', status: 'effective' }, '2026-02-01').state).toBe('due-soon');
+    expect(reviewMark({ reviewBy: '2026-03-03', status: 'effective' }, '2026-02-01').state).toBe('due-soon');
+    expect(reviewMark({ reviewBy: '2026-03-04', status: 'effective' }, '2026-02-01').state).toBe('ok');
+    expect(reviewMark({ reviewBy: '2020-01-01', status: 'retired' }, '2026-02-01').state).toBe('none');
+  });
+
+  it('shows a banner for every status that must not be used yet or any more', () => {
+    for (const status of ['draft', 'in-review', 'superseded', 'retired']) expect(statusBanner({ status }, '2026-01-01')).toBeDefined();
+    expect(statusBanner({ status: 'superseded' }, '2026-01-01')?.tone).toBe('stop');
+    expect(statusBanner({ status: 'effective', effective: '2025-01-01' }, '2026-01-01')).toBeUndefined();
+    expect(statusBanner({ status: 'approved', effective: '2026-06-01' }, '2026-01-01')?.title).toContain('NOT YET EFFECTIVE');
+  });
+});
+
+describe('manual view', () => {
+  const a = procedureText({
+    id: 'U9-A-001', title: 'Start pump P-1', kind: 'startup', status: 'effective', revision: 2, effective: '2025-01-01', 'review-by': '2025-06-01',
+    equipment: ['P-1', 'V-2'],
+    signals: { 'TI-1': { text: 'Temperature', unit: 'degC', range: [0, 200] } },
+    limits: { 'TI-1': { low: '10 degC', high: '90 degC', consequence: 'Seal damage', correction: 'Cool' } },
+    interlocks: [{ tag: 'TSH-1', 'trips-when': 'TI-1 >= 120 degC', action: 'Stops P-1' }],
+    hazards: [
+      { level: 'notice', hazard: 'Seal wear', at: ['start'] },
+      { level: 'danger', hazard: 'Hot liquid', at: ['heat'] },
+      { level: 'warning', hazard: 'Noise', at: [] },
+    ],
+    steps: [
+      { step: 'start', do: 'Start pump P-1', until: 'done' },
+      { step: 'heat', do: 'Heat the loop', set: { 'TI-1': '80 degC' }, until: 'TI-1 >= 78 degC' },
+    ],
+  }, '## Purpose\n\nMoves <b>water</b>.\n\n<script>alert(1)</script>\n');
+  const b = procedureText({ id: 'U9-B-001', title: 'Old way', kind: 'shutdown', status: 'superseded', revision: 1, equipment: ['P-1'], steps: [{ step: 'stop', do: 'Stop P-1', until: 'done' }] });
+  const result = checkSources([{ file: 'procedures/pumps/a.md', text: a }, { file: 'procedures/b.md', text: b }], { today: '2026-01-01' });
+  const view = buildManualView({ files: result.files, root: 'procedures', today: '2026-01-01' });
+  const pa = view.procedures.find((p) => p.id === 'U9-A-001')!;
+
+  it('groups procedures by area folder and kind', () => {
+    expect(view.areas.map((x) => x.area)).toEqual(['(top level)', 'pumps']);
+    expect(view.areas[1].kinds.map((k) => k.label)).toEqual(['Start-up']);
+  });
+
+  it('orders hazards DANGER > WARNING > CAUTION > NOTICE and links their steps', () => {
+    expect(pa.hazards.map((h) => h.word)).toEqual(['DANGER', 'WARNING', 'NOTICE']);
+    expect(pa.hazards[0].steps).toEqual([{ id: 'heat', number: '2' }]);
+  });
+
+  it('lists limits with the unit once', () => {
+    expect(pa.limits[0]).toMatchObject({ signal: 'TI-1', low: '10', high: '90', unit: 'degC', consequence: 'Seal damage', correction: 'Cool' });
+  });
+
+  it('marks overdue review, and the superseded procedure as not current with a banner', () => {
+    expect(pa.review.state).toBe('overdue');
+    const pb = view.procedures.find((p) => p.id === 'U9-B-001')!;
+    expect(pb.current).toBe(false);
+    expect(pb.banner?.title).toContain('SUPERSEDED');
+    expect(pa.url).toBe('/procedures/u9-a-001/');
+  });
+
+  it('builds where-used: tag → procedures → steps', () => {
+    const p1 = view.tags.find((t) => t.tag === 'P-1')!;
+    expect(p1.uses.map((u) => [u.procedureId, u.steps.map((s) => s.id)])).toEqual([['U9-A-001', ['start']], ['U9-B-001', ['stop']]]);
+    const tsh = view.tags.find((t) => t.tag === 'TSH-1')!;
+    expect(tsh.roles).toEqual(['interlock']);
+    // The interlock watches TI-1; the step that sets TI-1 is where it matters.
+    expect(tsh.uses[0].steps.map((s) => s.id)).toEqual(['heat']);
+  });
+
+  it('renders the narrative without raw HTML', () => {
+    expect(pa.bodyHtml).toContain('<h3>Purpose</h3>');
+    expect(pa.bodyHtml).not.toContain('<script');
+    expect(pa.bodyHtml).not.toContain('<b>');
+  });
+});
+
+describe('safe narrative HTML', () => {
+  it('drops raw HTML and dangerous links', () => {
+    const p = readTestProcedure({ steps: [] }, 'Text [x](javascript:alert(1)) <img src=x onerror=alert(1)>\n\n<div onclick="x()">hi</div>\n');
+    const html = renderBodyHtml(p.body);
+    expect(html).not.toMatch(/javascript:|onerror|onclick|<img|<div/);
+    expect(html).toContain('Text');
+  });
+});
+
+describe('tags and slugs', () => {
+  it('matches tags as whole tokens', () => {
+    expect(mentionsTag('Start pump P-1 now', 'P-1')).toBe(true);
+    expect(mentionsTag('Start pump P-10 now', 'P-1')).toBe(false);
+    expect(mentionsTag('Open XP-1', 'P-1')).toBe(false);
+    expect(mentionsTag('TI-210 >= 5 degC', 'TI-210')).toBe(true);
+  });
+
+  it('makes lower-case, path-safe slugs', () => {
+    expect(slugOf('U2-K210-BATCH-001')).toBe('u2-k210-batch-001');
+    expect(slugOf('../etc/passwd')).toBe('__etc_passwd');
+    expect(slugOf('A B/C')).toBe('a_b_c');
+  });
+});
