@@ -28,6 +28,8 @@ interface KindPlan {
   /** YAML text placed after the steps (a decision block), indented for the steps list. */
   after?: string;
   labSignal?: boolean;
+  /** Front-matter lines the kind needs beyond the common ones. */
+  keys?: string[];
 }
 
 const todo = (text: string) => `"${TODO}: ${text}"`;
@@ -78,9 +80,11 @@ const plans: Record<Kind, KindPlan> = {
     steps: [check('reduce', 'reduce the load or stop the feed'), { id: 'cool-down', do: todo('stop heating and cool down'), until: `${signal} <= 40 degC`, expect: '30..60 min' }, check('isolate', 'isolate the equipment'), check('make-safe', 'leave the unit in a safe state')],
   },
   'emergency-shutdown': {
-    sections: [
-      { heading: 'When to shut down', text: `${TODO}: the conditions that require this emergency shutdown (alarms, readings, events).` },
-      { heading: 'Who is responsible', text: `${TODO}: who decides and carries out the shutdown, and who is told.` },
+    sections: [],
+    keys: [
+      'conditions-requiring:',
+      `  - ${todo('a condition that requires this shutdown (an alarm, a reading or an event)')}`,
+      `responsible: ${todo('who initiates the shutdown and who is in charge')}`,
     ],
     steps: [check('trip', 'press the emergency stop', '1 min'), { id: 'confirm-safe', do: todo('check the unit reaches its safe state'), until: `${signal} <= 100 degC`, expect: '5..15 min' }, check('report', 'report the shutdown to the shift supervisor')],
   },
@@ -111,6 +115,7 @@ export function scaffoldProcedure(options: ScaffoldOptions): string {
     `owner: ${todo('the responsible group')}`,
     `author: ${todo('your name')}`,
     'change: New procedure',
+    ...(plan.keys ?? []),
     `equipment: [${TODO}-TAG]`,
     'ppe:',
     `  - ${todo('protective equipment required')}`,

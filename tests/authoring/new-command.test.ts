@@ -40,7 +40,7 @@ describe('scaffolded procedures', () => {
   });
 
   it('asks for the sections the kind needs', () => {
-    expect(scaffoldProcedure({ kind: 'emergency-shutdown', id: 'U2-A-1' })).toMatch(/## When to shut down[\s\S]*## Who is responsible/);
+    expect(scaffoldProcedure({ kind: 'emergency-shutdown', id: 'U2-A-1' })).toMatch(/conditions-requiring:\n {2}- "TODO: [^\n]*\nresponsible: "TODO: /);
     expect(scaffoldProcedure({ kind: 'startup-after-turnaround', id: 'U2-A-1' })).toContain('## Pre-startup safety review');
     expect(scaffoldProcedure({ kind: 'temporary', id: 'U2-A-1' })).toContain('## Why temporary, and until when');
     expect(scaffoldProcedure({ kind: 'batch', id: 'U2-A-1' })).toMatch(/phase: charge[\s\S]*repeat:/);

@@ -4,6 +4,10 @@ import approvalMissing from './approval-missing.ts';
 import authorOnlyApprover from './author-only-approver.ts';
 import bodyTooDeep from './body-too-deep.ts';
 import badIdFormat from './bad-id-format.ts';
+import callCycle from './call-cycle.ts';
+import callRetiredProcedure from './call-retired-procedure.ts';
+import callRevisionMismatch from './call-revision-mismatch.ts';
+import callUnknownProcedure from './call-unknown-procedure.ts';
 import conditionSyntax from './condition-syntax.ts';
 import duplicateProcedureId from './duplicate-procedure-id.ts';
 import duplicateStepId from './duplicate-step-id.ts';
@@ -38,6 +42,10 @@ export const rules = {
   'author-only-approver': authorOnlyApprover,
   'body-too-deep': bodyTooDeep,
   'bad-id-format': badIdFormat,
+  'call-cycle': callCycle,
+  'call-retired-procedure': callRetiredProcedure,
+  'call-revision-mismatch': callRevisionMismatch,
+  'call-unknown-procedure': callUnknownProcedure,
   'condition-syntax': conditionSyntax,
   'duplicate-procedure-id': duplicateProcedureId,
   'duplicate-step-id': duplicateStepId,

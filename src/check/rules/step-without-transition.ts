@@ -10,7 +10,8 @@ export default defineFileRule(
     source: 'IEC 61131-3, sequential function charts: steps and transitions alternate',
     docs: `In a sequence, steps and transitions alternate: every step ends when a transition becomes true. A
 step needs \`until\` (a condition on signals), \`confirm\` (an operator check), or a \`choose\` block directly
-after it whose branch conditions end it. Otherwise nobody can tell when the step is finished.`,
+after it whose branch conditions end it. Otherwise nobody can tell when the step is finished. A step with
+\`call\` runs another procedure and ends when that procedure ends, so it needs no transition of its own.`,
     examples: {
       bad: '- step: heat-up\n  do: Heat K-210 to 180 degC',
       good: '- step: heat-up\n  do: Heat K-210 to 180 degC\n  until: TI-210 >= 180 degC',
@@ -23,6 +24,8 @@ after it whose branch conditions end it. Otherwise nobody can tell when the step
       if (!t.missing || !t.fromStep || reported.has(t.fromStep)) continue;
       const place = ctx.facts.stepById.get(t.fromStep);
       if (!place) continue;
+      // A step that calls another procedure ends when that procedure ends.
+      if (place.step.extra.call !== undefined) continue;
       reported.add(t.fromStep);
       ctx.report({
         path: [...place.step.path, 'step'],

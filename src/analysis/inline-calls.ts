@@ -1,0 +1,158 @@
+// Shared operations: finds `call` steps, links callers and callees, finds call cycles, and expands a
+// procedure with every call replaced by the called procedure's steps (ids prefixed by the call step's id).
+import type { PathKey } from '../parse/read-source.ts';
+import type { ChooseBranch, Hazard, Procedure, SequenceItem, Step } from '../model/procedure.ts';
+import { walkSteps } from '../model/walk-steps.ts';
+
+export interface CallSite {
+  /** The procedure that calls. */
+  caller: string;
+  step: Step;
+  callee: string;
+  /** The revision the call is pinned to, if any. */
+  revision?: number;
+  /** Path of the `call` value in the caller's front-matter. */
+  path: PathKey[];
+}
+
+export type ProcedureLookup = (id: string) => Procedure | undefined;
+
+/** Separates the call step's id from the called step's id in an expanded procedure. */
+export const inlineSeparator = '/';
+
+/** The call a step makes, read from its `call` key (a procedure id, or {procedure, revision}). */
+export function callOf(step: Step): { callee: string; revision?: number } | undefined {
+  const call = step.extra.call;
+  if (typeof call === 'string' && call.trim()) return { callee: call.trim() };
+  if (call && typeof call === 'object' && !Array.isArray(call)) {
+    const { procedure, revision } = call as { procedure?: unknown; revision?: unknown };
+    if (typeof procedure !== 'string' || !procedure.trim()) return undefined;
+    return { callee: procedure.trim(), ...(typeof revision === 'number' ? { revision } : {}) };
+  }
+  return undefined;
+}
+
+export function callSitesOf(procedure: Pick<Procedure, 'id' | 'steps'>): CallSite[] {
+  return walkSteps(procedure.steps).flatMap(({ step }) => {
+    const call = callOf(step);
+    return call ? [{ caller: procedure.id, step, ...call, path: [...step.path, 'call'] }] : [];
+  });
+}
+
+export interface CallLinks {
+  /** Procedure id → the calls it makes. */
+  calls: Map<string, CallSite[]>;
+  /** Procedure id → the calls made to it (from other procedures' steps). */
+  callers: Map<string, CallSite[]>;
+}
+
+export function linkCalls(procedures: Iterable<Pick<Procedure, 'id' | 'steps'>>): CallLinks {
+  const calls = new Map<string, CallSite[]>();
+  const callers = new Map<string, CallSite[]>();
+  for (const p of procedures) {
+    const sites = callSitesOf(p);
+    calls.set(p.id, sites);
+    for (const site of sites) callers.set(site.callee, [...(callers.get(site.callee) ?? []), site]);
+  }
+  return { calls, callers };
+}
+
+/**
+ * A chain of procedure ids from `site.callee` back to `site.caller` (the call closes a cycle), or undefined.
+ * The chain starts with the caller: [A, B, …, A].
+ */
+export function callCycleThrough(site: CallSite, lookup: ProcedureLookup): string[] | undefined {
+  const seen = new Set<string>();
+  const search = (id: string, trail: string[]): string[] | undefined => {
+    if (id === site.caller) return [...trail, id];
+    if (seen.has(id)) return undefined;
+    seen.add(id);
+    const p = lookup(id);
+    if (!p) return undefined;
+    for (const next of callSitesOf(p)) {
+      const found = search(next.callee, [...trail, id]);
+      if (found) return found;
+    }
+    return undefined;
+  };
+  return search(site.callee, [site.caller]);
+}
+
+export type InlineProblem =
+  | { kind: 'unknown-procedure'; site: CallSite }
+  | { kind: 'cycle'; site: CallSite; chain: string[] };
+
+export interface InlineResult {
+  procedure: Procedure;
+  problems: InlineProblem[];
+  /** Procedures whose steps were inlined, in the order met. */
+  inlined: string[];
+}
+
+/**
+ * Expands every call (recursively). A call that cannot be expanded (unknown procedure, or one that would
+ * recurse) stays as the call step. Called steps keep their own YAML paths, which point into the callee's file;
+ * `extra.inlinedFrom` says which procedure and call step they came from.
+ */
+export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): InlineResult {
+  const problems: InlineProblem[] = [];
+  const inlined: string[] = [];
+  const signals = { ...procedure.signals };
+  const limits = [...procedure.limits];
+  const interlocks = [...procedure.interlocks];
+  const hazards = [...procedure.hazards];
+
+  const expandSequence = (items: SequenceItem[], stack: string[], prefix: string): SequenceItem[] =>
+    items.flatMap((item): SequenceItem[] => {
+      if (item.kind === 'parallel') {
+        return [{ ...item, branches: item.branches.map((b) => ({ ...b, items: expandSequence(b.items, stack, prefix) })) }];
+      }
+      if (item.kind === 'choose') {
+        return [{ ...item, branches: item.branches.map((b): ChooseBranch => ({
+          ...b,
+          items: b.items ? expandSequence(b.items, stack, prefix) : undefined,
+          goto: b.goto ? { ...b.goto, value: prefix + b.goto.value } : undefined,
+        })) }];
+      }
+      const step: Step = { ...item, id: prefix + item.id };
+      const call = callOf(item);
+      if (!call) return [step];
+      const site: CallSite = { caller: stack.at(-1)!, step: item, ...call, path: [...item.path, 'call'] };
+      if (stack.includes(call.callee)) {
+        problems.push({ kind: 'cycle', site, chain: [...stack.slice(stack.indexOf(call.callee)), call.callee] });
+        return [step];
+      }
+      const callee = lookup(call.callee);
+      if (!callee) {
+        problems.push({ kind: 'unknown-procedure', site });
+        return [step];
+      }
+      inlined.push(callee.id);
+      const inner = `${step.id}${inlineSeparator}`;
+      for (const [name, s] of Object.entries(callee.signals)) signals[name] ??= s;
+      limits.push(...callee.limits.filter((l) => !limits.some((m) => m.signal === l.signal)));
+      interlocks.push(...callee.interlocks.filter((i) => !interlocks.some((j) => j.tag === i.tag)));
+      hazards.push(...callee.hazards.map((h): Hazard => ({ ...h, at: h.at.map((a) => ({ ...a, value: inner + a.value })) })));
+      const body = expandSequence(callee.steps, [...stack, callee.id], inner).map((s) => markOrigin(s, callee, step.id));
+      // The call step's own transition still has to hold once the called procedure has ended.
+      if (item.until || item.confirm) {
+        body.push({ ...step, actions: [`End of ${callee.id}`], expect: undefined, extra: { ...step.extra, call: undefined } });
+      }
+      return body;
+    });
+
+  const steps = expandSequence(procedure.steps, [procedure.id], '');
+  return {
+    procedure: { ...procedure, steps, signals, limits, interlocks, hazards },
+    problems,
+    inlined,
+  };
+}
+
+function markOrigin(item: SequenceItem, callee: Procedure, callStep: string): SequenceItem {
+  if (item.kind === 'step') {
+    return item.extra.inlinedFrom ? item : { ...item, extra: { ...item.extra, inlinedFrom: { procedure: callee.id, file: callee.file, callStep } } };
+  }
+  if (item.kind === 'parallel') return { ...item, branches: item.branches.map((b) => ({ ...b, items: b.items.map((s) => markOrigin(s, callee, callStep)) })) };
+  return { ...item, branches: item.branches.map((b) => ({ ...b, items: b.items?.map((s) => markOrigin(s, callee, callStep)) })) };
+}
