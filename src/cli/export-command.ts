@@ -1,0 +1,91 @@
+// `stepwright export ID --format json|mermaid`: one procedure of the manual as model JSON or a mermaid flowchart.
+import { parseArgs } from 'node:util';
+import { closest } from 'fastest-levenshtein';
+import { estimateCycleTime } from '../analysis/cycle-time.ts';
+import { inlineCalls } from '../analysis/inline-calls.ts';
+import { checkSources } from '../check/run-checks.ts';
+import type { Procedure } from '../model/procedure.ts';
+import { mermaidFlowchart } from '../render/mermaid-flowchart.ts';
+import { formatHuman } from './format-diagnostics.ts';
+import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
+import { readProcedureFiles } from './read-procedure-files.ts';
+
+export const exportHelp = `Usage: stepwright export ID [--format json|mermaid] [--inline] [--force] [paths…]
+
+Prints one procedure of the manual for use elsewhere:
+  json      the checked model: identity, document control, signals, limits, interlocks, hazards,
+            the step tree (with each item's YAML path), the narrative body as markdown, and the
+            cycle-time estimate
+  mermaid   a mermaid flowchart of the sequence (steps, decisions, parallel branches, loops)
+
+The manual is read from paths (default: procedures/) so that calls can be expanded. A procedure with
+check errors is not exported (run 'stepwright check' first), unless --force is given.
+
+Options:
+  --format <json|mermaid>   output format (default: json)
+  --inline                  expand 'call' steps into the called procedures' steps
+  --force                   export even when the procedure has check errors
+  -h, --help                show this help
+
+Exit codes: 0 exported, 1 not found or has errors, 2 usage or internal failure.
+`;
+
+export async function runExport(argv: string[], io: CliIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: {
+      format: { type: 'string', default: 'json' },
+      inline: { type: 'boolean', default: false },
+      force: { type: 'boolean', default: false },
+      help: { type: 'boolean', short: 'h' },
+    },
+    strict: true,
+  });
+  if (values.help) {
+    io.stdout.write(exportHelp);
+    return 0;
+  }
+  const [id, ...paths] = positionals;
+  if (!id) throw new UsageError('Give the id of the procedure to export, e.g. stepwright export U2-K210-INERT-001.');
+  if (values.format !== 'json' && values.format !== 'mermaid') throw new UsageError(`Unknown format '${values.format}'; use json or mermaid.`);
+
+  const inputs = readProcedureFiles(paths.length ? paths : ['procedures'], io.cwd);
+  const result = checkSources(inputs, { today: todayOf(io) });
+  const byId = new Map<string, Procedure>();
+  for (const f of result.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f.procedure);
+  const found = result.files.find((f) => f.procedure?.id === id);
+  if (!found?.procedure) {
+    const guess = byId.size ? closest(id, [...byId.keys()]) : undefined;
+    io.stderr.write(`stepwright export: no procedure with id '${id}' in ${paths.join(', ') || 'procedures'}.${guess ? ` Did you mean '${guess}'?` : ''}\n`);
+    return 1;
+  }
+  const errors = found.diagnostics.filter((d) => d.severity === 'error');
+  if (errors.length && !values.force) {
+    const texts = new Map(inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
+    io.stderr.write(formatHuman(errors, texts, useColour(io, io.stderr)));
+    io.stderr.write(`stepwright export: ${found.file} has ${errors.length} error${errors.length === 1 ? '' : 's'}; nothing was exported. Fix them, or use --force.\n`);
+    return 1;
+  }
+
+  const procedure = values.inline ? inlineCalls(found.procedure, (callee) => byId.get(callee)).procedure : found.procedure;
+  io.stdout.write(values.format === 'mermaid' ? mermaidFlowchart(procedure) : exportJson(procedure));
+  return 0;
+}
+
+/** The model without the parsed body tree and the raw front-matter (both restate what is already there). */
+export function exportJson(procedure: Procedure): string {
+  const { body: _tree, bodyText, data: _data, ...model } = procedure;
+  const cycle = estimateCycleTime(procedure);
+  return `${JSON.stringify({
+    format: 'stepwright-procedure',
+    formatVersion: 1,
+    ...model,
+    body: bodyText,
+    cycleTime: {
+      seconds: { shortest: cycle.shortest, typical: cycle.typical, longest: Number.isFinite(cycle.longest) ? cycle.longest : null },
+      criticalPath: cycle.criticalPath,
+      notes: cycle.notes.map((n) => n.message),
+    },
+  }, (_key, value) => (value === undefined ? undefined : value), 2)}\n`;
+}
