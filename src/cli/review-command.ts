@@ -8,7 +8,7 @@ import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { defaultReviewPolicy, parseReviewPolicy, requiredSignOffs, type PolicyEntry } from '../history/approval-policy.ts';
 import { GitError, showFile } from '../history/git.ts';
-import { changedPaths, resolveCommit, type ChangedPath } from '../history/previous-version.ts';
+import { changedPaths, describeBase, resolveCommit, type ChangedPath } from '../history/previous-version.ts';
 import { redline } from '../history/redline.ts';
 import { renderReviewMarkdown, type ReviewedFile } from '../history/review-summary.ts';
 import { formatGithub } from './format-github.ts';
@@ -108,7 +108,7 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
     today: todayOf(io),
     previous: (file) => {
       const text = oldTexts.get(repoPath(repo, resolve(io.cwd, file)));
-      return text === undefined ? undefined : { text, commit: `${base} (${baseCommit.slice(0, 7)})` };
+      return text === undefined ? undefined : { text, commit: describeBase(base, baseCommit) };
     },
   });
   const diagnosticsOf = new Map(result.files.map((f) => [repoPath(repo, resolve(io.cwd, f.file)), f.diagnostics]));

@@ -18,9 +18,14 @@ export async function previousVersions(git: Git, files: Array<{ path: string }>,
   const oldPaths = await pathsAtBase(git, commit);
   await Promise.all(files.map(async ({ path }) => {
     const text = await showFile(git, commit, oldPaths.get(path) ?? path);
-    if (text !== undefined) found.set(path, { text, commit: `${base} (${commit.slice(0, 7)})` });
+    if (text !== undefined) found.set(path, { text, commit: describeBase(base, commit) });
   }));
   return found;
+}
+
+/** "main (1a2b3c4)", or just the short id when the base was given as a commit id. */
+export function describeBase(base: string, commit: string): string {
+  return commit.startsWith(base.toLowerCase()) ? commit.slice(0, 7) : `${base} (${commit.slice(0, 7)})`;
 }
 
 /** Resolves a ref to a commit id, with a message that says what to do when a shallow clone lacks it. */

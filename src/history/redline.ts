@@ -59,9 +59,12 @@ export interface Redline {
 
 export function redline(before: Procedure, after: Procedure): Redline {
   const steps = stepRows(before, after);
+  // Setpoints and transitions are keyed by step id: a renamed step keeps its key, so only real changes show.
+  const renamed = new Map(steps.flatMap((s) => (s.renamedFrom ? [[s.renamedFrom, s.id] as const] : [])));
+  const idNow = (id: string) => renamed.get(id) ?? id;
   const items = [
-    ...setpointChanges(before, after),
-    ...transitionChanges(before, after),
+    ...setpointChanges(before, after, idNow),
+    ...transitionChanges(before, after, idNow),
     ...limitChanges(before, after),
     ...interlockChanges(before, after),
     ...hazardChanges(before, after),
@@ -189,14 +192,14 @@ function conditionNames(text: string): string[] {
   return parsed.ok ? namesIn(parsed.condition).map((n) => n.name) : [];
 }
 
-function setpointChanges(before: Procedure, after: Procedure): ItemChange[] {
-  const collect = (p: Procedure) => {
+function setpointChanges(before: Procedure, after: Procedure, idNow: (id: string) => string): ItemChange[] {
+  const collect = (p: Procedure, key: (id: string) => string) => {
     const map = new Map<string, string>();
-    for (const s of layoutSteps(p).steps) for (const sp of s.step.set) map.set(`${s.step.id}: ${sp.signal}`, sp.quantity);
+    for (const s of layoutSteps(p).steps) for (const sp of s.step.set) map.set(`${key(s.step.id)}: ${sp.signal}`, sp.quantity);
     return map;
   };
-  const a = collect(before);
-  const b = collect(after);
+  const a = collect(before, idNow);
+  const b = collect(after, (id) => id);
   return [...new Set([...a.keys(), ...b.keys()])].flatMap((key): ItemChange[] => {
     const f = field('setpoint', a.get(key), b.get(key));
     if (!f) return [];
@@ -204,16 +207,17 @@ function setpointChanges(before: Procedure, after: Procedure): ItemChange[] {
   });
 }
 
-function transitionChanges(before: Procedure, after: Procedure): ItemChange[] {
+function transitionChanges(before: Procedure, after: Procedure, idNow: (id: string) => string): ItemChange[] {
   const guarded = new Set([...guardedSignals(before), ...guardedSignals(after)]);
-  const collect = (p: Procedure) => {
+  const collect = (p: Procedure, key: (id: string) => string) => {
     const map = new Map<string, { area: ItemArea; text: string; goto?: string }>();
-    for (const s of layoutSteps(p).steps) if (s.step.until) map.set(`after ${s.step.id}`, { area: 'transitions', text: s.step.until.value });
-    for (const d of layoutSteps(p).decisions) map.set(d.key, { area: 'decisions', text: d.condition, goto: d.goto });
+    const layout = layoutSteps(p);
+    for (const s of layout.steps) if (s.step.until) map.set(`after ${key(s.step.id)}`, { area: 'transitions', text: s.step.until.value });
+    for (const d of layout.decisions) map.set(d.key.split(' → ').map(key).join(' → '), { area: 'decisions', text: d.condition, goto: d.goto && key(d.goto) });
     return map;
   };
-  const a = collect(before);
-  const b = collect(after);
+  const a = collect(before, idNow);
+  const b = collect(after, (id) => id);
   return [...new Set([...a.keys(), ...b.keys()])].flatMap((key): ItemChange[] => {
     const x = a.get(key);
     const y = b.get(key);

@@ -5,6 +5,7 @@ import type { Procedure } from '../model/procedure.ts';
 import { mermaidFlowchart } from '../render/mermaid-flowchart.ts';
 import { stepMarks, type FieldChange, type ItemChange, type Redline, type StepRow, type WordPart } from './redline.ts';
 import type { RequiredSignOff } from './approval-policy.ts';
+import { describeBase } from './previous-version.ts';
 
 export interface ReviewedFile {
   /** Path now (or before, when deleted), relative to the repository root. */
@@ -29,7 +30,7 @@ export interface ReviewInput {
 
 export function renderReviewMarkdown(input: ReviewInput): string {
   const out: string[] = [];
-  out.push(`## Stepwright review against \`${input.base}\` (${input.baseCommit.slice(0, 7)})`, '');
+  out.push(`## Stepwright review against ${describeBase(input.base, input.baseCommit).replace(/^(\S+)/, '`$1`')}`, '');
   for (const n of input.notices) out.push(`> [!WARNING]`, `> ${n}`, '');
   if (!input.files.length) {
     out.push('No procedure changed.', '');
@@ -140,7 +141,9 @@ const areaWords: Record<ItemChange['area'], string> = {
 function itemLine(item: ItemChange): string {
   const head = `**${areaWords[item.area]} ${item.key}** ${item.kind}`;
   if (item.kind !== 'changed') {
-    const values = item.fields.map((f) => (f.field === item.area ? (f.after ?? f.before) : `${f.field}: ${f.after ?? f.before}`)).join('; ');
+    // The key already names the item (a hazard's level and text, a tag, a signal), so it is not repeated.
+    const shown = item.fields.filter((f) => !(item.area === 'hazards' && (f.field === 'level' || f.field === 'hazard')));
+    const values = shown.map((f) => (f.field === item.area ? (f.after ?? f.before) : `${f.field}: ${f.after ?? f.before}`)).join('; ');
     return `${head}: ${inline(values)}`;
   }
   return `${head}: ${item.fields.map(fieldText).join('; ')}`;
