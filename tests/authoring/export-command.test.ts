@@ -2,13 +2,15 @@
 import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { JSDOM } from 'jsdom';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
 import type { CliIo } from '../../src/cli/io.ts';
 import { findProcedureFiles } from '../../src/cli/read-procedure-files.ts';
 import { readProcedure } from '../../src/check/run-checks.ts';
 import { readFileSync } from 'node:fs';
+// jsdom ships no type declarations; type the one constructor used here.
+const { JSDOM } = (await import('jsdom' as string)) as { JSDOM: new (html: string, options?: { contentType?: string }) => { window: Window & typeof globalThis } };
+
 
 const root = join(import.meta.dirname, '..', '..');
 type Mermaid = { parse(text: string): Promise<unknown> };

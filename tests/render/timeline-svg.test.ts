@@ -1,11 +1,13 @@
 // The timeline chart: one row per bar, bars placed by their start and typical duration, text escaped.
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { JSDOM } from 'jsdom';
 import { describe, expect, it } from 'vitest';
 import { estimateCycleTime } from '../../src/analysis/cycle-time.ts';
 import { readProcedure } from '../../src/check/run-checks.ts';
 import { renderTimelineSvg } from '../../src/render/timeline-svg.ts';
+// jsdom ships no type declarations; type the one constructor used here.
+const { JSDOM } = (await import('jsdom' as string)) as { JSDOM: new (html: string, options?: { contentType?: string }) => { window: Window & typeof globalThis } };
+
 
 function svgOf(steps: string) {
   const text = `---\nid: U2-TL-001\ntitle: Timeline case\nkind: normal\nrevision: 0\nstatus: draft\nsteps:\n${steps}\n---\n`;
