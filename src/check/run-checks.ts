@@ -6,6 +6,7 @@ import type { Procedure } from '../model/procedure.ts';
 import { validateFrontMatter } from '../model/validate.ts';
 import { collectFacts, type ProcedureFacts } from '../analysis/procedure-facts.ts';
 import { toDiagnostic, type FileContext, type FileHistory, type Report, type Rule, type RuleMeta } from './define-rule.ts';
+import { applyWaivers, type WaivedDiagnostic } from './waivers.ts';
 import { allRules } from './rules/index.ts';
 
 export type SourceInput = { file: string; text: string } | { file: string; error: string };
@@ -28,6 +29,8 @@ export interface CheckedFile {
   procedure: Procedure | null;
   facts: ProcedureFacts | null;
   diagnostics: Diagnostic[];
+  /** Diagnostics set aside by a step's waiver (with its reason); kept out of `diagnostics`, shown by the site. */
+  waived?: WaivedDiagnostic[];
 }
 
 export interface CheckResult {
@@ -83,9 +86,10 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   }
 
   for (const context of contexts) {
+    const { kept, waived } = applyWaivers(context.procedure, context.source, sink.get(context)!.sort(compareDiagnostics));
     files.push({
       file: context.file, source: context.source, procedure: context.procedure, facts: context.facts,
-      diagnostics: sink.get(context)!.sort(compareDiagnostics),
+      diagnostics: kept, waived,
     });
   }
   files.sort((a, b) => a.file.localeCompare(b.file));
