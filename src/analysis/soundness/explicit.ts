@@ -3,7 +3,7 @@ import type { StepGraph } from '../step-graph.ts';
 import { explore, type Game } from './token-game.ts';
 import type { SoundnessProblem, SoundnessResult } from './verdict.ts';
 
-export const defaultStateBudget = 100_000;
+export const defaultStateBudget = 50_000;
 
 export function exploreSoundness(graph: StepGraph, budget = defaultStateBudget): SoundnessResult {
   const number = new Map(graph.places.map((p, i) => [p.id, i]));

@@ -30,12 +30,9 @@ export interface Exploration {
   pathTo(place: number): Transition[];
 }
 
-function keyOf(m: Uint8Array): string {
-  let s = '';
-  // Chunked so that large nets stay below the argument limit of fromCharCode.
-  for (let i = 0; i < m.length; i += 4096) s += String.fromCharCode.apply(null, m.subarray(i, i + 4096) as unknown as number[]);
-  return s;
-}
+// Token counts stay tiny (a second token ends the search there), so one byte per place is one latin-1 character.
+const latin1 = new TextDecoder('latin1');
+const keyOf = (m: Uint8Array): string => latin1.decode(m);
 
 export function explore(game: Game, budget: number): Exploration {
   const n = game.places.length;
@@ -48,6 +45,7 @@ export function explore(game: Game, budget: number): Exploration {
   const parent: number[] = [];
   const via: number[] = [];
   const successors: number[][] = [];
+  const unsafeState: boolean[] = [];
   const firstMarked = new Int32Array(n).fill(-1);
   const fired = new Uint8Array(game.transitions.length);
   let exceeded = false;
@@ -55,10 +53,11 @@ export function explore(game: Game, budget: number): Exploration {
   let unsafePlace = -1;
   let improperAt = -1;
 
-  const add = (m: Uint8Array, from: number, t: number): number => {
-    const key = keyOf(m);
+  const add = (candidate: Uint8Array, from: number, t: number): number => {
+    const key = keyOf(candidate);
     const known = index.get(key);
     if (known !== undefined) return known;
+    const m = candidate.slice();
     const id = markings.length;
     index.set(key, id);
     markings.push(m);
@@ -66,19 +65,25 @@ export function explore(game: Game, budget: number): Exploration {
     via.push(t);
     successors.push([]);
     let tokens = 0;
+    let unsafe = false;
     for (let p = 0; p < n; p++) {
       if (m[p] === 0) continue;
       tokens += m[p];
       if (firstMarked[p] < 0) firstMarked[p] = id;
-      if (m[p] > 1 && unsafeAt < 0) {
-        unsafeAt = id;
-        unsafePlace = p;
+      if (m[p] > 1) {
+        unsafe = true;
+        if (unsafeAt < 0) {
+          unsafeAt = id;
+          unsafePlace = p;
+        }
       }
     }
+    unsafeState.push(unsafe);
     if (m[game.exit] > 0 && tokens > 1 && improperAt < 0) improperAt = id;
     return id;
   };
 
+  const scratch = new Uint8Array(n);
   const initial = new Uint8Array(n);
   initial[game.entry] = 1;
   add(initial, -1, -1);
@@ -89,19 +94,19 @@ export function explore(game: Game, budget: number): Exploration {
     }
     const m = markings[s];
     // A place with two tokens is already a finding; going on from there could run without bound.
-    let safe = true;
-    for (let p = 0; p < n; p++) if (m[p] > 1) safe = false;
-    if (!safe) continue;
+    if (unsafeState[s]) continue;
     for (let p = 0; p < n; p++) {
       if (m[p] === 0) continue;
       for (const ti of byFirstInput[p]) {
         const t = game.transitions[ti];
-        if (!t.from.every((f) => m[f] > 0)) continue;
-        const next = m.slice();
-        for (const f of t.from) next[f]--;
-        for (const q of t.to) next[q]++;
+        let enabled = true;
+        for (const f of t.from) if (m[f] === 0) enabled = false;
+        if (!enabled) continue;
+        scratch.set(m);
+        for (const f of t.from) scratch[f]--;
+        for (const q of t.to) scratch[q]++;
         fired[ti] = 1;
-        successors[s].push(add(next, s, ti));
+        successors[s].push(add(scratch, s, ti));
       }
     }
   }
@@ -136,9 +141,7 @@ export function explore(game: Game, budget: number): Exploration {
     const canExit = new Uint8Array(markings.length);
     const queue: number[] = [];
     markings.forEach((m, s) => {
-      let unsafe = false;
-      for (let p = 0; p < n; p++) if (m[p] > 1) unsafe = true;
-      if (m[game.exit] > 0 || unsafe) {
+      if (m[game.exit] > 0 || unsafeState[s]) {
         canExit[s] = 1;
         queue.push(s);
       }
