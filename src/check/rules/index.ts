@@ -11,6 +11,7 @@ import callUnknownProcedure from './call-unknown-procedure.ts';
 import cautionForSeriousInjury from './caution-for-serious-injury.ts';
 import cautionHoldsAction from './caution-holds-action.ts';
 import conditionSyntax from './condition-syntax.ts';
+import contradictoryCondition from './contradictory-condition.ts';
 import duplicateProcedureId from './duplicate-procedure-id.ts';
 import duplicateStepId from './duplicate-step-id.ts';
 import effectiveBeforeApproval from './effective-before-approval.ts';
@@ -21,6 +22,7 @@ import gotoUnknownStep from './goto-unknown-step.ts';
 import hazardUnknownStep from './hazard-unknown-step.ts';
 import invalidValue from './invalid-value.ts';
 import limitIncomplete from './limit-incomplete.ts';
+import loopWithoutExit from './loop-without-exit.ts';
 import missingFrontMatter from './missing-front-matter.ts';
 import missingRequiredKey from './missing-required-key.ts';
 import mixedAndOr from './mixed-and-or.ts';
@@ -28,6 +30,7 @@ import noteHoldsAction from './note-holds-action.ts';
 import noticeForInjury from './notice-for-injury.ts';
 import numberWithoutUnit from './number-without-unit.ts';
 import oneActionPerStep from './one-action-per-step.ts';
+import overlappingBranches from './overlapping-branches.ts';
 import placeholderText from './placeholder-text.ts';
 import ppeMissing from './ppe-missing.ts';
 import requiredContentMissing from './required-content-missing.ts';
@@ -36,14 +39,21 @@ import revisionDecreased from './revision-decreased.ts';
 import revisionNotBumped from './revision-not-bumped.ts';
 import safetyMessageIncomplete from './safety-message-incomplete.ts';
 import sentenceTooLong from './sentence-too-long.ts';
+import sequenceDeadlock from './sequence-deadlock.ts';
+import sequenceTooLarge from './sequence-too-large.ts';
 import setpointAtTrip from './setpoint-at-trip.ts';
+import setpointBlocksTransition from './setpoint-blocks-transition.ts';
 import setpointOutsideLimits from './setpoint-outside-limits.ts';
 import statusLifecycle from './status-lifecycle.ts';
+import stepActivatedTwice from './step-activated-twice.ts';
 import stepStartsWithVerb from './step-starts-with-verb.ts';
 import stepWithoutTransition from './step-without-transition.ts';
+import stepsLeftActive from './steps-left-active.ts';
 import thresholdOutsideRange from './threshold-outside-range.ts';
+import uncoveredValues from './uncovered-values.ts';
 import undeclaredName from './undeclared-name.ts';
 import unitMismatch from './unit-mismatch.ts';
+import unreachableStep from './unreachable-step.ts';
 import unreadableFile from './unreadable-file.ts';
 import unknownKey from './unknown-key.ts';
 import unknownUnit from './unknown-unit.ts';
@@ -65,6 +75,7 @@ export const rules = {
   'caution-for-serious-injury': cautionForSeriousInjury,
   'caution-holds-action': cautionHoldsAction,
   'condition-syntax': conditionSyntax,
+  'contradictory-condition': contradictoryCondition,
   'duplicate-procedure-id': duplicateProcedureId,
   'duplicate-step-id': duplicateStepId,
   'effective-before-approval': effectiveBeforeApproval,
@@ -75,6 +86,7 @@ export const rules = {
   'hazard-unknown-step': hazardUnknownStep,
   'invalid-value': invalidValue,
   'limit-incomplete': limitIncomplete,
+  'loop-without-exit': loopWithoutExit,
   'missing-front-matter': missingFrontMatter,
   'missing-required-key': missingRequiredKey,
   'mixed-and-or': mixedAndOr,
@@ -82,6 +94,7 @@ export const rules = {
   'notice-for-injury': noticeForInjury,
   'number-without-unit': numberWithoutUnit,
   'one-action-per-step': oneActionPerStep,
+  'overlapping-branches': overlappingBranches,
   'placeholder-text': placeholderText,
   'ppe-missing': ppeMissing,
   'required-content-missing': requiredContentMissing,
@@ -90,14 +103,21 @@ export const rules = {
   'revision-not-bumped': revisionNotBumped,
   'safety-message-incomplete': safetyMessageIncomplete,
   'sentence-too-long': sentenceTooLong,
+  'sequence-deadlock': sequenceDeadlock,
+  'sequence-too-large': sequenceTooLarge,
   'setpoint-at-trip': setpointAtTrip,
+  'setpoint-blocks-transition': setpointBlocksTransition,
   'setpoint-outside-limits': setpointOutsideLimits,
   'status-lifecycle': statusLifecycle,
+  'step-activated-twice': stepActivatedTwice,
   'step-starts-with-verb': stepStartsWithVerb,
   'step-without-transition': stepWithoutTransition,
+  'steps-left-active': stepsLeftActive,
   'threshold-outside-range': thresholdOutsideRange,
+  'uncovered-values': uncoveredValues,
   'undeclared-name': undeclaredName,
   'unit-mismatch': unitMismatch,
+  'unreachable-step': unreachableStep,
   'unreadable-file': unreadableFile,
   'unknown-key': unknownKey,
   'unknown-unit': unknownUnit,
