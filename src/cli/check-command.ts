@@ -2,6 +2,7 @@
 import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { checkSources } from '../check/run-checks.ts';
+import { explainSequence } from '../analysis/soundness/explain.ts';
 import { formatHuman, formatJson, summarize } from './format-diagnostics.ts';
 import { formatGithub } from './format-github.ts';
 import { GitError } from '../history/git.ts';
@@ -18,6 +19,8 @@ file:line:column, severity, rule id, message and a hint. Paths may be files or f
 Options:
   --format <human|json|github>  output format (default: human); github prints workflow annotations
   --quiet                 print errors only
+  --explain               also print each file's step graph, the proof method, the states explored,
+                          its loops and exits, and how each decision splits the signal space
   --base <ref>            judge changes against this git ref (default: HEAD, the last commit)
   --no-history            do not read git history (the revision and status rules stay silent)
   -h, --help              show this help
@@ -30,7 +33,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     args: argv,
     allowPositionals: true,
     options: {
-      format: { type: 'string', default: 'human' }, quiet: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' },
+      format: { type: 'string', default: 'human' }, quiet: { type: 'boolean', default: false }, explain: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' },
       base: { type: 'string' }, 'no-history': { type: 'boolean', default: false },
     },
     strict: true,
@@ -55,6 +58,9 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   else if (values.format === 'github') io.stdout.write(formatGithub(shown, (file) => (history.repo ? repoPath(history.repo, resolve(io.cwd, file)) : file)));
   else {
     const texts = new Map(inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
+    if (values.explain) {
+      for (const f of result.files) if (f.facts) io.stdout.write(`== ${f.file}\n${explainSequence(f.facts).join('\n')}\n\n`);
+    }
     io.stdout.write(formatHuman(shown, texts, useColour(io, io.stdout)));
     io.stdout.write(summarize(result.diagnostics, inputs.length));
   }
