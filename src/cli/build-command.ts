@@ -61,7 +61,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     await build({ root: io.cwd, outDir: tmp, logLevel: 'error', mode: 'production' });
     if (!values['no-index']) await indexSite(tmp);
     // Last, so the offline copy's list and version cover the pages and the search index.
-    await writeOfflineCopy(tmp, { now: new Date() });
+    // The build date, not the wall clock: the same sources give the same bytes.
+    await writeOfflineCopy(tmp, { now: new Date(`${loaded.today}T00:00:00Z`) });
     swapInto(tmp, outDir);
   } catch (error) {
     rmSync(tmp, { recursive: true, force: true });

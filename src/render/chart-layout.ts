@@ -28,7 +28,7 @@ export interface Rect {
 export type Shape =
   | {
       type: 'step'; id: string; number: string; rect: Rect; header: string; lines: string[]; markers: string[];
-      initial: boolean; hazard?: HazardLevel; signOff?: string; summary: string;
+      initial: boolean; hazard?: HazardLevel; signOff?: string;
     }
   | { type: 'bar'; x: number; y: number; label: string[]; labelRect: Rect; from?: string }
   | { type: 'line'; x1: number; y1: number; x2: number; y2: number }
@@ -85,11 +85,10 @@ export function layoutChart(procedure: Pick<Procedure, 'steps' | 'hazards'>, num
     const h = boxPad * 2 + chartFont.line * (1 + lines.length) + markers.length * (chartFont.small + 4);
     const initial = firstStep;
     firstStep = false;
-    const summary = `Step ${number}, ${step.id}: ${step.actions.join('; ')}${hazard ? ` (${hazard})` : ''}${step.signOff ? ` (sign-off: ${step.signOff})` : ''}`;
     return {
       w, h, cx: Math.round(w / 2), open: true,
       place: (x, y, out) => out.push({
-        type: 'step', id: step.id, number, rect: { x, y, w, h }, header, lines, markers, initial, hazard, signOff: step.signOff, summary,
+        type: 'step', id: step.id, number, rect: { x, y, w, h }, header, lines, markers, initial, hazard, signOff: step.signOff,
       }),
     };
   };

@@ -53,7 +53,7 @@ function drawShape(s: Exclude<Shape, { type: 'line' | 'double' | 'single' }>, hr
       return `<g class="sfc-transition"${s.from ? ` data-from="${escapeXml(s.from)}"` : ''}><line class="sfc-bar" x1="${s.x - 16}" y1="${s.y}" x2="${s.x + 16}" y2="${s.y}" stroke="${ink}" stroke-width="4"/>${text}</g>`;
     }
     case 'jump':
-      return `<g class="sfc-jump" data-target="${escapeXml(s.target)}"><line x1="${s.x}" y1="${s.y - 8}" x2="${s.x}" y2="${s.y + 2}" stroke="${ink}" stroke-width="1.5" marker-end="url(#sfc-arrow)"/><a href="${escapeXml(hrefOf(s.target))}"><text x="${s.labelRect.x}" y="${s.labelRect.y + chartFont.line - 5}" font-weight="bold" text-decoration="underline">${escapeXml(s.label)}</text></a></g>`;
+      return `<g class="sfc-jump" data-target="${escapeXml(s.target)}"><line x1="${s.x}" y1="${s.y - 8}" x2="${s.x}" y2="${s.y + 2}" stroke="${ink}" stroke-width="1.5" marker-end="url(#sfc-arrow)"/><a href="${escapeXml(hrefOf(s.target))}">${jumpHitArea(s.labelRect)}<text x="${s.labelRect.x}" y="${s.labelRect.y + chartFont.line - 5}" font-weight="bold" text-decoration="underline">${escapeXml(s.label)}</text></a></g>`;
     case 'branch-label':
       return `<text class="sfc-branch" x="${s.rect.x}" y="${s.rect.y + chartFont.small}" font-size="${chartFont.small}" font-style="italic">${escapeXml(s.text)}</text>`;
     case 'end':
@@ -61,10 +61,18 @@ function drawShape(s: Exclude<Shape, { type: 'line' | 'double' | 'single' }>, hr
   }
 }
 
+/** An invisible touch area around a jump label: 52 units tall so it stays at least 44 CSS px (WCAG 2.5.5) when the chart is scaled down to a portrait tablet. */
+function jumpHitArea(r: { x: number; y: number; w: number; h: number }): string {
+  const h = 52;
+  const w = Math.max(r.w + 12, h);
+  return `<rect class="sfc-hit" x="${r.x - 6}" y="${r.y + r.h / 2 - h / 2}" width="${w}" height="${h}" fill="transparent"/>`;
+}
+
 function drawStep(s: Extract<Shape, { type: 'step' }>, hrefOf: (id: string) => string): string {
   const { x, y, w, h } = s.rect;
   const out: string[] = [];
-  out.push(`<a class="sfc-step" href="${escapeXml(hrefOf(s.id))}" data-step="${escapeXml(s.id)}" aria-label="${escapeXml(s.summary)}">`);
+  // The link's name is its visible text (number, id, action, markers), so speech and sight agree.
+  out.push(`<a class="sfc-step" href="${escapeXml(hrefOf(s.id))}" data-step="${escapeXml(s.id)}">`);
   out.push(`<rect x="${x}" y="${y}" width="${w}" height="${h}" fill="#fff" stroke="${ink}" stroke-width="${s.signOff ? 3 : 1.5}"/>`);
   // IEC 61131-3 marks the initial step with a double frame.
   if (s.initial) out.push(`<rect x="${x + 3}" y="${y + 3}" width="${w - 6}" height="${h - 6}" fill="none" stroke="${ink}" stroke-width="1"/>`);

@@ -1,0 +1,57 @@
+// Builds the demo manual once for all browser tests: keyed by the content of the sources, shared between
+// test files (and runs) through a folder in the temp directory, guarded by a lock folder.
+import { spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+const inputs = ['procedures', 'src', 'astro.config.mjs', 'package-lock.json'];
+
+function hashTree(hash: ReturnType<typeof createHash>, path: string): void {
+  if (!existsSync(path)) return;
+  if (statSync(path).isDirectory()) {
+    for (const name of readdirSync(path).sort()) hashTree(hash, join(path, name));
+    return;
+  }
+  hash.update(path).update('\0').update(readFileSync(path)).update('\0');
+}
+
+export function siteKey(cwd = process.cwd()): string {
+  const hash = createHash('sha256');
+  for (const i of inputs) hashTree(hash, join(cwd, i));
+  return hash.digest('hex').slice(0, 16);
+}
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+/** The folder of a complete build of the demo manual; builds it when the sources changed. */
+export async function ensureBuiltSite(cwd = process.cwd()): Promise<{ dir: string; seconds: number | null }> {
+  const dir = join(tmpdir(), `stepwright-e2e-site-${siteKey(cwd)}`);
+  const lock = `${dir}.lock`;
+  const deadline = Date.now() + 6 * 60_000;
+  while (Date.now() < deadline) {
+    if (existsSync(join(dir, 'index.html'))) return { dir, seconds: null };
+    try {
+      mkdirSync(lock);
+    } catch {
+      // Another test file is building; a lock older than 5 minutes belongs to a build that died.
+      const age = Date.now() - (statSync(lock, { throwIfNoEntry: false })?.mtimeMs ?? Date.now());
+      if (age > 5 * 60_000) rmSync(lock, { recursive: true, force: true });
+      await sleep(500);
+      continue;
+    }
+    try {
+      if (existsSync(join(dir, 'index.html'))) return { dir, seconds: null };
+      const started = performance.now();
+      const run = spawnSync(process.execPath, ['bin/stepwright.mjs', 'build', '--out', dir], {
+        cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 5 * 60_000,
+      });
+      if (run.status !== 0) throw new Error(`The demo manual did not build (exit ${run.status}):\n${run.stdout}\n${run.stderr}`);
+      return { dir, seconds: (performance.now() - started) / 1000 };
+    } finally {
+      rmSync(lock, { recursive: true, force: true });
+    }
+  }
+  throw new Error('Timed out waiting for another test run to build the demo manual.');
+}
