@@ -9,6 +9,7 @@ import { GitError } from '../history/git.ts';
 import { previousFromGit, repoPath } from './repository.ts';
 import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
+import { loadConfig } from './load-config.ts';
 
 export const checkHelp = `Usage: stepwright check [options] [paths…]
 
@@ -23,6 +24,7 @@ Options:
                           its loops and exits, and how each decision splits the signal space
   --base <ref>            judge changes against this git ref (default: HEAD, the last commit)
   --no-history            do not read git history (the revision and status rules stay silent)
+  --config <file>         rule severities and per-folder overrides (default: ./stepwright.config.yaml if present)
   -h, --help              show this help
 
 Exit codes: 0 no errors (warnings allowed), 1 errors found, 2 usage or internal failure.
@@ -34,7 +36,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     allowPositionals: true,
     options: {
       format: { type: 'string', default: 'human' }, quiet: { type: 'boolean', default: false }, explain: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' },
-      base: { type: 'string' }, 'no-history': { type: 'boolean', default: false },
+      base: { type: 'string' }, 'no-history': { type: 'boolean', default: false }, config: { type: 'string' },
     },
     strict: true,
   });
@@ -44,6 +46,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   }
   if (values.format !== 'human' && values.format !== 'json' && values.format !== 'github') throw new UsageError(`Unknown format '${values.format}'; use human, json or github.`);
   const inputs = readProcedureFiles(positionals.length ? positionals : ['procedures'], io.cwd);
+  const configured = loadConfig(io, values.config);
   let history: Awaited<ReturnType<typeof previousFromGit>> = {};
   try {
     if (!values['no-history']) history = await previousFromGit(inputs, io, values.base);
@@ -52,12 +55,14 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     io.stderr.write(`stepwright check: ${error.message}\n`);
     return 2;
   }
-  const result = checkSources(inputs, { today: todayOf(io), previous: history.previous });
+  const checked = checkSources(inputs, { today: todayOf(io), previous: history.previous, severity: configured.policy });
+  const result = { ...checked, diagnostics: [...configured.diagnostics, ...checked.diagnostics] };
   const shown = values.quiet ? result.diagnostics.filter((d) => d.severity === 'error') : result.diagnostics;
   if (values.format === 'json') io.stdout.write(formatJson(shown));
   else if (values.format === 'github') io.stdout.write(formatGithub(shown, (file) => (history.repo ? repoPath(history.repo, resolve(io.cwd, file)) : file)));
   else {
     const texts = new Map(inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
+    if (configured.file) texts.set(configured.file.file, configured.file.text);
     if (values.explain) {
       for (const f of result.files) if (f.facts) io.stdout.write(`== ${f.file}\n${explainSequence(f.facts).join('\n')}\n\n`);
     }
