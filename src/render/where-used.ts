@@ -1,5 +1,5 @@
 // Cross-references for the manual: which procedures and steps use an equipment tag, an interlock or a signal.
-import type { Procedure, Step } from '../model/procedure.ts';
+import type { Procedure, SequenceItem, Step } from '../model/procedure.ts';
 import { namesIn } from '../analysis/conditions/parse.ts';
 import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
 import type { StepNumbers } from './step-numbers.ts';
@@ -21,8 +21,22 @@ export function mentionsTag(text: string, tag: string): boolean {
   return new RegExp(`(?<![A-Za-z0-9_-])${escaped}(?![A-Za-z0-9_-])`).test(text);
 }
 
-function stepText(step: Step): string {
+/** Decision conditions belong to the step that waits for them: the step right before the choose block. */
+function decisionTexts(items: SequenceItem[], out = new Map<Step, string[]>()): Map<Step, string[]> {
+  items.forEach((item, i) => {
+    if (item.kind === 'step') return;
+    const before = items[i - 1];
+    for (const b of item.branches) {
+      if (item.kind === 'choose' && before?.kind === 'step' && 'when' in b && b.when) out.set(before, [...(out.get(before) ?? []), b.when.value]);
+      if (b.items) decisionTexts(b.items, out);
+    }
+  });
+  return out;
+}
+
+function stepText(step: Step, decisions: Map<Step, string[]>): string {
   return [
+    ...(decisions.get(step) ?? []),
     ...step.actions, step.note ?? '', step.until?.value ?? '', step.confirm?.value ?? '',
     ...step.set.map((s) => `${s.signal} ${s.quantity}`), ...step.params.map((p) => `${p.name} ${String(p.value)}`),
   ].join('\n');
@@ -33,8 +47,9 @@ export function tagUsesIn(procedure: Procedure, facts: ProcedureFacts, numbers: 
   const uses = new Map<string, TagUse[]>();
   const add = (tag: string, use: TagUse) => uses.set(tag, [...(uses.get(tag) ?? []), use]);
   const steps = facts.steps.map((s) => s.step);
+  const decisions = decisionTexts(procedure.steps);
   const stepsWhere = (test: (step: Step, text: string) => boolean) =>
-    steps.filter((s) => test(s, stepText(s))).map((s) => ({ id: s.id, number: numbers.ofStep.get(s.id) ?? '?', action: s.actions.join('; ') }));
+    steps.filter((s) => test(s, stepText(s, decisions))).map((s) => ({ id: s.id, number: numbers.ofStep.get(s.id) ?? '?', action: s.actions.join('; ') }));
 
   for (const tag of procedure.equipment) add(tag, { role: 'equipment', procedureId: procedure.id, steps: stepsWhere((_, text) => mentionsTag(text, tag)) });
 

@@ -105,3 +105,19 @@ describe('tags and slugs', () => {
     expect(slugOf('A B/C')).toBe('a_b_c');
   });
 });
+
+describe('where-used of decision signals', () => {
+  it('names the step that waits for the decision', () => {
+    const text = procedureText({
+      id: 'U9-C-001', signals: { 'lab-ok': { text: 'Lab release', values: ['pass', 'fail'] } },
+      steps: [
+        { step: 'sample', do: 'Take a sample', confirm: 'Sample taken' },
+        { step: 'await-lab', do: 'Wait for the lab' },
+        { choose: [{ when: 'lab-ok == pass', steps: [{ step: 'ship', do: 'Ship it', until: 'done' }] }, { when: 'lab-ok == fail', goto: 'sample' }] },
+      ],
+    });
+    const result = checkSources([{ file: 'procedures/c.md', text }], { today: '2026-01-01' });
+    const view = buildManualView({ files: result.files, root: 'procedures', today: '2026-01-01' });
+    expect(view.tags.find((t) => t.tag === 'lab-ok')!.uses[0].steps.map((s) => s.id)).toEqual(['await-lab']);
+  });
+});
