@@ -6,6 +6,7 @@ import { runNew } from './new-command.ts';
 import { runReview } from './review-command.ts';
 import { runSchema } from './schema-command.ts';
 import { runServe } from './serve-command.ts';
+import { runVerify } from './verify-command.ts';
 import { UsageError, type CliIo } from './io.ts';
 
 type Command = { summary: string; run: (argv: string[], io: CliIo) => Promise<number> };
@@ -18,6 +19,7 @@ export const commands: Record<string, Command> = {
   review: { summary: 'summarise procedure changes against a git base for a pull request', run: runReview },
   schema: { summary: 'print or write the JSON Schema of the front-matter for editors', run: runSchema },
   serve: { summary: 'serve the built manual on http://localhost:4321', run: runServe },
+  verify: { summary: 'check that every page of a published manual matches its procedure source', run: runVerify },
 };
 
 function mainHelp(): string {

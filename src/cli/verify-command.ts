@@ -1,0 +1,140 @@
+// `stepwright verify DIST`: checks that every procedure page of a published site was built from the sources as they are.
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative, resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import { integrityMeta, sourceDigest, sourceKey } from '../render/source-integrity.ts';
+import { UsageError, type CliIo } from './io.ts';
+import { readProcedureFiles } from './read-procedure-files.ts';
+
+export const verifyHelp = `Usage: stepwright verify [options] <site folder>
+
+Compares a published manual with the procedure sources. Every procedure page carries the SHA-256 of
+the source text it was built from; verify names every page whose source has changed or is gone, and
+every source that has no page.
+
+Options:
+  --procedures <dir>   the procedure sources (default: $STEPWRIGHT_PROCEDURES or procedures/)
+  -h, --help           show this help
+
+Exit codes: 0 every page matches its source, 1 a page or a source does not match, 2 usage failure.
+`;
+
+export interface PageStamp {
+  page: string;
+  source: string;
+  digest: string;
+}
+
+export interface VerifyResult {
+  matching: PageStamp[];
+  changed: Array<PageStamp & { expected: string }>;
+  /** Pages whose source is not among the sources. */
+  orphaned: PageStamp[];
+  /** Sources with no page. */
+  unpublished: string[];
+}
+
+export async function runVerify(argv: string[], io: CliIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: { procedures: { type: 'string' }, help: { type: 'boolean', short: 'h' } },
+    strict: true,
+  });
+  if (values.help) {
+    io.stdout.write(verifyHelp);
+    return 0;
+  }
+  if (positionals.length !== 1) throw new UsageError('Give one site folder, e.g. stepwright verify dist');
+  const site = resolve(io.cwd, positionals[0]);
+  if (!isDirectory(site)) throw new UsageError(`No site folder at ${positionals[0]}.`);
+  const folder = values.procedures ?? (io.env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures');
+  if (!isDirectory(resolve(io.cwd, folder))) throw new UsageError(`No procedures folder at ${folder}.`);
+
+  const pages = readStamps(site);
+  if (pages.length === 0) {
+    io.stderr.write(`stepwright verify: no procedure page in ${positionals[0]} carries a source fingerprint; it is not a Stepwright manual or was built by an older version.\n`);
+    return 1;
+  }
+  const sources = new Map<string, string>();
+  const unreadable: string[] = [];
+  for (const input of readProcedureFiles([folder], io.cwd)) {
+    const key = sourceKey(relative(resolve(io.cwd, folder), resolve(io.cwd, input.file)), '');
+    if ('text' in input) sources.set(key, sourceDigest(input.text));
+    else unreadable.push(key);
+  }
+  const result = compareStamps(pages, sources);
+  const show = (page: string) => relative(io.cwd, join(site, page)) || page;
+  for (const c of result.changed) io.stdout.write(`${show(c.page)}: does not match its source ${join(folder, c.source)} (page built from sha256 ${c.digest.slice(0, 12)}…, source is ${c.expected.slice(0, 12)}…)\n`);
+  for (const o of result.orphaned) io.stdout.write(`${show(o.page)}: its source ${join(folder, o.source)} is not in ${folder}\n`);
+  for (const s of result.unpublished) io.stdout.write(`${join(folder, s)}: has no page in ${positionals[0]}${unreadable.includes(s) ? ' (the file could not be read)' : ''}\n`);
+  const problems = result.changed.length + result.orphaned.length + result.unpublished.length;
+  io.stdout.write(problems === 0
+    ? `All ${result.matching.length} procedure pages match their sources.\n`
+    : `${problems} mismatch${problems === 1 ? '' : 'es'}: ${result.changed.length} changed, ${result.orphaned.length} without source, ${result.unpublished.length} without page; ${result.matching.length} pages match.\n`);
+  return problems === 0 ? 0 : 1;
+}
+
+/** Pages against sources (path inside the procedures folder → digest). */
+export function compareStamps(pages: PageStamp[], sources: Map<string, string>): VerifyResult {
+  const result: VerifyResult = { matching: [], changed: [], orphaned: [], unpublished: [] };
+  const published = new Set<string>();
+  for (const page of pages) {
+    const expected = sources.get(page.source);
+    published.add(page.source);
+    if (expected === undefined) result.orphaned.push(page);
+    else if (expected !== page.digest) result.changed.push({ ...page, expected });
+    else result.matching.push(page);
+  }
+  for (const source of [...sources.keys()].sort()) if (!published.has(source)) result.unpublished.push(source);
+  return result;
+}
+
+/** Every HTML page under the site folder that carries the fingerprint meta elements. */
+export function readStamps(site: string): PageStamp[] {
+  const out: PageStamp[] = [];
+  const walk = (dir: string) => {
+    for (const name of readdirSync(dir).sort()) {
+      const full = join(dir, name);
+      if (isDirectory(full)) walk(full);
+      else if (name.endsWith('.html')) {
+        const html = readFileSync(full, 'utf8');
+        const digest = metaContent(html, integrityMeta.digest);
+        const source = metaContent(html, integrityMeta.source);
+        if (digest && source) out.push({ page: relative(site, full).split('\\').join('/'), source, digest });
+      }
+    }
+  };
+  walk(site);
+  return out;
+}
+
+function metaContent(html: string, name: string): string | undefined {
+  const head = html.slice(0, html.indexOf('</head>') === -1 ? html.length : html.indexOf('</head>'));
+  for (const m of head.matchAll(/<meta\b[^>]*>/gi)) {
+    const attrs = new Map([...m[0].matchAll(/([a-z-]+)\s*=\s*(?:"([^"]*)"|'([^']*)'|([^\s"'>]+))/gi)].map((a) => [a[1].toLowerCase(), a[2] ?? a[3] ?? a[4]]));
+    if (attrs.get('name') === name) return decodeEntities(attrs.get('content') ?? '');
+  }
+  return undefined;
+}
+
+function decodeEntities(text: string): string {
+  return text.replace(/&(#x[0-9a-f]+|#\d+|amp|lt|gt|quot|apos);/gi, (all, e: string) => {
+    const k = e.toLowerCase();
+    if (k === 'amp') return '&';
+    if (k === 'lt') return '<';
+    if (k === 'gt') return '>';
+    if (k === 'quot') return '"';
+    if (k === 'apos') return "'";
+    const code = k.startsWith('#x') ? parseInt(k.slice(2), 16) : parseInt(k.slice(1), 10);
+    return Number.isFinite(code) ? String.fromCodePoint(code) : all;
+  });
+}
+
+function isDirectory(path: string): boolean {
+  try {
+    return statSync(path).isDirectory();
+  } catch {
+    return false;
+  }
+}
