@@ -23,6 +23,8 @@ export interface Revision {
   latest: VersionCommit;
   /** Every commit of this revision, oldest first: status changes and any edits made in place. */
   commits: VersionCommit[];
+  /** The file's text at each of `commits`, for audits that compare commit by commit. */
+  commitTexts: string[];
   path: string;
   text: string;
   procedure: Procedure | null;
@@ -67,9 +69,10 @@ export async function readHistory(git: Git, path: string, workingText?: string):
     const last = revisions[revisions.length - 1];
     if (last && last.revision === revision) {
       last.commits.push(version);
+      last.commitTexts.push(text);
       Object.assign(last, describe(procedure), { latest: version, path: commit.path, text, procedure });
     } else {
-      revisions.push({ revision, ...describe(procedure), introduced: version, latest: version, commits: [version], path: commit.path, text, procedure, complete: true });
+      revisions.push({ revision, ...describe(procedure), introduced: version, latest: version, commits: [version], commitTexts: [text], path: commit.path, text, procedure, complete: true });
     }
   });
 

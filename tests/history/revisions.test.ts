@@ -82,7 +82,7 @@ describe('previousVersions', () => {
   it('reads each file at the base under its old name', async () => {
     const found = await previousVersions(gitIn(repo.dir), [{ path }], commits.effective1);
     const previous = found.get(path);
-    expect(previous?.commit).toBe(`${commits.effective1} (${commits.effective1.slice(0, 7)})`);
+    expect(previous?.commit).toBe(commits.effective1.slice(0, 7));
     expect(previous?.text).toContain('revision: 1');
   });
 });

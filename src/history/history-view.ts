@@ -1,0 +1,132 @@
+// What the site prints about a procedure's past: every revision at a stable URL, its redline against the one
+// before, and an audit trail of every commit in order (who, when, why), nothing merged away or rewritten.
+import type { Approval, Procedure } from '../model/procedure.ts';
+import { changedContentAreas, type ContentArea } from '../analysis/document-content.ts';
+import { readProcedure } from '../check/run-checks.ts';
+import type { ProcedureHistory, Revision } from './revisions.ts';
+
+export interface RevisionEntry {
+  revision: number;
+  url: string;
+  /** Present when there is an earlier revision to compare with. */
+  redlineUrl?: string;
+  previous?: number;
+  status: string;
+  effective?: string;
+  change?: string;
+  approvals: Array<Pick<Approval, 'role' | 'name' | 'date' | 'meaning'>>;
+  /** First commit of this revision: who wrote it and when. */
+  introduced: { date: string; author: string; commit: string; subject: string };
+  /** True when this revision is older than the procedure's current revision. */
+  superseded: boolean;
+  /** False when a shallow clone hides the revision's first commits. */
+  complete: boolean;
+  text: string;
+  path: string;
+  procedure: Procedure | null;
+}
+
+export interface AuditEntry {
+  date: string;
+  author: string;
+  email: string;
+  commit: string;
+  subject: string;
+  path: string;
+  /** File renamed in this commit, from this path. */
+  renamedFrom?: string;
+  revision: number | null;
+  status: string;
+  /** What the commit did, in words: "revision 2 started", "status draft → effective", "content edited in place: limits". */
+  events: string[];
+  /** Content areas changed while the revision number stayed the same and the revision had been released. */
+  editedInPlace: ContentArea[];
+  change?: string;
+}
+
+export interface HistoryView {
+  id: string;
+  slug: string;
+  currentUrl: string;
+  currentRevision: number;
+  /** Oldest first; one entry per revision number (the last commit that carried it). */
+  revisions: RevisionEntry[];
+  audit: AuditEntry[];
+  notice?: string;
+  /** Uncommitted work, when the site is built from a working copy that differs from the last commit. */
+  draft?: { revision: number | null; status: string };
+}
+
+const released = new Set(['approved', 'effective', 'superseded', 'retired']);
+
+export function buildHistoryView(history: ProcedureHistory, identity: { id: string; slug: string; currentRevision: number }): HistoryView {
+  const base = `/procedures/${identity.slug}`;
+  // A revision number that appears twice (it went down and up again) keeps its last occurrence for its URL.
+  const byNumber = new Map<number, Revision>();
+  for (const r of history.revisions) if (r.revision !== null) byNumber.set(r.revision, r);
+  const numbers = [...byNumber.keys()].sort((a, b) => a - b);
+  const revisions = numbers.map((n, i): RevisionEntry => {
+    const r = byNumber.get(n)!;
+    const previous = i > 0 ? numbers[i - 1] : undefined;
+    return {
+      revision: n,
+      url: `${base}/rev/${n}/`,
+      ...(previous !== undefined ? { redlineUrl: `${base}/rev/${n}/redline/`, previous } : {}),
+      status: r.status, effective: r.effective, change: r.change,
+      approvals: r.approvals.map(({ role, name, date, meaning }) => ({ role, name, date, meaning })),
+      introduced: { date: r.introduced.date, author: r.introduced.author, commit: r.introduced.commit, subject: r.introduced.subject },
+      superseded: n < identity.currentRevision,
+      complete: r.complete,
+      text: r.text, path: r.path, procedure: r.procedure,
+    };
+  });
+  return {
+    id: identity.id,
+    slug: identity.slug,
+    currentUrl: `${base}/`,
+    currentRevision: identity.currentRevision,
+    revisions,
+    audit: auditTrail(history),
+    ...(history.notice ? { notice: history.notice } : {}),
+    ...(history.draft ? { draft: { revision: history.draft.revision, status: history.draft.status } } : {}),
+  };
+}
+
+function auditTrail(history: ProcedureHistory): AuditEntry[] {
+  const out: AuditEntry[] = [];
+  let before: Procedure | null = null;
+  let beforeRevision: number | null = null;
+  let beforeStatus = '';
+  for (const r of history.revisions) {
+    r.commits.forEach((c, i) => {
+      const procedure = i === r.commits.length - 1 ? r.procedure : null;
+      const events: string[] = [];
+      const now = procedure ?? readAt(r, i);
+      if (c.renamedFrom) events.push(`file moved from ${c.renamedFrom}`);
+      const cut = history.shallow && !c.hasParents;
+      if (out.length === 0) events.push(cut ? `earliest commit in this clone (revision ${c.revision ?? '?'})` : `revision ${c.revision ?? '?'} created`);
+      else if (c.revision !== beforeRevision) events.push(`revision ${beforeRevision ?? '?'} → ${c.revision ?? '?'}`);
+      if (out.length > 0 && c.status !== beforeStatus) events.push(`status ${beforeStatus || '?'} → ${c.status || '?'}`);
+      const areas = before && now ? changedContentAreas(before, now) : [];
+      const inPlace = c.revision === beforeRevision && released.has(beforeStatus) ? areas : [];
+      if (areas.length && !inPlace.length && out.length > 0) events.push(`content: ${areas.join(', ')}`);
+      if (inPlace.length) events.push(`content edited in place: ${inPlace.join(', ')}`);
+      if (!events.length) events.push('document control only');
+      out.push({
+        date: c.date, author: c.author, email: c.email, commit: c.commit, subject: c.subject, path: c.path,
+        ...(c.renamedFrom ? { renamedFrom: c.renamedFrom } : {}),
+        revision: c.revision, status: c.status, events, editedInPlace: inPlace, change: now?.change,
+      });
+      before = now;
+      beforeRevision = c.revision;
+      beforeStatus = c.status;
+    });
+  }
+  return out;
+}
+
+/** Commits inside a revision keep only their numbers; the text is read again when the audit needs to compare. */
+function readAt(r: Revision, index: number): Procedure | null {
+  const text = r.commitTexts[index];
+  return text === undefined ? null : readProcedure(r.commits[index].path, text).procedure;
+}

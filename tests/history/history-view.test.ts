@@ -1,0 +1,42 @@
+// The site's view of a procedure's past: stable revision URLs, redline links, superseded flags and the audit trail.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { gitIn } from '../../src/history/git.ts';
+import { buildHistoryView } from '../../src/history/history-view.ts';
+import { readHistory } from '../../src/history/revisions.ts';
+import { buildStory, createTempRepo, type TempRepo } from './temp-repo.ts';
+
+let repo: TempRepo;
+let commits: ReturnType<typeof buildStory>;
+
+beforeAll(() => {
+  repo = createTempRepo();
+  commits = buildStory(repo);
+});
+afterAll(() => repo.remove());
+
+describe('buildHistoryView', () => {
+  it('gives every revision a stable URL, a redline link to its predecessor and a superseded flag', async () => {
+    const history = await readHistory(gitIn(repo.dir), 'procedures/k-210/u2-test-001.md');
+    const view = buildHistoryView(history, { id: 'U2-TEST-001', slug: 'u2-test-001', currentRevision: 2 });
+    expect(view.revisions.map((r) => [r.revision, r.url, r.redlineUrl ?? null, r.superseded])).toEqual([
+      [1, '/procedures/u2-test-001/rev/1/', null, true],
+      [2, '/procedures/u2-test-001/rev/2/', '/procedures/u2-test-001/rev/2/redline/', false],
+    ]);
+    expect(view.revisions[1].introduced).toMatchObject({ author: 'Ada Ferrand', commit: commits.draft2 });
+  });
+
+  it('lists every commit in order with who, when and what happened, including the edit made in place', async () => {
+    const history = await readHistory(gitIn(repo.dir), 'procedures/k-210/u2-test-001.md');
+    const view = buildHistoryView(history, { id: 'U2-TEST-001', slug: 'u2-test-001', currentRevision: 2 });
+    expect(view.audit.map((a) => [a.date.slice(0, 10), a.author, a.revision, a.events])).toEqual([
+      ['2026-01-10', 'Ada Ferrand', 1, ['revision 1 created']],
+      ['2026-01-20', 'Bram Okonjo', 1, ['status draft → effective']],
+      ['2026-02-05', 'Ada Ferrand', 2, ['revision 1 → 2', 'status effective → draft', 'content: hazards, steps']],
+      ['2026-02-10', 'Ada Ferrand', 2, ['file moved from procedures/u2-test-001.md']],
+      ['2026-02-20', 'Bram Okonjo', 2, ['status draft → effective']],
+      ['2026-03-01', 'Ada Ferrand', 2, ['content edited in place: limits, interlocks']],
+    ]);
+    expect(view.audit.at(-1)?.editedInPlace).toEqual(['limits', 'interlocks']);
+    expect(view.audit.every((a, i) => i === 0 || a.date >= view.audit[i - 1].date)).toBe(true);
+  });
+});
