@@ -5,6 +5,7 @@ import { checkSources, type CheckResult, type SourceInput } from '../check/run-c
 import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from './format-diagnostics.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
+import { procedureStamp, tolerantManualView } from './dev-manual.ts';
 
 export interface LoadedManual {
   root: string;
@@ -61,9 +62,13 @@ let cached: { key: string; loaded: LoadedManual } | undefined;
 
 /** The manual for the site's pages: read once per build; a build with check errors stops with check's report. */
 export function siteManual(): { loaded: LoadedManual; view: ManualView } {
-  const key = `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}`;
+  // The dev server (live preview) re-reads on every save and shows check errors on the pages instead of failing.
+  const dev = (import.meta as { env?: { DEV?: boolean } }).env?.DEV === true;
+  const stamp = dev ? procedureStamp(proceduresFolder(process.env), process.cwd()) : '';
+  const key = `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}\u0000${stamp}`;
   if (!cached || cached.key !== key) cached = { key, loaded: loadManual({ cwd: process.cwd(), env: process.env }) };
   const { loaded } = cached;
+  if (!loaded.view && dev) loaded.view = tolerantManualView({ files: loaded.result.files, root: loaded.root, today: loaded.today });
   if (!loaded.view) throw new Error(`The procedures have check errors; the manual was not built.\n\n${formatCheckFailure(loaded, false)}`);
   return { loaded, view: loaded.view };
 }
