@@ -1,0 +1,38 @@
+// The example workflow only calls commands and options Stepwright really has, and fetches the history it needs.
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { parse } from 'yaml';
+import { runCli } from '../cli/run-cli.ts';
+
+const workflow = parse(readFileSync(join(import.meta.dirname, '../../examples/github-workflow.yml'), 'utf8')) as {
+  on: Record<string, unknown>;
+  jobs: Record<string, { steps: Array<{ run?: string; uses?: string; with?: Record<string, unknown> }> }>;
+};
+
+const invocations = Object.values(workflow.jobs).flatMap((job) => job.steps.flatMap((s) => (s.run ?? '').split('\n')))
+  .filter((line) => line.includes('npx stepwright'))
+  .map((line) => line.slice(line.indexOf('npx stepwright') + 'npx stepwright'.length).trim().split(/\s+/));
+
+describe('examples/github-workflow.yml', () => {
+  it('runs check and review on pull requests and build on main', () => {
+    expect(Object.keys(workflow.on)).toEqual(['pull_request', 'push']);
+    expect(invocations.map((args) => args[0])).toEqual(['check', 'review', 'build']);
+  });
+
+  it.each(invocations.map((args) => [args.join(' ')]))('stepwright %s uses options the command documents', async (line) => {
+    const [command, ...args] = line.split(' ');
+    const help = await runCli([command, '--help']);
+    expect(help.code).toBe(0);
+    for (const option of args.filter((a) => a.startsWith('--'))) expect(help.stdout).toContain(option);
+    const format = args[args.indexOf('--format') + 1];
+    if (args.includes('--format')) expect(help.stdout).toContain(format);
+  });
+
+  it('checks out the full history wherever revisions are read', () => {
+    for (const job of Object.values(workflow.jobs)) {
+      const checkout = job.steps.find((s) => s.uses?.startsWith('actions/checkout'));
+      expect(checkout?.with?.['fetch-depth']).toBe(0);
+    }
+  });
+});
