@@ -1,7 +1,7 @@
 // `stepwright build [folder]`: checks the procedures, builds the manual with Astro and indexes it with
 // pagefind in a temporary folder, then swaps it into place: a failed or killed build leaves the last good site.
-import { existsSync, readdirSync, renameSync, rmSync } from 'node:fs';
-import { basename, dirname, join, relative, resolve } from 'node:path';
+import { cpSync, existsSync, readdirSync, renameSync, rmSync } from 'node:fs';
+import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { formatCheckFailure, loadManual } from './load-manual.ts';
 import { useColour, type CliIo } from './io.ts';
@@ -51,27 +51,46 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   }
 
   const tmp = `${outDir}.tmp-${process.pid}`;
+  // Astro keeps its intermediate files inside the output folder only when that folder is inside the
+  // project; elsewhere it would share <project>/.astro with any other build running at the same time.
+  const scratch = join(io.cwd, '.stepwright');
+  const work = isInside(outDir, io.cwd) ? tmp : join(scratch, `site.tmp-${process.pid}`);
+  const cacheDir = join(scratch, `astro-cache.tmp-${process.pid}`);
   removeStaleTemporaries(outDir);
+  removeStaleTemporaries(join(scratch, 'site'));
+  removeStaleTemporaries(join(scratch, 'astro-cache'));
   try {
     // The pages read the same folder and the same build date as the check above.
     process.env.STEPWRIGHT_PROCEDURES = folder;
     process.env.STEPWRIGHT_TODAY = loaded.today;
+    process.env.STEPWRIGHT_TODAY_SOURCE = loaded.todaySource;
     process.env.ASTRO_TELEMETRY_DISABLED = '1';
     const { build } = await import('astro');
-    await build({ root: io.cwd, outDir: tmp, logLevel: 'error', mode: 'production' });
-    if (!values['no-index']) await indexSite(tmp);
+    await build({ root: io.cwd, outDir: work, cacheDir, logLevel: 'error', mode: 'production' });
+    if (!values['no-index']) await indexSite(work);
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
-    await writeOfflineCopy(tmp, { now: new Date(`${loaded.today}T00:00:00Z`) });
+    await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`) });
+    if (work !== tmp) {
+      cpSync(work, tmp, { recursive: true });
+      rmSync(work, { recursive: true, force: true });
+    }
     swapInto(tmp, outDir);
   } catch (error) {
+    rmSync(work, { recursive: true, force: true });
     rmSync(tmp, { recursive: true, force: true });
     io.stderr.write(`stepwright build: the site could not be built: ${(error as Error)?.message ?? String(error)}\n${existsSync(outDir) ? `The last good site in ${relative(io.cwd, outDir) || '.'}/ is unchanged.\n` : ''}`);
     return 1;
+  } finally {
+    rmSync(cacheDir, { recursive: true, force: true });
   }
   const seconds = (performance.now() - started) / 1000;
   io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${loaded.view.tags.length} tag pages into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
   return 0;
+}
+
+function isInside(path: string, folder: string): boolean {
+  return path.startsWith(folder.endsWith(sep) ? folder : folder + sep);
 }
 
 async function indexSite(dir: string): Promise<void> {

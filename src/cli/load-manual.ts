@@ -31,7 +31,12 @@ export function proceduresFolder(env: Record<string, string | undefined>): strin
 /** The build date: STEPWRIGHT_TODAY, else the last commit's date, else the newest date in the procedures. */
 export function buildDate(options: LoadOptions, inputs: SourceInput[]): { today: string; source: LoadedManual['todaySource'] } {
   const fixed = options.env.STEPWRIGHT_TODAY;
-  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) return { today: fixed, source: 'STEPWRIGHT_TODAY' };
+  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) {
+    // `stepwright build` hands its own date to the pages and says where it came from.
+    const told = options.env.STEPWRIGHT_TODAY_SOURCE;
+    const source = told === 'last commit' || told === 'procedure dates' ? told : 'STEPWRIGHT_TODAY';
+    return { today: fixed, source };
+  }
   try {
     const out = execFileSync('git', ['log', '-1', '--format=%cs'], { cwd: options.cwd, encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] }).trim();
     if (/^\d{4}-\d{2}-\d{2}$/.test(out)) return { today: out, source: 'last commit' };
