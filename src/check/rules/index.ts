@@ -5,6 +5,7 @@ import authorOnlyApprover from './author-only-approver.ts';
 import bodyTooDeep from './body-too-deep.ts';
 import badIdFormat from './bad-id-format.ts';
 import callCycle from './call-cycle.ts';
+import callExpansionProblem from './call-expansion-problem.ts';
 import callRetiredProcedure from './call-retired-procedure.ts';
 import callRevisionMismatch from './call-revision-mismatch.ts';
 import callUnknownProcedure from './call-unknown-procedure.ts';
@@ -69,6 +70,7 @@ export const rules = {
   'body-too-deep': bodyTooDeep,
   'bad-id-format': badIdFormat,
   'call-cycle': callCycle,
+  'call-expansion-problem': callExpansionProblem,
   'call-retired-procedure': callRetiredProcedure,
   'call-revision-mismatch': callRevisionMismatch,
   'call-unknown-procedure': callUnknownProcedure,
