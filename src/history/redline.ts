@@ -42,6 +42,8 @@ export interface ItemChange {
   fields: FieldChange[];
   /** Why a process-safety reviewer must look at it; absent when it is not safety-relevant. */
   safety?: string;
+  /** What the new value sits between: the signal's operating limits and interlock trips in the new revision. */
+  context?: string;
 }
 
 export interface Redline {
@@ -203,7 +205,8 @@ function setpointChanges(before: Procedure, after: Procedure, idNow: (id: string
   return [...new Set([...a.keys(), ...b.keys()])].flatMap((key): ItemChange[] => {
     const f = field('setpoint', a.get(key), b.get(key));
     if (!f) return [];
-    return [{ area: 'setpoints', key, kind: kindOf(a.has(key), b.has(key)), fields: [f], safety: 'setpoints are checked against operating limits and interlock trips' }];
+    const context = signalContext(after, key.slice(key.indexOf(': ') + 2));
+    return [{ area: 'setpoints', key, kind: kindOf(a.has(key), b.has(key)), fields: [f], safety: 'setpoints are checked against operating limits and interlock trips', ...(context ? { context } : {}) }];
   });
 }
 
@@ -225,7 +228,12 @@ function transitionChanges(before: Procedure, after: Procedure, idNow: (id: stri
     if (!fields.length) return [];
     const names = [...conditionNames(x?.text ?? ''), ...conditionNames(y?.text ?? '')].filter((n) => guarded.has(n));
     const change: ItemChange = { area: (y ?? x)!.area, key, kind: kindOf(Boolean(x), Boolean(y)), fields };
-    if (names.length) change.safety = `the condition uses ${[...new Set(names)].join(', ')}, which has operating limits or an interlock`;
+    if (names.length) {
+      const unique = [...new Set(names)];
+      change.safety = `the condition uses ${unique.join(', ')}, which has operating limits or an interlock`;
+      const context = unique.map((n) => signalContext(after, n)).filter(Boolean).join('; ');
+      if (context) change.context = context;
+    }
     return [change];
   });
 }
@@ -234,7 +242,20 @@ function limitChanges(before: Procedure, after: Procedure): ItemChange[] {
   const describe = (p: Procedure) => new Map(p.limits.map((l) => [l.signal, {
     low: l.low?.value, high: l.high?.value, consequence: l.consequence, correction: l.correction,
   }]));
-  return keyedChanges('limits', describe(before), describe(after), () => 'operating limits are process safety information');
+  return keyedChanges('limits', describe(before), describe(after), () => 'operating limits are process safety information')
+    .map((c) => {
+      const context = signalContext(after, c.key, { limits: false });
+      return context ? { ...c, context } : c;
+    });
+}
+
+/** "TI-210: operating limits 15 degC to 245 degC; TSHH-210 trips at TI-210 >= 255 degC", from the given revision. */
+export function signalContext(p: Procedure, signal: string, show: { limits?: boolean } = {}): string | undefined {
+  const parts: string[] = [];
+  const limit = p.limits.find((l) => l.signal === signal);
+  if (limit && show.limits !== false) parts.push(`operating limits ${limit.low?.value ?? '—'} to ${limit.high?.value ?? '—'}`);
+  for (const i of p.interlocks) if (conditionNames(i.tripsWhen.value).includes(signal)) parts.push(`${i.tag} trips at ${i.tripsWhen.value}`);
+  return parts.length ? `${signal}: ${parts.join('; ')}` : undefined;
 }
 
 function interlockChanges(before: Procedure, after: Procedure): ItemChange[] {

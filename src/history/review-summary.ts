@@ -79,7 +79,12 @@ function fileSection(f: ReviewedFile, policySource: string): string[] {
   if (r) {
     const safety = safetyItems(f);
     out.push('#### Safety-relevant changes', '');
-    if (safety.length) for (const item of safety) out.push(`- ⚠️ ${itemLine(item)} — _${item.safety}_`);
+    if (safety.length) {
+      for (const item of safety) {
+        out.push(`- ⚠️ ${itemLine(item)} — _${item.safety}_`);
+        if (item.context) out.push(`  <br>In revision ${r.revision.after}: ${inline(item.context)}`);
+      }
+    }
     else out.push('None: no hazards, limits, interlocks, setpoints or transitions on guarded signals changed.');
     out.push('');
 

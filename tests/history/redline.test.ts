@@ -88,6 +88,9 @@ describe('redline: safety content', () => {
     const byKey = Object.fromEntries(r.items.map((i) => [`${i.area} ${i.key}`, i]));
     expect(byKey['limits TI-210'].fields).toEqual([{ field: 'high', before: '245 degC', after: '250 degC', words: expect.any(Array) }]);
     expect(byKey['limits TI-210'].safety).toBeDefined();
+    // The reviewer sees where the new limit sits: against the trip of the new revision.
+    expect(byKey['limits TI-210'].context).toBe('TI-210: TSHH-210 trips at TI-210 >= 260 degC');
+    expect(byKey['transitions after cool'].context).toBe('TI-210: operating limits 15 degC to 250 degC; TSHH-210 trips at TI-210 >= 260 degC');
     expect(byKey['interlocks TSHH-210'].safety).toBeDefined();
     // TI-210 has a limit and a trip; AI-210 has neither in this procedure.
     expect(byKey['transitions after cool'].safety).toMatch(/TI-210/);
