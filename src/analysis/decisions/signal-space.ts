@@ -35,6 +35,19 @@ export function snap(value: number): number {
   return Number.isFinite(value) ? Number(value.toPrecision(12)) : value;
 }
 
+// Unit conversion goes through mathjs and is slow next to everything else here; thresholds repeat a lot.
+const baseCache = new Map<string, number | null>();
+function base(value: number, unit: string): number | null {
+  const key = `${value} ${unit}`;
+  let found = baseCache.get(key);
+  if (found === undefined) {
+    found = toBase(value, unit);
+    if (baseCache.size > 10_000) baseCache.clear();
+    baseCache.set(key, found);
+  }
+  return found;
+}
+
 export interface SpaceOptions {
   /** Hold numeric signals to their declared range (true), or let them take any number (false). */
   useRanges: boolean;
@@ -75,7 +88,7 @@ export class SignalSpace {
       if (unitDimension(signal.unit) === null) throw new NotAnalysable(`unknown unit ${signal.unit}`);
       let domain = everything;
       if (this.options.useRanges && signal.range) {
-        const [a, b] = signal.range.map((v) => snap(toBase(v, signal.unit!) ?? Number.NaN));
+        const [a, b] = signal.range.map((v) => snap(base(v, signal.unit!) ?? Number.NaN));
         if (Number.isNaN(a) || Number.isNaN(b)) throw new NotAnalysable('range cannot be converted');
         domain = interval(Math.min(a, b), Math.max(a, b));
       }
@@ -133,8 +146,8 @@ export class SignalSpace {
       return { kind: 'enum', set: op === '==' ? eq : v.values.filter((x) => x !== word) };
     }
     let threshold: number | null = null;
-    if (literal.kind === 'quantity' && v.unit && unitDimension(literal.unit) === unitDimension(v.unit)) threshold = toBase(literal.value, literal.unit);
-    if (literal.kind === 'quantity' && v.name === 'elapsed' && !this.signals.elapsed && unitDimension(literal.unit) === 'time') threshold = toBase(literal.value, literal.unit);
+    if (literal.kind === 'quantity' && v.unit && unitDimension(literal.unit) === unitDimension(v.unit)) threshold = base(literal.value, literal.unit);
+    if (literal.kind === 'quantity' && v.name === 'elapsed' && !this.signals.elapsed && unitDimension(literal.unit) === 'time') threshold = base(literal.value, literal.unit);
     if (literal.kind === 'number' && !v.unit) threshold = literal.value;
     if (threshold === null || Number.isNaN(threshold)) throw new NotAnalysable('threshold cannot be compared');
     const t = snap(threshold);
@@ -275,7 +288,7 @@ export class SignalSpace {
 export function pickNumber(set: IntervalSet, unit?: string): number {
   const i = set[0];
   const toShown = (b: number) => (unit ? fromBase(b, unit) ?? b : b);
-  const fromShown = (s: number) => (unit ? snap(toBase(s, unit) ?? s) : s);
+  const fromShown = (s: number) => (unit ? snap(base(s, unit) ?? s) : s);
   if (!i.loOpen && Number.isFinite(i.lo)) return i.lo;
   if (!i.hiOpen && Number.isFinite(i.hi)) return i.hi;
   const candidates: number[] = [];

@@ -35,6 +35,7 @@ const latin1 = new TextDecoder('latin1');
 const keyOf = (m: Uint8Array): string => latin1.decode(m);
 
 export function explore(game: Game, budget: number): Exploration {
+  if (game.transitions.every((t) => t.from.length === 1 && t.to.length === 1)) return exploreOneToken(game);
   const n = game.places.length;
   const byFirstInput: number[][] = Array.from({ length: n }, () => []);
   game.transitions.forEach((t, i) => {
@@ -156,5 +157,55 @@ export function explore(game: Game, budget: number): Exploration {
     const first = canExit.indexOf(0);
     if (first >= 0) result.stuck = { path: pathOf(first), active: activeIn(first) };
   }
+  return result;
+}
+
+/**
+ * With one token and transitions from one place to one place, a marking is just the place holding the token:
+ * the token game is plain graph search, linear in the size of the net.
+ */
+function exploreOneToken(game: Game): Exploration {
+  const n = game.places.length;
+  const out: number[][] = Array.from({ length: n }, () => []);
+  const into: number[][] = Array.from({ length: n }, () => []);
+  game.transitions.forEach((t, i) => {
+    out[t.from[0]].push(i);
+    into[t.to[0]].push(i);
+  });
+  const firstMarked = new Int32Array(n).fill(-1);
+  const via = new Int32Array(n).fill(-1);
+  const fired = new Uint8Array(game.transitions.length);
+  const order = [game.entry];
+  firstMarked[game.entry] = 0;
+  for (let i = 0; i < order.length; i++) {
+    for (const ti of out[order[i]]) {
+      fired[ti] = 1;
+      const q = game.transitions[ti].to[0];
+      if (firstMarked[q] >= 0) continue;
+      firstMarked[q] = order.length;
+      via[q] = ti;
+      order.push(q);
+    }
+  }
+  const canExit = new Uint8Array(n);
+  canExit[game.exit] = 1;
+  const queue = [game.exit];
+  for (let i = 0; i < queue.length; i++) {
+    for (const ti of into[queue[i]]) {
+      const p = game.transitions[ti].from[0];
+      if (canExit[p]) continue;
+      canExit[p] = 1;
+      queue.push(p);
+    }
+  }
+  const pathTo = (place: number): Transition[] => {
+    if (firstMarked[place] < 0) return [];
+    const path: Transition[] = [];
+    for (let p = place; via[p] >= 0; p = game.transitions[via[p]].from[0]) path.push(game.transitions[via[p]].source);
+    return path.reverse();
+  };
+  const result: Exploration = { states: order.length, exceeded: false, firstMarked, fired, exitReached: firstMarked[game.exit] >= 0, pathTo };
+  const stuck = order.find((p) => !canExit[p]);
+  if (stuck !== undefined) result.stuck = { path: pathTo(stuck), active: [game.places[stuck]] };
   return result;
 }
