@@ -36,7 +36,7 @@ export function renderTimelineSvg(cycle: CycleTime, options: TimelineSvgOptions)
   const height = axisHeight + bars.length * rowHeight + legendHeight + 8;
 
   const parts: string[] = [
-    `<svg xmlns="http://www.w3.org/2000/svg" class="timeline-chart" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" role="img" aria-label="${escapeXml(options.title)}" font-family="Arial, 'Liberation Sans', Helvetica, sans-serif" font-size="${fontSize}" fill="${ink}">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" class="timeline-chart" viewBox="0 0 ${width} ${height}" width="${width}" height="${height}" role="group" aria-label="${escapeXml(options.title)}" font-family="Arial, 'Liberation Sans', Helvetica, sans-serif" font-size="${fontSize}" fill="${ink}">`,
     `<title>${escapeXml(options.title)}</title>`,
     `<defs><pattern id="timeline-hatch" width="6" height="6" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="6" stroke="${criticalFill}" stroke-width="2"/></pattern></defs>`,
   ];

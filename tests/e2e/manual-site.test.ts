@@ -3,7 +3,7 @@
 import { existsSync, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Server } from 'node:http';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { AxeBuilder } from '@axe-core/playwright';
 import { loadManual } from '../../src/cli/load-manual.ts';
@@ -11,6 +11,9 @@ import { startStaticServer } from '../../src/cli/serve-command.ts';
 import { compileStepGraph, type StepGraph } from '../../src/analysis/step-graph.ts';
 import type { ProcedureView } from '../../src/render/manual.ts';
 import { ensureBuiltSite } from './site-build.ts';
+
+// A browser on a busy 2-core machine: give each test room; the build itself is shared and runs once.
+vi.setConfig({ testTimeout: 120_000, hookTimeout: 400_000 });
 
 const chromiumPath = '/usr/bin/chromium';
 const haveChromium = existsSync(chromiumPath);
