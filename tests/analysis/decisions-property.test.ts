@@ -48,7 +48,7 @@ describe('signal-space reasoning agrees with evaluating every distinct value', (
         const neither = points.filter((p) => evaluateCondition(a, p) === false && evaluateCondition(b, p) === false);
         expect(space.and(ra, rb).length > 0).toBe(both.length > 0);
         expect(space.not(space.or(ra, rb)).length > 0).toBe(neither.length > 0);
-        // The witness really makes both true, whatever the signals it leaves open are (try them all).
+        // The witness really makes both true, whatever the signals it leaves open are (all of them).
         const overlap = space.and(ra, rb);
         if (overlap.length) {
           const fixed = new Map<string, KnownValue>();
@@ -56,7 +56,7 @@ describe('signal-space reasoning agrees with evaluating every distinct value', (
             const [name, value] = text.split(' = ');
             fixed.set(name, name === 'L' ? { kind: 'number', base: toBase(Number.parseFloat(value), 'percent')! } : { kind: 'word', value });
           }
-          const holds = points.some((p) => {
+          const holds = points.every((p) => {
             const known = new Map([...p, ...fixed]);
             return evaluateCondition(a, known) === true && evaluateCondition(b, known) === true;
           });
