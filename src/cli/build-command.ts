@@ -116,7 +116,7 @@ function swapInto(tmp: string, outDir: string): void {
 }
 
 /** Removes temporary folders left by builds that were killed (their process is gone). */
-function removeStaleTemporaries(outDir: string): void {
+export function removeStaleTemporaries(outDir: string): void {
   const parent = dirname(outDir);
   const prefix = `${basename(outDir)}.`;
   let names: string[] = [];

@@ -1,0 +1,82 @@
+// `stepwright build` refuses a manual with check errors (with check's own report) and never damages the last good site.
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { removeStaleTemporaries } from '../../src/cli/build-command.ts';
+import { runCli } from './run-cli.ts';
+
+const broken = `---
+id: U9-BAD-001
+title: Broken procedure
+kind: normal
+revision: 0
+status: draft
+steps:
+  - step: open
+    do: Open the valve
+    until: TI-9 >= 5 degC
+---
+`;
+
+function project(): string {
+  const dir = mkdtempSync(join(tmpdir(), 'stepwright-build-'));
+  mkdirSync(join(dir, 'procedures'));
+  writeFileSync(join(dir, 'procedures', 'bad.md'), broken);
+  mkdirSync(join(dir, 'dist'));
+  writeFileSync(join(dir, 'dist', 'index.html'), 'last good site');
+  return dir;
+}
+
+describe('stepwright build', () => {
+  it('stops on check errors with the same report as check, and keeps the last good site', async () => {
+    const dir = project();
+    const build = await runCli(['build'], dir);
+    const check = await runCli(['check', 'procedures'], dir);
+    expect(build.code).toBe(1);
+    expect(check.code).toBe(1);
+    // The diagnostics (file:line:column rule message, code frame, hint) are printed exactly as check prints them.
+    expect(build.stdout).toBe(check.stdout);
+    expect(build.stdout).toMatch(/procedures\/bad\.md:\d+:\d+ error undeclared-name/);
+    expect(build.stderr).toContain('The last good site in dist/ is unchanged.');
+    expect(readFileSync(join(dir, 'dist', 'index.html'), 'utf8')).toBe('last good site');
+    expect(existsSync(join(dir, `dist.tmp-${process.pid}`))).toBe(false);
+  });
+
+  it('reads the folder from STEPWRIGHT_PROCEDURES or the argument and says when nothing was written', async () => {
+    const dir = project();
+    const build = await runCli(['build', '--out', 'site', 'procedures'], dir);
+    expect(build.code).toBe(1);
+    expect(build.stderr).toContain('No site was written.');
+    expect(existsSync(join(dir, 'site'))).toBe(false);
+  });
+});
+
+describe('left-overs of killed builds', () => {
+  const dead = 2 ** 22 + 12345; // above the usual pid_max, so no live process has it
+
+  it('removes the temporary folder of a build that died and keeps the site', () => {
+    const dir = project();
+    mkdirSync(join(dir, `dist.tmp-${dead}`));
+    mkdirSync(join(dir, `dist.old-${dead + 1}`));
+    removeStaleTemporaries(join(dir, 'dist'));
+    expect(existsSync(join(dir, `dist.tmp-${dead}`))).toBe(false);
+    expect(existsSync(join(dir, `dist.old-${dead + 1}`))).toBe(false);
+    expect(readFileSync(join(dir, 'dist', 'index.html'), 'utf8')).toBe('last good site');
+  });
+
+  it('puts the old site back when a build died between its two renames', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'stepwright-build-'));
+    mkdirSync(join(dir, `dist.old-${dead}`));
+    writeFileSync(join(dir, `dist.old-${dead}`, 'index.html'), 'last good site');
+    removeStaleTemporaries(join(dir, 'dist'));
+    expect(readFileSync(join(dir, 'dist', 'index.html'), 'utf8')).toBe('last good site');
+  });
+
+  it('leaves the folders of builds still running alone', () => {
+    const dir = project();
+    mkdirSync(join(dir, `dist.tmp-${process.ppid}`));
+    removeStaleTemporaries(join(dir, 'dist'));
+    expect(existsSync(join(dir, `dist.tmp-${process.ppid}`))).toBe(true);
+  });
+});
