@@ -65,6 +65,9 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     process.env.STEPWRIGHT_TODAY = loaded.today;
     process.env.STEPWRIGHT_TODAY_SOURCE = loaded.todaySource;
     process.env.ASTRO_TELEMETRY_DISABLED = '1';
+    // A published manual is a production build even when started from a test runner (NODE_ENV=test
+    // would turn on development-only parts of the pages).
+    process.env.NODE_ENV = 'production';
     const { build } = await import('astro');
     await build({ root: io.cwd, outDir: work, cacheDir, logLevel: 'error', mode: 'production' });
     if (!values['no-index']) await indexSite(work);
