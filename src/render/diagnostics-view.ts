@@ -38,6 +38,9 @@ export function buildDiagnosticsView(
     place: `${d.file}:${d.line}:${d.column}`, line: d.line, severity: d.severity, rule: d.rule, message: d.message,
     ...(d.hint ? { hint: d.hint } : {}), ...(d.file === file.file ? { stepId: stepAt(d.line) } : {}),
   }));
+  // Errors first: they stop the build; warnings can wait for review.
+  const rank = { error: 0, warning: 1, info: 2 } as const;
+  items.sort((a, b) => rank[a.severity] - rank[b.severity] || a.line - b.line);
   const byStep = new Map<string, DiagnosticItem[]>();
   for (const item of items) if (item.stepId) byStep.set(item.stepId, [...(byStep.get(item.stepId) ?? []), item]);
   const counts = { error: 0, warning: 0, info: 0 };

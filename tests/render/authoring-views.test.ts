@@ -34,6 +34,8 @@ describe('buildDiagnosticsView', () => {
     expect(view.byStep.get('heat')?.map((d) => d.rule)).toContain('undeclared-name');
     expect(view.counts.error).toBeGreaterThan(0);
     expect(view.items.find((d) => d.rule === 'call-revision-mismatch')?.stepId).toBe('inert');
+    const severities = view.items.map((d) => d.severity);
+    expect(severities).toEqual([...severities].sort((a, b) => ['error', 'warning', 'info'].indexOf(a) - ['error', 'warning', 'info'].indexOf(b)));
   });
 });
 
