@@ -103,7 +103,7 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     expect(text).toMatch(/revision \d+/);
     await expectNoSeriousViolations(page, 'search');
     await page.close();
-  }, 90_000);
+  }, 240_000);
 
   it('shows the hazards above the chart, DANGER before WARNING', async () => {
     const p = view.procedures.find((x) => x.hazards.some((h) => h.level === 'danger') && x.hazards.some((h) => h.level === 'warning'))!;
@@ -133,7 +133,7 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
       expect(missing, p.id).toEqual([]);
     }
     await page.close();
-  }, 90_000);
+  }, 240_000);
 
   it('lands every step link of the chart on its table row', async () => {
     const p: ProcedureView = view.procedures.reduce((a, b) => (b.stepCount > a.stepCount ? b : a));
@@ -167,7 +167,7 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
       await page.screenshot({ path: join(artifacts, 'manual-where-used.png'), fullPage: true });
     }
     await page.close();
-  }, 90_000);
+  }, 240_000);
 
   it('shows draft, in-review and superseded procedures with an unmistakable banner', async () => {
     for (const p of view.procedures.filter((x) => ['draft', 'in-review', 'superseded', 'retired'].includes(x.status))) {
