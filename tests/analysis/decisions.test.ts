@@ -86,6 +86,16 @@ describe('mutually exclusive branches', () => {
     expect(b.gap.map((x) => b.space!.describe(x))).toEqual(['TI-5 = 120 degC']);
   });
 
+  it('does not count waiting for a time limit as a gap', () => {
+    const a = decide(when('TI-5 >= 180 degC', 'elapsed >= 4 h'));
+    expect(a.gap).toEqual([]);
+    // Once 5 h have passed the second branch is true whatever TI-5 reads: every gap before that is a wait.
+    const b = decide(when('TI-5 >= 180 degC and elapsed < 4 h', 'elapsed >= 5 h'));
+    expect(b.gap).toEqual([]);
+    const c = decide(when('TI-5 >= 180 degC and elapsed < 4 h', 'TI-5 < 100 degC'));
+    expect(c.gap.map((x) => c.space!.describe(x))).toEqual(['100 degC <= TI-5 < 180 degC', '100 degC <= TI-5 <= 300 degC and elapsed >= 240 min']);
+  });
+
   it('holds numeric signals to their declared range', () => {
     const a = decide(when('TI-5 <= 150 degC', 'TI-5 > 150 degC'));
     expect(a.gap).toEqual([]);

@@ -30,6 +30,11 @@ export interface ChooseAnalysis {
   skipped?: string;
 }
 
+function boundedElapsed(box: Box): boolean {
+  const time = box.get('elapsed');
+  return time?.kind === 'number' && time.set.length > 0 && Number.isFinite(time.set[time.set.length - 1].hi);
+}
+
 const samePath = (a: readonly PathKey[], b: readonly PathKey[]) => a.length === b.length && a.every((x, i) => x === b[i]);
 
 function parsed(facts: ProcedureFacts, path: PathKey[]): Condition {
@@ -82,7 +87,8 @@ export function analyseChoose(facts: ProcedureFacts, block: ChooseBlock, options
     const rest = space.and(start, space.not(taken));
     const otherwise = block.branches.findIndex((b) => b.otherwise);
     if (hasOtherwise) result.branches.push({ index: otherwise, label: 'otherwise', path: [...block.branches[otherwise].path, 'otherwise'], region: rest });
-    else result.gap = rest;
+    // Time in the step only grows: values that hold only while `elapsed` is below a bound are a wait, not a gap.
+    else result.gap = facts.procedure.signals.elapsed ? rest : rest.filter((box) => !boundedElapsed(box));
     result.branches.sort((a, b) => a.index - b.index);
   } catch (error) {
     if (!(error instanceof NotAnalysable)) throw error;

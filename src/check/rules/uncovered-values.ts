@@ -12,7 +12,8 @@ export default defineFileRule(
     docs: `A step followed by a \`choose\` stays active until one branch condition is true. If the branches leave
 values uncovered, the sequence can wait there with no instruction for the operator. Bounds are taken exactly:
 \`LI-8 < 10 %\` and \`LI-8 > 10 %\` leave exactly 10 % uncovered. Values outside the signals' declared ranges do not
-count. Add a branch with \`otherwise: true\` for everything else, or close the gap.`,
+count, nor does waiting while \`elapsed\` is below a time limit, since time goes on. Add a branch with
+\`otherwise: true\` for everything else, or close the gap.`,
     examples: {
       bad: '- choose:\n    - when: LI-8 < 10 percent\n    - when: LI-8 > 10 percent',
       good: '- choose:\n    - when: LI-8 < 10 percent\n    - otherwise: true',
