@@ -27,14 +27,16 @@ export function setUpOffline(root: Document = document): void {
       if (navigator.serviceWorker.controller === null) say('No offline copy on this device yet. Keep this page open while it is saved.');
       return;
     }
-    say(`Offline copy made ${formatTime(meta.cachedAt)}${meta.builtAt ? ` (manual built ${formatTime(meta.builtAt)})` : ''}.`);
+    say(`Offline copy made ${formatTime(meta.cachedAt)}${meta.builtAt ? ` (manual of ${formatTime(meta.builtAt)})` : ''}.`);
     status.dataset.offlineVersion = meta.version;
     if (!stale) return;
-    const older = published && published.version !== meta.version && (!meta.builtAt || published.builtAt > meta.builtAt);
+    // Another version that is not known to be older counts as newer: two publications on one build date
+    // carry the same date, and a copy that differs from what the server publishes is never the safe one.
+    const older = published !== null && published.version !== meta.version && !(meta.builtAt && published.builtAt < meta.builtAt);
     stale.hidden = !older;
     if (older) {
       stale.textContent = `This offline copy is older than the published manual seen ${formatTime(published.seenAt ?? published.builtAt)} `
-        + `(built ${formatTime(published.builtAt)}). Check the revision of a procedure before use; `
+        + `(manual of ${formatTime(published.builtAt)}). Check the revision of a procedure before use; `
         + 'connect to the plant network and reload to update the offline copy.';
     }
   }
@@ -69,9 +71,11 @@ async function readPublished(): Promise<Published | null> {
   }
 }
 
+/** Local date and time; a build date (midnight UTC, no time of day) is shown as a date only. */
 export function formatTime(iso: string): string {
   const d = new Date(iso);
   if (Number.isNaN(d.getTime())) return iso;
+  if (/T00:00:00(\.000)?Z$/.test(iso)) return iso.slice(0, 10);
   const pad = (n: number) => String(n).padStart(2, '0');
   return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())} ${pad(d.getHours())}:${pad(d.getMinutes())}`;
 }

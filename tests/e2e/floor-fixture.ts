@@ -4,18 +4,20 @@ import { existsSync } from 'node:fs';
 import { mkdir, readFile, stat } from 'node:fs/promises';
 import { extname, join, normalize } from 'node:path';
 import { chromium, type Browser } from 'playwright-core';
+import { ensureBuiltSite } from './site-build.ts';
 
 export const artifactsDir = join(process.cwd(), 'test-artifacts');
 
-/** The built manual: STEPWRIGHT_SITE_DIR when set (a site built beforehand), else dist/ after the build. */
-export function siteDir(): string {
-  return process.env.STEPWRIGHT_SITE_DIR ?? join(process.cwd(), 'dist');
-}
-
-export function requireSite(dir: string): void {
+/**
+ * The built manual: STEPWRIGHT_SITE_DIR when set (a site built beforehand), else the demo manual built once for
+ * all browser tests by the site's own fixture (keyed by the sources' content).
+ */
+export async function builtSite(): Promise<string> {
+  const dir = process.env.STEPWRIGHT_SITE_DIR ?? (await ensureBuiltSite()).dir;
   if (!existsSync(join(dir, 'sw.js'))) {
-    throw new Error(`No built manual with an offline copy in ${dir}; run the site build first (npm run build).`);
+    throw new Error(`The built manual in ${dir} has no offline copy (sw.js); 'stepwright build' writes it after pagefind.`);
   }
+  return dir;
 }
 
 const types: Record<string, string> = {

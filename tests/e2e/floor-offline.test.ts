@@ -1,20 +1,24 @@
 // Offline: after one visit the whole manual works with the network gone, and a newer published manual is flagged.
 import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { launchChromium, requireSite, serveSite, siteDir, type SiteServer } from './floor-fixture.ts';
+import { launchChromium, builtSite, serveSite, type SiteServer } from './floor-fixture.ts';
 
+let site: string;
 let browser: Browser;
 let server: SiteServer;
 let context: BrowserContext;
 let page: Page;
 let manifest: { version: string; builtAt: string; files: number };
 
+// Browser steps against a full manual: slower than the unit tests' default when other suites share the machine.
+vi.setConfig({ testTimeout: 120_000 });
+
 beforeAll(async () => {
-  requireSite(siteDir());
-  manifest = JSON.parse(await readFile(join(siteDir(), 'offline-manifest.json'), 'utf8'));
-  server = await serveSite(siteDir());
+  site = await builtSite();
+  manifest = JSON.parse(await readFile(join(site, 'offline-manifest.json'), 'utf8'));
+  server = await serveSite(site);
   browser = await launchChromium();
 });
 afterAll(async () => { await browser?.close(); await server?.close(); });
@@ -73,7 +77,7 @@ describe('offline copy', () => {
 
   it('warns when the published manual it last saw is newer, and updates when it can reach it', async () => {
     // A fresh server has a new port, so a new origin: the copy is saved again there first.
-    server = await serveSite(siteDir());
+    server = await serveSite(site);
     await context.close();
     context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
     page = await context.newPage();
@@ -84,7 +88,8 @@ describe('offline copy', () => {
     await expect(stale.isVisible()).resolves.toBe(false);
 
     // A newer manual is published: the server's manifest now names another version.
-    const newer = { ...manifest, version: 'f00dfeedf00dfeed', builtAt: new Date(Date.parse(manifest.builtAt) + 3_600_000).toISOString() };
+    // Same build date on purpose: two publications on one day must still be told apart by their version.
+    const newer = { ...manifest, version: 'f00dfeedf00dfeed' };
     server.override.set('/offline-manifest.json', JSON.stringify(newer));
     await page.reload();
     await expect.poll(() => stale.isVisible(), { timeout: 10_000 }).toBe(true);
@@ -96,7 +101,7 @@ describe('offline copy', () => {
     await expect.poll(() => stale.isVisible(), { timeout: 10_000 }).toBe(true);
 
     // Back on the network with the new worker published, the copy is replaced and the warning goes away.
-    const worker = await readFile(join(siteDir(), 'sw.js'), 'utf8');
+    const worker = await readFile(join(site, 'sw.js'), 'utf8');
     server.override.set('/sw.js', worker.replaceAll(manifest.version, newer.version));
     await context.setOffline(false);
     await page.reload();

@@ -1,16 +1,20 @@
 // Placekeeping on a tablet: step by step through a parallel block and a decision, surviving a reload.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launchChromium, requireSite, serveSite, siteDir, type SiteServer } from './floor-fixture.ts';
+import { launchChromium, builtSite, serveSite, type SiteServer } from './floor-fixture.ts';
 
+let site: string;
 let browser: Browser;
 let server: SiteServer;
 let page: Page;
 const id = 'U2-K210-BATCH-001';
 
+// Browser steps against a full manual: slower than the unit tests' default when other suites share the machine.
+vi.setConfig({ testTimeout: 120_000 });
+
 beforeAll(async () => {
-  requireSite(siteDir());
-  server = await serveSite(siteDir());
+  site = await builtSite();
+  server = await serveSite(site);
   browser = await launchChromium();
   const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, hasTouch: true });
   page = await context.newPage();
