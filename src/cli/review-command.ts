@@ -7,7 +7,7 @@ import { checkSources, readProcedure } from '../check/run-checks.ts';
 import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { defaultReviewPolicy, parseReviewPolicy, requiredSignOffs, type PolicyEntry } from '../history/approval-policy.ts';
-import { GitError, showFile } from '../history/git.ts';
+import { GitError, showFiles } from '../history/git.ts';
 import { changedPaths, describeBase, resolveCommit, type ChangedPath } from '../history/previous-version.ts';
 import { redline } from '../history/redline.ts';
 import { renderReviewMarkdown, type ReviewedFile } from '../history/review-summary.ts';
@@ -98,11 +98,12 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
   const inputs = readProcedureFiles(paths, io.cwd);
   const inputByPath = new Map(inputs.map((i) => [repoPath(repo, resolve(io.cwd, i.file)), i]));
   const oldTexts = new Map<string, string>();
-  await Promise.all(changes.map(async (c) => {
-    if (c.status === 'A') return;
-    const text = await showFile(repo.git, baseCommit, c.oldPath ?? c.path);
+  const existing = changes.filter((c) => c.status !== 'A');
+  const shown = await showFiles(repo.git, existing.map((c) => `${baseCommit}:${c.oldPath ?? c.path}`));
+  for (const c of existing) {
+    const text = shown.get(`${baseCommit}:${c.oldPath ?? c.path}`);
     if (text !== undefined) oldTexts.set(c.path, text);
-  }));
+  }
 
   const result = checkSources(inputs, {
     today: todayOf(io),

@@ -2,7 +2,11 @@
 import { execFile } from 'node:child_process';
 
 /** Runs `git <args>` and resolves with its standard output; rejects with a GitError. */
-export type Git = (args: string[]) => Promise<string>;
+export interface Git {
+  (args: string[]): Promise<string>;
+  /** Runs git with text on standard input and resolves with the raw output bytes (for `cat-file --batch`). */
+  bytes?(args: string[], input: string): Promise<Buffer>;
+}
 
 export class GitError extends Error {
   override name = 'GitError';
@@ -12,15 +16,22 @@ export class GitError extends Error {
 }
 
 export function gitIn(cwd: string, env?: Record<string, string | undefined>): Git {
-  return (args) =>
+  const options = { cwd, env: env as NodeJS.ProcessEnv | undefined, maxBuffer: 1024 * 1024 * 1024 };
+  const fail = (args: string[], error: Error, stderr: unknown) => {
+    const missing = (error as NodeJS.ErrnoException).code === 'ENOENT';
+    const detail = String(stderr || error.message).trim().split('\n')[0];
+    return new GitError(missing ? 'git is not installed or not on the PATH' : `git ${args[0]} failed: ${detail}`, args, String(stderr), missing);
+  };
+  const run: Git = (args) =>
     new Promise((resolve, reject) => {
-      execFile('git', args, { cwd, env: env as NodeJS.ProcessEnv | undefined, maxBuffer: 256 * 1024 * 1024, encoding: 'utf8' }, (error, stdout, stderr) => {
-        if (!error) return resolve(stdout);
-        const missing = (error as NodeJS.ErrnoException).code === 'ENOENT';
-        const detail = String(stderr || error.message).trim().split('\n')[0];
-        reject(new GitError(missing ? 'git is not installed or not on the PATH' : `git ${args[0]} failed: ${detail}`, args, String(stderr), missing));
-      });
+      execFile('git', args, { ...options, encoding: 'utf8' }, (error, stdout, stderr) => (error ? reject(fail(args, error, stderr)) : resolve(stdout)));
     });
+  run.bytes = (args, input) =>
+    new Promise((resolve, reject) => {
+      const child = execFile('git', args, { ...options, encoding: 'buffer' }, (error, stdout, stderr) => (error ? reject(fail(args, error, stderr)) : resolve(stdout)));
+      child.stdin?.end(input);
+    });
+  return run;
 }
 
 /** The repository's top folder, or undefined when the folder is not inside a git work tree. */
@@ -44,6 +55,43 @@ export async function isShallow(git: Git): Promise<boolean> {
 export async function showFile(git: Git, commit: string, path: string): Promise<string | undefined> {
   try {
     return await git(['show', `${commit}:${path}`]);
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * Many files at once (`spec` is "commit:path"), with one git process instead of one per file; a missing file maps
+ * to undefined. Falls back to one `git show` per file when the runner cannot pass standard input.
+ */
+export async function showFiles(git: Git, specs: string[]): Promise<Map<string, string | undefined>> {
+  const out = new Map<string, string | undefined>();
+  if (!specs.length) return out;
+  if (!git.bytes || specs.some((s) => s.includes('\n'))) {
+    await Promise.all(specs.map(async (s) => out.set(s, await showSpec(git, s))));
+    return out;
+  }
+  const bytes = await git.bytes(['cat-file', '--batch'], `${specs.join('\n')}\n`);
+  let at = 0;
+  for (const spec of specs) {
+    const eol = bytes.indexOf(10, at);
+    const header = bytes.subarray(at, eol).toString('utf8');
+    at = eol + 1;
+    const m = / (\w+) (\d+)$/.exec(header);
+    if (!m || m[1] !== 'blob') {
+      out.set(spec, undefined);
+      continue;
+    }
+    const size = Number(m[2]);
+    out.set(spec, bytes.subarray(at, at + size).toString('utf8'));
+    at += size + 1;
+  }
+  return out;
+}
+
+async function showSpec(git: Git, spec: string): Promise<string | undefined> {
+  try {
+    return await git(['show', spec]);
   } catch {
     return undefined;
   }

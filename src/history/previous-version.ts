@@ -1,5 +1,5 @@
 // Finds the previous committed version of each procedure file, for the history rules of `check` and `review`.
-import { GitError, showFile, type Git } from './git.ts';
+import { GitError, showFiles, type Git } from './git.ts';
 
 export interface PreviousVersion {
   text: string;
@@ -16,10 +16,12 @@ export async function previousVersions(git: Git, files: Array<{ path: string }>,
   const found = new Map<string, PreviousVersion>();
   const commit = await resolveCommit(git, base);
   const oldPaths = await pathsAtBase(git, commit);
-  await Promise.all(files.map(async ({ path }) => {
-    const text = await showFile(git, commit, oldPaths.get(path) ?? path);
+  const specOf = (path: string) => `${commit}:${oldPaths.get(path) ?? path}`;
+  const texts = await showFiles(git, files.map(({ path }) => specOf(path)));
+  for (const { path } of files) {
+    const text = texts.get(specOf(path));
     if (text !== undefined) found.set(path, { text, commit: describeBase(base, commit) });
-  }));
+  }
   return found;
 }
 

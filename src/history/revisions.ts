@@ -2,7 +2,7 @@
 import { readProcedure } from '../check/run-checks.ts';
 import type { Approval, Procedure } from '../model/procedure.ts';
 import { fileLog, type FileCommit } from './file-log.ts';
-import { isShallow, showFile, type Git } from './git.ts';
+import { isShallow, showFiles, type Git } from './git.ts';
 
 /** One commit of the file with the revision and status it recorded. */
 export interface VersionCommit extends FileCommit {
@@ -57,7 +57,8 @@ export interface ProcedureHistory {
 export async function readHistory(git: Git, path: string, workingText?: string): Promise<ProcedureHistory> {
   const [log, shallow] = await Promise.all([fileLog(git, path), isShallow(git)]);
   const oldestFirst = log.filter((c) => c.change !== 'D').reverse();
-  const texts = await Promise.all(oldestFirst.map((c) => showFile(git, c.commit, c.path)));
+  const shown = await showFiles(git, oldestFirst.map((c) => `${c.commit}:${c.path}`));
+  const texts = oldestFirst.map((c) => shown.get(`${c.commit}:${c.path}`));
 
   const revisions: Revision[] = [];
   oldestFirst.forEach((commit, i) => {
