@@ -52,10 +52,9 @@ export default defineFileRule(
 the safety systems and their functions, and the hazards of the materials. An emergency-shutdown procedure must
 also say **which conditions require it** and **who is responsible** for starting it.
 
-| kind | must state |
-| --- | --- |
-| every kind | \`limits\`, \`interlocks\`, \`hazards\` |
-| \`emergency-shutdown\` | also \`conditions-requiring\` and \`responsible\` (front-matter keys, or body sections headed *Conditions that require …* and *Responsibility*) |
+- Every kind: \`limits\`, \`interlocks\` and \`hazards\`.
+- \`emergency-shutdown\`: also \`conditions-requiring\` and \`responsible\` (front-matter keys, or body sections
+  headed *Conditions that require …* and *Responsibility*).
 
 Missing content is a **warning** while the procedure is a \`draft\` and an **error** from \`in-review\` on.`,
     examples: {
