@@ -1,4 +1,5 @@
 // Call expansion: prefixed ids, renamed jumps and hazards, nested calls, cycles, unknown callees and pins.
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { callCycleThrough, callSitesOf, inlineCalls, linkCalls } from '../../src/analysis/inline-calls.ts';
 import { estimateCycleTime } from '../../src/analysis/cycle-time.ts';
@@ -100,5 +101,31 @@ describe('inlineCalls', () => {
     const links = linkCalls([batch, inert]);
     expect(links.callers.get('U2-INERT')?.map((s) => `${s.caller}:${s.step.id}`)).toEqual(['U2-BATCH:inert']);
     expect(links.calls.get('U2-INERT')).toEqual([]);
+  });
+});
+
+describe('inlineCalls on generated procedures', () => {
+  it('replaces each call by exactly the called steps, keeps every jump resolvable, and leaves the inputs alone', () => {
+    const stepIds = (prefix: string) => fc.array(fc.constantFrom('open', 'close', 'wait'), { minLength: 1, maxLength: 4 })
+      .map((kinds) => kinds.map((k, i) => `${prefix}${i}-${k}`));
+    const stepLines = (list: string[]) => list.map((id, i) => `  - { step: ${id}, do: Act on XV-${i}, confirm: Done }`);
+    fc.assert(fc.property(stepIds('c'), stepIds('s'), fc.nat({ max: 4 }), (calleeIds, callerIds, at) => {
+      // The shared operation loops back to its first step, so its jump must be renamed with the prefix.
+      const callee = [...stepLines(calleeIds), `  - choose:\n      - when: done\n      - otherwise: true\n        goto: ${calleeIds[0]}`];
+      const caller = stepLines(callerIds);
+      const shared = proc('U2-SHARED', `steps:\n${callee.join('\n')}`);
+      const position = Math.min(at, caller.length);
+      const lines = [...caller];
+      lines.splice(position, 0, '  - { step: run, do: Run the shared operation, call: U2-SHARED }');
+      const main = proc('U2-MAIN', `steps:\n${lines.join('\n')}`);
+      const before = JSON.stringify(main.steps);
+      const { procedure, problems } = inlineCalls(main, lookupOf(main, shared));
+      expect(problems).toEqual([]);
+      const got = ids(procedure);
+      expect(got.length).toBe(callerIds.length + calleeIds.length);
+      expect(got.slice(position, position + calleeIds.length)).toEqual(ids(shared).map((id) => `run/${id}`));
+      expect(compileStepGraph(procedure).transitions.filter((t) => t.jump && !t.jump.resolved)).toEqual([]);
+      expect(JSON.stringify(main.steps)).toBe(before);
+    }), { numRuns: 100 });
   });
 });
