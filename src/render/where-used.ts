@@ -54,12 +54,12 @@ export function tagUsesIn(procedure: Procedure, facts: ProcedureFacts, numbers: 
   for (const tag of procedure.equipment) add(tag, { role: 'equipment', procedureId: procedure.id, steps: stepsWhere((_, text) => mentionsTag(text, tag)) });
 
   for (const interlock of procedure.interlocks) {
-    // An interlock matters at the steps that name it and at those that drive or watch the signals it trips on.
+    // An interlock matters at the steps that name it and at those that drive or check the signals it trips on.
     const site = facts.conditions.find((c) => c.role === 'trips-when' && c.owner === interlock.tag);
     const watched = site?.result.ok ? namesIn(site.result.condition).map((n) => n.name) : [];
     add(interlock.tag, {
       role: 'interlock', procedureId: procedure.id, detail: `Trips when ${interlock.tripsWhen.value}: ${interlock.action}`,
-      steps: stepsWhere((step, text) => mentionsTag(text, interlock.tag) || step.set.some((s) => watched.includes(s.signal))),
+      steps: stepsWhere((step, text) => mentionsTag(text, interlock.tag) || step.set.some((s) => watched.includes(s.signal)) || watched.some((w) => w !== 'elapsed' && w !== 'done' && mentionsTag(text, w))),
     });
   }
 
