@@ -34,6 +34,7 @@ import oneActionPerStep from './one-action-per-step.ts';
 import overlappingBranches from './overlapping-branches.ts';
 import placeholderText from './placeholder-text.ts';
 import ppeMissing from './ppe-missing.ts';
+import repeatCountInvalid from './repeat-count-invalid.ts';
 import requiredContentMissing from './required-content-missing.ts';
 import reviewOverdue from './review-overdue.ts';
 import revisionDecreased from './revision-decreased.ts';
@@ -99,6 +100,7 @@ export const rules = {
   'overlapping-branches': overlappingBranches,
   'placeholder-text': placeholderText,
   'ppe-missing': ppeMissing,
+  'repeat-count-invalid': repeatCountInvalid,
   'required-content-missing': requiredContentMissing,
   'review-overdue': reviewOverdue,
   'revision-decreased': revisionDecreased,
