@@ -28,7 +28,7 @@ export function proceduresFolder(env: Record<string, string | undefined>): strin
   return env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures';
 }
 
-/** The build date: STEPWRIGHT_TODAY, else the last commit's date, else the newest date in the procedures. */
+/** The build date: STEPWRIGHT_TODAY, else the last commit's date, else the newest effective or approval date. */
 export function buildDate(options: LoadOptions, inputs: SourceInput[]): { today: string; source: LoadedManual['todaySource'] } {
   const fixed = options.env.STEPWRIGHT_TODAY;
   if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) {
@@ -43,7 +43,8 @@ export function buildDate(options: LoadOptions, inputs: SourceInput[]): { today:
   } catch {
     // Not a git checkout: fall back to the content itself.
   }
-  const dates = inputs.flatMap((i) => ('text' in i ? [...i.text.matchAll(/\b(\d{4}-\d{2}-\d{2})\b/g)].map((m) => m[1]) : []));
+  // Dates that have happened (effective and approval dates), never planned ones such as review-by.
+  const dates = inputs.flatMap((i) => ('text' in i ? [...i.text.matchAll(/(?<![\w-])(?:effective|date):\s*(\d{4}-\d{2}-\d{2})\b/g)].map((m) => m[1]) : []));
   return { today: dates.sort().at(-1) ?? '1970-01-01', source: 'procedure dates' };
 }
 
