@@ -42,7 +42,6 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
       branchesOf.get(block)!.add(key);
     });
   }
-  const inSubtree = (scope: string[], region: string) => region === '' || scope[depthOf.get(region)! - 1] === region;
 
   // Jumps between scopes, and the blocks they cross: those blocks stay open; every other block is collapsed.
   const tainted = new Set<string>();
@@ -56,6 +55,42 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
     while (common < source.length && common < target.length && source[common] === target[common]) common++;
     for (const end of [source, target]) for (let i = common; i < end.length; i++) tainted.add(blockOf(end[i]));
     unstructured.add(common === 0 ? '' : source[common - 1]);
+  }
+
+  // Indexes so that each region touches only its own places and transitions: linear overall.
+  const regionOf = (p: Place) => p.scope[p.scope.length - 1] ?? '';
+  const placesIn = new Map<string, Place[]>();
+  const childBlocks = new Map<string, Set<string>>();
+  const doneOf = new Map<string, string>();
+  for (const p of graph.places) {
+    const r = regionOf(p);
+    if (!placesIn.has(r)) placesIn.set(r, []);
+    placesIn.get(r)!.push(p);
+    if (p.kind === 'branch-done') doneOf.set(r, p.id);
+    p.scope.forEach((key, i) => {
+      const parent = i === 0 ? '' : p.scope[i - 1];
+      if (!childBlocks.has(parent)) childBlocks.set(parent, new Set());
+      childBlocks.get(parent)!.add(blockOf(key));
+    });
+  }
+  const transitionsAt = new Map<string, Transition[]>();
+  const headOf = new Map<string, string>();
+  for (const t of graph.transitions) {
+    const scopes = [...t.from, ...t.to].map((id) => placeById.get(id)!.scope);
+    let common = scopes.length ? scopes[0].length : 0;
+    for (const sc of scopes) {
+      let i = 0;
+      while (i < common && i < sc.length && sc[i] === scopes[0][i]) i++;
+      common = i;
+    }
+    const home = common === 0 ? '' : scopes[0][common - 1];
+    if (!transitionsAt.has(home)) transitionsAt.set(home, []);
+    transitionsAt.get(home)!.push(t);
+    // A fork names the head of each branch it starts: that head is the branch's entry.
+    if (!t.jump) for (const id of t.to) {
+      const p = placeById.get(id)!;
+      if (p.scope.length === common + 1) headOf.set(regionOf(p), p.id);
+    }
   }
 
   const summaries = new Map<string, RegionSummary>();
@@ -81,8 +116,22 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
       }
       return n;
     };
+    // This region and the branches of blocks that jumps keep open, recursively; other blocks are one place each.
+    const open = [region];
+    for (let i = 0; i < open.length; i++) {
+      for (const block of childBlocks.get(open[i]) ?? []) if (tainted.has(block)) open.push(...branchesOf.get(block)!);
+    }
     const repOf = new Map<string, number>();
-    for (const p of graph.places) if (inSubtree(p.scope, region)) repOf.set(p.id, numberOf(rep(p)));
+    const repNumber = (id: string) => {
+      let n = repOf.get(id);
+      if (n === undefined) {
+        n = numberOf(rep(placeById.get(id)!));
+        repOf.set(id, n);
+      }
+      return n;
+    };
+    for (const r of open) for (const p of placesIn.get(r) ?? []) repNumber(p.id);
+    for (const r of open) for (const block of childBlocks.get(r) ?? []) if (!tainted.has(block)) numberOf(macroPrefix + block);
 
     const completes = new Map<string, boolean>();
     for (const name of names) {
@@ -91,34 +140,19 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
       completes.set(name, [...branchesOf.get(block)!].every((key) => analyse(key).canExit));
     }
 
-    let entry: number | undefined;
-    let exit: number | undefined;
-    if (region === '') {
-      entry = repOf.get(graph.start);
-      exit = repOf.get(graph.end);
-    }
+    const entryId = region === '' ? graph.start : headOf.get(region);
+    const exitId = region === '' ? graph.end : doneOf.get(region);
+    const entry = entryId === undefined ? undefined : repNumber(entryId);
+    const exit = exitId === undefined ? undefined : repNumber(exitId);
     const transitions: Game['transitions'] = [];
-    for (const t of graph.transitions) {
-      const inside = [...t.from, ...t.to].every((id) => repOf.has(id));
-      if (!inside) {
-        // The fork into this branch names its head; the head is the region's entry.
-        if (region !== '' && !t.jump) {
-          for (const id of t.to) {
-            const p = placeById.get(id)!;
-            if (p.scope.length === depth && p.scope[depth - 1] === region) entry = repOf.get(id);
-          }
-        }
-        continue;
+    for (const r of open) {
+      for (const t of transitionsAt.get(r) ?? []) {
+        const from = [...new Set(t.from.map(repNumber))];
+        const to = [...new Set(t.to.map(repNumber))];
+        if (from.length === 1 && to.length === 1 && from[0] === to[0] && names[from[0]].startsWith(macroPrefix)) continue;
+        if (from.some((f) => completes.get(names[f]) === false)) continue;
+        transitions.push({ from, to, source: t });
       }
-      const from = [...new Set(t.from.map((id) => repOf.get(id)!))];
-      const to = [...new Set(t.to.map((id) => repOf.get(id)!))];
-      if (from.length === 1 && to.length === 1 && from[0] === to[0] && names[from[0]].startsWith(macroPrefix)) continue;
-      if (from.some((f) => completes.get(names[f]) === false)) continue;
-      transitions.push({ from, to, source: t });
-    }
-    if (region !== '') {
-      const done = graph.places.find((p) => p.kind === 'branch-done' && p.scope.length === depth && p.scope[depth - 1] === region);
-      exit = done ? repOf.get(done.id) : undefined;
     }
     const game: Game = { places: names, transitions, entry: entry ?? 0, exit: exit ?? 0 };
 
