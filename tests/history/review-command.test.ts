@@ -85,6 +85,23 @@ describe('stepwright review', () => {
     }
   });
 
+  it('includes new files not yet committed, and deleted ones with advice to retire instead', async () => {
+    const added = join(repo.dir, 'procedures/u2-test-002.md');
+    const committed = readFileSync(join(repo.dir, file), 'utf8');
+    try {
+      writeFileSync(added, procedureText({ revision: 0, status: 'draft', steps: stepsV2 }).replace('U2-TEST-001', 'U2-TEST-002'));
+      rmSync(join(repo.dir, file));
+      const r = await runCli(['review', '--base', 'HEAD'], repo.dir);
+      expect(r.stdout).toContain('| U2-TEST-001 | deleted | 2 → — | effective → — |');
+      expect(r.stdout).toContain('| U2-TEST-002 | added | — → 0 | — → draft |');
+      expect(r.stdout).toMatch(/kept with status `retired`/);
+      expect(r.stdout).toContain('New procedure with 2 hazard messages, 1 operating limit and 1 interlock.');
+    } finally {
+      rmSync(added, { force: true });
+      writeFileSync(join(repo.dir, file), committed);
+    }
+  });
+
   it('explains what is missing when the base is not in a shallow clone', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'stepwright-shallow-'));
     try {
