@@ -100,6 +100,8 @@ export function setUpPlacekeeping(root: Document = document): void {
   function focusCurrent(): void {
     const tok = viewed();
     if (saved.mode === 'table' && tok?.at.k === 'step') rowOf(tok.at.id)?.scrollIntoView({ block: 'center' });
+    // In the one-step view the card's top must be on screen after every move, above the dock.
+    if (saved.mode === 'step' && card.getBoundingClientRect().top < 0) card.scrollIntoView({ block: 'start' });
   }
 
   function render(): void {
@@ -216,6 +218,8 @@ export function setUpPlacekeeping(root: Document = document): void {
     const heads = [...(row.closest('table')?.querySelectorAll('thead th') ?? [])].map((th) => th.textContent?.trim() ?? '');
     const list = el('dl', { class: 'pk-fields' });
     [...row.cells].forEach((cell, i) => {
+      // The number is already the card's heading.
+      if (i === 0 && /^\s*[0-9]+[A-Za-z0-9.]*\s*$/.test(cell.textContent ?? '')) return;
       const copy = cell.cloneNode(true) as HTMLElement;
       copy.querySelectorAll('.pk-badge').forEach((b) => b.remove());
       copy.querySelectorAll('[id]').forEach((n) => n.removeAttribute('id'));

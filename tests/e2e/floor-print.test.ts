@@ -3,6 +3,7 @@ import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
+import { PDFParse } from 'pdf-parse';
 import { artifactsDir, launchChromium, builtSite, serveSite, type SiteServer } from './floor-fixture.ts';
 
 let site: string;
@@ -49,6 +50,17 @@ function marginBoxes(page: Page): Promise<Record<string, string[]>> {
 // Making PDFs of a long procedure takes a while when other browser tests run at the same time.
 vi.setConfig({ testTimeout: 120_000 });
 
+/** The text of each PDF page, whitespace folded (margin-box text can wrap over lines). */
+async function pdfPages(pdf: Buffer): Promise<string[]> {
+  const parser = new PDFParse({ data: new Uint8Array(pdf) });
+  try {
+    const { pages } = await parser.getText();
+    return pages.map((p) => p.text.replace(/\s+/g, ' '));
+  } finally {
+    await parser.destroy();
+  }
+}
+
 describe('printing a procedure', () => {
   it('shows the uncontrolled-copy line with the print date and hides the controls', async () => {
     const page = await open(true);
@@ -76,8 +88,16 @@ describe('printing a procedure', () => {
     await expect(page.evaluate(() => document.documentElement.classList.contains('print-fixed-footer'))).resolves.toBe(false);
     const pdf = await page.pdf({ format: 'A4', printBackground: true });
     await writeFile(join(artifactsDir, 'floor-print-u2-k210-batch-001.pdf'), pdf);
-    const pages = (pdf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []).length;
-    expect(pages).toBeGreaterThan(1);
+    // Read the printed pages back: every page carries the identity, its number of the total, and the dated line.
+    const pages = await pdfPages(pdf);
+    expect(pages.length).toBeGreaterThan(1);
+    pages.forEach((text, i) => {
+      expect(text).toContain('U2-K210-BATCH-001 · Revision 4 · Effective 2026-04-20');
+      expect(text).toContain(`Page ${i + 1} of ${pages.length}`);
+      expect(text).toMatch(/Uncontrolled when printed — printed \d{4}-\d\d-\d\d/);
+      expect(text).not.toContain('Skip to content');
+      expect(text).not.toContain('Mark step');
+    });
   });
 
   it('without JavaScript still prints the uncontrolled line, with a blank for the date', async () => {
@@ -90,5 +110,10 @@ describe('printing a procedure', () => {
     expect(boxes['bottom-center']).toEqual(['"Uncontrolled when printed"']);
     const pdf = await page.pdf({ format: 'A4' });
     await writeFile(join(artifactsDir, 'floor-print-u2-k210-batch-001-no-js.pdf'), pdf);
+    const pages = await pdfPages(pdf);
+    pages.forEach((text, i) => {
+      expect(text).toContain('Uncontrolled when printed');
+      expect(text).toContain(`Page ${i + 1} of ${pages.length}`);
+    });
   });
 });

@@ -73,11 +73,12 @@ describe('on a 10-inch tablet', () => {
     for (const [name, path] of Object.entries(pages)) {
       it(`${name} at ${size}: every target outside running text is at least 44 × 44 CSS px`, async () => {
         const page = await open(path, { viewport });
-        if (name === 'procedure') await page.locator('.pk-start').click();
         for (const scheme of ['light', 'dark'] as const) {
           await page.emulateMedia({ colorScheme: scheme });
           await page.screenshot({ path: join(artifactsDir, `floor-${name}-${size}-${scheme}.png`), fullPage: false });
         }
+        // Measured with placekeeping on, so its buttons and the dock count too.
+        if (name === 'procedure') await page.locator('.pk-start').click();
         const found = await targets(page);
         const big = (t: Target) => t.width >= 44 && t.height >= 44;
         const hasEquivalent = (t: Target) => t.href !== undefined && found.some((o) => o !== t && o.href === t.href && big(o));
