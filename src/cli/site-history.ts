@@ -24,7 +24,7 @@ async function loadHistories(): Promise<Map<string, HistoryView>> {
   await Promise.all(view.procedures.map(async (p) => {
     const input = loaded.inputs.find((i) => i.file === p.file);
     const text = input && 'text' in input ? input.text : undefined;
-    const identity = { id: p.id, slug: p.slug, currentRevision: p.revision };
+    const identity = { id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status };
     if (!repo) {
       out.set(p.id, buildHistoryView({ path: p.file, revisions: [], shallow: false, notice: 'This manual was built outside a git checkout, so no earlier revisions are available.' }, identity));
       return;

@@ -17,7 +17,7 @@ export interface RevisionEntry {
   approvals: Array<Pick<Approval, 'role' | 'name' | 'date' | 'meaning'>>;
   /** First commit of this revision: who wrote it and when. */
   introduced: { date: string; author: string; commit: string; subject: string };
-  /** True when this revision is older than the procedure's current revision. */
+  /** True once a later revision has taken effect (or this one was superseded or retired): not for use. */
   superseded: boolean;
   /** False when a shallow clone hides the revision's first commits. */
   complete: boolean;
@@ -59,12 +59,22 @@ export interface HistoryView {
 
 const released = new Set(['approved', 'effective', 'superseded', 'retired']);
 
-export function buildHistoryView(history: ProcedureHistory, identity: { id: string; slug: string; currentRevision: number }): HistoryView {
+/** Statuses a revision only reaches after it took effect. */
+const tookEffect = new Set(['effective', 'superseded', 'retired']);
+
+export function buildHistoryView(
+  history: ProcedureHistory,
+  identity: { id: string; slug: string; currentRevision: number; currentStatus?: string },
+): HistoryView {
   const base = `/procedures/${identity.slug}`;
   // A revision number that appears twice (it went down and up again) keeps its last occurrence for its URL.
   const byNumber = new Map<number, Revision>();
   for (const r of history.revisions) if (r.revision !== null) byNumber.set(r.revision, r);
   const numbers = [...byNumber.keys()].sort((a, b) => a - b);
+  // A revision stays in force until a later one takes effect: a later draft or revision in review replaces nothing.
+  const effectiveRevisions = numbers.filter((n) => tookEffect.has(byNumber.get(n)!.status));
+  if (identity.currentStatus && tookEffect.has(identity.currentStatus)) effectiveRevisions.push(identity.currentRevision);
+  const supersededBefore = Math.max(-Infinity, ...effectiveRevisions);
   const revisions = numbers.map((n, i): RevisionEntry => {
     const r = byNumber.get(n)!;
     const previous = i > 0 ? numbers[i - 1] : undefined;
@@ -75,7 +85,7 @@ export function buildHistoryView(history: ProcedureHistory, identity: { id: stri
       status: r.status, effective: r.effective, change: r.change,
       approvals: r.approvals.map(({ role, name, date, meaning }) => ({ role, name, date, meaning })),
       introduced: { date: r.introduced.date, author: r.introduced.author, commit: r.introduced.commit, subject: r.introduced.subject },
-      superseded: n < identity.currentRevision,
+      superseded: n < supersededBefore || r.status === 'superseded' || r.status === 'retired',
       complete: r.complete,
       text: r.text, path: r.path, procedure: r.procedure,
     };

@@ -25,6 +25,14 @@ describe('buildHistoryView', () => {
     expect(view.revisions[1].introduced).toMatchObject({ author: 'Ada Ferrand', commit: commits.draft2 });
   });
 
+  it('keeps a revision in force while the next one is only drafted or in review', async () => {
+    const history = await readHistory(gitIn(repo.dir), 'procedures/k-210/u2-test-001.md');
+    const pending = buildHistoryView(history, { id: 'U2-TEST-001', slug: 'u2-test-001', currentRevision: 3, currentStatus: 'in-review' });
+    expect(pending.revisions.map((r) => r.superseded)).toEqual([true, false]);
+    const effective = buildHistoryView(history, { id: 'U2-TEST-001', slug: 'u2-test-001', currentRevision: 3, currentStatus: 'effective' });
+    expect(effective.revisions.map((r) => r.superseded)).toEqual([true, true]);
+  });
+
   it('lists every commit in order with who, when and what happened, including the edit made in place', async () => {
     const history = await readHistory(gitIn(repo.dir), 'procedures/k-210/u2-test-001.md');
     const view = buildHistoryView(history, { id: 'U2-TEST-001', slug: 'u2-test-001', currentRevision: 2 });
