@@ -15,7 +15,7 @@ export interface CommandConfig {
   file?: { file: string; text: string };
 }
 
-export function loadConfig(io: CliIo, explicit?: string): CommandConfig {
+export function loadConfig(io: Pick<CliIo, 'cwd'>, explicit?: string): CommandConfig {
   const path = resolve(io.cwd, explicit ?? configFileName);
   if (!existsSync(path)) {
     if (explicit) throw new UsageError(`The configuration file '${explicit}' does not exist.`);

@@ -4,6 +4,7 @@ import { execFileSync } from 'node:child_process';
 import { checkSources, type CheckResult, type SourceInput } from '../check/run-checks.ts';
 import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from './format-diagnostics.ts';
+import { loadConfig } from './load-config.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { procedureStamp, tolerantManualView } from './dev-manual.ts';
 
@@ -52,7 +53,8 @@ export function loadManual(options: LoadOptions): LoadedManual {
   const root = proceduresFolder(options.env);
   const inputs = readProcedureFiles([root], options.cwd);
   const { today, source } = buildDate(options, inputs);
-  const result = checkSources(inputs, { today });
+  // The site judges procedures by the same stepwright.config.yaml as `stepwright check`.
+  const result = checkSources(inputs, { today, severity: loadConfig(options).policy });
   const errors = result.diagnostics.filter((d) => d.severity === 'error').length;
   const view = errors === 0 ? buildManualView({ files: result.files, root, today }) : undefined;
   return { root, today, todaySource: source, inputs, result, errors, view };
