@@ -64,6 +64,8 @@ export interface PlaceLocator {
   causePath(t: Transition): PathKey[] | undefined;
   /** Whether a jump leaves or enters a parallel branch (goto-crosses-parallel reports the jump itself). */
   crossesParallel(t: Transition): boolean;
+  /** Branches of parallel blocks that hold no active place while a sibling does: what a join waits for. */
+  idleBranches(active: string[]): Array<{ block: ParallelBlock; name: string; path: PathKey[] }>;
 }
 
 export function locatePlaces(facts: ProcedureFacts): PlaceLocator {
@@ -111,6 +113,20 @@ export function locatePlaces(facts: ProcedureFacts): PlaceLocator {
       const branch = block?.branches[t.choose.branch];
       if (!branch) return t.choose.path;
       return branch.when ? branch.when.path : branch.otherwise ? [...branch.path, 'otherwise'] : branch.path;
+    },
+    idleBranches(active) {
+      const busy = new Set(active.flatMap((id) => byId.get(id)?.scope ?? []));
+      const idle: Array<{ block: ParallelBlock; name: string; path: PathKey[] }> = [];
+      const seen = new Set<ParallelBlock>();
+      for (const key of busy) {
+        const branch = branches.get(key);
+        if (!branch || seen.has(branch.block)) continue;
+        seen.add(branch.block);
+        for (const other of branch.block.branches) {
+          if (!busy.has(parallelScopeKey(branch.block, other.name))) idle.push({ block: branch.block, name: other.name, path: other.path });
+        }
+      }
+      return idle;
     },
     crossesParallel(t) {
       if (!t.jump?.resolved || !t.from.length || !t.to.length) return false;

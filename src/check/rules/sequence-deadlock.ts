@@ -41,10 +41,14 @@ point of no return. Restructure the jump so that it stays inside one branch, or 
         const path = where.causePath(cause);
         if (path) related.unshift({ path, message: 'the jump that leads here' });
       }
+      // A join that waits for a branch nobody is in can never fire: say which branch.
+      const idle = where.idleBranches(problem.places);
+      for (const b of idle) related.push({ path: b.path, message: `branch '${b.name}' is not running, so the parallel block cannot finish` });
+      const waits = idle.length ? ` The parallel block waits for branch${idle.length > 1 ? 'es' : ''} ${idle.map((b) => `'${b.name}'`).join(', ')}, which ${idle.length > 1 ? 'are' : 'is'} not running.` : '';
       ctx.report({
         path: at,
         part: onCause || at[at.length - 1] === 'step' ? 'value' : 'key',
-        message: `After ${showTrace(words)} … the end can no longer be reached (still active: ${waiting.map((p) => where.describe(p)).join(', ') || 'nothing'}).`,
+        message: `After ${showTrace(words)} … the end can no longer be reached (still active: ${waiting.map((p) => where.describe(p)).join(', ') || 'nothing'}).${waits}`,
         hint: cause?.jump
           ? `Make the jump to '${cause.jump.target}' stay inside one branch, or give every branch a way to the end.`
           : 'Give every branch of the sequence a way to the end.',
