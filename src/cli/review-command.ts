@@ -122,6 +122,11 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
     const before = oldText === undefined ? undefined : procedureIn(c.oldPath ?? c.path, oldText);
     const after = newText === undefined ? undefined : procedureIn(c.path, newText);
     if (!before && !after) continue;
+    if (newText !== undefined && !after) {
+      // The file is there but cannot be read as a procedure now: the check results say why; no redline is possible.
+      files.push({ path: c.path, ...(c.oldPath ? { oldPath: c.oldPath } : {}), change: 'modified', ...(before ? { before } : {}), signOffs: [], diagnostics: diagnosticsOf.get(c.path) ?? [] });
+      continue;
+    }
     const lines = redline(before ?? emptyProcedure(c.path), after ?? emptyProcedure(c.path));
     files.push({
       path: c.path,

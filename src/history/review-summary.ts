@@ -76,6 +76,7 @@ function fileSection(f: ReviewedFile, policySource: string): string[] {
   if (f.change === 'added' && f.after) out.push(`New procedure with ${plural(f.after.hazards.length, 'hazard message')}, ${plural(f.after.limits.length, 'operating limit')} and ${plural(f.after.interlocks.length, 'interlock')}.`, '');
 
   const r = f.redline;
+  if (!r && f.change !== 'deleted') out.push('The file cannot be read as a procedure now, so no redline is shown; the check results below say why.', '');
   if (r) {
     const safety = safetyItems(f);
     out.push('#### Safety-relevant changes', '');

@@ -102,6 +102,21 @@ describe('stepwright review', () => {
     }
   });
 
+  it('reports a procedure broken by the change through its check results, without a stack trace', async () => {
+    const committed = readFileSync(join(repo.dir, file), 'utf8');
+    try {
+      writeFileSync(join(repo.dir, file), committed.replace('steps:\n', 'steps: [\n'));
+      const r = await runCli(['review', '--base', 'HEAD'], repo.dir);
+      expect(r.code).toBe(1);
+      expect(r.stdout).toContain('cannot be read as a procedure now');
+      expect(r.stdout).toMatch(/❌ line \d+: `yaml-syntax`/);
+      expect(r.stdout).not.toContain('#### Step changes');
+      expect(r.stderr).toBe('');
+    } finally {
+      writeFileSync(join(repo.dir, file), committed);
+    }
+  });
+
   it('explains what is missing when the base is not in a shallow clone', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'stepwright-shallow-'));
     try {
