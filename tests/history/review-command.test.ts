@@ -130,6 +130,22 @@ describe('stepwright review', () => {
     }
   });
 
+  it('compares with the base tip and says so when a shallow clone lacks the merge base', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'stepwright-shallow-'));
+    try {
+      repo.git(['branch', '-f', 'release', commits.effective1]);
+      execFileSync('git', ['clone', '-q', '--depth', '1', '--no-single-branch', `file://${repo.dir}`, dir]);
+      const r = await runCli(['review', '--base', 'origin/release'], dir);
+      expect(r.stderr).toBe('');
+      expect(r.stdout).toMatch(/> This is a shallow clone and the merge base of 'origin\/release' and HEAD is not in it/);
+      expect(r.stdout).toContain('fetch-depth: 0');
+      expect(r.stdout).toContain('| U2-TEST-001 | renamed | 1 → 2 |');
+    } finally {
+      repo.git(['branch', '-D', 'release']);
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
   it('needs --base and a git repository', async () => {
     expect((await runCli(['review'], repo.dir)).code).toBe(2);
     const outside = mkdtempSync(join(tmpdir(), 'stepwright-nogit-'));
