@@ -129,11 +129,15 @@ export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): Inli
       }
       inlined.push(callee.id);
       const inner = `${step.id}${inlineSeparator}`;
-      for (const [name, s] of Object.entries(callee.signals)) signals[name] ??= s;
-      limits.push(...callee.limits.filter((l) => !limits.some((m) => m.signal === l.signal)));
-      interlocks.push(...callee.interlocks.filter((i) => !interlocks.some((j) => j.tag === i.tag)));
-      hazards.push(...callee.hazards.map((h): Hazard => ({ ...h, at: h.at.map((a) => ({ ...a, value: inner + a.value })) })));
-      const body = expandSequence(callee.steps, [...stack, callee.id], inner).map((s) => markOrigin(s, callee, step.id));
+      // Paths of called content point into the callee's file; put them under the call so they can
+      // never collide with the caller's own paths (rules key conditions by path) and locate at the call.
+      const base = site.path;
+      for (const [name, s] of Object.entries(callee.signals)) signals[name] ??= rebasePaths(s, base);
+      limits.push(...callee.limits.filter((l) => !limits.some((m) => m.signal === l.signal)).map((l) => rebasePaths(l, base)));
+      interlocks.push(...callee.interlocks.filter((i) => !interlocks.some((j) => j.tag === i.tag)).map((i) => rebasePaths(i, base)));
+      hazards.push(...callee.hazards.map((h): Hazard => rebasePaths({ ...h, at: h.at.map((a) => ({ ...a, value: inner + a.value })) }, base)));
+      const calleeSteps = callee.steps.map((s) => rebasePaths(s, base));
+      const body = expandSequence(calleeSteps, [...stack, callee.id], inner).map((s) => markOrigin(s, callee, step.id));
       // The call step's own transition still has to hold once the called procedure has ended.
       if (item.until || item.confirm) {
         body.push({ ...step, actions: [`End of ${callee.id}`], expect: undefined, extra: { ...step.extra, call: undefined } });
@@ -147,6 +151,19 @@ export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): Inli
     problems,
     inlined,
   };
+}
+
+/** Copies a model value with every YAML path placed under `base`; raw `extra` data is left as written. */
+function rebasePaths<T>(value: T, base: PathKey[]): T {
+  if (Array.isArray(value)) return value.map((v) => rebasePaths(v, base)) as T;
+  if (value === null || typeof value !== 'object') return value;
+  const out: Record<string, unknown> = {};
+  for (const [key, v] of Object.entries(value as Record<string, unknown>)) {
+    if (key === 'path' && Array.isArray(v)) out[key] = [...base, ...v];
+    else if (key === 'extra') out[key] = v;
+    else out[key] = rebasePaths(v, base);
+  }
+  return out as T;
 }
 
 function markOrigin(item: SequenceItem, callee: Procedure, callStep: string): SequenceItem {

@@ -129,3 +129,21 @@ describe('inlineCalls on generated procedures', () => {
     }), { numRuns: 100 });
   });
 });
+
+describe('paths of inlined content', () => {
+  it('never collide with the caller: every condition path in the expanded procedure is distinct', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const { readProcedure } = await import('../../src/check/run-checks.ts');
+    const { inlineCalls } = await import('../../src/analysis/inline-calls.ts');
+    const { collectFacts } = await import('../../src/analysis/procedure-facts.ts');
+    const dir = join(import.meta.dirname, '../../procedures/k-210-resin');
+    const read = (name: string) => readProcedure(name, readFileSync(join(dir, name), 'utf8')).procedure!;
+    const caller = read('u2-k210-tar-su-001.md');
+    const callee = read('u2-k210-inert-001.md');
+    const expanded = inlineCalls(caller, (id) => (id === callee.id ? callee : undefined));
+    expect(expanded.inlined).toEqual([callee.id]);
+    const keys = collectFacts(expanded.procedure).conditions.map((c) => c.path.join('/'));
+    expect(new Set(keys).size).toBe(keys.length);
+  });
+});
