@@ -65,7 +65,9 @@ export function explainSequence(facts: ProcedureFacts): string[] {
   if (decisions.length) lines.push('Decisions:');
   for (const d of decisions) {
     const step = d.before ? ` (with the step's until: ${d.before.text})` : '';
-    lines.push(`  choose at ${d.block.path.join('.')}${step}:`);
+    const key = d.block.path.join('.');
+    const after = [...new Set(graph.transitions.filter((t) => t.choose?.path.join('.') === key).flatMap((t) => t.from.map(label)))];
+    lines.push(`  choose after ${after.join(' / ') || 'the start'} (${key})${step}:`);
     if (d.skipped || !d.space) {
       lines.push(`    not analysed: ${d.skipped ?? 'no conditions'}`);
       continue;
