@@ -68,6 +68,9 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // A published manual is a production build even when started from a test runner (NODE_ENV=test
     // would turn on development-only parts of the pages).
     process.env.NODE_ENV = 'production';
+    // Vite reads DEV, PROD, MODE … from the environment into import.meta.env; a stray DEV=1 in a shell
+    // (or a test runner's) must not put development-only parts into the published manual.
+    for (const key of ['DEV', 'PROD', 'MODE', 'SSR', 'BASE_URL', 'SITE', 'ASSETS_PREFIX']) delete process.env[key];
     const { build } = await import('astro');
     await build({ root: io.cwd, outDir: work, cacheDir, logLevel: 'error', mode: 'production' });
     if (!values['no-index']) await indexSite(work);

@@ -6,7 +6,7 @@ import { existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync } fr
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
-const inputs = ['procedures', 'src', 'astro.config.mjs', 'package-lock.json'];
+const inputs = ['procedures', 'src', 'astro.config.mjs', 'package-lock.json', 'tests/e2e/site-build.ts'];
 
 function hashTree(hash: ReturnType<typeof createHash>, path: string): void {
   if (!existsSync(path)) return;
@@ -21,6 +21,14 @@ export function siteKey(cwd = process.cwd()): string {
   const hash = createHash('sha256');
   for (const i of inputs) hashTree(hash, join(cwd, i));
   return hash.digest('hex').slice(0, 16);
+}
+
+/** The environment of a plain command line: without what the test runner adds (NODE_ENV=test, DEV, MODE …),
+ * which the site build would take as a development build. */
+function buildEnv(): NodeJS.ProcessEnv {
+  const env = { ...process.env };
+  for (const key of Object.keys(env)) if (/^(NODE_ENV|DEV|PROD|MODE|SSR|BASE_URL|TEST|VITEST.*)$/.test(key)) delete env[key];
+  return env;
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -45,7 +53,7 @@ export async function ensureBuiltSite(cwd = process.cwd()): Promise<{ dir: strin
       if (existsSync(join(dir, 'index.html'))) return { dir, seconds: null };
       const started = performance.now();
       const run = spawnSync(process.execPath, ['bin/stepwright.mjs', 'build', '--out', dir], {
-        cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1' }, timeout: 5 * 60_000,
+        cwd, encoding: 'utf8', env: { ...buildEnv(), NO_COLOR: '1' }, timeout: 5 * 60_000,
       });
       if (run.status !== 0) throw new Error(`The demo manual did not build (exit ${run.status}):\n${run.stdout}\n${run.stderr}`);
       return { dir, seconds: (performance.now() - started) / 1000 };
