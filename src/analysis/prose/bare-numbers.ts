@@ -51,8 +51,15 @@ function hasUnit(words: Word[], at: number): boolean {
   if (!w) return false;
   if (unitWords.has(w.lower)) return true;
   if (englishWords.has(w.lower)) return false;
-  if ((w.kind === 'word' || (w.kind === 'tag' && !w.text.includes('-'))) && /^[A-Za-z°%][A-Za-z0-9/°%·^.-]*$/.test(w.text) && w.text.length <= 8 && isKnownUnit(w.text)) return true;
-  return false;
+  return (w.kind === 'word' || (w.kind === 'tag' && !w.text.includes('-'))) && /^[A-Za-z°%][A-Za-z0-9/°%·^.-]*$/.test(w.text) && w.text.length <= 8 && knownUnit(w.text);
+}
+
+const unitMemo = new Map<string, boolean>();
+/** The unit library parses on every question; plant text repeats the same few units. */
+function knownUnit(text: string): boolean {
+  let known = unitMemo.get(text);
+  if (known === undefined) unitMemo.set(text, (known = isKnownUnit(text)));
+  return known;
 }
 
 function isLabel(previous: Word | undefined): boolean {
