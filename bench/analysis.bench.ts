@@ -6,6 +6,7 @@ import { structuralSoundness } from '../src/analysis/soundness/structural.ts';
 import { exploreSoundness } from '../src/analysis/soundness/explicit.ts';
 import { analyseDecisions } from '../src/analysis/decisions/analyse-decisions.ts';
 import { generateProcedures, nestedProcedure, wideParallelProcedure, type GeneratedProcedure } from './generate-procedures.ts';
+import { quick, record } from './results.ts';
 
 const today = '2026-12-01';
 
@@ -42,6 +43,7 @@ for (let b = 2; b <= 12; b++) {
   const structural = time(() => structuralSoundness(g));
   const explicit = exploreSoundness(g);
   const explicitTime = b <= 5 ? time(() => exploreSoundness(g), 1) : Number.NaN;
+  record(`soundness/${String(b).padStart(2, '0')}-branches`, { value: Number(structural.toFixed(2)), unit: 'ms', ...(b === 12 ? { goal: '< 50, flat', met: structural < 50 } : {}), note: `${b} parallel branches x 10 steps, structural method` });
   console.log(`  ${String(b).padStart(2)} branches: structural ${ms(structural).padStart(9)}   explicit ${explicit.complete ? `${String(explicit.states).padStart(7)} states ${Number.isNaN(explicitTime) ? '' : ms(explicitTime)}` : `> ${explicit.states} states (budget)`}`);
 }
 
@@ -53,10 +55,12 @@ console.log(`  structural method: ${ms(time(() => structuralSoundness(nestedGrap
 console.log(`  whole check:       ${ms(time(() => checkSources([nested], { today }), 3))}`);
 
 const many = generateProcedures(1000, 40);
+// The median of three runs; one in quick mode (npm run bench -- --quick).
+const manyRuns = quick ? 1 : 3;
 const steps = many.reduce((n, p) => n + (p.text.match(/^\s*- step:|step: step-/gm)?.length ?? 0), 0);
 const yamlOnly = time(() => {
   for (const p of many) parseDocument(p.text.slice(4, p.text.indexOf('\n---\n', 4)));
-}, 3);
+}, manyRuns);
 const analysisOnly = time(() => {
   for (const p of many) {
     const { facts } = readProcedure(p.file, p.text);
@@ -64,11 +68,11 @@ const analysisOnly = time(() => {
     structuralSoundness(facts.graph);
     analyseDecisions(facts);
   }
-}, 3);
+}, manyRuns);
 const readOnly = time(() => {
   for (const p of many) readProcedure(p.file, p.text);
-}, 3);
-const check = time(() => checkSources(many, { today }), 3);
+}, manyRuns);
+const check = time(() => checkSources(many, { today }), manyRuns);
 const sample = checkSources(many.slice(0, 50), { today });
 const errors = sample.diagnostics.filter((d) => d.severity === 'error' && /sequence|loop|branches|unreachable|activated|left-active|contradictory/.test(d.rule)).length;
 console.log(`\n1,000 generated procedures (about ${Math.round(steps / many.length)} steps each)`);
@@ -77,3 +81,7 @@ console.log(`  read into the model:          ${ms(readOnly)}`);
 console.log(`  read + sequence + decisions:  ${ms(analysisOnly)}  (${(analysisOnly / yamlOnly).toFixed(2)}× YAML)`);
 console.log(`  whole check, every rule:      ${ms(check)}  (${(check / yamlOnly).toFixed(2)}× YAML; goal < 2 s and < 3×)`);
 console.log(`  sequence/decision errors in the first 50 (expected 0): ${errors}`);
+record('check/1000-procedures', { value: Math.round(check), unit: 'ms', goal: '< 2000', met: check < 2000, note: 'checkSources, every rule, 1,000 generated procedures' });
+record('check/yaml-only', { value: Math.round(yamlOnly), unit: 'ms', note: 'parseDocument of the same 1,000 front-matters' });
+record('check/ratio-to-yaml', { value: Number((check / yamlOnly).toFixed(2)), unit: 'x', goal: '< 3', met: check / yamlOnly < 3 });
+

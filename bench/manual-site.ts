@@ -5,6 +5,7 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
+import { record } from './results.ts';
 
 const goalKb = 60;
 const given = process.argv[2];
@@ -44,5 +45,8 @@ for (const r of rows) console.log(`${r.slug.padEnd(26)} html ${kb(r.html).padSta
 const worst = rows.reduce((a, b) => (b.gz > a.gz ? b : a));
 console.log(`procedure page weight (largest, gzip as served): ${kb(worst.gz)} KB (${worst.slug}); goal <= ${goalKb} KB: ${worst.gz / 1024 <= goalKb ? 'met' : 'NOT met'}`);
 console.log(`procedure page weight (largest, uncompressed): ${kb(Math.max(...rows.map((r) => r.raw)))} KB`);
+record('page-weight/largest-demo-page-gzip', { value: Number(kb(worst.gz)), unit: 'KB', goal: `<= ${goalKb}`, met: worst.gz / 1024 <= goalKb, note: `${worst.slug}: HTML + CSS + JS it loads, gzip, no search` });
+record('page-weight/largest-demo-page-raw', { value: Number(kb(Math.max(...rows.map((r) => r.raw)))), unit: 'KB', note: 'uncompressed' });
+if (buildSeconds !== undefined) record('site/demo/full-build', { value: Number(buildSeconds.toFixed(2)), unit: 's', note: `${rows.length} demo procedures` });
 if (buildSeconds !== undefined) console.log(`demo manual build (check + astro + pagefind): ${buildSeconds.toFixed(1)} s for ${rows.length} procedures`);
 if (!given) rmSync(join(site, '..'), { recursive: true, force: true });

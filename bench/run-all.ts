@@ -1,16 +1,57 @@
-// Runs every benchmark in bench/ one after another (`npm run bench`): the *.bench.ts files, then the site build.
+// Runs every benchmark in bench/ one after another (`npm run bench [-- --quick]`): the *.bench.ts files, then
+// the demo site build, then the scaled site builds. Prints one summary and writes bench/results.json.
 import { spawnSync } from 'node:child_process';
-import { existsSync, readdirSync } from 'node:fs';
+import { cpus, tmpdir } from 'node:os';
+import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+import type { Figure } from './results.ts';
 
 const here = import.meta.dirname;
+const quick = process.argv.includes('--quick');
 const scripts = readdirSync(here).filter((f) => f.endsWith('.bench.ts')).sort();
-// The manual-site benchmark builds the whole site, so it runs last.
-if (existsSync(join(here, 'manual-site.ts'))) scripts.push('manual-site.ts');
+// The site benchmarks build whole sites, so they run last.
+for (const last of ['manual-site.ts', 'site-scale.ts']) if (existsSync(join(here, last))) scripts.push(last);
+
+const scratch = mkdtempSync(join(tmpdir(), 'stepwright-bench-results-'));
+const sink = join(scratch, 'figures.jsonl');
+const runs: Record<string, { seconds: number; exitCode: number | null }> = {};
+const started = performance.now();
 let failed = 0;
 for (const script of scripts) {
   process.stdout.write(`\n### ${script}\n\n`);
-  const run = spawnSync(process.execPath, ['--import', 'tsx', join(here, script)], { stdio: 'inherit' });
+  const t = performance.now();
+  // Quick mode goes by environment: some scripts take a folder as their first argument.
+  const run = spawnSync(process.execPath, ['--import', 'tsx', join(here, script)], {
+    stdio: 'inherit', env: { ...process.env, STEPWRIGHT_BENCH_RESULTS: sink, ...(quick ? { STEPWRIGHT_BENCH_QUICK: '1' } : {}) },
+  });
+  runs[script] = { seconds: Number(((performance.now() - t) / 1000).toFixed(1)), exitCode: run.status };
   if (run.status !== 0) failed++;
 }
+
+const figures: Record<string, Figure> = {};
+if (existsSync(sink)) {
+  for (const line of readFileSync(sink, 'utf8').split('\n').filter(Boolean)) {
+    const { key, ...figure } = JSON.parse(line) as Figure & { key: string };
+    figures[key] = figure;
+  }
+}
+rmSync(scratch, { recursive: true, force: true });
+
+const results = {
+  date: new Date().toISOString(),
+  quick,
+  machine: { cpus: cpus().length, cpu: cpus()[0]?.model, node: process.version, loadAverage: (await import('node:os')).loadavg().map((n) => Number(n.toFixed(2))) },
+  totalSeconds: Number(((performance.now() - started) / 1000).toFixed(1)),
+  scripts: runs,
+  figures,
+};
+writeFileSync(join(here, 'results.json'), `${JSON.stringify(results, null, 2)}\n`);
+
+const width = Math.max(...Object.keys(figures).map((k) => k.length), 10);
+console.log(`\n### Summary${quick ? ' (quick sizes)' : ''}: ${Object.keys(figures).length} figures in ${results.totalSeconds} s on ${results.machine.cpus} cores (load ${results.machine.loadAverage.join(' ')})\n`);
+for (const [key, f] of Object.entries(figures).sort(([a], [b]) => a.localeCompare(b))) {
+  const goal = f.goal ? `  goal ${f.goal}: ${f.met === undefined ? '' : f.met ? 'met' : 'NOT met'}` : '';
+  console.log(`${key.padEnd(width)}  ${String(f.value).padStart(9)} ${f.unit.padEnd(3)}${goal}`);
+}
+console.log(`\nWritten to bench/results.json${failed ? `; ${failed} benchmark(s) failed` : ''}.`);
 process.exitCode = failed ? 1 : 0;
