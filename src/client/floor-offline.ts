@@ -12,9 +12,18 @@ export function setUpOffline(root: Document = document): void {
   const say = (text: string) => { status.textContent = text; status.hidden = false; };
 
   navigator.serviceWorker.addEventListener('message', (event) => {
-    const data = event.data as { type?: string; stored?: number; total?: number };
+    const data = event.data as { type?: string; stored?: number; total?: number; version?: string };
     if (data.type === 'offline-progress') say(`Saving the manual for offline use: ${data.stored} of ${data.total} files`);
-    if (data.type === 'offline-ready') void refresh();
+    if (data.type === 'offline-ready') {
+      const before = status.dataset.offlineVersion;
+      void refresh().then(() => {
+        // The page on screen came from the older manual: say so until it is reloaded.
+        if (stale && before && data.version && data.version !== before) {
+          stale.textContent = 'A newer manual has been saved on this device. Reload the page to read the current revision.';
+          stale.hidden = false;
+        }
+      });
+    }
   });
   navigator.serviceWorker.register('/sw.js', { scope: '/', updateViaCache: 'none' }).catch(() => {
     say('This browser cannot keep an offline copy of the manual.');

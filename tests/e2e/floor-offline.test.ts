@@ -106,6 +106,8 @@ describe('offline copy', () => {
     await context.setOffline(false);
     await page.reload();
     await expect.poll(() => page.evaluate(() => caches.keys()), { timeout: 30_000 }).toEqual([`stepwright-manual-${newer.version}`]);
+    // The page on screen is from the old copy; it says a newer one is saved until reloaded.
+    await expect.poll(() => stale.textContent(), { timeout: 15_000 }).toMatch(/newer manual has been saved/);
     await page.reload();
     await expect.poll(() => page.locator('[data-offline-status]').getAttribute('data-offline-version'), { timeout: 10_000 }).toBe(newer.version);
     await expect.poll(() => stale.isVisible(), { timeout: 10_000 }).toBe(false);
