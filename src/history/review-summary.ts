@@ -91,7 +91,8 @@ function fileSection(f: ReviewedFile, policySource: string): string[] {
 
     const changedSteps = r.steps.filter((s) => s.kinds.length);
     out.push('#### Step changes', '');
-    if (changedSteps.length) {
+    if (f.change === 'added') out.push(`All ${r.steps.length} steps are new; review the whole procedure.`);
+    else if (changedSteps.length) {
       out.push('| Step | Change | Where | What changed |', '| --- | --- | --- | --- |');
       for (const s of changedSteps) out.push(row([`\`${s.id}\``, s.kinds.join(', '), placeOf(s), stepDetails(s)]));
     } else out.push('No step added, removed, moved or changed.');

@@ -38,10 +38,10 @@ describe('buildHistoryView', () => {
     const view = buildHistoryView(history, { id: 'U2-TEST-001', slug: 'u2-test-001', currentRevision: 2 });
     expect(view.audit.map((a) => [a.date.slice(0, 10), a.author, a.revision, a.events])).toEqual([
       ['2026-01-10', 'Ada Ferrand', 1, ['revision 1 created']],
-      ['2026-01-20', 'Bram Okonjo', 1, ['status draft → effective']],
+      ['2026-01-20', 'Bram Okonjo', 1, ['status draft → effective', 'signed: Process engineer Ada Ferrand (2026-01-15, Approved for use)', 'signed: Operations superintendent Bram Okonjo (2026-01-18, Approved for use)']],
       ['2026-02-05', 'Ada Ferrand', 2, ['revision 1 → 2', 'status effective → draft', 'content: hazards, steps']],
       ['2026-02-10', 'Ada Ferrand', 2, ['file moved from procedures/u2-test-001.md']],
-      ['2026-02-20', 'Bram Okonjo', 2, ['status draft → effective']],
+      ['2026-02-20', 'Bram Okonjo', 2, ['status draft → effective', 'signed: Process engineer Ada Ferrand (2026-02-15, Approved for use)', 'signed: Operations superintendent Bram Okonjo (2026-02-18, Approved for use)']],
       ['2026-03-01', 'Ada Ferrand', 2, ['content edited in place: limits, interlocks']],
     ]);
     expect(view.audit.at(-1)?.editedInPlace).toEqual(['limits', 'interlocks']);
