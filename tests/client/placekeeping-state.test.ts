@@ -1,9 +1,9 @@
-import { readFileSync } from 'node:fs';
+import { readFileSync, readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readProcedure } from '../../src/check/run-checks.ts';
 import { placekeepingPlan, type PlanItem } from '../../src/render/placekeeping-plan.ts';
-import { compileFlow, decisionAfter, markDone, replay, startPlace, undoMark, type Flow, type Mark, type Place } from '../../src/client/placekeeping-state.ts';
+import { compileFlow, decisionAfter, decisionByKey, markDone, replay, startPlace, undoMark, type Flow, type Mark, type Place } from '../../src/client/placekeeping-state.ts';
 
 const current = (place: Place) => place.tokens.map((t) => (t.at.k === 'step' ? t.at.id : t.at.k));
 const mark = (flow: Flow, place: Place, step: string, pick?: number) => {
@@ -154,5 +154,38 @@ describe('plan numbers', () => {
     expect(plan.numbers['check-inert']).toBe('1');
     expect(plan.numbers['charge-solvent']).toBe('3A.1');
     expect(plan.numbers['close-chute']).toBe('3C.2');
+  });
+});
+
+describe('placekeeping over every demo procedure', () => {
+  const files = readdirSync('procedures', { recursive: true, encoding: 'utf8' }).filter((f) => f.endsWith('.md')).map((f) => `procedures/${f}`);
+  const flows = files.flatMap((file) => {
+    const { procedure } = readProcedure(file, readFileSync(file, 'utf8'));
+    return procedure ? [{ file, flow: compileFlow(placekeepingPlan(procedure)) }] : [];
+  });
+
+  it('reads every demo procedure', () => {
+    expect(flows.length).toBe(files.length);
+  });
+
+  it('keeps its invariants on random walks: one place per step, marks add up, a reload gives the same place', () => {
+    fc.assert(fc.property(fc.nat(flows.length - 1), fc.array(fc.tuple(fc.nat(), fc.nat()), { maxLength: 60 }), (which, choices) => {
+      const { flow } = flows[which];
+      let place = startPlace(flow);
+      for (const [t, p] of choices) {
+        const active = place.tokens.filter((tok) => tok.at.k === 'step' || tok.at.k === 'choose');
+        if (active.length === 0) break;
+        const tok = active[t % active.length];
+        const step = tok.at.k === 'step' ? tok.at.id : (tok.at as { key: string }).key;
+        const decision = tok.at.k === 'step' ? decisionAfter(flow, step) : decisionByKey(flow, step);
+        const next = markDone(flow, place, { step, path: tok.path, pick: decision ? p % decision.options.length : undefined });
+        expect(next).toBeDefined();
+        place = next!;
+      }
+      const steps = current(place).filter((s) => s !== 'join' && s !== 'end' && s !== 'choose');
+      expect(new Set(steps).size).toBe(steps.length);
+      expect(steps.every((s) => flow.order.includes(s))).toBe(true);
+      expect(replay(flow, place.marks)).toEqual(place);
+    }), { numRuns: 200 });
   });
 });
