@@ -103,13 +103,13 @@ describe('fuzzing the reader and the checker', () => {
     fuzz('read', anyText, share(0.5), readOne);
   }, timeout);
 
-  it(`checks ${share(0.1)} grammar-generated procedures without a crash`, () => {
-    fuzz('grammar', grammarFile, share(0.1), checkOne);
+  it(`checks ${share(0.075)} grammar-generated procedures without a crash`, () => {
+    fuzz('grammar', grammarFile, share(0.075), checkOne);
   }, timeout);
 
-  it(`checks ${share(0.4)} mutated real procedures without a crash`, () => {
+  it(`checks ${share(0.425)} mutated real procedures without a crash`, () => {
     expect(seeds.length).toBeGreaterThan(10);
-    fuzz('mutation', mutated, share(0.4), checkOne);
+    fuzz('mutation', mutated, share(0.425), checkOne);
   }, timeout);
 });
 
