@@ -61,6 +61,7 @@ function untilBefore(facts: ProcedureFacts, block: ChooseBlock): { text: string;
 export function analyseChoose(facts: ProcedureFacts, block: ChooseBlock, options: SpaceOptions = { useRanges: true }): ChooseAnalysis {
   const result: ChooseAnalysis = { block, branches: [], overlaps: [], gap: [] };
   try {
+    if (block.branches.some((b) => !b.when && !b.otherwise)) throw new NotAnalysable('a branch has no condition');
     const before = untilBefore(facts, block);
     result.before = before;
     const whens = block.branches.map((b) => (b.when ? parsed(facts, b.when.path) : undefined));
