@@ -1,7 +1,7 @@
 // Opens the git repository around the working folder for the commands that read history (check, review).
 import { isAbsolute, relative, resolve } from 'node:path';
 import type { SourceInput } from '../check/run-checks.ts';
-import { gitIn, isShallow, repositoryRoot, type Git } from '../history/git.ts';
+import { GitError, gitIn, type Git } from '../history/git.ts';
 import { previousVersions, type PreviousVersion } from '../history/previous-version.ts';
 import type { CliIo } from './io.ts';
 
@@ -16,12 +16,16 @@ export interface Repository {
 
 export async function openRepository(io: Pick<CliIo, 'cwd' | 'env'>): Promise<Repository | undefined> {
   // git runs with the process environment (PATH, HOME, GIT_*), not the CLI's injected variables.
-  const here = gitIn(io.cwd);
-  const root = await repositoryRoot(here);
+  let lines: string[];
+  try {
+    // One git process for all three answers: this runs before every check.
+    lines = (await gitIn(io.cwd)(['rev-parse', '--show-toplevel', '--show-prefix', '--is-shallow-repository'])).split('\n');
+  } catch {
+    return undefined;
+  }
+  const [root, prefix = '', shallow = 'false'] = lines;
   if (!root) return undefined;
-  const prefix = (await here(['rev-parse', '--show-prefix'])).trim();
-  const git = gitIn(root);
-  return { git, root, prefix, shallow: await isShallow(git) };
+  return { git: gitIn(root), root, prefix: prefix.trim(), shallow: shallow.trim() === 'true' };
 }
 
 /** A file name as the CLI shows it (relative to the working folder, or absolute) → a path relative to the repository root. */
@@ -42,18 +46,15 @@ export async function previousFromGit(
 ): Promise<{ previous?: (file: string) => PreviousVersion | undefined; repo?: Repository }> {
   const repo = await openRepository(io);
   if (!repo) return {};
-  if (base === undefined && !(await hasCommits(repo))) return { repo };
   const files = inputs.flatMap((i) => ('text' in i ? [{ file: i.file, path: repoPath(repo, resolve(io.cwd, i.file)) }] : []));
-  const found = await previousVersions(repo.git, files, base ?? 'HEAD');
+  let found: Map<string, PreviousVersion>;
+  try {
+    found = await previousVersions(repo.git, files, base ?? 'HEAD');
+  } catch (error) {
+    // Before the first commit there is no HEAD and so no history; a missing --base is the user's to fix.
+    if (base === undefined && error instanceof GitError && !error.missingGit) return { repo };
+    throw error;
+  }
   const byFile = new Map(files.flatMap((f) => (found.has(f.path) ? [[f.file, found.get(f.path)!] as const] : [])));
   return { previous: (file) => byFile.get(file), repo };
-}
-
-async function hasCommits(repo: Repository): Promise<boolean> {
-  try {
-    await repo.git(['rev-parse', '--verify', '--quiet', 'HEAD^{commit}']);
-    return true;
-  } catch {
-    return false;
-  }
 }

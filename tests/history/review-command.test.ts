@@ -189,6 +189,18 @@ describe('stepwright check with history', () => {
     expect(r.stdout.trim().split('\n').every((l) => /^::(error|warning|notice) file=[^,]+,line=\d+,endLine=\d+,col=\d+(,endColumn=\d+)?,title=[a-z0-9-]+::/.test(l))).toBe(true);
   });
 
+  it('checks without history in a repository that has no commits yet', async () => {
+    const fresh = createTempRepo();
+    try {
+      fresh.write('procedures/p.md', procedureText({ revision: 1, status: 'draft', steps: stepsV2 }));
+      const r = await runCli(['check', '--format', 'json', 'procedures'], fresh.dir);
+      expect(r.stderr).toBe('');
+      expect(r.code).toBe(0);
+    } finally {
+      fresh.remove();
+    }
+  });
+
   it('stops with a message when the base does not exist', async () => {
     const r = await runCli(['check', '--base', 'no-such-branch', 'procedures'], repo.dir);
     expect(r.code).toBe(2);
