@@ -121,8 +121,7 @@ function auditTrail(history: ProcedureHistory): AuditEntry[] {
       const inPlace = c.revision === beforeRevision && released.has(beforeStatus) ? areas : [];
       if (areas.length && !inPlace.length && out.length > 0) events.push(`content: ${areas.join(', ')}`);
       if (inPlace.length) events.push(`content edited in place: ${inPlace.join(', ')}`);
-      // A new revision starts without the old signatures, which stay on the old revision's record.
-      events.push(...signatureEvents(c.revision === beforeRevision ? before : null, now));
+      events.push(...signatureEvents(before, now, c.revision === beforeRevision ? undefined : beforeRevision));
       if (!events.length) events.push('document control only');
       out.push({
         date: c.date, author: c.author, email: c.email, commit: c.commit, subject: c.subject, path: c.path,
@@ -143,12 +142,18 @@ function readAt(r: Revision, index: number): Procedure | null {
   return text === undefined ? null : readProcedure(r.commits[index].path, text).procedure;
 }
 
-/** Signatures added or removed by a commit: the audit shows when each approval entered the record. */
-function signatureEvents(before: Procedure | null, now: Procedure | null): string[] {
+/**
+ * Signatures added or removed by a commit: the audit shows when each approval entered the record. When the commit
+ * starts a new revision, signatures copied from the old one are named as copies, not as new signatures.
+ */
+function signatureEvents(before: Procedure | null, now: Procedure | null, newRevisionAfter?: number | null): string[] {
   if (!now) return [];
   const text = (a: Approval) => `${a.role} ${a.name} (${a.date}, ${a.meaning})`;
   const old = new Set((before?.approvals ?? []).map(text));
   const current = new Set(now.approvals.map(text));
+  if (newRevisionAfter !== undefined) {
+    return now.approvals.map((a) => (old.has(text(a)) ? `approval copied from revision ${newRevisionAfter ?? '?'}, not a new signature: ${text(a)}` : `signed: ${text(a)}`));
+  }
   return [
     ...now.approvals.filter((a) => !old.has(text(a))).map((a) => `signed: ${text(a)}`),
     ...(before?.approvals ?? []).filter((a) => !current.has(text(a))).map((a) => `signature removed: ${text(a)}`),

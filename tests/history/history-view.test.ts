@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { gitIn } from '../../src/history/git.ts';
 import { buildHistoryView } from '../../src/history/history-view.ts';
 import { readHistory } from '../../src/history/revisions.ts';
-import { buildStory, createTempRepo, type TempRepo } from './temp-repo.ts';
+import { ada, buildStory, createTempRepo, procedureText, stepsV1, stepsV2, type TempRepo } from './temp-repo.ts';
 
 let repo: TempRepo;
 let commits: ReturnType<typeof buildStory>;
@@ -46,5 +46,21 @@ describe('buildHistoryView', () => {
     ]);
     expect(view.audit.at(-1)?.editedInPlace).toEqual(['limits', 'interlocks']);
     expect(view.audit.every((a, i) => i === 0 || a.date >= view.audit[i - 1].date)).toBe(true);
+  });
+
+  it('names signatures copied into a new revision as copies, not as new signatures', async () => {
+    const other = createTempRepo();
+    try {
+      const approvals = [{ role: 'Process engineer', name: 'Ada Ferrand', date: '2026-01-15' }];
+      other.write('p.md', procedureText({ revision: 1, status: 'effective', effective: '2026-01-20', approvals, steps: stepsV1 }));
+      other.commit('rev 1', ada, '2026-01-20');
+      other.write('p.md', procedureText({ revision: 2, status: 'effective', effective: '2026-01-20', approvals, steps: stepsV2 }));
+      other.commit('rev 2', ada, '2026-02-01');
+      const view = buildHistoryView(await readHistory(gitIn(other.dir), 'p.md'), { id: 'P', slug: 'p', currentRevision: 2 });
+      expect(view.audit[0].events).toContain('signed: Process engineer Ada Ferrand (2026-01-15, Approved for use)');
+      expect(view.audit[1].events).toContain('approval copied from revision 1, not a new signature: Process engineer Ada Ferrand (2026-01-15, Approved for use)');
+    } finally {
+      other.remove();
+    }
   });
 });
