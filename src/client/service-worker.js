@@ -67,11 +67,21 @@ async function networkFirst(request, url) {
     ]);
     if (response.ok || !(await cached)) return response;
     return (await cached) || response;
-  } catch (error) {
+  } catch {
     const hit = await cached;
     if (hit) return hit;
-    throw error;
+    return notInCopy(url);
   }
+}
+
+/** Offline, a page that is not part of the manual still answers, and says where to go instead. */
+function notInCopy(url) {
+  const path = url.pathname.replace(/[&<>"]/g, '');
+  const html = `<!doctype html><html lang="en"><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">`
+    + `<title>Not in the offline copy</title><body style="font: 1.2rem/1.5 system-ui, sans-serif; margin: 2rem; max-width: 40rem">`
+    + `<h1>Not in the offline copy</h1><p>There is no network, and <code>${path}</code> is not part of the manual saved on this device.</p>`
+    + `<p><a href="/" style="display: inline-block; min-height: 44px; padding: 0.5rem 0">Open the procedure list</a></p></body></html>`;
+  return new Response(html, { status: 503, headers: { 'content-type': 'text/html; charset=utf-8' } });
 }
 
 /** Looks a URL up in this version's copy, trying the forms a folder page can be asked for; search strings ignored. */

@@ -73,6 +73,9 @@ describe('offline copy', () => {
     await page.waitForURL(other);
     await expect(page.locator('h1').count()).resolves.toBe(1);
     await expect(page.locator('body').textContent()).resolves.toMatch(/H-220/);
+    // A page outside the manual answers with a plain explanation instead of the browser's error page.
+    await page.goto(new URL('/no-such-page/', page.url()).href);
+    await expect(page.locator('h1').textContent()).resolves.toBe('Not in the offline copy');
   });
 
   it('warns when the published manual it last saw is newer, and updates when it can reach it', async () => {
