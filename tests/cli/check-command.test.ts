@@ -58,7 +58,7 @@ describe('stepwright check', () => {
 });
 
 describe('the installed command', () => {
-  it('checks the demo manual with exit 0 through npx on the project Node', async () => {
+  it('checks the demo manual with exit 0 through npx on the project Node', { timeout: 120_000 }, async () => {
     const run = promisify(execFile);
     const root = join(import.meta.dirname, '../..');
     const { stdout } = await run('npx', ['stepwright', 'check', 'procedures', '--quiet'], { cwd: root, env: { ...process.env, NO_COLOR: '1' } });

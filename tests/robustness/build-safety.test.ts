@@ -83,15 +83,18 @@ describe('building the manual', () => {
     const run = startBuild(more, site);
     let exited = false;
     void run.done.then(() => (exited = true));
-    // Wait until the new site is being written next to the old one, then kill the whole build.
+    // Wait until the new site is being written, then kill the whole build. An output folder outside the project
+    // is first written in the project's private scratch folder (named after the build's process id) and copied
+    // next to the old site only at the end, so watch both places.
+    const scratch = join(repo, '.stepwright', `site.tmp-${run.child.pid}`);
     const deadline = Date.now() + 150_000;
     let temporary: string | undefined;
     while (!exited && Date.now() < deadline && !temporary) {
-      temporary = readdirSync(work).find((n) => n.startsWith('site.tmp-'));
+      temporary = existsSync(scratch) ? scratch : readdirSync(work).find((n) => n.startsWith('site.tmp-'));
       if (!temporary) await sleep(20);
     }
     expect(temporary, 'the build never started writing its temporary folder').toBeDefined();
-    await sleep(300);
+    await sleep(100);
     process.kill(-run.child.pid!, 'SIGKILL');
     const result = await run.done;
     expect(result.signal, `the build finished before it could be killed:\n${result.stdout}`).toBe('SIGKILL');
