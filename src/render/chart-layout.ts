@@ -74,7 +74,8 @@ export function layoutChart(procedure: Pick<Procedure, 'steps' | 'hazards'>, num
     const lines = step.actions.flatMap((a) => wrapText(a, boxTextMax, chartFont.size));
     const markers: string[] = [];
     const hazard = hazardOf.get(step.id);
-    if (hazard) markers.push(`▲ ${hazard.toUpperCase()}`);
+    // NOTICE is about property damage and never carries the safety alert symbol (ANSI Z535.4).
+    if (hazard) markers.push(`${hazard === 'notice' ? '■' : '▲'} ${hazard.toUpperCase()}`);
     if (step.signOff) markers.push(...wrapText(`◆ SIGN-OFF: ${step.signOff}`, boxTextMax, chartFont.small));
     const textW = Math.max(
       textWidth(header, chartFont.size) + 2,

@@ -213,3 +213,15 @@ describe('sequence chart on random sequences', () => {
     );
   });
 });
+
+describe('hazard marks in the chart', () => {
+  it('never puts the safety alert triangle on a NOTICE step', async () => {
+    // Source: ANSI Z535.4 — NOTICE addresses property damage and is used without the safety alert symbol (common practice)
+    const file = join(import.meta.dirname, '../../procedures/k-210-resin/u2-k210-batch-001.md');
+    const procedure = readProcedure(file, readFileSync(file, 'utf8')).procedure!;
+    const svg = renderChartSvg(procedure, { title: 'Chart' });
+    expect(svg).toContain('■ NOTICE');
+    expect(svg).not.toContain('▲ NOTICE');
+    expect(svg).toContain('▲ WARNING');
+  });
+});
