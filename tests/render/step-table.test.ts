@@ -65,3 +65,33 @@ describe('step table', () => {
     expect(formatDuration('40 min')).toBe('40 min');
   });
 });
+
+describe('step waivers in the step table', () => {
+  const waived = readTestProcedure({
+    steps: [
+      s('prime', {
+        do: 'Open XV-201 and start P-201',
+        waive: [
+          { rule: 'one-action-per-step', reason: '  The valve and pump are interlocked and started as one move  ' },
+          { rule: 'sentence-too-long', reason: '' },
+          { rule: 'yaml-syntax', reason: 'Cannot be set aside' },
+        ],
+      }),
+      s('run'),
+    ],
+  });
+  const table = buildStepTable(waived);
+  const rowOf = (id: string) => table.find((r): r is Extract<TableRow, { kind: 'step' }> => r.kind === 'step' && r.id === id)!;
+
+  it('carries each waiver with a written reason on the row of its step', () => {
+    expect(rowOf('prime').waivers).toEqual([
+      { rule: 'one-action-per-step', reason: 'The valve and pump are interlocked and started as one move' },
+    ]);
+  });
+
+  it('leaves steps without waivers with none, and drops waivers the checker would not honour', () => {
+    expect(rowOf('run').waivers).toEqual([]);
+    expect(rowOf('prime').waivers.map((w) => w.rule)).not.toContain('sentence-too-long');
+    expect(rowOf('prime').waivers.map((w) => w.rule)).not.toContain('yaml-syntax');
+  });
+});
