@@ -176,8 +176,11 @@ export function readSource(file: string, text: string): ParsedSource {
   return { file, text, doc, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar: rangeOf };
 }
 
+/** One frozen processor for every body: building it costs as much as parsing a short body. */
+const markdownParser = unified().use(remarkParse).freeze();
+
 function parseBody(markdown: string, startLine: number): Root {
-  const tree = unified().use(remarkParse).parse(markdown) as Root;
+  const tree = markdownParser.parse(markdown) as Root;
   // Shift body positions so they point into the whole file.
   const shift = startLine - 1;
   if (shift > 0) {
