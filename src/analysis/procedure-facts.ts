@@ -30,6 +30,22 @@ export interface ProcedureFacts {
   readonly graph: StepGraph;
 }
 
+/**
+ * Parse results by condition text: a manual repeats the same conditions many times, and a parse result is
+ * never changed after parsing, so procedures can share it. Bounded so that a long-running process stays small.
+ */
+const parsedByText = new Map<string, ReturnType<typeof parseCondition>>();
+
+function parsedCondition(text: string): ReturnType<typeof parseCondition> {
+  let result = parsedByText.get(text);
+  if (!result) {
+    result = parseCondition(text);
+    if (parsedByText.size >= 20_000) parsedByText.clear();
+    parsedByText.set(text, result);
+  }
+  return result;
+}
+
 export function collectFacts(procedure: Procedure): ProcedureFacts {
   const steps = walkSteps(procedure.steps);
   const stepById = new Map<string, StepPlace>();
@@ -38,7 +54,7 @@ export function collectFacts(procedure: Procedure): ProcedureFacts {
   const conditions: ConditionSite[] = [];
   const signals = procedure.signals;
   const add = (text: string, path: PathKey[], role: ConditionSite['role'], owner?: string) => {
-    const result = parseCondition(text);
+    const result = parsedCondition(text);
     const problems = result.ok ? resolveCondition(result.condition, signals) : [];
     conditions.push({ path, text, role, owner, result, problems });
   };
