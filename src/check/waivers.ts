@@ -1,7 +1,7 @@
 // Applies step waivers: a diagnostic inside a step that waives its rule (with a reason) is set aside, not lost.
 import type { Diagnostic } from '../parse/diagnostic.ts';
-import type { ParsedSource } from '../parse/read-source.ts';
-import type { Procedure } from '../model/procedure.ts';
+import type { ParsedSource, PathKey } from '../parse/read-source.ts';
+import type { Procedure, Step } from '../model/procedure.ts';
 import { walkSteps } from '../model/walk-steps.ts';
 
 /** Rules no waiver can silence: the ones about waivers, and those that mean the file was not read. */
@@ -21,15 +21,20 @@ export interface WaivedDiagnostic {
   waiver: StepWaiver;
 }
 
+/** The waivers of one step that the checker honours: a rule that may be waived, and a written reason. */
+export function honouredWaivers(step: Step): Array<{ rule: string; reason: string; path: PathKey[] }> {
+  return (step.waivers ?? [])
+    .filter((w) => w.reason?.trim() && w.rule && !unwaivableRules.has(w.rule))
+    .map((w) => ({ rule: w.rule, reason: w.reason!.trim(), path: w.path }));
+}
+
 /** Every valid waiver (with a reason) in a procedure, for the site to show beside its step. */
 export function stepWaivers(procedure: Procedure, source: ParsedSource): StepWaiver[] {
   return walkSteps(procedure.steps).flatMap(({ step }) =>
-    (step.waivers ?? [])
-      .filter((w) => w.reason?.trim() && w.rule && !unwaivableRules.has(w.rule))
-      .map((w) => {
-        const at = source.rangeOf(w.path);
-        return { step: step.id, rule: w.rule, reason: w.reason!.trim(), line: at.line, column: at.column };
-      }),
+    honouredWaivers(step).map((w) => {
+      const at = source.rangeOf(w.path);
+      return { step: step.id, rule: w.rule, reason: w.reason, line: at.line, column: at.column };
+    }),
   );
 }
 

@@ -1,7 +1,7 @@
 // Turns the step sequence into the rows of the numbered step table: hazards repeated before the steps they
 // name (DOE-STD-1029 practice), parallel blocks spelled out, decisions as "IF … THEN go to step N", loops marked.
 import type { Hazard, HazardLevel, Procedure, SequenceItem, Step } from '../model/procedure.ts';
-import { unwaivableRules } from '../check/waivers.ts';
+import { honouredWaivers } from '../check/waivers.ts';
 import { hazardRank } from './signal-words.ts';
 import { numberSteps, type StepNumbers } from './step-numbers.ts';
 
@@ -92,9 +92,7 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
     until: step.until?.value, confirm: step.confirm?.value, expect: step.expect ? formatDuration(step.expect.value) : undefined,
     signOff: step.signOff, note: step.note, loopFrom: [],
     hazard: hazardsAt.get(step.id)?.[0]?.level,
-    waivers: (step.waivers ?? [])
-      .filter((w) => w.rule && w.reason?.trim() && !unwaivableRules.has(w.rule))
-      .map((w) => ({ rule: w.rule, reason: w.reason!.trim() })),
+    waivers: honouredWaivers(step).map((w) => ({ rule: w.rule, reason: w.reason })),
   });
 
   /** `next` names where the flow goes after this sequence ends: a step number, or a phrase. */
