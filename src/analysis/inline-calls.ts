@@ -97,7 +97,7 @@ export interface InlineResult {
 export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): InlineResult {
   const problems: InlineProblem[] = [];
   const inlined: string[] = [];
-  const signals = { ...procedure.signals };
+  const signals: typeof procedure.signals = Object.assign(Object.create(null), procedure.signals);
   const limits = [...procedure.limits];
   const interlocks = [...procedure.interlocks];
   const hazards = [...procedure.hazards];

@@ -47,7 +47,8 @@ function buildApproval(value: unknown, path: PathKey[]): Approval {
 }
 
 function buildSignals(value: unknown): Record<string, Signal> {
-  const out: Record<string, Signal> = {};
+  // No prototype: names such as valueOf or toString are declared only when the author declares them.
+  const out: Record<string, Signal> = Object.create(null);
   for (const [name, v] of Object.entries(asRecord(value))) {
     const s = asRecord(v);
     const range = Array.isArray(s.range) && s.range.length === 2 && s.range.every((n) => typeof n === 'number')

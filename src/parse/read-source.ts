@@ -122,6 +122,10 @@ export function readSource(file: string, text: string): ParsedSource {
         }
       }
     }
+    const notMapping = doc.errors.length === 0 && data !== undefined && !diagnostics.some((d) => d.rule === 'yaml-syntax')
+      ? frontMatterShapeProblem(data, split.yaml, split.body)
+      : null;
+    if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
     // Positions from the YAML document are offsets into the YAML text; shift them into the file.
     const base = split.yamlOffset;
     const docRef = doc;
@@ -230,6 +234,32 @@ function maxDepth(node: unknown, limit: number): number {
     else if (isSeq(current)) for (const item of current.items) stack.push([item, depth + 1]);
   }
   return deepest;
+}
+
+/**
+ * Front-matter that parses but holds no mapping of procedure keys: empty, a list or a single value. Such a
+ * file looks like a procedure and must never be dropped in silence.
+ */
+function frontMatterShapeProblem(data: unknown, yaml: string, body: string): { message: string; hint: string } | null {
+  if (data !== null && typeof data === 'object' && !Array.isArray(data)) return null;
+  const keysBelow = /^[A-Za-z][\w-]*:(\s|$)/m.test(body.split(/^(?:---|\.\.\.)[ \t]*\r?$/m)[0] ?? '') && /^---[ \t]*\r?$/m.test(body);
+  if (data === null && yaml.trim() === '' && keysBelow) {
+    return {
+      message: 'The front-matter is empty: the second line "---" closes it at once, so the procedure keys below are read as narrative text.',
+      hint: 'Remove the extra "---" line at the top; the file starts with one "---", then the keys, then one closing "---".',
+    };
+  }
+  if (data === null) {
+    return {
+      message: 'The front-matter between the "---" lines is empty, so the file holds no procedure.',
+      hint: 'Write the procedure keys (id, title, kind, revision, status, steps, ...) between the two "---" lines.',
+    };
+  }
+  const shape = Array.isArray(data) ? 'a list' : `a single value (${typeof data})`;
+  return {
+    message: `The front-matter is ${shape}, not a mapping of procedure keys, so the file holds no procedure.`,
+    hint: 'Write one key per line, "key: value" (id: ..., title: ..., steps: ...), without a leading "- ".',
+  };
 }
 
 function firstLine(message: string): string {

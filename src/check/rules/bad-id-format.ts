@@ -1,5 +1,7 @@
 // Reports procedure ids, step ids and branch names written in a form that cannot be used in URLs and diffs.
 import { defineFileRule } from '../define-rule.ts';
+import { describeCharacter, firstNonAscii } from '../../parse/suspicious-characters.ts';
+import { valueAt } from '../../model/validate.ts';
 
 const idKeys = new Set(['id', 'step']);
 
@@ -23,7 +25,8 @@ web addresses and keep revisions comparable, so they must be stable and plain.`,
       ctx.report({
         path: issue.path,
         part: isBranchName ? 'key' : 'value',
-        message: isBranchName ? `Branch name '${String(key)}' is not lower-case letters, digits and hyphens.` : issue.message,
+        message: (isBranchName ? `Branch name '${String(key)}' is not lower-case letters, digits and hyphens.` : issue.message)
+          + oddCharacter(isBranchName ? String(key) : valueAt(ctx.source.data, issue.path)),
         hint: key === 'id'
           ? 'Write the document number in capitals, digits and hyphens, e.g. U2-K210-BATCH-001.'
           : 'Write ids in lower case with hyphens between words, e.g. heat-up.',
@@ -31,3 +34,10 @@ web addresses and keep revisions comparable, so they must be stable and plain.`,
     }
   },
 );
+
+/** Names the first character outside printable ASCII, so a look-alike or invisible one can be found. */
+function oddCharacter(value: unknown): string {
+  if (typeof value !== 'string') return '';
+  const odd = firstNonAscii(value.replace(/ /g, '_'));
+  return odd ? ` It holds ${describeCharacter(odd.char)} as character ${[...value.slice(0, odd.index)].length + 1}.` : '';
+}

@@ -18,8 +18,10 @@ import duplicateStepId from './duplicate-step-id.ts';
 import effectiveBeforeApproval from './effective-before-approval.ts';
 import effectiveDateMissing from './effective-date-missing.ts';
 import effectiveEditedInPlace from './effective-edited-in-place.ts';
+import frontMatterNotMapping from './front-matter-not-mapping.ts';
 import gotoCrossesParallel from './goto-crosses-parallel.ts';
 import gotoUnknownStep from './goto-unknown-step.ts';
+import hiddenCharacter from './hidden-character.ts';
 import hazardUnknownStep from './hazard-unknown-step.ts';
 import invalidValue from './invalid-value.ts';
 import limitIncomplete from './limit-incomplete.ts';
@@ -27,6 +29,7 @@ import loopWithoutExit from './loop-without-exit.ts';
 import missingFrontMatter from './missing-front-matter.ts';
 import missingRequiredKey from './missing-required-key.ts';
 import mixedAndOr from './mixed-and-or.ts';
+import nameFormat from './name-format.ts';
 import noteHoldsAction from './note-holds-action.ts';
 import noticeForInjury from './notice-for-injury.ts';
 import numberWithoutUnit from './number-without-unit.ts';
@@ -84,15 +87,18 @@ export const rules = {
   'effective-before-approval': effectiveBeforeApproval,
   'effective-date-missing': effectiveDateMissing,
   'effective-edited-in-place': effectiveEditedInPlace,
+  'front-matter-not-mapping': frontMatterNotMapping,
   'goto-crosses-parallel': gotoCrossesParallel,
   'goto-unknown-step': gotoUnknownStep,
   'hazard-unknown-step': hazardUnknownStep,
+  'hidden-character': hiddenCharacter,
   'invalid-value': invalidValue,
   'limit-incomplete': limitIncomplete,
   'loop-without-exit': loopWithoutExit,
   'missing-front-matter': missingFrontMatter,
   'missing-required-key': missingRequiredKey,
   'mixed-and-or': mixedAndOr,
+  'name-format': nameFormat,
   'note-holds-action': noteHoldsAction,
   'notice-for-injury': noticeForInjury,
   'number-without-unit': numberWithoutUnit,

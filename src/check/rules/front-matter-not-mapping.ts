@@ -1,0 +1,22 @@
+// Reports a file that opens front-matter but holds no procedure in it: empty, a list, a single value.
+import { defineFileRule } from '../define-rule.ts';
+
+export default defineFileRule(
+  {
+    id: 'front-matter-not-mapping',
+    summary: 'The file opens front-matter, but it is empty, a list or a single value: no procedure is read from it.',
+    category: 'syntax',
+    defaultSeverity: 'error',
+    docs: `A file that starts with a \`---\` line is taken for a procedure. Its front-matter must be a mapping of
+procedure keys (\`id: ...\`, \`title: ...\`, \`steps: ...\`). Empty front-matter, a list (lines starting with
+\`- \`) or a single value yields no procedure; the file would silently drop out of the manual, so it is an error.
+The commonest cause is one extra \`---\` line at the top: it closes the front-matter at once and the keys
+below it are read as narrative text.`,
+    examples: { bad: '---\n---\nid: U2-H220-SU-001\n...\n---', good: '---\nid: U2-H220-SU-001\n...\n---' },
+  },
+  (ctx) => {
+    for (const d of ctx.source.diagnostics) {
+      if (d.rule === 'front-matter-not-mapping') ctx.report({ range: d, message: d.message, hint: d.hint });
+    }
+  },
+);
