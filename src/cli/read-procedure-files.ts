@@ -1,50 +1,104 @@
 // Finds procedure files under the given paths and reads them; unreadable ones become inputs with an error.
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+// Only regular files are read: the type is checked before a file is opened (a FIFO would block, a device
+// never end), links that lead back into a folder already read are reported, and every read is capped.
+import { closeSync, fstatSync, lstatSync, openSync, readdirSync, readSync, statSync, constants, type Stats } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import type { SourceInput } from '../check/run-checks.ts';
 
 const skipDirs = new Set(['node_modules', 'dist', '.git', '.astro']);
 
-export function findProcedureFiles(paths: string[], cwd: string): Array<{ file: string; absolute: string; missing?: string }> {
-  const out: Array<{ file: string; absolute: string; missing?: string }> = [];
+/** Largest procedure file read, in bytes. The biggest real procedure is well under 100 kB. */
+export const maxProcedureBytes = 1024 * 1024;
+/** Deepest folder nesting followed under a procedures folder. */
+export const maxFolderDepth = 32;
+
+export interface FoundFile {
+  file: string;
+  absolute: string;
+  /** Why the path cannot be read; it is reported instead of being read. */
+  missing?: string;
+}
+
+export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
+  const out: FoundFile[] = [];
   const seen = new Set<string>();
+  /** Real paths (device and inode) of folders and files read so far: a second way to the same one is a link. */
+  const visited = new Map<string, string>();
   const add = (absolute: string, missing?: string) => {
     if (seen.has(absolute)) return;
     seen.add(absolute);
     out.push({ file: displayPath(absolute, cwd), absolute, missing });
   };
-  const walk = (dir: string) => {
+  const identity = (s: Stats) => `${s.dev}:${s.ino}`;
+  const firstVisit = (s: Stats, absolute: string): string | undefined => {
+    const key = identity(s);
+    const earlier = visited.get(key);
+    if (earlier !== undefined) return earlier;
+    visited.set(key, absolute);
+    return undefined;
+  };
+  const walk = (dir: string, depth: number) => {
     let entries: string[];
     try {
       entries = readdirSync(dir).sort();
     } catch (error) {
-      add(dir, (error as Error).message);
+      add(dir, describeError(error));
       return;
     }
-    for (const name of entries) {
-      if (name.startsWith('.') || skipDirs.has(name)) continue;
+    // Plain entries before links, so that a file or folder is read under its own name and the link is the one reported.
+    const kinds = entries.filter((name) => !name.startsWith('.') && !skipDirs.has(name)).map((name) => {
       const full = join(dir, name);
-      let isDir = false;
       try {
-        isDir = statSync(full).isDirectory();
+        return { name, full, link: lstatSync(full).isSymbolicLink() };
       } catch {
+        return { name, full, link: true };
+      }
+    });
+    for (const { name, full } of [...kinds.filter((k) => !k.link), ...kinds.filter((k) => k.link)]) {
+      let target: Stats;
+      try {
+        target = statSync(full);
+      } catch (error) {
+        // A dangling link or a link loop (ELOOP): only worth a report when it looks like a procedure.
+        if (name.endsWith('.md')) add(full, describeError(error));
+        else if ((error as NodeJS.ErrnoException).code === 'ELOOP') add(full, describeError(error));
         continue;
       }
-      if (isDir) walk(full);
-      else if (name.endsWith('.md')) add(full);
+      if (target.isDirectory()) {
+        const earlier = firstVisit(target, full);
+        if (earlier !== undefined) {
+          add(full, `it is a link to the folder ${displayPath(earlier, cwd)}, which is already read (a link loop or a second way to the same folder); it was skipped`);
+          continue;
+        }
+        if (depth >= maxFolderDepth) {
+          add(full, `folders nest more than ${maxFolderDepth} levels deep here; deeper folders were not read`);
+          continue;
+        }
+        walk(full, depth + 1);
+      } else if (name.endsWith('.md')) {
+        addFile(full, target);
+      }
     }
+  };
+  const addFile = (absolute: string, stats: Stats) => {
+    const problem = notRegular(stats);
+    if (problem) return add(absolute, problem);
+    const earlier = firstVisit(stats, absolute);
+    if (earlier !== undefined && earlier !== absolute) return add(absolute, `it is a second name (a link) for ${displayPath(earlier, cwd)}, which is already read; it was skipped`);
+    add(absolute);
   };
   for (const p of paths) {
     const absolute = resolve(cwd, p);
-    let stats;
+    let stats: Stats;
     try {
       stats = statSync(absolute);
-    } catch {
-      add(absolute, `no such file or folder: ${p}`);
+    } catch (error) {
+      add(absolute, (error as NodeJS.ErrnoException).code === 'ENOENT' ? `no such file or folder: ${p}` : describeError(error));
       continue;
     }
-    if (stats.isDirectory()) walk(absolute);
-    else add(absolute);
+    if (stats.isDirectory()) {
+      if (firstVisit(stats, absolute) === undefined) walk(absolute, 0);
+    } else addFile(absolute, stats);
   }
   return out;
 }
@@ -52,15 +106,81 @@ export function findProcedureFiles(paths: string[], cwd: string): Array<{ file: 
 export function readProcedureFiles(paths: string[], cwd: string): SourceInput[] {
   return findProcedureFiles(paths, cwd).map(({ file, absolute, missing }) => {
     if (missing) return { file, error: missing };
+    const read = readRegularFile(absolute, maxProcedureBytes);
+    if ('error' in read) return { file, error: read.error };
     try {
-      const bytes = readFileSync(absolute);
-      const text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+      const text = new TextDecoder('utf-8', { fatal: true }).decode(read.bytes);
       return { file, text };
-    } catch (error) {
-      const message = (error as Error).name === 'TypeError' ? 'it is not valid UTF-8 text' : (error as Error).message;
-      return { file, error: message };
+    } catch {
+      return { file, error: 'it is not valid UTF-8 text' };
     }
   });
+}
+
+/**
+ * Reads a file only if it is a regular file, and at most `limit` bytes of it. The type is checked before
+ * opening (opening a FIFO blocks), again on the open descriptor (the path may have been swapped), and the
+ * read stops at the limit whatever size the file claims (files under /proc claim 0).
+ */
+export function readRegularFile(path: string, limit: number): { bytes: Uint8Array } | { error: string } {
+  let before: Stats;
+  try {
+    before = statSync(path);
+  } catch (error) {
+    return { error: describeError(error) };
+  }
+  const problem = notRegular(before);
+  if (problem) return { error: problem };
+  if (before.size > limit) return { error: tooLarge(before.size, limit) };
+  let fd: number;
+  try {
+    fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0) | (constants.O_NOCTTY ?? 0));
+  } catch (error) {
+    return { error: describeError(error) };
+  }
+  try {
+    const opened = fstatSync(fd);
+    const again = notRegular(opened);
+    if (again) return { error: again };
+    const buffer = Buffer.alloc(limit + 1);
+    let length = 0;
+    while (length <= limit) {
+      const n = readSync(fd, buffer, length, limit + 1 - length, null);
+      if (n === 0) break;
+      length += n;
+    }
+    if (length > limit) return { error: tooLarge(length, limit) };
+    return { bytes: buffer.subarray(0, length) };
+  } catch (error) {
+    return { error: describeError(error) };
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function notRegular(stats: Stats): string | undefined {
+  if (stats.isFile()) return undefined;
+  if (stats.isDirectory()) return 'it is a folder, not a file';
+  if (stats.isFIFO()) return 'it is a named pipe (FIFO), not a regular file; it was not opened';
+  if (stats.isCharacterDevice() || stats.isBlockDevice()) return 'it is a device, not a regular file; it was not opened';
+  if (stats.isSocket()) return 'it is a socket, not a regular file; it was not opened';
+  return 'it is not a regular file; it was not opened';
+}
+
+function tooLarge(size: number, limit: number): string {
+  return `it holds ${size > limit + 1 ? size : `more than ${limit}`} bytes; the limit for one procedure file is ${limit} bytes (${limit / 1024 / 1024} MB). Split it or shorten the narrative`;
+}
+
+function describeError(error: unknown): string {
+  const e = error as NodeJS.ErrnoException;
+  switch (e?.code) {
+    case 'ELOOP': return 'it is a link that leads back to itself (a link loop)';
+    case 'ENOENT': return 'it is a link to something that does not exist';
+    case 'EACCES':
+    case 'EPERM': return 'permission to read it was denied';
+    case 'ENAMETOOLONG': return 'its path is too long for the file system';
+    default: return e?.message ?? String(error);
+  }
 }
 
 function displayPath(absolute: string, cwd: string): string {

@@ -29,6 +29,9 @@ export function gitIn(cwd: string, env?: Record<string, string | undefined>): Gi
   run.bytes = (args, input) =>
     new Promise((resolve, reject) => {
       const child = execFile('git', args, { ...options, encoding: 'buffer' }, (error, stdout, stderr) => (error ? reject(fail(args, error, stderr)) : resolve(stdout)));
+      // git may exit before it has read all of its input (e.g. outside a repository): the write then fails
+      // with EPIPE, which must become the command's failure, not an unhandled error that ends the process.
+      child.stdin?.on('error', () => {});
       child.stdin?.end(input);
     });
   return run;
