@@ -6,6 +6,7 @@ import { parseArgs } from 'node:util';
 import { formatCheckFailure, loadManual } from './load-manual.ts';
 import { useColour, type CliIo } from './io.ts';
 import { writeOfflineCopy } from './write-offline-copy.ts';
+import { siteConfig } from '../site/astro-config.ts';
 
 export const buildHelp = `Usage: stepwright build [options] [folder]
 
@@ -72,7 +73,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // (or a test runner's) must not put development-only parts into the published manual.
     for (const key of ['DEV', 'PROD', 'MODE', 'SSR', 'BASE_URL', 'SITE', 'ASSETS_PREFIX']) delete process.env[key];
     const { build } = await import('astro');
-    await build({ root: io.cwd, outDir: work, cacheDir, logLevel: 'error', mode: 'production' });
+    // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
+    await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production' }), { sync: false } as Parameters<typeof build>[1]);
     if (!values['no-index']) await indexSite(work);
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.

@@ -1,4 +1,4 @@
-// Live preview support for `npm run dev`: notices saved procedure files, and builds the manual even when
+// Live preview support for `stepwright dev`: notices saved procedure files, and builds the manual even when
 // the procedures have check errors, so the pages can show the errors instead of failing.
 import { statSync } from 'node:fs';
 import type { CheckedFile } from '../check/run-checks.ts';

@@ -1,6 +1,7 @@
 // argv → command → exit code. Commands never throw to the user: failures become a message and exit 2.
 import { runBuild } from './build-command.ts';
 import { runCheck } from './check-command.ts';
+import { runDev } from './dev-command.ts';
 import { runExport } from './export-command.ts';
 import { runNew } from './new-command.ts';
 import { runReview } from './review-command.ts';
@@ -14,6 +15,7 @@ type Command = { summary: string; run: (argv: string[], io: CliIo) => Promise<nu
 export const commands: Record<string, Command> = {
   build: { summary: 'check the procedures and build the operator manual site', run: runBuild },
   check: { summary: 'check procedure files and report problems', run: runCheck },
+  dev: { summary: 'live preview of the manual while you write: re-checks and reloads on save', run: runDev },
   export: { summary: 'print one procedure as model JSON or a mermaid flowchart', run: runExport },
   new: { summary: 'write a new procedure of a given kind, with TODO placeholders', run: runNew },
   review: { summary: 'summarise procedure changes against a git base for a pull request', run: runReview },

@@ -4,7 +4,7 @@ import { join, relative, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { offlineManifest, serviceWorkerSource, type BuiltFile, type OfflineManifest } from '../render/offline-manifest.ts';
 
-const workerCodeFile = fileURLToPath(new URL('../client/service-worker.js', import.meta.url));
+const workerCodeFile = fileURLToPath(new URL('../site/client/service-worker.js', import.meta.url));
 
 export interface OfflineCopySummary extends OfflineManifest {
   builtAt: string;

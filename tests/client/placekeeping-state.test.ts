@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readProcedure } from '../../src/check/run-checks.ts';
 import { placekeepingPlan, type PlanItem } from '../../src/render/placekeeping-plan.ts';
-import { compileFlow, decisionAfter, decisionByKey, markDone, replay, startPlace, undoMark, type Flow, type Mark, type Place } from '../../src/client/placekeeping-state.ts';
+import { compileFlow, decisionAfter, decisionByKey, markDone, replay, startPlace, undoMark, type Flow, type Mark, type Place } from '../../src/site/client/placekeeping-state.ts';
 
 const current = (place: Place) => place.tokens.map((t) => (t.at.k === 'step' ? t.at.id : t.at.k));
 const mark = (flow: Flow, place: Place, step: string, pick?: number) => {

@@ -1,0 +1,58 @@
+// `stepwright dev [folder]`: the live preview. Serves the manual from the procedures as they are on disk;
+// a saved procedure reloads the open pages, and check findings show on the pages instead of stopping them.
+import { join, resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import { siteConfig } from '../site/astro-config.ts';
+import { UsageError, type CliIo } from './io.ts';
+
+export const devHelp = `Usage: stepwright dev [options] [folder]
+
+Live preview of the operator manual while you write: serves the pages straight from the procedures
+folder (default: $STEPWRIGHT_PROCEDURES or procedures/), re-checks a procedure when you save it and shows
+its findings on its page. Nothing is published; use 'stepwright build' for the manual.
+
+Options:
+  --port <n>      port (default: 4321)
+  --host <host>   address to listen on (default: localhost)
+  -h, --help      show this help
+`;
+
+export async function runDev(argv: string[], io: CliIo): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: { port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' }, help: { type: 'boolean', short: 'h' } },
+    strict: true,
+  });
+  if (values.help) {
+    io.stdout.write(devHelp);
+    return 0;
+  }
+  const port = Number(values.port);
+  if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError(`--port must be a whole number from 0 to 65535, not '${values.port}'.`);
+  const folder = positionals[0] ?? (io.env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures');
+  // The pages read the procedures folder from the environment, relative to the working folder.
+  process.env.STEPWRIGHT_PROCEDURES = folder;
+  process.env.ASTRO_TELEMETRY_DISABLED = '1';
+  const { dev } = await import('astro');
+  const config = siteConfig({
+    outDir: join(io.cwd, '.stepwright', 'dev-out'),
+    cacheDir: join(io.cwd, '.stepwright', 'dev-cache'),
+    procedures: resolve(io.cwd, folder),
+    mode: 'development',
+    logLevel: 'warn',
+  });
+  const server = await dev({ ...config, server: { port, host: values.host } });
+  const host = server.address.address.includes(':') ? `[${server.address.address}]` : server.address.address;
+  io.stdout.write(`Live preview of ${folder}/ on http://${values.host === 'localhost' ? 'localhost' : host}:${server.address.port}/ (Ctrl+C stops it).\n`);
+  await new Promise<void>((done) => {
+    const stop = () => {
+      process.off('SIGINT', stop);
+      process.off('SIGTERM', stop);
+      server.stop().finally(done);
+    };
+    process.on('SIGINT', stop);
+    process.on('SIGTERM', stop);
+  });
+  return 0;
+}
