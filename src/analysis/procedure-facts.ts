@@ -17,6 +17,8 @@ export interface ConditionSite {
   result: ConditionParseResult;
   /** Undeclared names, unit mismatches ... (empty when the text did not parse). */
   problems: ResolveProblem[];
+  /** The register entry the condition came from (its own problems are reported in the register file). */
+  fromRegister?: string;
 }
 
 export interface ProcedureFacts {
@@ -53,18 +55,20 @@ export function collectFacts(procedure: Procedure): ProcedureFacts {
 
   const conditions: ConditionSite[] = [];
   const signals = procedure.signals;
-  const add = (text: string, path: PathKey[], role: ConditionSite['role'], owner?: string) => {
+  const add = (text: string, path: PathKey[], role: ConditionSite['role'], owner?: string, fromRegister?: string) => {
     const result = parsedCondition(text);
     const problems = result.ok ? resolveCondition(result.condition, signals) : [];
-    conditions.push({ path, text, role, owner, result, problems });
+    conditions.push({ path, text, role, owner, result, problems, ...(fromRegister ? { fromRegister } : {}) });
   };
   for (const s of steps) if (s.step.until) add(s.step.until.value, s.step.until.path, 'until', s.step.id);
   for (const block of walkBlocks(procedure.steps)) {
     if (block.kind !== 'choose') continue;
     for (const b of block.branches) if (b.when) add(b.when.value, b.when.path, 'when');
   }
-  for (const i of procedure.interlocks) if (i.tripsWhen.value) add(i.tripsWhen.value, i.tripsWhen.path, 'trips-when', i.tag);
-  const byPath = new Map(conditions.map((c) => [c.path.join('\u0000'), c]));
+  for (const i of procedure.interlocks) if (i.tripsWhen.value) add(i.tripsWhen.value, i.tripsWhen.path, 'trips-when', i.tag, i.from?.id);
+  // Register trips share the path of the `uses` item that brought them; the procedure's own sites come first.
+  const byPath = new Map<string, ConditionSite>();
+  for (const c of conditions) if (!byPath.has(c.path.join('\u0000'))) byPath.set(c.path.join('\u0000'), c);
 
   let graph: StepGraph | undefined;
   return {

@@ -19,11 +19,13 @@ export interface QuantitySite {
   step?: string;
   quantity?: { value: number; unit: string };
   problems: QuantityProblem[];
+  /** The register entry the limit came from (its own problems are reported in the register file). */
+  fromRegister?: string;
 }
 
 export function collectQuantities(procedure: Procedure, steps: StepPlace[]): QuantitySite[] {
   const sites: QuantitySite[] = [];
-  const add = (role: QuantitySite['role'], signal: string, text: string, path: PathKey[], step?: string) => {
+  const add = (role: QuantitySite['role'], signal: string, text: string, path: PathKey[], step?: string, fromRegister?: string) => {
     const problems: QuantityProblem[] = [];
     const declared = procedure.signals[signal];
     if (!declared) {
@@ -56,12 +58,12 @@ export function collectQuantities(procedure: Procedure, steps: StepPlace[]): Qua
         });
       }
     }
-    sites.push({ role, signal, text, path, step, quantity, problems });
+    sites.push({ role, signal, text, path, step, quantity, problems, ...(fromRegister ? { fromRegister } : {}) });
   };
   for (const { step } of steps) for (const s of step.set) add('setpoint', s.signal, s.quantity, s.path, step.id);
   for (const limit of procedure.limits) {
-    if (limit.low) add('limit-low', limit.signal, limit.low.value, limit.low.path);
-    if (limit.high) add('limit-high', limit.signal, limit.high.value, limit.high.path);
+    if (limit.low) add('limit-low', limit.signal, limit.low.value, limit.low.path, undefined, limit.from?.id);
+    if (limit.high) add('limit-high', limit.signal, limit.high.value, limit.high.path, undefined, limit.from?.id);
   }
   return sites;
 }

@@ -16,11 +16,21 @@ const configSchema = z.strictObject({
     files: z.union([z.string().min(1), z.array(z.string().min(1)).min(1)]),
     rules: z.record(z.string(), level),
   })).optional(),
+  register: z.string().min(1).optional(),
+  'document-control': z.strictObject({
+    'certification-interval-months': z.number().int().min(1).max(120).optional(),
+  }).optional(),
+  // Read by `stepwright review` (src/history/approval-policy.ts), which reports its own problems.
+  'review-policy': z.unknown().optional(),
 });
 
 export interface StepwrightConfig {
   rules: Record<string, Level>;
   overrides: Array<{ files: string[]; rules: Record<string, Level> }>;
+  /** The plant register folder as written, relative to the configuration file. */
+  register?: string;
+  /** Longest time between two certifications of a procedure in use, in months (OSHA 1910.119(f)(3): 12). */
+  certificationIntervalMonths?: number;
 }
 
 export interface LoadedConfig {
@@ -63,7 +73,7 @@ export function parseConfig(file: string, text: string, knownRules: readonly str
       const what = issue.code === 'unrecognized_keys'
         ? `Unknown key '${issue.keys[0]}' in the configuration.`
         : `${path.length ? `'${path.join('.')}'` : 'The configuration'}: ${issue.message.replace(/^Invalid input: /, '')}.`;
-      at(range[0], range[1], what, "The configuration holds 'rules' ({rule-id: error|warning|info|off}) and 'overrides' ([{files, rules}]).");
+      at(range[0], range[1], what, "The configuration holds 'rules' ({rule-id: error|warning|info|off}), 'overrides' ([{files, rules}]), 'register' (a folder) and 'document-control' ({certification-interval-months}).");
     }
     return { config: emptyConfig, diagnostics };
   }
@@ -71,6 +81,8 @@ export function parseConfig(file: string, text: string, knownRules: readonly str
   const config: StepwrightConfig = {
     rules: parsed.data.rules ?? {},
     overrides: (parsed.data.overrides ?? []).map((o) => ({ files: Array.isArray(o.files) ? o.files : [o.files], rules: o.rules })),
+    ...(parsed.data.register ? { register: parsed.data.register } : {}),
+    ...(parsed.data['document-control']?.['certification-interval-months'] ? { certificationIntervalMonths: parsed.data['document-control']['certification-interval-months'] } : {}),
   };
   const checkIds = (rules: Record<string, Level>, path: Array<string | number>) => {
     for (const id of Object.keys(rules)) {

@@ -4,6 +4,7 @@ import type { ParsedSource, PathKey } from '../parse/read-source.ts';
 import type { Procedure } from '../model/procedure.ts';
 import type { SchemaIssue } from '../model/validate.ts';
 import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
+import type { PlantRegister } from '../model/register.ts';
 
 export type RuleCategory = 'syntax' | 'structure' | 'sequence' | 'conditions' | 'limits' | 'document-control' | 'safety' | 'writing' | 'history';
 
@@ -57,6 +58,10 @@ export interface FileContext {
   readError?: string;
   /** The previous committed version, when the caller knows it; history rules do nothing without it. */
   history?: FileHistory;
+  /** The plant register the procedure was read against, when the plant has one. */
+  register?: PlantRegister;
+  /** Longest time between two certifications of a procedure in use, in months. */
+  certificationIntervalMonths?: number;
   report(report: Report): void;
 }
 
@@ -65,6 +70,10 @@ export interface ManualContext {
   today: string;
   /** Report against one of the files. */
   report(file: FileContext, report: Report): void;
+  /** The plant register, when the plant has one. */
+  register?: PlantRegister;
+  /** Report against a register file (paths are YAML paths in that file). */
+  reportInRegister(file: string, report: Report): void;
 }
 
 export interface FileRule {

@@ -4,6 +4,8 @@ import { readSource, type ParsedSource } from '../parse/read-source.ts';
 import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { validateFrontMatter } from '../model/validate.ts';
+import { applyRegister } from '../model/apply-register.ts';
+import type { PlantRegister } from '../model/register.ts';
 import { collectFacts, type ProcedureFacts } from '../analysis/procedure-facts.ts';
 import { toDiagnostic, type FileContext, type FileHistory, type Report, type Rule, type RuleMeta } from './define-rule.ts';
 import { applyWaivers, type WaivedDiagnostic } from './waivers.ts';
@@ -21,6 +23,10 @@ export interface CheckOptions {
   severity?: SeverityPolicy;
   /** The previous committed version of a file (e.g. from git), for the history rules. */
   previous?: (file: string) => { text: string; commit: string } | undefined;
+  /** The plant register the procedures are read against; without one, procedures stand alone. */
+  register?: PlantRegister;
+  /** Longest time between two certifications of a procedure in use, in months (default 12). */
+  certificationIntervalMonths?: number;
 }
 
 export interface CheckedFile {
@@ -36,14 +42,16 @@ export interface CheckedFile {
 export interface CheckResult {
   files: CheckedFile[];
   diagnostics: Diagnostic[];
+  /** The register the procedures were read against, with the problems found in its own files. */
+  register?: { register: PlantRegister; diagnostics: Diagnostic[] };
 }
 
 /** Reads one source into the shared model: the same reading the site uses. */
-export function readProcedure(file: string, text: string): { source: ParsedSource; procedure: Procedure | null; schemaIssues: ReturnType<typeof validateFrontMatter>; facts: ProcedureFacts | null } {
+export function readProcedure(file: string, text: string, register?: PlantRegister): { source: ParsedSource; procedure: Procedure | null; schemaIssues: ReturnType<typeof validateFrontMatter>; facts: ProcedureFacts | null } {
   const source = readSource(file, text);
   const readable = source.doc !== null && source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
   const schemaIssues = readable ? validateFrontMatter(source.data) : [];
-  const procedure = readable ? buildProcedure(file, source.data, source.body, source.bodyText) : null;
+  const procedure = readable ? applyRegister(buildProcedure(file, source.data, source.body, source.bodyText), register) : null;
   const facts = procedure ? collectFacts(procedure) : null;
   return { source, procedure, schemaIssues, facts };
 }
@@ -64,10 +72,11 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   for (const input of inputs) {
     // An unreadable file still gets a context, so that its one diagnostic goes through the rules like any other.
     const readError = 'error' in input ? input.error : undefined;
-    const { source, procedure, schemaIssues, facts } = 'text' in input ? readProcedure(input.file, input.text) : unreadable(input.file);
+    const { source, procedure, schemaIssues, facts } = 'text' in input ? readProcedure(input.file, input.text, options.register) : unreadable(input.file);
     let current: RuleMeta = rules[0]?.meta;
     const context: FileContext = {
       file: input.file, source, procedure, schemaIssues, facts, today: options.today, readError,
+      register: options.register, certificationIntervalMonths: options.certificationIntervalMonths ?? 12,
       history: readError === undefined ? readPrevious(input.file, options) : undefined,
       report: (report) => emit(context, current, report),
     };
@@ -80,9 +89,32 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     }
   }
 
+  const registerDiagnostics: Diagnostic[] = [];
+  const register = options.register;
+  const reportInRegister = (meta: RuleMeta) => (file: string, report: Report) => {
+    const chosen = options.severity?.(meta.id, file);
+    if (chosen === 'off') return;
+    const source = register?.sources.find((s) => s.file === file)?.source ?? readSource(file, '');
+    registerDiagnostics.push({ ...toDiagnostic(meta, chosen ?? report.severity ?? meta.defaultSeverity, source, report), file });
+  };
   for (const rule of rules) {
     if (rule.scope !== 'manual') continue;
-    runGuarded(rule, () => rule.check({ files: contexts, today: options.today, report: (ctx, report) => emit(ctx, rule.meta, report) }), contexts[0], emit);
+    const inRegister = reportInRegister(rule.meta);
+    try {
+      rule.check({
+        files: contexts, today: options.today, register, reportInRegister: inRegister,
+        report: (ctx, report) => emit(ctx, rule.meta, report),
+      });
+    } catch (error) {
+      // A rule that fails must say so; with no procedure to point at, the report goes to the register or the first file.
+      const report: Report = {
+        severity: 'error',
+        message: `Rule '${rule.meta.id}' could not finish (${(error as Error)?.message ?? String(error)}).`,
+        hint: 'This is a fault in Stepwright, not in the procedures; other rules still ran. Please report it with the files.',
+      };
+      if (contexts[0]) emit(contexts[0], rule.meta, report);
+      else if (register?.sources[0]) inRegister(register.sources[0].file, report);
+    }
   }
 
   for (const context of contexts) {
@@ -93,7 +125,12 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     });
   }
   files.sort((a, b) => a.file.localeCompare(b.file));
-  return { files, diagnostics: files.flatMap((f) => f.diagnostics).sort(compareDiagnostics) };
+  registerDiagnostics.sort(compareDiagnostics);
+  return {
+    files,
+    diagnostics: [...files.flatMap((f) => f.diagnostics), ...registerDiagnostics].sort(compareDiagnostics),
+    ...(register ? { register: { register, diagnostics: registerDiagnostics } } : {}),
+  };
 }
 
 function readPrevious(file: string, options: CheckOptions): FileHistory | undefined {

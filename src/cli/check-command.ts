@@ -10,6 +10,7 @@ import { previousFromGit, repoPath } from './repository.ts';
 import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { loadConfig } from './load-config.ts';
+import { loadRegister } from './load-register.ts';
 
 export const checkHelp = `Usage: stepwright check [options] [paths…]
 
@@ -55,7 +56,11 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     io.stderr.write(`stepwright check: ${error.message}\n`);
     return 2;
   }
-  const checked = checkSources(inputs, { today: todayOf(io), previous: history.previous, severity: configured.policy });
+  const register = loadRegister(io.cwd, configured.file?.file, configured.config.register);
+  const checked = checkSources(inputs, {
+    today: todayOf(io), previous: history.previous, severity: configured.policy, register,
+    certificationIntervalMonths: configured.config.certificationIntervalMonths,
+  });
   const result = { ...checked, diagnostics: [...configured.diagnostics, ...checked.diagnostics] };
   const shown = values.quiet ? result.diagnostics.filter((d) => d.severity === 'error') : result.diagnostics;
   if (values.format === 'json') io.stdout.write(formatJson(shown));
@@ -63,6 +68,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   else {
     const texts = new Map(inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
     if (configured.file) texts.set(configured.file.file, configured.file.text);
+    for (const r of register?.sources ?? []) texts.set(r.file, r.source.text);
     if (values.explain) {
       for (const f of result.files) if (f.facts) io.stdout.write(`== ${f.file}\n${explainSequence(f.facts).join('\n')}\n\n`);
     }

@@ -5,6 +5,7 @@ import { checkSources, type CheckResult, type SourceInput } from '../check/run-c
 import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from './format-diagnostics.ts';
 import { loadConfig } from './load-config.ts';
+import { loadRegister } from './load-register.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { procedureStamp, tolerantManualView } from './dev-manual.ts';
 
@@ -54,7 +55,9 @@ export function loadManual(options: LoadOptions): LoadedManual {
   const inputs = readProcedureFiles([root], options.cwd);
   const { today, source } = buildDate(options, inputs);
   // The site judges procedures by the same stepwright.config.yaml as `stepwright check`.
-  const result = checkSources(inputs, { today, severity: loadConfig(options).policy });
+  const configured = loadConfig(options);
+  const register = loadRegister(options.cwd, configured.file?.file, configured.config.register);
+  const result = checkSources(inputs, { today, severity: configured.policy, register, certificationIntervalMonths: configured.config.certificationIntervalMonths });
   const errors = result.diagnostics.filter((d) => d.severity === 'error').length;
   const view = errors === 0 ? buildManualView({ files: result.files, root, today }) : undefined;
   return { root, today, todaySource: source, inputs, result, errors, view };
@@ -63,6 +66,7 @@ export function loadManual(options: LoadOptions): LoadedManual {
 /** Check output exactly as `stepwright check` prints it, for a failed build. */
 export function formatCheckFailure(loaded: LoadedManual, colour: boolean): string {
   const texts = new Map(loaded.inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
+  for (const r of loaded.result.register?.register.sources ?? []) texts.set(r.file, r.source.text);
   return formatHuman(loaded.result.diagnostics, texts, colour) + summarize(loaded.result.diagnostics, loaded.inputs.length);
 }
 

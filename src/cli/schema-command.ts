@@ -2,26 +2,27 @@
 import { writeFileSync, mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { procedureJsonSchemaText } from '../model/json-schema.ts';
+import { procedureJsonSchemaText, registerJsonSchemaText } from '../model/json-schema.ts';
 import type { CliIo } from './io.ts';
 
-export const schemaHelp = `Usage: stepwright schema [--out FILE]
+export const schemaHelp = `Usage: stepwright schema [--register] [--out FILE]
 
 Prints the JSON Schema of a procedure's front-matter (generated from the one schema 'check' uses),
 or writes it to FILE. Editors with YAML support use it to complete and validate keys; see docs/editor.md.
 
 Options:
+  --register     the schema of a plant register file instead (docs/register.md)
   --out <file>   write the schema to this file instead of printing it
   -h, --help     show this help
 `;
 
 export async function runSchema(argv: string[], io: CliIo): Promise<number> {
-  const { values } = parseArgs({ args: argv, options: { out: { type: 'string' }, help: { type: 'boolean', short: 'h' } }, strict: true });
+  const { values } = parseArgs({ args: argv, options: { out: { type: 'string' }, register: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } }, strict: true });
   if (values.help) {
     io.stdout.write(schemaHelp);
     return 0;
   }
-  const text = procedureJsonSchemaText();
+  const text = values.register ? registerJsonSchemaText() : procedureJsonSchemaText();
   if (!values.out) {
     io.stdout.write(text);
     return 0;

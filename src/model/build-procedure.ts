@@ -35,6 +35,13 @@ export function buildProcedure(file: string, data: unknown, body: Root, bodyText
       .map(asText).filter((c): c is string => Boolean(c?.trim())),
     responsible: asText(d.responsible),
     steps: buildSequence(d.steps, ['steps']),
+    uses: asArray(d.uses).flatMap((u, i) => (u === null || typeof u === 'object' ? [] : [{ value: String(u), path: ['uses', i] }])),
+    certifications: asArray(d.certifications).map((c, i) => {
+      const r = asRecord(c);
+      return { name: asText(r.name) ?? '', role: asText(r.role) ?? '', date: asText(r.date) ?? '', path: ['certifications', i] };
+    }),
+    expires: asText(d.expires),
+    modifies: asArray(d.modifies).flatMap((u, i) => (u === null || typeof u === 'object' ? [] : [{ value: String(u), path: ['modifies', i] }])),
     body,
     bodyText,
     data: d,

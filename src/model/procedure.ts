@@ -2,6 +2,7 @@
 import type { PathKey } from '../parse/read-source.ts';
 import type { Root } from 'mdast';
 import type { hazardLevels, kinds, statuses } from './schema.ts';
+import type { RegisterEntry } from './register.ts';
 
 export type Kind = (typeof kinds)[number];
 export type Status = (typeof statuses)[number];
@@ -21,7 +22,17 @@ export interface Approval {
   path: PathKey[];
 }
 
+/** Where a declaration came from when the plant register supplied it rather than the procedure itself. */
+export interface FromRegister {
+  /** The register entry's id (a signal, a safety function or a relief device). */
+  id: string;
+  file: string;
+  path: PathKey[];
+}
+
 export interface Signal {
+  /** Set when the plant register supplied this declaration. */
+  from?: FromRegister;
   name: string;
   text: string;
   unit?: string;
@@ -31,6 +42,7 @@ export interface Signal {
 }
 
 export interface Limit {
+  from?: FromRegister;
   signal: string;
   low?: Located<string>;
   high?: Located<string>;
@@ -40,6 +52,7 @@ export interface Limit {
 }
 
 export interface Interlock {
+  from?: FromRegister;
   tag: string;
   tripsWhen: Located<string>;
   action: string;
@@ -116,6 +129,23 @@ export interface ChooseBlock {
 
 export type SequenceItem = Step | ParallelBlock | ChooseBlock;
 
+/** An annual certification that the procedure is current and accurate (separate from revision approvals). */
+export interface Certification {
+  name: string;
+  role: string;
+  date: string;
+  path: PathKey[];
+}
+
+/** A register entry the procedure uses: named under `uses`, or named in a condition, setpoint or equipment list. */
+export interface RegisterUse {
+  id: string;
+  /** Where the procedure names it: the `uses` item, or the first place it is mentioned. */
+  path: PathKey[];
+  explicit: boolean;
+  entry?: RegisterEntry;
+}
+
 export interface Procedure {
   file: string;
   id: string;
@@ -140,6 +170,16 @@ export interface Procedure {
   /** Emergency shutdown: who initiates it and who is in charge. */
   responsible?: string;
   steps: SequenceItem[];
+  /** Register ids listed under `uses`, as written. */
+  uses: Located<string>[];
+  /** Annual certifications (`certifications`), oldest first as written. */
+  certifications: Certification[];
+  /** Temporary procedures: the last day the procedure may be used (`expires`). */
+  expires?: string;
+  /** Temporary procedures: ids of the procedures this one modifies while in force (`modifies`). */
+  modifies: Located<string>[];
+  /** Filled when the procedure was read against a plant register: every entry it uses. */
+  registerUses?: RegisterUse[];
   body: Root;
   bodyText: string;
   /** The front-matter as plain data, for diffs and exports. */

@@ -26,6 +26,12 @@ export const approvalSchema = z.strictObject({
   meaning: text.describe('What the signature attests, e.g. "Approved for use".'),
 });
 
+export const certificationSchema = z.strictObject({
+  name: text.describe('Printed name of the person who certified the procedure current and accurate.'),
+  role: text.describe('Their role, e.g. "Operations superintendent".'),
+  date: date.describe('Date of the certification, YYYY-MM-DD.'),
+});
+
 export const signalSchema = z.strictObject({
   text: text.describe('What the signal is, in plant words.'),
   unit: z.string().optional().describe('Unit of measurement (for numeric signals).'),
@@ -146,6 +152,11 @@ export const procedureSchema = z.strictObject({
   hazards: z.array(hazardSchema).optional().describe('Safety messages, pulled to the top and repeated before steps.'),
   'conditions-requiring': z.union([text, z.array(text)]).optional().describe('Emergency shutdown: the conditions that require it.'),
   responsible: z.string().optional().describe('Emergency shutdown: who initiates it and who is in charge.'),
+  uses: z.array(text).optional().describe('Plant register entries the procedure uses: signals, safety functions, relief devices, chemicals, equipment.'),
+  certifications: z.array(certificationSchema).optional().describe('Annual certifications that the procedure is current and accurate.'),
+  expires: date.optional().describe('Temporary procedures: the last day the procedure may be used.'),
+  modifies: z.array(z.string().regex(procedureIdPattern, 'must be a procedure id, e.g. U2-T230-CIP-001')).optional()
+    .describe('Temporary procedures: ids of the procedures this one changes while it is in force.'),
   steps: sequenceSchema.describe('The sequence: steps and blocks, run in order.'),
 });
 

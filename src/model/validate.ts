@@ -78,7 +78,8 @@ function chooseAlternative(errors: RawIssue[][], input: unknown): number {
 }
 
 const keysByContext: Record<string, string[]> = {
-  procedure: ['id', 'title', 'kind', 'revision', 'status', 'effective', 'review-by', 'owner', 'author', 'change', 'approvals', 'equipment', 'ppe', 'signals', 'limits', 'interlocks', 'hazards', 'steps', 'conditions-requiring', 'responsible'],
+  procedure: ['id', 'title', 'kind', 'revision', 'status', 'effective', 'review-by', 'owner', 'author', 'change', 'approvals', 'equipment', 'ppe', 'signals', 'limits', 'interlocks', 'hazards', 'steps', 'conditions-requiring', 'responsible', 'uses', 'certifications', 'expires', 'modifies'],
+  certification: ['name', 'role', 'date'],
   step: ['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note', 'call', 'waive'],
   waiver: ['rule', 'reason'],
   branch: ['when', 'otherwise', 'steps', 'goto', 'repeat'],
@@ -99,6 +100,7 @@ function knownKeysAt(root: unknown, path: PathKey[]): string[] {
   const parent = String(path.at(-2) ?? '');
   const value = valueAt(root, path);
   if (parent === 'approvals') return keysByContext.approval;
+  if (parent === 'certifications') return keysByContext.certification;
   if (parent === 'signals') return keysByContext.signal;
   if (parent === 'limits') return keysByContext.limit;
   if (parent === 'interlocks') return keysByContext.interlock;

@@ -5,6 +5,8 @@ import { describe, expect, it } from 'vitest';
 import { checkSources } from '../../src/check/run-checks.ts';
 import { rules } from '../../src/check/rules/index.ts';
 import { expectationsIn } from './fixture-expectations.ts';
+import { readRegisterFolder } from '../../src/cli/load-register.ts';
+import type { PlantRegister } from '../../src/model/register.ts';
 
 const root = join(import.meta.dirname, '../fixtures/rules');
 const today = '2026-12-01';
@@ -32,14 +34,22 @@ function previousOf(ruleId: string) {
   };
 }
 
+// A rule folder with a `register/` sub-folder is checked against that plant register; its YAML files carry markers too.
+function registerOf(ruleId: string): PlantRegister | undefined {
+  const dir = join(root, ruleId, 'register');
+  return existsSync(dir) ? readRegisterFolder({ absolute: dir, named: true }, root) : undefined;
+}
+
 describe('rule fixtures', () => {
   const folders = existsSync(root) ? readdirSync(root).sort() : [];
   for (const ruleId of folders) {
     it(`${ruleId}: reports exactly the marked lines`, () => {
       const files = loadFolder(ruleId);
-      const result = checkSources(files.map(({ file, text, error }) => (error ? { file, error } : { file, text })), { today, previous: previousOf(ruleId) });
+      const register = registerOf(ruleId);
+      const result = checkSources(files.map(({ file, text, error }) => (error ? { file, error } : { file, text })), { today, previous: previousOf(ruleId), register });
       const reported = result.diagnostics.filter((d) => d.rule === ruleId).map((d) => `${d.file}:${d.line}`).sort();
-      const expected = files.flatMap((f) => expectationsIn(f.text).filter((e) => e.rule === ruleId).map((e) => `${f.file}:${e.line}`)).sort();
+      const registerFiles = (register?.sources ?? []).map((s) => ({ file: s.file, text: s.source.text }));
+      const expected = [...files, ...registerFiles].flatMap((f) => expectationsIn(f.text).filter((e) => e.rule === ruleId).map((e) => `${f.file}:${e.line}`)).sort();
       expect(reported).toEqual(expected);
     });
   }
@@ -55,7 +65,8 @@ describe('every rule is documented and tested', () => {
       expect(existsSync(dir), `tests/fixtures/rules/${id}/ is missing`).toBe(true);
       const files = loadFolder(id);
       expect(files.some((f) => f.name.startsWith('valid')), 'needs a valid-*.md fixture').toBe(true);
-      const marked = files.filter((f) => f.name.startsWith('invalid') && expectationsIn(f.text).some((e) => e.rule === id));
+      const registerFiles = (registerOf(id)?.sources ?? []).map((s) => ({ name: `invalid-register ${s.file}`, text: s.source.text }));
+      const marked = [...files, ...registerFiles].filter((f) => f.name.startsWith('invalid') && expectationsIn(f.text).some((e) => e.rule === id));
       expect(marked.length, 'needs an invalid-*.md fixture with an expect marker').toBeGreaterThan(0);
     });
   }

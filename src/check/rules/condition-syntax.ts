@@ -16,6 +16,7 @@ belongs in \`confirm\`, not in \`until\`.`,
   (ctx) => {
     if (!ctx.facts) return;
     for (const site of ctx.facts.conditions) {
+      if (site.fromRegister) continue;
       if (site.result.ok) continue;
       const { span, message, hint } = site.result.error;
       ctx.report({ range: ctx.source.rangeInScalar(site.path, span.from, Math.max(span.to, span.from + 1)), message, hint });

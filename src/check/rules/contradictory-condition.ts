@@ -23,6 +23,7 @@ outside the declared range is reported by threshold-outside-range instead.`,
     const signals = ctx.procedure.signals;
     const names = (c: Condition) => [...new Set(namesIn(c).map((n) => n.name))].join(', ');
     for (const site of ctx.facts.conditions) {
+      if (site.fromRegister) continue;
       if (!site.result.ok || site.problems.length) continue;
       if (neverTrue([site.result.condition], signals) !== true) continue;
       const role = site.role === 'until' ? `step '${site.owner}' can never end` : site.role === 'when' ? 'this branch can never be taken' : `interlock ${site.owner} can never trip`;

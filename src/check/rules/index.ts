@@ -39,6 +39,11 @@ import placeholderText from './placeholder-text.ts';
 import ppeMissing from './ppe-missing.ts';
 import repeatCountInvalid from './repeat-count-invalid.ts';
 import requiredContentMissing from './required-content-missing.ts';
+import registerInvalid from './register-invalid.ts';
+import registerDuplicateEntry from './register-duplicate-entry.ts';
+import registerUnknownEntry from './register-unknown-entry.ts';
+import registerEntryUnused from './register-entry-unused.ts';
+import registerConflict from './register-conflict.ts';
 import reviewOverdue from './review-overdue.ts';
 import revisionDecreased from './revision-decreased.ts';
 import revisionNotBumped from './revision-not-bumped.ts';
@@ -108,6 +113,11 @@ export const rules = {
   'ppe-missing': ppeMissing,
   'repeat-count-invalid': repeatCountInvalid,
   'required-content-missing': requiredContentMissing,
+  'register-invalid': registerInvalid,
+  'register-duplicate-entry': registerDuplicateEntry,
+  'register-unknown-entry': registerUnknownEntry,
+  'register-entry-unused': registerEntryUnused,
+  'register-conflict': registerConflict,
   'review-overdue': reviewOverdue,
   'revision-decreased': revisionDecreased,
   'revision-not-bumped': revisionNotBumped,

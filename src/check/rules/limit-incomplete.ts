@@ -29,6 +29,7 @@ Missing content is a **warning** while the procedure is a \`draft\` and an **err
     const p = ctx.procedure;
     if (!p) return;
     for (const limit of p.limits) {
+      if (limit.from) continue;
       const missing = [
         !limit.consequence?.trim() && 'the consequence of deviation (consequence)',
         !limit.correction?.trim() && 'the steps to correct it (correction)',

@@ -19,6 +19,7 @@ export default defineFileRule(
   (ctx) => {
     if (!ctx.facts) return;
     for (const site of ctx.facts.conditions) {
+      if (site.fromRegister) continue;
       if (!site.result.ok) continue;
       for (const node of mixedNodes(site.result.condition)) {
         ctx.report({

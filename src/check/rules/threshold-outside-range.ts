@@ -18,6 +18,7 @@ the step. Thresholds are converted into the signal's unit before the comparison.
   (ctx) => {
     if (!ctx.facts || !ctx.procedure) return;
     for (const site of ctx.facts.conditions) {
+      if (site.fromRegister) continue;
       if (!site.result.ok || site.problems.length) continue;
       for (const cmp of comparisonsIn(site.result.condition)) {
         const signal = ctx.procedure.signals[cmp.name.name];

@@ -18,7 +18,7 @@ L m3 gal, s min h, percent or %, mg/g, kg/h, L/min, m3/h and their combinations.
     reportProblemsOfKind(ctx, ['unknown-unit']);
     if (!ctx.procedure) return;
     for (const signal of Object.values(ctx.procedure.signals)) {
-      if (signal.unit && !isKnownUnit(signal.unit)) {
+      if (!signal.from && signal.unit && !isKnownUnit(signal.unit)) {
         ctx.report({
           path: [...signal.path, 'unit'],
           message: `Signal '${signal.name}' has unit '${signal.unit}', which Stepwright does not know.`,

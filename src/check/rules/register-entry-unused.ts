@@ -1,0 +1,36 @@
+// Reports register entries that no procedure uses.
+import { defineManualRule } from '../define-rule.ts';
+
+export default defineManualRule(
+  {
+    id: 'register-entry-unused',
+    summary: 'A signal, safety function, relief device or chemical in the plant register is used by no procedure.',
+    category: 'structure',
+    defaultSeverity: 'info',
+    docs: `A register entry that no procedure names may be left over from equipment that was removed, or may be a
+safety function that the operating procedures never mention although operators must know it (OSHA 1910.119(f)(1)(iv)).
+Either add it to the \`uses\` of the procedures that rely on it, or remove it from the register. Areas and equipment
+are not reported: they describe the plant whether or not a procedure names them.`,
+    source: 'OSHA 29 CFR 1910.119(f)(1)(iv): safety systems and their functions in the operating procedures',
+    examples: { bad: 'safety-functions:\n  TSHH-299: { trips-when: TI-299 >= 90 degC, closes: [XV-2990] }   # no procedure uses it', good: 'uses: [TSHH-299]' },
+  },
+  (ctx) => {
+    const register = ctx.register;
+    if (!register || ctx.files.length === 0) return;
+    const used = new Set<string>();
+    for (const f of ctx.files) for (const u of f.procedure?.registerUses ?? []) used.add(u.id);
+    // A safety function started by a used trip is used through it.
+    for (const id of [...used]) {
+      const fn = register.safetyFunctions.get(id);
+      if (fn?.starts) used.add(fn.starts);
+    }
+    for (const entry of register.entries.values()) {
+      if (entry.section === 'areas' || entry.section === 'equipment' || used.has(entry.id)) continue;
+      ctx.reportInRegister(entry.file, {
+        path: entry.path, part: 'key',
+        message: `Register entry '${entry.id}' (${entry.section}) is used by no procedure.`,
+        hint: "Add it to the 'uses' of the procedures that rely on it, or remove it from the register if the plant no longer has it.",
+      });
+    }
+  },
+);
