@@ -2,6 +2,7 @@
 import { resolve } from 'node:path';
 import { readProcedure } from '../check/run-checks.ts';
 import { buildHistoryView, type HistoryView, type RevisionEntry } from '../history/history-view.ts';
+import { revisionInForce } from '../history/in-force.ts';
 import { readHistory } from '../history/revisions.ts';
 import { buildProcedureView, type ProcedureView } from '../render/manual.ts';
 import { siteManual } from './load-manual.ts';
@@ -41,4 +42,47 @@ export function revisionPageView(entry: RevisionEntry): ProcedureView | undefine
   const read = readProcedure(entry.path, entry.text);
   if (!read.procedure) return undefined;
   return buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, loaded.root, loaded.today);
+}
+
+/** What a procedure's own page and the home page show: the revision in force, and a newer one not yet in force. */
+export interface InForcePage {
+  /** `newest`: the file as it reads now is in force; `earlier`: a committed earlier revision is; `none`: nothing is. */
+  state: 'newest' | 'earlier' | 'none';
+  /** The page model of the revision in force (absent when none is). */
+  shown?: ProcedureView;
+  /** The newer revision that is not in force yet, with the URL of its own page. */
+  newer?: { view: ProcedureView; url: string };
+  /** Why nothing is in force, in plain words. */
+  reason?: string;
+}
+
+let inForceCache: { key: string; pages: Promise<Map<string, InForcePage>> } | undefined;
+
+/** Procedure id → what its page shows; read once per build with the histories. */
+export function siteInForce(): Promise<Map<string, InForcePage>> {
+  const key = `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}`;
+  if (!inForceCache || inForceCache.key !== key) inForceCache = { key, pages: loadInForce() };
+  return inForceCache.pages;
+}
+
+async function loadInForce(): Promise<Map<string, InForcePage>> {
+  const { loaded, view } = siteManual();
+  const histories = await siteHistory();
+  const out = new Map<string, InForcePage>();
+  for (const p of view.procedures) out.set(p.id, inForcePage(p, histories.get(p.id), loaded.today));
+  return out;
+}
+
+/** The in-force decision for one procedure, as page models. */
+export function inForcePage(p: ProcedureView, history: HistoryView | undefined, today: string): InForcePage {
+  const decision = revisionInForce({ revision: p.revision, status: p.status, effective: p.effective }, history?.revisions ?? [], today);
+  const newer = { view: p, url: `${p.url}next/` };
+  if (decision.state === 'newest') return { state: 'newest', shown: p };
+  if (decision.state === 'none') return { state: 'none', reason: decision.reason, ...(p.status === 'retired' || p.status === 'superseded' ? {} : { newer }) };
+  const earlier = revisionPageView(decision.entry);
+  if (!earlier) {
+    return { state: 'none', newer, reason: `Revision ${decision.entry.revision} is in force, but its committed text cannot be read; ask the procedure owner for the controlled copy. Revision ${p.revision} is ${p.status} and not for use.` };
+  }
+  // The page of the revision in force keeps the procedure's own URL and its tag links.
+  return { state: 'earlier', shown: { ...earlier, url: p.url, slug: p.slug, tags: earlier.tags.map((t) => p.tags.find((x) => x.tag === t.tag) ?? t) }, newer };
 }

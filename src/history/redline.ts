@@ -4,7 +4,7 @@ import { diffArrays, diffWords } from 'diff';
 import { distance } from 'fastest-levenshtein';
 import type { Hazard, Procedure, Step } from '../model/procedure.ts';
 import { parseCondition, namesIn } from '../analysis/conditions/parse.ts';
-import { changedContentAreas, canonical, type ContentArea } from '../analysis/document-content.ts';
+import { changedContentAreas, type ContentArea } from '../analysis/document-content.ts';
 import { layoutSteps, type StepSlot } from './step-layout.ts';
 
 export interface WordPart {
@@ -121,7 +121,7 @@ function stepFields(a: Step | undefined, b: Step | undefined): FieldChange[] {
     field('expect', text(a, (s) => s.expect?.value), text(b, (s) => s.expect?.value)),
     field('sign-off', text(a, (s) => s.signOff), text(b, (s) => s.signOff)),
     field('note', text(a, (s) => s.note), text(b, (s) => s.note)),
-    ...[...extraKeys].map((k) => field(k, a && k in a.extra ? canonical(a.extra[k]) : undefined, b && k in b.extra ? canonical(b.extra[k]) : undefined)),
+    ...[...extraKeys].map((k) => field(plainKey(k), a && k in a.extra ? plainValue(a.extra[k]) : undefined, b && k in b.extra ? plainValue(b.extra[k]) : undefined)),
   ]);
 }
 
@@ -372,4 +372,56 @@ export function stepMarks(r: Redline): Map<string, 'added' | 'moved' | 'changed'
     else if (row.kinds.includes('moved')) marks.set(row.id, 'moved');
   }
   return marks;
+}
+
+/** A front-matter key as a reader says it: `sign-off` reads "sign off", `ends_when` reads "ends when". */
+export function plainKey(key: string): string {
+  return key.replace(/[-_]+/g, ' ').trim();
+}
+
+/**
+ * A front-matter value in plain text, without JSON quotes or braces: lists joined with "; ", maps as
+ * "key: value". Two different values always read differently (order is kept; nothing is dropped).
+ */
+export function plainValue(value: unknown): string {
+  if (value === null || value === undefined) return '(empty)';
+  if (typeof value === 'string') return value;
+  if (typeof value === 'number' || typeof value === 'boolean' || typeof value === 'bigint') return String(value);
+  if (value instanceof Date) return value.toISOString();
+  if (Array.isArray(value)) return value.length ? value.map((v) => (isPlainObject(v) || Array.isArray(v) ? `(${plainValue(v)})` : plainValue(v))).join('; ') : '(none)';
+  if (isPlainObject(value)) {
+    const entries = Object.entries(value);
+    return entries.length ? entries.map(([k, v]) => `${plainKey(k)}: ${isPlainObject(v) || Array.isArray(v) ? `(${plainValue(v)})` : plainValue(v)}`).join('; ') : '(none)';
+  }
+  return String(value);
+}
+
+function isPlainObject(v: unknown): v is Record<string, unknown> {
+  return typeof v === 'object' && v !== null && !Array.isArray(v) && !(v instanceof Date);
+}
+
+/** One line of the step redline: a step row to show, or a run of unchanged steps folded away. */
+export type RedlineLine = { kind: 'row'; row: StepRow; context: boolean } | { kind: 'folded'; count: number; rows: StepRow[] };
+
+/**
+ * The changed steps with `around` unchanged steps of context either side; longer runs of unchanged steps fold
+ * into one line that names how many steps it holds (the page can still show every step).
+ */
+export function stepsWithContext(steps: StepRow[], around = 1): RedlineLine[] {
+  const changed = steps.map((s) => s.kinds.length > 0);
+  const keep = steps.map((_, i) => changed.slice(Math.max(0, i - around), i + around + 1).some(Boolean));
+  const out: RedlineLine[] = [];
+  let folded: StepRow[] = [];
+  const flush = () => {
+    if (folded.length) out.push({ kind: 'folded', count: folded.length, rows: folded });
+    folded = [];
+  };
+  steps.forEach((row, i) => {
+    if (keep[i]) {
+      flush();
+      out.push({ kind: 'row', row, context: !changed[i] });
+    } else folded.push(row);
+  });
+  flush();
+  return out;
 }

@@ -75,7 +75,8 @@ export function layoutChart(procedure: Pick<Procedure, 'steps' | 'hazards'>, num
     const markers: string[] = [];
     const hazard = hazardOf.get(step.id);
     // NOTICE is about property damage and never carries the safety alert symbol (ANSI Z535.4).
-    if (hazard) markers.push(`${hazard === 'notice' ? '■' : '▲'} ${hazard.toUpperCase()}`);
+    // The safety alert symbol is drawn in front of DANGER, WARNING and CAUTION (ANSI Z535.4); NOTICE gets a square.
+    if (hazard) markers.push(`${hazard === 'notice' ? '■' : '⚠'} ${hazard.toUpperCase()}`);
     if (step.signOff) markers.push(...wrapText(`◆ SIGN-OFF: ${step.signOff}`, boxTextMax, chartFont.small));
     const textW = Math.max(
       textWidth(header, chartFont.size) + 2,
@@ -193,7 +194,8 @@ export function layoutChart(procedure: Pick<Procedure, 'steps' | 'hazards'>, num
       const { blocks, pending } = layoutSequence(branch.items, null);
       if (pending?.kind === 'step') blocks.push(pendingBar(pending)!);
       const seq = stackBlocks(blocks);
-      const label = `${numbers.letterOf(block, i)} · ${branch.name}`;
+      // The block's own number with the branch letter, exactly as the step table numbers the branch (3A, 8b).
+      const label = `${numbers.ofBlock.get(block) ?? '?'}${numbers.letterOf(block, i)} · ${branch.name}`;
       return { seq, label, labelW: textWidth(label, chartFont.small) };
     });
     return sideBySide(branches, 'double');
@@ -211,7 +213,7 @@ export function layoutChart(procedure: Pick<Procedure, 'steps' | 'hazards'>, num
       if (hasItems && inner.pending?.kind === 'step') blocks.push(pendingBar(inner.pending)!);
       if (branch.goto) blocks.push(jumpBlock(branch.goto.value));
       const seq = stackBlocks(blocks);
-      const label = numbers.letterOf(block, i);
+      const label = `${numbers.ofBlock.get(block) ?? '?'}${numbers.letterOf(block, i)}`;
       return { seq, label, labelW: textWidth(label, chartFont.small) };
     });
     return sideBySide(branches, 'single');

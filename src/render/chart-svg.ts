@@ -1,7 +1,7 @@
 // Draws the laid-out sequence chart as a self-contained SVG string (no script, no external styles).
 import type { HazardLevel, Procedure } from '../model/procedure.ts';
 import { chartFont, layoutChart, type ChartLayout, type Shape } from './chart-layout.ts';
-import { signalWordColours } from './signal-words.ts';
+import { alertSymbolSvg, signalWordColours } from './signal-words.ts';
 import type { StepNumbers } from './step-numbers.ts';
 
 const fontFamily = "Arial, 'Liberation Sans', Helvetica, sans-serif";
@@ -73,7 +73,7 @@ function drawStep(s: Extract<Shape, { type: 'step' }>, hrefOf: (id: string) => s
   const out: string[] = [];
   // The link's name is its visible text (number, id, action, markers), so speech and sight agree.
   out.push(`<a class="sfc-step" href="${escapeXml(hrefOf(s.id))}" data-step="${escapeXml(s.id)}">`);
-  out.push(`<rect x="${x}" y="${y}" width="${w}" height="${h}" fill="#fff" stroke="${ink}" stroke-width="${s.signOff ? 3 : 1.5}"/>`);
+  out.push(`<rect x="${x}" y="${y}" width="${w}" height="${h}" fill="#fff" stroke="${ink}" stroke-width="1.5"/>`);
   // IEC 61131-3 marks the initial step with a double frame.
   if (s.initial) out.push(`<rect x="${x + 3}" y="${y + 3}" width="${w - 6}" height="${h - 6}" fill="none" stroke="${ink}" stroke-width="1"/>`);
   if (s.hazard) out.push(`<rect x="${x}" y="${y}" width="6" height="${h}" fill="${signalWordColours[s.hazard as HazardLevel].background}"/>`);
@@ -85,6 +85,12 @@ function drawStep(s: Extract<Shape, { type: 'step' }>, hrefOf: (id: string) => s
   }
   for (const m of s.markers) {
     line += chartFont.small + 4;
+    if (m.startsWith('⚠ ') && s.hazard) {
+      // The safety alert symbol drawn as a shape (a font may lack the character), then the signal word.
+      out.push(`<g class="sfc-alert" data-level="${escapeXml(s.hazard)}">${alertSymbolSvg(s.hazard as HazardLevel, chartFont.small + 2, x + 10, line - chartFont.small)}</g>`);
+      out.push(`<text x="${x + 10 + chartFont.small + 5}" y="${line}" font-size="${chartFont.small}" font-weight="bold">${escapeXml(m.slice(2))}</text>`);
+      continue;
+    }
     out.push(`<text x="${x + 10}" y="${line}" font-size="${chartFont.small}" font-weight="bold">${escapeXml(m)}</text>`);
   }
   out.push('</a>');

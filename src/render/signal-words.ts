@@ -21,3 +21,21 @@ export function hazardRank(level: HazardLevel | string): number {
   const i = hazardOrder.indexOf(level as HazardLevel);
   return i === -1 ? hazardOrder.length : i;
 }
+
+/** Signal words that carry the safety alert symbol: those for hazards to people. NOTICE never carries it. */
+export function carriesAlertSymbol(level: HazardLevel | string): boolean {
+  return level === 'danger' || level === 'warning' || level === 'caution';
+}
+
+/**
+ * The safety alert symbol of ANSI Z535.4 (an equilateral triangle with an exclamation mark), as inline SVG in
+ * the signal word's own colours: triangle in the word's colour, exclamation mark in the panel colour.
+ * Source: ANSI Z535.4 (safety alert symbol shape), from memory.
+ */
+export function alertSymbolSvg(level: HazardLevel, size = 16, x?: number, y?: number): string {
+  const c = signalWordColours[level];
+  const at = x !== undefined && y !== undefined ? ` x="${x}" y="${y}"` : '';
+  return `<svg class="alert-symbol"${at} width="${size}" height="${size}" viewBox="0 0 24 24" role="img" aria-label="Safety alert symbol" focusable="false">` +
+    `<path d="M12 1.5 23.2 21.5H.8z" fill="${c.foreground}" stroke="${c.background}" stroke-width="1"/>` +
+    `<path d="M10.6 8h2.8l-.5 7.6h-1.8z" fill="${c.background}"/><circle cx="12" cy="18.3" r="1.5" fill="${c.background}"/></svg>`;
+}

@@ -2,6 +2,7 @@
 // name (DOE-STD-1029 practice), parallel blocks spelled out, decisions as "IF … THEN go to step N", loops marked.
 import type { Hazard, HazardLevel, Procedure, SequenceItem, Step } from '../model/procedure.ts';
 import { honouredWaivers } from '../check/waivers.ts';
+import { conditionInWords } from './condition-words.ts';
 import { hazardRank } from './signal-words.ts';
 import { numberSteps, type StepNumbers } from './step-numbers.ts';
 
@@ -14,6 +15,8 @@ export interface StepRow {
   setpoints: Array<{ signal: string; quantity: string; text?: string }>;
   params: Array<{ name: string; value: string }>;
   until?: string;
+  /** `until` in plant words from the signals' texts, when every name in it has a text. */
+  untilWords?: string;
   confirm?: string;
   expect?: string;
   signOff?: string;
@@ -46,8 +49,8 @@ export interface DecisionRow {
   kind: 'decision';
   number: string;
   /** The step whose end the decision waits for, with that step's own condition, when there is one. */
-  after?: { number: string; id: string; condition?: string };
-  choices: Array<{ text: string; targetNumber?: string; targetId?: string }>;
+  after?: { number: string; id: string; condition?: string; conditionWords?: string };
+  choices: Array<{ text: string; targetNumber?: string; targetId?: string; condition?: string; conditionWords?: string; otherwise?: boolean; where?: string }>;
 }
 
 export interface JumpRow {
@@ -89,7 +92,7 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
     kind: 'step', id: step.id, number: numbers.ofStep.get(step.id) ?? '?', actions: step.actions, phase: step.phase,
     setpoints: step.set.map((s) => ({ signal: s.signal, quantity: s.quantity, text: procedure.signals[s.signal]?.text })),
     params: step.params.map((p) => ({ name: p.name, value: String(p.value) })),
-    until: step.until?.value, confirm: step.confirm?.value, expect: step.expect ? formatDuration(step.expect.value) : undefined,
+    until: step.until?.value, untilWords: step.until ? conditionInWords(step.until.value, procedure.signals) : undefined, confirm: step.confirm?.value, expect: step.expect ? formatDuration(step.expect.value) : undefined,
     signOff: step.signOff, note: step.note, loopFrom: [],
     hazard: hazardsAt.get(step.id)?.[0]?.level,
     waivers: honouredWaivers(step).map((w) => ({ rule: w.rule, reason: w.reason })),
@@ -122,7 +125,11 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
       const decision: DecisionRow = {
         kind: 'decision', number: own, choices: [],
         after: previous?.kind === 'step'
-          ? { number: numbers.ofStep.get(previous.id) ?? '?', id: previous.id, condition: [previous.until?.value, previous.confirm ? `confirm: ${previous.confirm.value}` : undefined].filter(Boolean).join(' and ') || undefined }
+          ? {
+            number: numbers.ofStep.get(previous.id) ?? '?', id: previous.id,
+            condition: [previous.until?.value, previous.confirm ? `confirm: ${previous.confirm.value}` : undefined].filter(Boolean).join(' and ') || undefined,
+            conditionWords: previous.until && !previous.confirm ? conditionInWords(previous.until.value, procedure.signals) : undefined,
+          }
           : undefined,
       };
       item.branches.forEach((b) => {
@@ -132,7 +139,10 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
           ? { number: first, id: b.items![0].kind === 'step' ? (b.items![0] as Step).id : undefined }
           : b.goto ? { number: numbers.ofStep.get(b.goto.value), id: b.goto.value } : { number: after.number, id: after.id };
         const where = target.number ? `go to step ${target.number}${target.id ? ` (${target.id})` : ''}` : `go to ${after.text}`;
-        decision.choices.push({ text: `${condition} ${where}`, targetNumber: target.number, targetId: target.id });
+        decision.choices.push({
+          text: `${condition} ${where}`, targetNumber: target.number, targetId: target.id, where, otherwise: b.otherwise || undefined,
+          condition: b.when?.value, conditionWords: b.when ? conditionInWords(b.when.value, procedure.signals) : undefined,
+        });
       });
       rows.push(decision);
       item.branches.forEach((b, i) => {

@@ -8,6 +8,7 @@ import { walkSteps } from '../../src/model/walk-steps.ts';
 import type { Procedure } from '../../src/model/procedure.ts';
 import { layoutChart, type Rect, type Shape } from '../../src/render/chart-layout.ts';
 import { renderChartSvg } from '../../src/render/chart-svg.ts';
+import { buildStepTable } from '../../src/render/step-table.ts';
 import { readTestProcedure } from './procedure-text.ts';
 
 /** Transitions the chart must draw as bars: each step's end, each decision branch, and a join that leads to a step. */
@@ -101,7 +102,7 @@ describe('sequence chart layout', () => {
     const step = (id: string) => layout.shapes.find((x) => x.type === 'step' && x.id === id) as Extract<Shape, { type: 'step' }>;
     expect(step('a').initial).toBe(true);
     expect(step('b').initial).toBe(false);
-    expect(step('b').markers).toContain('▲ DANGER');
+    expect(step('b').markers).toContain('⚠ DANGER');
     expect(step('b').markers.join(' ')).toContain('SIGN-OFF: Shift supervisor');
   });
 
@@ -221,7 +222,25 @@ describe('hazard marks in the chart', () => {
     const procedure = readProcedure(file, readFileSync(file, 'utf8')).procedure!;
     const svg = renderChartSvg(procedure, { title: 'Chart' });
     expect(svg).toContain('■ NOTICE');
-    expect(svg).not.toContain('▲ NOTICE');
-    expect(svg).toContain('▲ WARNING');
+    expect(svg).not.toContain('▲');
+    // WARNING steps draw the safety alert symbol (a triangle with an exclamation mark) before the word.
+    expect(svg).toMatch(/<g class="sfc-alert" data-level="warning"><svg class="alert-symbol"[^>]*>.*?<circle[^>]*\/><\/svg><\/g><text[^>]*>WARNING<\/text>/);
+    expect(svg).not.toMatch(/data-level="notice"/);
+  });
+
+  it('numbers every decision and parallel branch in the chart as the step table does', () => {
+    const file = join(import.meta.dirname, '../../procedures/k-210-resin/u2-k210-batch-001.md');
+    const procedure = readProcedure(file, readFileSync(file, 'utf8')).procedure!;
+    const svg = renderChartSvg(procedure, { title: 'Chart' });
+    const branchLabels = [...svg.matchAll(/<text class="sfc-branch"[^>]*>([^<]*)<\/text>/g)].map((m) => m[1].split(' · ')[0]);
+    const rows = buildStepTable(procedure);
+    const blocks = rows.flatMap((r) => (r.kind === 'decision' || r.kind === 'parallel-start' ? [r.number] : []));
+    expect(blocks).toEqual(['3', '8']);
+    // Decision 8 has branches 8a and 8b in the chart; parallel block 3 has 3A, 3B, 3C, as in the table.
+    for (const n of blocks) expect(branchLabels.filter((l) => l.startsWith(n)).length).toBeGreaterThanOrEqual(2);
+    for (const r of rows) if (r.kind === 'branch') expect(branchLabels).toContain(r.number);
+    const stepNumbers = [...svg.matchAll(/<a class="sfc-step"[^>]*data-step="([^"]+)"><rect[^>]*\/>(?:<rect[^>]*\/>)*<text[^>]*>([^ <]+)  /g)].map((m) => [m[1], m[2]]);
+    const tableNumbers = rows.flatMap((r) => (r.kind === 'step' ? [[r.id, r.number]] : []));
+    expect(new Map(stepNumbers)).toEqual(new Map(tableNumbers));
   });
 });
