@@ -239,8 +239,8 @@ describe('hazard marks in the chart', () => {
     // Decision 8 has branches 8a and 8b in the chart; parallel block 3 has 3A, 3B, 3C, as in the table.
     for (const n of blocks) expect(branchLabels.filter((l) => l.startsWith(n)).length).toBeGreaterThanOrEqual(2);
     for (const r of rows) if (r.kind === 'branch') expect(branchLabels).toContain(r.number);
-    const stepNumbers = [...svg.matchAll(/<a class="sfc-step"[^>]*data-step="([^"]+)"><rect[^>]*\/>(?:<rect[^>]*\/>)*<text[^>]*>([^ <]+)  /g)].map((m) => [m[1], m[2]]);
-    const tableNumbers = rows.flatMap((r) => (r.kind === 'step' ? [[r.id, r.number]] : []));
+    const stepNumbers = [...svg.matchAll(/<a class="sfc-step"[^>]*data-step="([^"]+)"><rect[^>]*\/>(?:<rect[^>]*\/>)*<text[^>]*>([^ <]+)  /g)].map((m) => [m[1], m[2]] as const);
+    const tableNumbers = rows.flatMap((r) => (r.kind === 'step' ? [[r.id, r.number] as const] : []));
     expect(new Map(stepNumbers)).toEqual(new Map(tableNumbers));
   });
 });
