@@ -3,7 +3,9 @@
 import type { CheckedFile } from '../check/run-checks.ts';
 import type { Approval, HazardLevel, Procedure } from '../model/procedure.ts';
 import { kinds } from '../model/schema.ts';
+import { areaName, type AreaSource } from './area-names.ts';
 import { renderBodyHtml } from './body-html.ts';
+import { conditionInWords } from './condition-words.ts';
 import { renderChartSvg } from './chart-svg.ts';
 import { hazardRank, signalWordColours } from './signal-words.ts';
 import { numberSteps } from './step-numbers.ts';
@@ -16,6 +18,8 @@ export interface ManualInput {
   root: string;
   /** The build date, YYYY-MM-DD, for review marks. */
   today: string;
+  /** The plant register, when there is one: area names come from it. */
+  register?: AreaSource;
 }
 
 export interface Banner {
@@ -35,7 +39,10 @@ export interface ProcedureView {
   slug: string;
   url: string;
   file: string;
+  /** The area's name as people on site say it (register, else a readable folder name). */
   area: string;
+  /** The folder the procedure sits in, the area's stable key. */
+  areaId: string;
   title: string;
   kind: string;
   kindLabel: string;
@@ -53,7 +60,7 @@ export interface ProcedureView {
   ppe: string[];
   banner?: Banner;
   hazards: Array<{ level: HazardLevel; word: string; hazard: string; consequence?: string; avoid?: string; steps: Array<{ id: string; number: string }> }>;
-  interlocks: Array<{ tag: string; tripsWhen: string; action: string; tagUrl: string }>;
+  interlocks: Array<{ tag: string; tripsWhen: string; tripsWhenWords?: string; action: string; tagUrl: string }>;
   limits: Array<{ signal: string; text?: string; low?: string; high?: string; unit?: string; consequence?: string; correction?: string }>;
   chartSvg: string;
   stepCount: number;
@@ -73,7 +80,7 @@ export interface TagView {
 export interface ManualView {
   today: string;
   procedures: ProcedureView[];
-  areas: Array<{ area: string; kinds: Array<{ kind: string; label: string; procedures: ProcedureView[] }> }>;
+  areas: Array<{ area: string; id: string; kinds: Array<{ kind: string; label: string; procedures: ProcedureView[] }> }>;
   tags: TagView[];
 }
 
@@ -140,7 +147,7 @@ function splitQuantity(text: string | undefined): { value?: string; unit?: strin
   return m ? { value: m[1], unit: m[2] || undefined } : { value: text };
 }
 
-export function buildProcedureView(file: CheckedFile & { procedure: Procedure }, root: string, today: string): ProcedureView {
+export function buildProcedureView(file: CheckedFile & { procedure: Procedure }, root: string, today: string, register?: AreaSource): ProcedureView {
   const p = file.procedure;
   const numbers = numberSteps(p.steps);
   const slug = slugOf(p.id);
@@ -167,13 +174,13 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
   const tagNames = [...new Set([...p.equipment, ...p.interlocks.map((i) => i.tag), ...Object.keys(p.signals)])];
   const steps = file.facts?.steps.length ?? 0;
   return {
-    id: p.id, slug, url: `/procedures/${slug}/`, file: p.file, area: areaOf(p.file, root),
+    id: p.id, slug, url: `/procedures/${slug}/`, file: p.file, area: areaName(areaOf(p.file, root), p.equipment, register), areaId: areaOf(p.file, root),
     title: p.title, kind: String(p.kind), kindLabel: kindLabel(String(p.kind)), revision: p.revision, status: String(p.status),
     current: p.status !== 'superseded' && p.status !== 'retired',
     effective: p.effective, reviewBy: p.reviewBy, review: reviewMark(p, today), owner: p.owner, author: p.author, change: p.change,
     approvals: p.approvals.map(({ role, name, date, meaning }) => ({ role, name, date, meaning })),
     equipment: p.equipment, ppe: p.ppe, banner: statusBanner(p, today), hazards,
-    interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, action: i.action, tagUrl: `/tags/${slugOf(i.tag)}/` })),
+    interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: `/tags/${slugOf(i.tag)}/` })),
     limits,
     chartSvg: renderChartSvg(p, { title: `Sequence chart of ${p.id}, ${steps} steps` }, numbers),
     stepCount: steps,
@@ -185,18 +192,22 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
 
 export function buildManualView(input: ManualInput): ManualView {
   const readable = input.files.filter((f): f is CheckedFile & { procedure: Procedure } => f.procedure !== null && f.facts !== null);
-  const procedures = readable.map((f) => buildProcedureView(f, input.root, input.today)).sort((a, b) => a.id.localeCompare(b.id));
+  const procedures = readable.map((f) => buildProcedureView(f, input.root, input.today, input.register)).sort((a, b) => a.id.localeCompare(b.id));
   const byId = new Map(procedures.map((p) => [p.id, p]));
 
-  const areaNames = [...new Set(procedures.map((p) => p.area))].sort();
+  const areaIds = [...new Set(procedures.map((p) => p.areaId))].sort((a, b) => nameOf(a).localeCompare(nameOf(b)) || a.localeCompare(b));
   const kindOrder = (k: string) => {
     const i = (kinds as readonly string[]).indexOf(k);
     return i === -1 ? kinds.length : i;
   };
-  const areas = areaNames.map((area) => {
-    const inArea = procedures.filter((p) => p.area === area);
+  function nameOf(id: string): string {
+    return procedures.find((p) => p.areaId === id)?.area ?? id;
+  }
+  const areas = areaIds.map((id) => {
+    const area = nameOf(id);
+    const inArea = procedures.filter((p) => p.areaId === id);
     const kindNames = [...new Set(inArea.map((p) => p.kind))].sort((a, b) => kindOrder(a) - kindOrder(b) || a.localeCompare(b));
-    return { area, kinds: kindNames.map((kind) => ({ kind, label: kindLabel(kind), procedures: inArea.filter((p) => p.kind === kind) })) };
+    return { area, id: slugOf(id), kinds: kindNames.map((kind) => ({ kind, label: kindLabel(kind), procedures: inArea.filter((p) => p.kind === kind) })) };
   });
 
   const tagMap = new Map<string, TagView>();

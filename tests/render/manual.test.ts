@@ -44,8 +44,8 @@ describe('manual view', () => {
   const view = buildManualView({ files: result.files, root: 'procedures', today: '2026-01-01' });
   const pa = view.procedures.find((p) => p.id === 'U9-A-001')!;
 
-  it('groups procedures by area folder and kind', () => {
-    expect(view.areas.map((x) => x.area)).toEqual(['(top level)', 'pumps']);
+  it('groups procedures by area and kind, with area names people read rather than folder names', () => {
+    expect(view.areas.map((x) => [x.area, x.id])).toEqual([['General', '_top_level_'], ['Pumps', 'pumps']]);
     expect(view.areas[1].kinds.map((k) => k.label)).toEqual(['Start-up']);
   });
 

@@ -1,6 +1,8 @@
 // Placekeeping on a procedure page: one step at a time or the full table with a current-step marker.
 // Marks stay on this device only; the panel says plainly that they are not a record of execution.
+import type { HazardLevel } from '../../model/procedure.ts';
 import type { PlacekeepingPlan, PlanHazard } from '../../render/placekeeping-plan.ts';
+import { alertSymbolSvg } from '../../render/signal-words.ts';
 import { compileFlow, decisionAfter, decisionByKey, markDone, replay, stepsReachedBy, undoMark, type Mark, type Next, type Place, type Token } from './placekeeping-state.ts';
 
 type Mode = 'step' | 'table';
@@ -8,6 +10,12 @@ interface Saved { on: boolean; mode: Mode; marks: Mark[]; view?: string }
 
 const levelWords: Record<string, string> = { danger: 'DANGER', warning: 'WARNING', caution: 'CAUTION', notice: 'NOTICE' };
 const levelRank = ['danger', 'warning', 'caution', 'notice'];
+const alertLevels = { danger: 1, warning: 1, caution: 1 };
+
+/** The manual's one time format: 24-hour, hours and minutes (ISO 8601), in the tablet's local time. */
+export function isoClock(d: Date): string {
+  return `${String(d.getHours()).padStart(2, '0')}:${String(d.getMinutes()).padStart(2, '0')}`;
+}
 
 export function storageKey(plan: Pick<PlacekeepingPlan, 'id' | 'revision'>): string {
   return `stepwright:placekeeping:${plan.id}:rev${plan.revision}`;
@@ -120,7 +128,7 @@ export function setUpPlacekeeping(root: Document = document): void {
     const marked = Object.keys(place.done).length;
     const last = place.marks[place.marks.length - 1];
     progress.textContent = `${marked} of ${flow.order.length} steps marked`
-      + (last?.at ? `; last mark ${new Date(last.at).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}` : '') + '.';
+      + (last?.at ? `; last mark ${isoClock(new Date(last.at))}` : '') + '.';
   }
 
   function markTable(): void {
@@ -186,7 +194,10 @@ export function setUpPlacekeeping(root: Document = document): void {
 
   function hazardBox(h: PlanHazard, compact: boolean): HTMLElement {
     const box = el('div', { class: `pk-hazard pk-hazard-${h.level}`, role: 'note' });
-    box.append(el('strong', { class: 'pk-signal-word' }, levelWords[h.level] ?? h.level.toUpperCase()), root.createTextNode(` ${h.hazard}`));
+    const word = el('strong', { class: `pk-signal-word signal-word level-${h.level}` }, levelWords[h.level] ?? h.level.toUpperCase());
+    // DANGER, WARNING and CAUTION carry the safety alert symbol here as on the rest of the page; NOTICE never does.
+    if (h.level in alertLevels) word.insertAdjacentHTML('afterbegin', alertSymbolSvg(h.level as HazardLevel, 16));
+    box.append(word, root.createTextNode(` ${h.hazard}`));
     if (!compact) {
       if (h.consequence) box.append(el('span', { class: 'pk-hazard-line' }, `Consequence: ${h.consequence}`));
       if (h.avoid) box.append(el('span', { class: 'pk-hazard-line' }, `Avoid: ${h.avoid}`));
