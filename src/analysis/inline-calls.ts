@@ -80,7 +80,16 @@ export function callCycleThrough(site: CallSite, lookup: ProcedureLookup): strin
 
 export type InlineProblem =
   | { kind: 'unknown-procedure'; site: CallSite }
-  | { kind: 'cycle'; site: CallSite; chain: string[] };
+  | { kind: 'cycle'; site: CallSite; chain: string[] }
+  /** Expanding the call would nest calls deeper than `limit`. */
+  | { kind: 'too-deep'; site: CallSite; depth: number; limit: number }
+  /** Expanding the call would give more than `limit` steps in all (`steps` counts them, calls multiplied out). */
+  | { kind: 'too-large'; site: CallSite; steps: number; limit: number };
+
+/** Deepest chain of calls expanded (a procedure that calls one that calls one … ). */
+export const maxCallDepth = 12;
+/** Most steps an expanded procedure may hold; a call that would pass it stays a call step and is reported. */
+export const maxExpandedSteps = 5000;
 
 export interface InlineResult {
   procedure: Procedure;
@@ -102,6 +111,26 @@ export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): Inli
   const interlocks = [...procedure.interlocks];
   const hazards = [...procedure.hazards];
 
+  // Steps produced so far, and the size of each procedure fully expanded (calls multiplied out), so that a
+  // call that would blow up (each procedure calling the next twice) is refused before any work is done.
+  let produced = 0;
+  const sizes = new Map<string, number>();
+  const sizeOf = (p: Procedure, visiting: Set<string>): number => {
+    const known = sizes.get(p.id);
+    if (known !== undefined) return known;
+    visiting.add(p.id);
+    let total = 0;
+    for (const { step } of walkSteps(p.steps)) {
+      const call = callOf(step);
+      const callee = call && !visiting.has(call.callee) ? lookup(call.callee) : undefined;
+      total += callee ? sizeOf(callee, visiting) + 1 : 1;
+      if (total > Number.MAX_SAFE_INTEGER) break;
+    }
+    visiting.delete(p.id);
+    sizes.set(p.id, total);
+    return total;
+  };
+
   const expandSequence = (items: SequenceItem[], stack: string[], prefix: string): SequenceItem[] =>
     items.flatMap((item): SequenceItem[] => {
       if (item.kind === 'parallel') {
@@ -115,6 +144,7 @@ export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): Inli
         })) }];
       }
       const step: Step = { ...item, id: prefix + item.id };
+      produced++;
       const call = callOf(item);
       if (!call) return [step];
       const site: CallSite = { caller: stack.at(-1)!, step: item, ...call, path: [...item.path, 'call'] };
@@ -125,6 +155,15 @@ export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): Inli
       const callee = lookup(call.callee);
       if (!callee) {
         problems.push({ kind: 'unknown-procedure', site });
+        return [step];
+      }
+      if (stack.length >= maxCallDepth) {
+        problems.push({ kind: 'too-deep', site, depth: stack.length + 1, limit: maxCallDepth });
+        return [step];
+      }
+      const size = sizeOf(callee, new Set(stack));
+      if (produced + size > maxExpandedSteps) {
+        problems.push({ kind: 'too-large', site, steps: produced + size, limit: maxExpandedSteps });
         return [step];
       }
       inlined.push(callee.id);

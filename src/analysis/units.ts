@@ -223,6 +223,9 @@ export function parseQuantity(text: string): ParsedQuantity {
   return { ok: true, value: Number(match[0]), unit: rest };
 }
 
+/** Longest `expect` of one step: 31 days. Longer is a typing error (1e9 h), and charts and sums stay bounded. */
+export const maxDurationSeconds = 31 * 86400;
+
 /** Reads an `expect` duration: "40 min", "2 h", or a range "30..50 min" / "30 min..1 h"; gives seconds. */
 export function parseDuration(text: string): ParsedDuration {
   const hint = 'Write a time such as 40 min, 2 h or a range 30..50 min.';
@@ -237,7 +240,12 @@ export function parseDuration(text: string): ParsedDuration {
     if (!q.ok) return { ...q, hint };
     if (unitDimension(q.unit) !== 'time') return unitError(`'${q.unit}' is not a unit of time.`, hint);
     if (q.value < 0) return unitError(`A duration cannot be negative ('${part.trim()}').`, hint);
-    seconds.push(toBase(q.value, q.unit) ?? Number.NaN);
+    const inSeconds = toBase(q.value, q.unit) ?? Number.NaN;
+    if (!Number.isFinite(inSeconds)) return unitError(`'${part.trim()}' is not a finite time.`, hint);
+    if (inSeconds > maxDurationSeconds) {
+      return unitError(`'${part.trim()}' is longer than the ${maxDurationSeconds / 86400} days one step may be expected to take.`, 'A step that runs for longer is a campaign: split it into steps, or give the duration of one shift.');
+    }
+    seconds.push(inSeconds);
   }
   const [min, max = min] = seconds;
   if (min > max) return unitError(`The range '${text.trim()}' runs backwards.`, 'Write the shorter time first, e.g. 30..50 min.');

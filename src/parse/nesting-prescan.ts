@@ -118,3 +118,24 @@ function columns(prefix: string): number {
   for (const c of prefix) col = c === '\t' ? col + 4 - (col % 4) : col + 1;
   return col;
 }
+
+/** Limits on the narrative below the front-matter: the markdown reader's time grows with each of them. */
+export const bodyLimits = { lines: 5000, linkDefinitions: 500, bytes: 512 * 1024 };
+
+const linkDefinition = /^ {0,3}\[(?:[^\]\\\n]|\\.){1,999}\]:/gm;
+
+/** The first narrative size limit the text passes, with where it is passed (offset of the line). */
+export function prescanBodySize(markdown: string, limits = bodyLimits): { what: string; found: number; limit: number; offset: number } | null {
+  if (markdown.length > limits.bytes) return { what: 'characters', found: markdown.length, limit: limits.bytes, offset: 0 };
+  let lines = 1;
+  for (let i = markdown.indexOf('\n'); i !== -1; i = markdown.indexOf('\n', i + 1)) {
+    if (++lines > limits.lines) return { what: 'lines', found: markdown.split('\n').length, limit: limits.lines, offset: i + 1 };
+  }
+  let definitions = 0;
+  for (const m of markdown.matchAll(linkDefinition)) {
+    if (++definitions > limits.linkDefinitions) {
+      return { what: 'link reference definitions ([name]: address)', found: [...markdown.matchAll(linkDefinition)].length, limit: limits.linkDefinitions, offset: m.index };
+    }
+  }
+  return null;
+}

@@ -5,7 +5,7 @@ import remarkParse from 'remark-parse';
 import type { Root } from 'mdast';
 import type { Diagnostic, SourceRange } from './diagnostic.ts';
 import { splitFrontMatter } from './split-front-matter.ts';
-import { prescanBodyNesting, prescanYamlNesting } from './nesting-prescan.ts';
+import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesting-prescan.ts';
 
 export type PathKey = string | number;
 
@@ -46,8 +46,15 @@ export function readSource(file: string, text: string): ParsedSource {
 
   // The markdown parser slows steeply with nesting and can overflow the stack, so absurd bodies are refused first.
   const bodyProblem = prescanBodyNesting(split.body);
+  const bodySize = bodyProblem ? null : prescanBodySize(split.body);
   let body: Root = { type: 'root', children: [] };
-  if (bodyProblem) {
+  if (bodySize) {
+    diagnostics.push({
+      file, ...at(split.bodyOffset + bodySize.offset), severity: 'error', rule: 'body-too-large',
+      message: `The narrative text has ${bodySize.found.toLocaleString('en-GB')} ${bodySize.what}; the limit is ${bodySize.limit.toLocaleString('en-GB')}. It was not read.`,
+      hint: 'A procedure\'s narrative holds its purpose, scope and notes. Move reference material to its own document and link to it.',
+    });
+  } else if (bodyProblem) {
     diagnostics.push({
       file, ...at(split.bodyOffset + bodyProblem.offset), severity: 'error', rule: 'body-too-deep',
       message: `The narrative text nests quotes or lists ${bodyProblem.depth} columns deep; it was not read.`,

@@ -31,7 +31,8 @@ export function renderTimelineSvg(cycle: CycleTime, options: TimelineSvgOptions)
   const plotLeft = labelWidth + 10;
   const plotWidth = width - plotLeft - 16;
   const finiteEnds = bars.map((b) => b.start + (Number.isFinite(b.longest) ? b.longest : b.typical));
-  const span = Math.max(cycle.typical, ...finiteEnds, 60);
+  // Only finite times set the scale; an unbounded loop runs to the edge.
+  const span = Math.max(60, ...[cycle.typical, ...finiteEnds].filter(Number.isFinite));
   const x = (seconds: number) => plotLeft + (Math.min(seconds, span) / span) * plotWidth;
   const height = axisHeight + bars.length * rowHeight + legendHeight + 8;
 
@@ -42,7 +43,7 @@ export function renderTimelineSvg(cycle: CycleTime, options: TimelineSvgOptions)
   ];
 
   // Axis: ticks every few minutes, labelled, with faint grid lines down the rows.
-  const stepMinutes = tickSteps.find((m) => span / (m * 60) <= 8) ?? tickSteps.at(-1)!;
+  const stepMinutes = tickSpacing(span);
   const gridBottom = axisHeight + bars.length * rowHeight;
   for (let t = 0; t <= span + 1e-9; t += stepMinutes * 60) {
     const tx = round(x(t));
@@ -95,6 +96,14 @@ function drawBar(bar: TimelineBar, top: number, x: (s: number) => number): strin
   const dash = bar.kind === 'loop' ? ' stroke-dasharray="3 2"' : '';
   out.push(`<rect x="${x0}" y="${y}" width="${w}" height="${h}" fill="${fill}" stroke="${ink}"${dash}><title>${escapeXml(times)}</title></rect>`);
   return out.join('');
+}
+
+/** Minutes between ticks: the first listed spacing that gives at most eight ticks, or a whole number of days that does (never more than nine ticks, however long the run). */
+export function tickSpacing(spanSeconds: number): number {
+  const listed = tickSteps.find((m) => spanSeconds / (m * 60) <= 8);
+  if (listed !== undefined) return listed;
+  const days = Math.ceil(spanSeconds / (8 * 86400));
+  return Number.isFinite(days) ? days * 1440 : Number.MAX_VALUE;
 }
 
 function fitLabel(text: string, width: number): string {

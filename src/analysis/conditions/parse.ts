@@ -4,6 +4,10 @@ import { tokenize, type Keyword, type Token } from './tokenize.ts';
 
 const exampleHint = 'Write a condition such as TI-210 >= 238 degC or lab-result == pass.';
 const valueHint = 'Write a number with its unit, e.g. TI-210 >= 238 degC, or a word, e.g. lab-result == pass.';
+/** Deepest nesting of '(' and 'not' read; deeper conditions are a syntax error, never a stack overflow. */
+export const maxConditionNesting = 64;
+/** Most tokens read in one condition. */
+export const maxConditionTokens = 2000;
 const mirrored: Record<CompareOp, CompareOp> = { '==': '==', '!=': '!=', '<': '>', '<=': '>=', '>': '<', '>=': '<=' };
 
 /** Thrown inside the parser only; parseCondition turns it into a value. */
@@ -26,6 +30,9 @@ function quote(token: Token): string {
 export function parseCondition(text: string): ConditionParseResult {
   const lexed = tokenize(text);
   if (!lexed.ok) return lexed;
+  if (lexed.tokens.length > maxConditionTokens + 1) {
+    return { ok: false, error: { message: `The condition has ${lexed.tokens.length - 1} parts; the limit is ${maxConditionTokens}.`, hint: 'Split the decision into several steps or branches; a condition an operator reads is short.', span: { from: 0, to: text.length } } };
+  }
   if (lexed.tokens.length === 1) {
     return { ok: false, error: { message: 'The condition is empty.', hint: exampleHint, span: { from: 0, to: text.length } } };
   }
@@ -39,6 +46,12 @@ export function parseCondition(text: string): ConditionParseResult {
 
 function parseTokens(tokens: Token[]): Condition {
   let at = 0;
+  let depth = 0;
+  const enter = (token: Token) => {
+    if (++depth > maxConditionNesting) {
+      fail(`The condition nests brackets and 'not' more than ${maxConditionNesting} levels deep.`, 'Remove the extra brackets; a condition an operator reads needs only a few levels.', token.span);
+    }
+  };
   const peek = (offset = 0): Token => tokens[Math.min(at + offset, tokens.length - 1)];
   const take = (): Token => {
     const token = peek();
@@ -67,7 +80,9 @@ function parseTokens(tokens: Token[]): Condition {
   function parseNot(): Condition {
     if (!isKeyword('not')) return parsePrimary();
     const keyword = take();
+    enter(keyword);
     const operand = parseNot();
+    depth--;
     return { kind: 'not', operand, span: { from: keyword.span.from, to: operand.span.to } };
   }
 
@@ -80,7 +95,9 @@ function parseTokens(tokens: Token[]): Condition {
 
   function parseGroup(): Condition {
     const open = take();
+    enter(open);
     const inner = parseOr();
+    depth--;
     const close = peek();
     if (close.type === 'end') fail("This '(' is never closed.", "Add ')' where the group ends.", open.span);
     if (close.type !== ')') unexpectedAfterCondition(close);

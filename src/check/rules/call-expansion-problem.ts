@@ -20,7 +20,9 @@ expanded into the called steps. The sequence, condition and limit rules then see
 a setpoint of the called procedure beyond the caller's operating limits or at one of its interlock trips,
 a signal the two declare with different units, a loop that can no longer finish. Such a problem belongs to
 neither file alone, so it is reported at the call step, with the finding of the underlying rule. Fix it in
-the caller (its limits, or the way it calls) or in the shared operation, then have both reviewed.`,
+the caller (its limits, or the way it calls) or in the shared operation, then have both reviewed.
+Calls are expanded at most 12 deep and to at most 5,000 steps in all; a call beyond either limit is not
+checked in combination, and a warning with the sizes says so.`,
     examples: {
       bad: 'caller limits PI-210 to high: 150 kPa; the called inerting procedure sets PI-210 to 200 kPa',
       good: "the caller's limits cover the pressures the called procedure uses",
@@ -36,6 +38,18 @@ the caller (its limits, or the way it calls) or in the shared operation, then ha
       const sites = callSitesOf(file.procedure);
       if (!sites.length) continue;
       const expanded = inlineCalls(file.procedure, (id) => byId.get(id)?.procedure ?? undefined);
+      // A call too deep or too large to expand is not checked in combination: say so, with the sizes.
+      for (const problem of expanded.problems) {
+        if (problem.kind !== 'too-deep' && problem.kind !== 'too-large') continue;
+        ctx.report(file, {
+          path: problem.site.path,
+          severity: 'warning',
+          message: problem.kind === 'too-deep'
+            ? `Step '${problem.site.step.id}' calls '${problem.site.callee}' ${problem.depth} calls deep; calls are expanded at most ${problem.limit} deep, so this one was not checked together with its caller.`
+            : `Expanding the call of '${problem.site.callee}' at step '${problem.site.step.id}' would give ${problem.steps > 1e15 ? 'more than 10^15' : problem.steps.toLocaleString('en-GB')} steps in all (calls multiplied out); the limit is ${problem.limit.toLocaleString('en-GB')}, so this call was not checked together with its caller.`,
+          hint: 'Shared operations that call other shared operations multiply: call each one once, at the level where it is needed, or split the procedure.',
+        });
+      }
       if (!expanded.inlined.length) continue;
       // What each part reports on its own is already reported in its own file.
       const known = new Set(findings(file, file.procedure, checked).map((f) => f.key));

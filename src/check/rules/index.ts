@@ -3,6 +3,7 @@ import type { Rule } from '../define-rule.ts';
 import approvalMissing from './approval-missing.ts';
 import authorOnlyApprover from './author-only-approver.ts';
 import bodyTooDeep from './body-too-deep.ts';
+import bodyTooLarge from './body-too-large.ts';
 import badIdFormat from './bad-id-format.ts';
 import callCycle from './call-cycle.ts';
 import callExpansionProblem from './call-expansion-problem.ts';
@@ -18,6 +19,7 @@ import duplicateStepId from './duplicate-step-id.ts';
 import effectiveBeforeApproval from './effective-before-approval.ts';
 import effectiveDateMissing from './effective-date-missing.ts';
 import effectiveEditedInPlace from './effective-edited-in-place.ts';
+import expectInvalid from './expect-invalid.ts';
 import frontMatterNotMapping from './front-matter-not-mapping.ts';
 import gotoCrossesParallel from './goto-crosses-parallel.ts';
 import gotoUnknownStep from './goto-unknown-step.ts';
@@ -78,6 +80,7 @@ export const rules = {
   'author-only-approver': authorOnlyApprover,
   'body-too-deep': bodyTooDeep,
   'bad-id-format': badIdFormat,
+  'body-too-large': bodyTooLarge,
   'call-cycle': callCycle,
   'call-expansion-problem': callExpansionProblem,
   'call-retired-procedure': callRetiredProcedure,
@@ -92,6 +95,7 @@ export const rules = {
   'effective-before-approval': effectiveBeforeApproval,
   'effective-date-missing': effectiveDateMissing,
   'effective-edited-in-place': effectiveEditedInPlace,
+  'expect-invalid': expectInvalid,
   'front-matter-not-mapping': frontMatterNotMapping,
   'goto-crosses-parallel': gotoCrossesParallel,
   'goto-unknown-step': gotoUnknownStep,
