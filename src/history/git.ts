@@ -10,8 +10,14 @@ export interface Git {
 
 export class GitError extends Error {
   override name = 'GitError';
-  constructor(message: string, readonly args: string[], readonly stderr: string, readonly missingGit = false) {
+  readonly args: string[];
+  readonly stderr: string;
+  readonly missingGit: boolean;
+  constructor(message: string, args: string[], stderr: string, missingGit = false) {
     super(message);
+    this.args = args;
+    this.stderr = stderr;
+    this.missingGit = missingGit;
   }
 }
 

@@ -56,7 +56,12 @@ export interface SpaceOptions {
 export class SignalSpace {
   readonly variables = new Map<string, Variable>();
 
-  constructor(private readonly signals: Readonly<Record<string, SignalInfo>>, conditions: Condition[], private readonly options: SpaceOptions) {
+  private readonly signals: Readonly<Record<string, SignalInfo>>;
+  private readonly options: SpaceOptions;
+
+  constructor(signals: Readonly<Record<string, SignalInfo>>, conditions: Condition[], options: SpaceOptions) {
+    this.signals = signals;
+    this.options = options;
     const words = new Map<string, Set<string>>();
     const numbers = new Set<string>();
     const order = new Set<string>();
@@ -74,10 +79,10 @@ export class SignalSpace {
       else for (const o of c.operands) visit(o);
     };
     conditions.forEach(visit);
-    for (const name of order) this.variables.set(name, this.declare(name, words.get(name), numbers.has(name)));
+    for (const name of order) this.variables.set(name, this.variableFor(name, words.get(name), numbers.has(name)));
   }
 
-  private declare(name: string, words: Set<string> | undefined, numeric: boolean): Variable {
+  private variableFor(name: string, words: Set<string> | undefined, numeric: boolean): Variable {
     const signal = Object.hasOwn(this.signals, name) ? this.signals[name] : undefined;
     if (!signal) {
       if (name === 'done') return { kind: 'enum', name, values: ['true', 'false'] };

@@ -1,0 +1,58 @@
+// Compiles the package for publishing: src/**/*.ts → lib/**/*.js (relative imports rewritten to .js), and
+// the site's own files (.astro pages and components, styles, the service worker) copied next to them with
+// their imports of engine modules pointed at the compiled .js. `npm pack` runs this first (prepack).
+import { spawnSync } from 'node:child_process';
+import { cpSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { dirname, extname, join, relative } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = fileURLToPath(new URL('..', import.meta.url));
+const src = join(root, 'src');
+const lib = join(root, 'lib');
+
+rmSync(lib, { recursive: true, force: true });
+const tsc = createRequire(import.meta.url).resolve('typescript/bin/tsc');
+const run = spawnSync(process.execPath, [tsc, '-p', join(root, 'tsconfig.build.json')], { cwd: root, stdio: 'inherit' });
+if (run.status !== 0) {
+  process.stderr.write('compile: the TypeScript compiler reported errors; no package was made.\n');
+  process.exit(1);
+}
+
+/** `from '../x.ts'`, `import '../x.ts'`, `import('../x.ts')` → `.js`; bare and non-TypeScript imports stay. */
+export function pointAtCompiled(text) {
+  return text.replace(/(\b(?:from|import)\s*\(?\s*)(['"])(\.{1,2}\/[^'"\n]+?)\.ts\2/g, '$1$2$3.js$2');
+}
+
+let copied = 0;
+function copySiteFiles(dir) {
+  for (const name of readdirSync(dir)) {
+    const from = join(dir, name);
+    if (statSync(from).isDirectory()) {
+      copySiteFiles(from);
+      continue;
+    }
+    if (extname(name) === '.ts') continue;
+    const to = join(lib, relative(src, from));
+    mkdirSync(dirname(to), { recursive: true });
+    if (extname(name) === '.astro') writeFileSync(to, pointAtCompiled(readFileSync(from, 'utf8')));
+    else cpSync(from, to);
+    copied++;
+  }
+}
+copySiteFiles(join(src, 'site'));
+
+// Anything still naming a .ts file would fail in the installed package, where no .ts file exists.
+const leftovers = [];
+(function scan(dir) {
+  for (const name of readdirSync(dir)) {
+    const path = join(dir, name);
+    if (statSync(path).isDirectory()) scan(path);
+    else if (/\.(js|astro)$/.test(name) && /(['"])\.{1,2}\/[^'"\n]+\.ts\1/.test(readFileSync(path, 'utf8'))) leftovers.push(relative(root, path));
+  }
+})(lib);
+if (leftovers.length) {
+  process.stderr.write(`compile: still importing .ts files: ${leftovers.join(', ')}\n`);
+  process.exit(1);
+}
+process.stdout.write(`compile: lib/ written (${copied} site files copied).\n`);
