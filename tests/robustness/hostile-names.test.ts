@@ -84,3 +84,20 @@ describe('a file that looks like a procedure never drops out in silence', () => 
     expect(found?.hint).toMatch(/extra "---"/);
   });
 });
+
+describe('whatever the build can fail on is a check error first', () => {
+  it("an equipment tag 'index.html' is an error naming the tag", () => {
+    const found = check(base.replace('equipment: [K-210, XV-2101]', 'equipment: [K-210, XV-2101, index.html]')).filter((d) => d.rule === 'name-format');
+    expect(found).toHaveLength(1);
+    expect(found[0].message).toContain("'index.html'");
+  });
+  it('a 300-character procedure id is an error naming the limit', () => {
+    const found = check(base.replace('id: FX-K210-001', `id: FX-${'A'.repeat(297)}`)).filter((d) => d.rule === 'name-format');
+    expect(found).toHaveLength(1);
+    expect(found[0].message).toMatch(/300 characters long; the limit is 100/);
+  });
+  it('a 300-character step id and signal name are errors too', () => {
+    const long = base.replace('  - step: sample', `  - step: ${'s'.repeat(300)}`).replace('  lab-result: {', `  ${'L'.repeat(300)}: { text: x, values: [a, b] }\n  lab-result: {`);
+    expect(check(long).filter((d) => d.rule === 'name-format')).toHaveLength(2);
+  });
+});

@@ -28,7 +28,8 @@ export class NotAnalysable extends Error {}
 
 /** Any value of an enumerated signal that the procedure did not list. */
 export const otherValue = '\u0000other';
-const maxBoxes = 2048;
+/** Most disjoint cases a decision is split into; beyond it the decision is reported as not analysed. */
+export const maxBoxes = 2048;
 
 /** Unit conversion leaves float noise (212 degF → 373.15000000000003 K); 12 significant digits keep real differences such as 760 mmHg vs 1 atm (1.4e-7). */
 export function snap(value: number): number {
@@ -219,8 +220,22 @@ export class SignalSpace {
     return [...a, ...b];
   }
 
-  /** Everything outside the region (within the declared domains). */
+  /**
+   * Everything outside the region (within the declared domains). Each box is cut out of the result by
+   * splitting the result's boxes into disjoint pieces, one signal at a time, so the count grows with the
+   * shape of what is left rather than multiplying (15 of the 16 cases of four yes/no signals leave one box).
+   */
   not(a: Region): Region {
+    try {
+      return this.notByProduct(a);
+    } catch (error) {
+      if (!(error instanceof NotAnalysable) || error.message !== 'too many cases') throw error;
+      return this.notBySplitting(a);
+    }
+  }
+
+  /** The complement as a product of each box's outside: short descriptions, but it multiplies with many boxes. */
+  private notByProduct(a: Region): Region {
     let result: Region = [new Map()];
     for (const box of a) {
       const outside: Region = [];
@@ -229,6 +244,33 @@ export class SignalSpace {
         if (rest) outside.push(new Map([[name, rest]]));
       }
       result = this.and(result, outside);
+      if (!result.length) return [];
+    }
+    return result;
+  }
+
+  private notBySplitting(a: Region): Region {
+    let result: Region = [new Map()];
+    for (const box of a) {
+      const next: Region = [];
+      for (const r of result) {
+        let inside: Box = new Map(r);
+        for (const [name, set] of box) {
+          const mine = inside.get(name) ?? this.full(this.variable(name));
+          const outside = this.without(mine, set);
+          if (outside) {
+            const piece = new Map(inside);
+            piece.set(name, outside);
+            next.push(piece);
+            if (next.length > maxBoxes) throw new NotAnalysable('too many cases');
+          }
+          const met = this.meet(mine, set);
+          if (!met) break;
+          inside = new Map(inside);
+          inside.set(name, met);
+        }
+      }
+      result = next;
       if (!result.length) return [];
     }
     return result;

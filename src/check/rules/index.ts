@@ -14,6 +14,7 @@ import cautionForSeriousInjury from './caution-for-serious-injury.ts';
 import cautionHoldsAction from './caution-holds-action.ts';
 import conditionSyntax from './condition-syntax.ts';
 import contradictoryCondition from './contradictory-condition.ts';
+import decisionNotAnalysed from './decision-not-analysed.ts';
 import duplicateProcedureId from './duplicate-procedure-id.ts';
 import duplicateStepId from './duplicate-step-id.ts';
 import effectiveBeforeApproval from './effective-before-approval.ts';
@@ -90,6 +91,7 @@ export const rules = {
   'caution-holds-action': cautionHoldsAction,
   'condition-syntax': conditionSyntax,
   'contradictory-condition': contradictoryCondition,
+  'decision-not-analysed': decisionNotAnalysed,
   'duplicate-procedure-id': duplicateProcedureId,
   'duplicate-step-id': duplicateStepId,
   'effective-before-approval': effectiveBeforeApproval,
