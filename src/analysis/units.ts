@@ -19,17 +19,68 @@ const math = create(all, {});
 math.createUnit('mmHg', { definition: '133.322387415 Pa' }, { override: true });
 math.createUnit('Torr', { definition: `${101325 / 760} Pa`, aliases: ['torr'] }, { override: true });
 // mathjs derives psi from a rounded pound-force; use the exact definition (lb × standard gravity / in²).
-math.createUnit('psi', { definition: `${(0.45359237 * 9.80665) / 0.0254 ** 2} Pa` }, { override: true });
+const psiInPa = (0.45359237 * 9.80665) / 0.0254 ** 2;
+math.createUnit('psi', { definition: `${psiInPa} Pa` }, { override: true });
+// Conventional inch of mercury, NIST SP 811 Appendix B.8: 3.386 389 E+03 Pa.
+math.createUnit('inHg', { definition: '3386.389 Pa' }, { override: true });
+// US liquid gallon, exactly 231 in³ = 3.785411784 L (NIST SP 811 B.8), named as such; and the petroleum barrel of
+// 42 US gallons = 0.158987294928 m³ (SP 811 B.8), never the 31-gallon beer barrel.
+math.createUnit('USgal', { definition: '3.785411784 L' }, { override: true });
+math.createUnit('bbl', { definition: '0.158987294928 m^3' }, { override: true });
+math.createUnit('gpm', { definition: '3.785411784 L/min' }, { override: true });
+// The day (NIST SP 811 Table 6: d = 86 400 s); the library spells it only in full.
+math.createUnit('d', { definition: '86400 s' }, { override: true });
+// Revolutions per minute, for agitator and pump speeds.
+math.createUnit('rpm', { definition: `${1 / 60} Hz` }, { override: true });
+// Gauge pressures: the pressure above the standard atmosphere (101.325 kPa, NIST SP 811 B.8), kept as an offset the
+// way degC keeps 273.15 K, so a gauge value converts to absolute and a difference converts without the offset.
+export const standardAtmospherePa = 101325;
+const gaugeUnits: Array<[string, number]> = [['kPag', 1000], ['MPag', 1e6], ['barg', 1e5], ['mbarg', 100], ['psig', psiInPa]];
+for (const [name, pa] of gaugeUnits) math.createUnit(name, { definition: `${pa} Pa`, offset: standardAtmospherePa / pa }, { override: true });
+const absoluteUnits: Array<[string, number]> = [['kPaa', 1000], ['MPaa', 1e6], ['bara', 1e5], ['mbara', 100], ['psia', psiInPa]];
+for (const [name, pa] of absoluteUnits) math.createUnit(name, { definition: `${pa} Pa` }, { override: true });
 // Ratios the plant writes as units; mathjs has none of them.
 math.createUnit('percent', { definition: '0.01' });
 math.createUnit('ppm', { definition: '1e-6' });
 
+/**
+ * The documented units (docs/format.md, "Units"), and nothing else: a unit the library happens to read (C is the
+ * coulomb, mt the millitonne, ton the short ton) is refused with a suggestion instead of being given a surprise
+ * meaning. A compound is two of these joined by one '/', e.g. kg/h, m3/h, degC/min.
+ */
+export const documentedUnits = [
+  'degC', 'degF', 'K',
+  'Pa', 'kPa', 'MPa', 'bar', 'mbar', 'psi', 'atm', 'mmHg', 'Torr', 'inHg',
+  'kPag', 'MPag', 'barg', 'mbarg', 'psig', 'kPaa', 'MPaa', 'bara', 'mbara', 'psia',
+  'mg', 'g', 'kg', 't', 'lb',
+  'mL', 'L', 'm3', 'USgal', 'bbl',
+  's', 'min', 'h', 'd',
+  'percent', '%', 'ppm',
+  'mm', 'm', 'kW', 'rpm', 'A', 'V', 'gpm',
+] as const;
+
+const documented = new Set<string>(documentedUnits);
+const gaugeSet = new Set(gaugeUnits.map(([n]) => n));
+const absoluteSet = new Set(absoluteUnits.map(([n]) => n));
+
+/** Common spellings that are not units here, with what to write instead. */
+const insteadOf: Record<string, string> = {
+  C: 'degC', F: 'degF', '°C': 'degC', '°F': 'degF', celsius: 'degC', Celsius: 'degC', fahrenheit: 'degF', Fahrenheit: 'degF', degK: 'K', kelvin: 'K',
+  mt: 't', MT: 't', tonne: 't', tonnes: 't', ton: 't', tons: 't', T: 't',
+  gal: 'USgal', gallon: 'USgal', gallons: 'USgal', GPM: 'gpm', USgpm: 'gpm', bbls: 'bbl', BBL: 'bbl',
+  l: 'L', ltr: 'L', litre: 'L', liter: 'L', ml: 'mL', 'm^3': 'm3', 'm³': 'm3', cum: 'm3',
+  sec: 's', secs: 's', mins: 'min', hr: 'h', hrs: 'h', hour: 'h', hours: 'h', day: 'd', days: 'd',
+  kpa: 'kPa', KPa: 'kPa', kpag: 'kPag', kPa_g: 'kPag', 'kPa(g)': 'kPag', 'kPa(a)': 'kPaa', BarG: 'barg', bar_g: 'barg', 'bar(g)': 'barg', 'bar(a)': 'bara',
+  PSI: 'psi', PSIG: 'psig', PSIA: 'psia', 'psi(g)': 'psig', mmhg: 'mmHg', inhg: 'inHg', torr: 'Torr', mbar_g: 'mbarg',
+  pct: 'percent', lbs: 'lb', RPM: 'rpm', kw: 'kW',
+};
+
 /** Units people write in procedures; used for "did you mean" hints. */
 export const commonUnits = [
-  'degC', 'degF', 'K', 'Pa', 'kPa', 'MPa', 'bar', 'mbar', 'psi', 'mmHg', 'Torr', 'atm',
-  'kg', 'g', 'lb', 't', 'L', 'm3', 'gal', 's', 'min', 'h', '%', 'percent', 'ppm', 'mg/g',
-  'kg/h', 't/h', 'L/min', 'L/h', 'm3/h', 'gal/min', 'degC/min', 'degC/h', 'kW', 'rpm', 'm', 'mm', 'A', 'V',
+  ...documentedUnits, 'mg/g', 'kg/h', 't/h', 'L/min', 'L/h', 'm3/h', 'USgal/min', 'degC/min', 'degC/h',
 ] as const;
+
+const tonHint = 'Stepwright reads no "ton": short, long and metric tons differ. Write t for the metric tonne (1000 kg), or lb.';
 
 const dimensionNames: Record<string, string> = {
   '': 'ratio',
@@ -69,7 +120,7 @@ const factsCache = new Map<string, UnitFacts | UnitError>();
 
 /** Spellings mathjs cannot read but plant people write. */
 function normalizeUnit(unit: string): string {
-  return unit.replaceAll('%', 'percent').replaceAll('°C', 'degC').replaceAll('°F', 'degF');
+  return unit.replaceAll('%', 'percent');
 }
 
 function unitError(message: string, hint: string): UnitError {
@@ -77,6 +128,13 @@ function unitError(message: string, hint: string): UnitError {
 }
 
 function suggestUnit(unit: string): string {
+  if (['ton', 'tons', 'T'].includes(unit)) return tonHint;
+  const instead = insteadOf[unit];
+  if (instead) return `Did you mean ${instead}?`;
+  if (unit.includes('/')) {
+    const parts = unit.split('/').map((p) => (documented.has(p) ? p : insteadOf[p] ?? null));
+    if (parts.length === 2 && parts.every(Boolean)) return `Did you mean ${parts.join('/')}?`;
+  }
   const exact = commonUnits.find((u) => u.toLowerCase() === unit.toLowerCase());
   if (exact) return `Did you mean ${exact}? Units are case-sensitive.`;
   const near = closest(unit, commonUnits);
@@ -109,6 +167,10 @@ function readUnit(unit: string): UnitFacts | UnitError {
   if (trimmed === '') return unitError('The unit is missing.', 'Write a unit such as degC, kPa, kg or min.');
   if (/\s/.test(trimmed)) return unitError(`The unit '${trimmed}' contains a space.`, 'Write the unit without spaces, e.g. m3/h.');
   if (/^[\d.+-]/.test(trimmed)) return unitError(`'${trimmed}' is not a unit.`, 'Write a unit such as degC, kPa, kg or min.');
+  const parts = normalizeUnit(trimmed).split('/');
+  if (parts.length > 2 || !parts.every((p) => documented.has(p))) {
+    return unitError(`'${trimmed}' is not a unit Stepwright knows.`, suggestUnit(trimmed));
+  }
   let parsed: Unit;
   try {
     parsed = math.unit(normalizeUnit(trimmed));
@@ -132,6 +194,36 @@ function readUnit(unit: string): UnitFacts | UnitError {
 
 export function isKnownUnit(unit: string): boolean {
   return !('ok' in describe(unit));
+}
+
+/** Whether a word in running text reads as some unit (lenient: prose is not held to the documented list). */
+export function isUnitWord(word: string): boolean {
+  if (isKnownUnit(word)) return true;
+  try {
+    return math.unit(normalizeUnit(word)).value === null;
+  } catch {
+    return false;
+  }
+}
+
+/** 'gauge' for kPag, barg, psig ...; 'absolute' for every other pressure unit (SI pressures are absolute); null otherwise. */
+export function pressureReference(unit: string): 'gauge' | 'absolute' | null {
+  const u = unit.trim();
+  if (gaugeSet.has(u)) return 'gauge';
+  if (absoluteSet.has(u) || unitDimension(u) === 'pressure') return 'absolute';
+  return null;
+}
+
+/**
+ * When a comparison crosses gauge and absolute pressure, the sentence that says how it was converted; otherwise ''.
+ * Every message that compares two pressures adds it, so nobody is surprised by a 101.325 kPa shift.
+ */
+export function pressureConversionNote(a: string | undefined, b: string | undefined): string {
+  if (!a || !b) return '';
+  const ra = pressureReference(a);
+  const rb = pressureReference(b);
+  if (!ra || !rb || ra === rb) return '';
+  return ` (${a} and ${b} were compared by converting gauge to absolute pressure with the standard atmosphere, 101.325 kPa)`;
 }
 
 /** Why a unit is not usable, or null when it is. */

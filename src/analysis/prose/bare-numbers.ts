@@ -1,6 +1,6 @@
 // Finds numbers in prose that carry no unit ("Set TIC-210 to 45"), leaving counts, labels and ranges alone.
 import { tagsAt } from './word-tags.ts';
-import { isKnownUnit } from '../units.ts';
+import { isUnitWord } from '../units.ts';
 import type { Sentence, Word } from './words.ts';
 
 /** Unit words people write in full or as symbols that the unit library does not parse on their own. */
@@ -58,7 +58,7 @@ const unitMemo = new Map<string, boolean>();
 /** The unit library parses on every question; plant text repeats the same few units. */
 function knownUnit(text: string): boolean {
   let known = unitMemo.get(text);
-  if (known === undefined) unitMemo.set(text, (known = isKnownUnit(text)));
+  if (known === undefined) unitMemo.set(text, (known = isUnitWord(text)));
   return known;
 }
 

@@ -1,6 +1,7 @@
 // Reports a setpoint at or beyond an interlock trip: running the step as written would trip the plant.
 import { evaluateCondition } from '../../analysis/evaluate-condition.ts';
-import { toBase } from '../../analysis/units.ts';
+import { pressureConversionNote, toBase } from '../../analysis/units.ts';
+import { comparisonsIn } from '../../analysis/conditions/parse.ts';
 import { defineFileRule } from '../define-rule.ts';
 
 export default defineFileRule(
@@ -28,7 +29,7 @@ written — or tempts an operator to bypass the interlock. The setpoint is compa
         if (evaluateCondition(trip.result.condition, known) !== true) continue;
         ctx.report({
           path: site.path,
-          message: `Step '${site.step}' sets ${site.signal} to ${site.text}, where interlock ${trip.owner} trips (${trip.text}).`,
+          message: `Step '${site.step}' sets ${site.signal} to ${site.text}, where interlock ${trip.owner} trips (${trip.text})${noteFor(site.quantity.unit, trip.result.condition, site.signal)}.`,
           hint: 'Keep setpoints clear of interlock trips with a margin; never plan to run at a trip point.',
           related: [{ path: trip.path, message: `trip condition of ${trip.owner}` }],
         });
@@ -36,3 +37,14 @@ written — or tempts an operator to bypass the interlock. The setpoint is compa
     }
   },
 );
+
+/** The gauge/absolute note when the trip compares the same signal in the other reference. */
+function noteFor(unit: string, condition: Parameters<typeof comparisonsIn>[0], signal: string): string {
+  for (const cmp of comparisonsIn(condition)) {
+    if (cmp.name.name === signal && cmp.value.kind === 'quantity') {
+      const note = pressureConversionNote(unit, cmp.value.unit);
+      if (note) return note;
+    }
+  }
+  return '';
+}

@@ -1,5 +1,5 @@
 // Reports a setpoint outside the operating limits of its signal, after converting units.
-import { toBase, formatQuantity, convert } from '../../analysis/units.ts';
+import { toBase, formatQuantity, convert, pressureConversionNote } from '../../analysis/units.ts';
 import { defineFileRule } from '../define-rule.ts';
 
 export default defineFileRule(
@@ -16,13 +16,14 @@ converted exactly before they are compared.`,
   },
   (ctx) => {
     if (!ctx.facts) return;
-    const bounds = new Map<string, { low?: { base: number; text: string; path: readonly (string | number)[] }; high?: { base: number; text: string; path: readonly (string | number)[] } }>();
+    type Bound = { base: number; text: string; unit: string; path: readonly (string | number)[] };
+    const bounds = new Map<string, { low?: Bound; high?: Bound }>();
     for (const site of ctx.facts.quantities) {
       if (site.role === 'setpoint' || !site.quantity || site.problems.length) continue;
       const base = toBase(site.quantity.value, site.quantity.unit);
       if (base === null) continue;
       const entry = bounds.get(site.signal) ?? {};
-      entry[site.role === 'limit-low' ? 'low' : 'high'] = { base, text: site.text, path: site.path };
+      entry[site.role === 'limit-low' ? 'low' : 'high'] = { base, text: site.text, unit: site.quantity.unit, path: site.path };
       bounds.set(site.signal, entry);
     }
     for (const site of ctx.facts.quantities) {
@@ -35,14 +36,14 @@ converted exactly before they are compared.`,
       if (limit.high && value > limit.high.base) {
         ctx.report({
           path: site.path,
-          message: `Step '${site.step}' sets ${site.signal} to ${site.text}${shown}, above its high operating limit ${limit.high.text}.`,
+          message: `Step '${site.step}' sets ${site.signal} to ${site.text}${shown}, above its high operating limit ${limit.high.text}${pressureConversionNote(site.quantity.unit, limit.high.unit)}.`,
           hint: 'Lower the setpoint to within the operating limits, or change the limits through management of change.',
           related: [{ path: limit.high.path, message: 'high operating limit' }],
         });
       } else if (limit.low && value < limit.low.base) {
         ctx.report({
           path: site.path,
-          message: `Step '${site.step}' sets ${site.signal} to ${site.text}${shown}, below its low operating limit ${limit.low.text}.`,
+          message: `Step '${site.step}' sets ${site.signal} to ${site.text}${shown}, below its low operating limit ${limit.low.text}${pressureConversionNote(site.quantity.unit, limit.low.unit)}.`,
           hint: 'Raise the setpoint to within the operating limits, or change the limits through management of change.',
           related: [{ path: limit.low.path, message: 'low operating limit' }],
         });

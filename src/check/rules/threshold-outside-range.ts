@@ -1,7 +1,7 @@
 // Reports a condition threshold outside the signal's declared range: that comparison can never change.
 import { comparisonsIn } from '../../analysis/conditions/parse.ts';
 import { literalToBase } from '../../analysis/evaluate-condition.ts';
-import { toBase } from '../../analysis/units.ts';
+import { pressureConversionNote, toBase } from '../../analysis/units.ts';
 import { defineFileRule } from '../define-rule.ts';
 
 export default defineFileRule(
@@ -30,7 +30,7 @@ the step. Thresholds are converted into the signal's unit before the comparison.
         if (threshold >= Math.min(low, high) && threshold <= Math.max(low, high)) continue;
         ctx.report({
           range: ctx.source.rangeInScalar(site.path, cmp.value.span.from, cmp.value.span.to),
-          message: `Threshold ${cmp.value.value} ${cmp.value.unit} is outside the declared range of ${signal.name} (${signal.range[0]}..${signal.range[1]} ${signal.unit}), so '${cmp.name.name} ${cmp.op} ...' can never change.`,
+          message: `Threshold ${cmp.value.value} ${cmp.value.unit} is outside the declared range of ${signal.name} (${signal.range[0]}..${signal.range[1]} ${signal.unit}), so '${cmp.name.name} ${cmp.op} ...' can never change${pressureConversionNote(cmp.value.unit, signal.unit)}.`,
           hint: 'Correct the threshold, or the declared range if the instrument reads further.',
           related: [{ path: [...signal.path, 'range'], message: 'declared range' }],
         });

@@ -9,9 +9,13 @@ export default defineFileRule(
     summary: 'A unit is not one Stepwright knows.',
     category: 'conditions',
     defaultSeverity: 'error',
-    docs: `Units are written as in the format reference: degC degF K, Pa kPa MPa bar psi mmHg Torr atm, kg g lb t,
-L m3 gal, s min h, percent or %, mg/g, kg/h, L/min, m3/h and their combinations. Unit names are case-sensitive
-(\`degC\`, not \`DEGC\`).`,
+    source: 'NIST SP 811, Guide for the Use of the International System of Units, Appendix B (conversion factors)',
+    docs: `Only the units listed in the format reference are read: degC degF K; Pa kPa MPa bar mbar psi atm mmHg Torr
+inHg and the gauge (kPag barg psig ...) and absolute (kPaa bara psia ...) forms; mg g kg t lb; mL L m3 USgal bbl;
+s min h d; percent or %, ppm; mm m kW rpm A V gpm; and two of them joined by one '/' (kg/h, m3/h, mg/g). Anything
+else is refused with the spelling to use instead: \`C\` is not degC (a unit library reads it as the coulomb), \`mt\`
+is not the metric tonne (it reads as a millitonne), \`gal\` does not say which gallon, and \`ton\` has three
+meanings. Unit names are case-sensitive (\`degC\`, not \`DEGC\`).`,
     examples: { bad: 'unit: celsius', good: 'unit: degC' },
   },
   (ctx) => {

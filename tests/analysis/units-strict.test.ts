@@ -1,0 +1,134 @@
+// Strict, documented units: exact factors against NIST SP 811, refused spellings with a suggestion, gauge and absolute.
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import {
+  checkUnit, convert, convertDifference, documentedUnits, isKnownUnit, parseQuantity, pressureConversionNote, pressureReference, toBase,
+} from '../../src/analysis/units.ts';
+import { checkSources } from '../../src/check/run-checks.ts';
+
+describe('documented units only', () => {
+  it.each([
+    // Source: issue analysis of the unit library: C is the coulomb and F the farad there; a procedure means degC/degF.
+    ['C', 'Did you mean degC?'],
+    ['F', 'Did you mean degF?'],
+    ['°C', 'Did you mean degC?'],
+    // mt reads as a millitonne in the library; the metric tonne is t.
+    ['mt', 'Did you mean t?'],
+    ['gal', 'Did you mean USgal?'],
+    ['kg/hr', 'Did you mean kg/h?'],
+    ['GPM', 'Did you mean gpm?'],
+  ])('refuses %s and suggests the documented spelling', (unit, hint) => {
+    const problem = checkUnit(unit);
+    expect(problem?.ok).toBe(false);
+    expect(problem?.message).toContain('not a unit Stepwright knows');
+    expect(problem?.hint).toBe(hint);
+  });
+
+  it('refuses ton, saying why', () => {
+    // Source: NIST SP 811, Appendix B.8: short ton 907.18474 kg, long ton 1016.047 kg, metric ton 1000 kg - three meanings.
+    expect(checkUnit('ton')?.hint).toMatch(/short, long and metric tons differ/);
+  });
+
+  it('refuses prefixes and units the library knows but the list does not', () => {
+    for (const unit of ['kt', 'Mg', 'hL', 'cd', 'mol', 'ft', 'inch', 'kdegC', 'kg/h/h']) expect(isKnownUnit(unit), unit).toBe(false);
+  });
+
+  it('accepts every documented unit and every documented unit per time', () => {
+    for (const unit of documentedUnits) expect(isKnownUnit(unit), unit).toBe(true);
+    for (const unit of ['kg/h', 'm3/h', 'L/min', 'USgal/min', 'degC/min', 'mg/g', 't/h']) expect(isKnownUnit(unit), unit).toBe(true);
+  });
+
+  it('reads any other text as unknown, never as a surprise unit', () => {
+    fc.assert(fc.property(fc.string({ minLength: 1, maxLength: 6 }), (unit) => {
+      if (isKnownUnit(unit)) {
+        const parts = unit.trim().replaceAll('%', 'percent').split('/');
+        expect(parts.every((p) => (documentedUnits as readonly string[]).includes(p) || p === 'percent')).toBe(true);
+      }
+    }), { numRuns: 2000 });
+  });
+});
+
+describe('exact factors', () => {
+  it('petroleum barrel is 42 US gallons', () => {
+    // Source: NIST SP 811, Appendix B.8: barrel [for petroleum, 42 gallons (U.S.)] = 1.589 873 E-01 m3; gallon (U.S.) = 3.785 412 E-03 m3 (exactly 231 in3).
+    expect(toBase(1, 'bbl')).toBeCloseTo(0.158987294928, 12);
+    expect(convert(1, 'bbl', 'USgal')).toBeCloseTo(42, 12);
+    // The tank-farm case: 700 bbl is 111.29 m3, above a 100 m3 high limit (a 31-gallon barrel would have said 82 m3).
+    expect(convert(700, 'bbl', 'm3')).toBeCloseTo(111.2911064496, 9);
+  });
+
+  it('US gallon and US gallons per minute', () => {
+    // Source: NIST SP 811, Appendix B.8: gallon (U.S.) = 3.785 412 E-03 m3 (exact: 231 in3 = 3.785411784 L).
+    expect(toBase(1, 'USgal')).toBeCloseTo(0.003785411784, 15);
+    // Source: NIST SP 811, Appendix B.8: gallon (U.S.) per minute (gpm) = 6.309 020 E-05 m3/s.
+    expect(toBase(1, 'gpm')).toBeCloseTo(6.30901964e-5, 13);
+    expect(convert(100, 'gpm', 'm3/h')).toBeCloseTo(22.71247070, 7);
+    expect(convert(1, 'USgal/min', 'gpm')).toBeCloseTo(1, 12);
+  });
+
+  it('inch of mercury', () => {
+    // Source: NIST SP 811, Appendix B.8: inch of mercury, conventional (inHg) = 3.386 389 E+03 Pa.
+    expect(toBase(1, 'inHg')).toBeCloseTo(3386.389, 6);
+    expect(convert(29.92, 'inHg', 'kPa')).toBeCloseTo(101.3207589, 6);
+  });
+
+  it('metric tonne', () => {
+    // Source: NIST SP 811, Appendix B.8: ton, metric (t) = 1.0 E+03 kg.
+    expect(toBase(1, 't')).toBe(1000);
+    expect(convert(2.5, 't/h', 'kg/h')).toBeCloseTo(2500, 9);
+  });
+});
+
+describe('gauge and absolute pressure', () => {
+  it('converts gauge to absolute with the standard atmosphere', () => {
+    // Source: NIST SP 811, Appendix B.8: standard atmosphere (atm) = 1.013 25 E+05 Pa; gauge = absolute - atmosphere.
+    expect(toBase(0, 'kPag')).toBe(101325);
+    expect(convert(0, 'barg', 'bara')).toBeCloseTo(1.01325, 12);
+    expect(convert(100, 'kPag', 'kPaa')).toBeCloseTo(201.325, 9);
+    expect(convert(1, 'atm', 'kPag')).toBeCloseTo(0, 9);
+    // Source: NIST SP 811, Appendix B.8: 1 atm = 14.695 95 psi, so 0 psig = 14.69595 psia.
+    expect(convert(0, 'psig', 'psia')).toBeCloseTo(14.6959488, 6);
+    expect(convert(250, 'kPag', 'barg')).toBeCloseTo(2.5, 12);
+  });
+
+  it('converts a gauge difference without the atmosphere', () => {
+    // Source: common practice: a pressure difference is the same in gauge and absolute terms.
+    expect(convertDifference(50, 'kPag', 'kPaa')).toBeCloseTo(50, 12);
+  });
+
+  it('names the reference of each pressure unit and says when a comparison crosses them', () => {
+    expect(pressureReference('kPag')).toBe('gauge');
+    expect(pressureReference('psig')).toBe('gauge');
+    expect(pressureReference('kPaa')).toBe('absolute');
+    expect(pressureReference('kPa')).toBe('absolute');
+    expect(pressureReference('degC')).toBe(null);
+    expect(pressureConversionNote('kPag', 'kPa')).toContain('101.325 kPa');
+    expect(pressureConversionNote('barg', 'kPag')).toBe('');
+  });
+
+  it('a gauge setpoint against an absolute limit is judged after conversion, and the message says so', () => {
+    // 150 kPag = 251.325 kPa(abs): above a 250 kPa absolute high limit, although 150 < 250 on paper.
+    const text = `---
+id: FX-P-001
+title: Pressure test
+kind: normal
+revision: 0
+status: draft
+signals:
+  PI-1: { text: Vessel pressure (absolute), unit: kPa, range: [0, 600] }
+limits:
+  PI-1: { high: 250 kPa, consequence: Overpressure, correction: Vent }
+steps:
+  - step: press
+    do: Pressurise the vessel.
+    set: { PI-1: 150 kPag }
+    until: PI-1 >= 150 kPag
+---
+`;
+    const result = checkSources([{ file: 'p.md', text }], { today: '2026-12-01' });
+    const d = result.diagnostics.find((x) => x.rule === 'setpoint-outside-limits');
+    expect(d?.message).toContain('above its high operating limit 250 kPa');
+    expect(d?.message).toContain('101.325 kPa');
+    expect(parseQuantity('150 kPag')).toEqual({ ok: true, value: 150, unit: 'kPag' });
+  });
+});
