@@ -1,9 +1,9 @@
 // Reads every procedure's revisions from git once per site build, for the revision, redline and audit pages.
-import { resolve } from 'node:path';
+import { isAbsolute, resolve } from 'node:path';
 import { readProcedure } from '../check/run-checks.ts';
 import { buildHistoryView, type HistoryView, type RevisionEntry } from '../history/history-view.ts';
 import { revisionInForce } from '../history/in-force.ts';
-import { readHistory } from '../history/revisions.ts';
+import { readHistories } from '../history/revisions.ts';
 import { buildProcedureView, type ProcedureView } from '../render/manual.ts';
 import { siteManual } from './load-manual.ts';
 import { openRepository, repoPath } from './repository.ts';
@@ -22,17 +22,27 @@ async function loadHistories(): Promise<Map<string, HistoryView>> {
   const io = { cwd: process.cwd(), env: process.env };
   const repo = await openRepository(io);
   const out = new Map<string, HistoryView>();
-  await Promise.all(view.procedures.map(async (p) => {
-    const input = loaded.inputs.find((i) => i.file === p.file);
-    const text = input && 'text' in input ? input.text : undefined;
-    const identity = { id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status };
-    if (!repo) {
-      out.set(p.id, buildHistoryView({ path: p.file, revisions: [], shallow: false, notice: 'This manual was built outside a git checkout, so no earlier revisions are available.' }, identity));
-      return;
+  const identity = (p: ProcedureView) => ({ id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status });
+  if (!repo) {
+    for (const p of view.procedures) {
+      out.set(p.id, buildHistoryView({ path: p.file, revisions: [], shallow: false, notice: 'This manual was built outside a git checkout, so no earlier revisions are available.' }, identity(p)));
     }
-    const history = await readHistory(repo.git, repoPath(repo, resolve(io.cwd, p.file)), text);
-    out.set(p.id, buildHistoryView(history, identity));
-  }));
+    return out;
+  }
+  // A committed text the check has already read (usually the last commit's) is not read again.
+  const checked = new Map(loaded.result.files.flatMap((f) => (f.source ? [[f.source.text, f.procedure] as const] : [])));
+  const read = (path: string, text: string) => (checked.has(text) ? checked.get(text)! : readProcedure(path, text).procedure);
+  const texts = new Map(loaded.inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
+  const all = view.procedures.map((p) => ({ p, path: repoPath(repo, resolve(io.cwd, p.file)), workingText: texts.get(p.file) }));
+  // A procedures folder outside the repository has no history in it; git is not asked about it.
+  const outside = (path: string) => path === '..' || path.startsWith('../') || isAbsolute(path);
+  const files = all.filter((f) => !outside(f.path));
+  for (const { p } of all.filter((f) => outside(f.path))) {
+    out.set(p.id, buildHistoryView({ path: p.file, revisions: [], shallow: false, notice: `This procedure file is outside the git repository at ${repo.root}, so no earlier revisions are available.` }, identity(p)));
+  }
+  // One pass over git for every procedure's history.
+  const histories = await readHistories(repo.git, files, { read });
+  for (const { p, path } of files) out.set(p.id, buildHistoryView(histories.get(path)!, identity(p)));
   return out;
 }
 

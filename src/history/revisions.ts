@@ -1,7 +1,8 @@
 // Every committed revision of one procedure file (the commits where `revision` changed), plus uncommitted work as the next draft.
 import { readProcedure } from '../check/run-checks.ts';
 import type { Approval, Procedure } from '../model/procedure.ts';
-import { fileLog, type FileCommit } from './file-log.ts';
+import type { FileCommit } from './file-log.ts';
+import { fileLogs } from './repository-log.ts';
 import { isShallow, showFiles, type Git } from './git.ts';
 
 /** One commit of the file with the revision and status it recorded. */
@@ -55,39 +56,56 @@ export interface ProcedureHistory {
  * disk now (undefined when deleted or not read).
  */
 export async function readHistory(git: Git, path: string, workingText?: string): Promise<ProcedureHistory> {
-  const [log, shallow] = await Promise.all([fileLog(git, path), isShallow(git)]);
-  const oldestFirst = log.filter((c) => c.change !== 'D').reverse();
-  const shown = await showFiles(git, oldestFirst.map((c) => `${c.commit}:${c.path}`));
-  const texts = oldestFirst.map((c) => shown.get(`${c.commit}:${c.path}`));
+  return (await readHistories(git, [{ path, workingText }])).get(path)!;
+}
 
-  const revisions: Revision[] = [];
-  oldestFirst.forEach((commit, i) => {
-    const text = texts[i];
-    if (text === undefined) return;
-    const procedure = readProcedure(commit.path, text).procedure;
-    const revision = revisionOf(procedure);
-    const version: VersionCommit = { ...commit, revision, status: procedure?.status ?? '' };
-    const last = revisions[revisions.length - 1];
-    if (last && last.revision === revision) {
-      last.commits.push(version);
-      last.commitTexts.push(text);
-      Object.assign(last, describe(procedure), { latest: version, path: commit.path, text, procedure });
-    } else {
-      revisions.push({ revision, ...describe(procedure), introduced: version, latest: version, commits: [version], commitTexts: [text], path: commit.path, text, procedure, complete: true });
+export interface HistoryOptions {
+  /** Reads a committed text into the model; lets a caller reuse what it has already read (same text, same result). */
+  read?: (path: string, text: string) => Procedure | null;
+}
+
+/**
+ * The histories of many files from a fixed number of git processes, however many files and commits there are:
+ * one log of their common folder, one `cat-file --batch` for every text, and one shallow-clone question.
+ */
+export async function readHistories(git: Git, files: ReadonlyArray<{ path: string; workingText?: string }>, options: HistoryOptions = {}): Promise<Map<string, ProcedureHistory>> {
+  const read = options.read ?? ((path: string, text: string) => readProcedure(path, text).procedure);
+  const [logs, shallow] = await Promise.all([fileLogs(git, files.map((f) => f.path)), isShallow(git)]);
+  const oldestFirstOf = new Map(files.map(({ path }) => [path, logs.get(path)!.filter((c) => c.change !== 'D').reverse()]));
+  const shown = await showFiles(git, [...new Set([...oldestFirstOf.values()].flatMap((commits) => commits.map((c) => `${c.commit}:${c.path}`)))]);
+  const out = new Map<string, ProcedureHistory>();
+  for (const { path, workingText } of files) {
+    const oldestFirst = oldestFirstOf.get(path)!;
+    const revisions: Revision[] = [];
+    for (const commit of oldestFirst) {
+      const text = shown.get(`${commit.commit}:${commit.path}`);
+      if (text === undefined) continue;
+      const procedure = read(commit.path, text);
+      const revision = revisionOf(procedure);
+      const version: VersionCommit = { ...commit, revision, status: procedure?.status ?? '' };
+      const last = revisions[revisions.length - 1];
+      if (last && last.revision === revision) {
+        last.commits.push(version);
+        last.commitTexts.push(text);
+        Object.assign(last, describe(procedure), { latest: version, path: commit.path, text, procedure });
+      } else {
+        revisions.push({ revision, ...describe(procedure), introduced: version, latest: version, commits: [version], commitTexts: [text], path: commit.path, text, procedure, complete: true });
+      }
     }
-  });
 
-  const cut = shallow && oldestFirst.length > 0 && !oldestFirst[0].hasParents;
-  if (cut) revisions[0].complete = false;
-  const history: ProcedureHistory = { path, revisions, shallow };
-  if (cut) history.notice = shallowNotice(oldestFirst[0], revisions[0]?.revision ?? null);
+    const cut = shallow && oldestFirst.length > 0 && !oldestFirst[0].hasParents;
+    if (cut && revisions[0]) revisions[0].complete = false;
+    const history: ProcedureHistory = { path, revisions, shallow };
+    if (cut) history.notice = shallowNotice(oldestFirst[0], revisions[0]?.revision ?? null);
 
-  const latest = revisions[revisions.length - 1];
-  if (workingText !== undefined && workingText !== latest?.text) {
-    const procedure = readProcedure(path, workingText).procedure;
-    history.draft = { revision: revisionOf(procedure), status: procedure?.status ?? '', text: workingText, procedure };
+    const latest = revisions[revisions.length - 1];
+    if (workingText !== undefined && workingText !== latest?.text) {
+      const procedure = read(path, workingText);
+      history.draft = { revision: revisionOf(procedure), status: procedure?.status ?? '', text: workingText, procedure };
+    }
+    out.set(path, history);
   }
-  return history;
+  return out;
 }
 
 export function shallowNotice(boundary: FileCommit, revision: number | null): string {
