@@ -10,6 +10,7 @@ import { collectFacts, type ProcedureFacts } from '../analysis/procedure-facts.t
 import { toDiagnostic, type FileContext, type FileHistory, type Report, type Rule, type RuleMeta } from './define-rule.ts';
 import { applyWaivers, type WaivedDiagnostic } from './waivers.ts';
 import { allRules } from './rules/index.ts';
+import { cacheKey, type ResultCache } from './result-cache.ts';
 
 export type SourceInput = { file: string; text: string } | { file: string; error: string };
 
@@ -27,6 +28,11 @@ export interface CheckOptions {
   register?: PlantRegister;
   /** Longest time between two certifications of a procedure in use, in months (default 12). */
   certificationIntervalMonths?: number;
+  /**
+   * Per-file results kept between runs. `salt` must name everything the file rules depend on besides the file,
+   * the date and its previous version: the Stepwright code (stepwrightStamp()) and the configuration text.
+   */
+  cache?: { store: ResultCache; salt: string };
 }
 
 export interface CheckedFile {
@@ -69,24 +75,45 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     sink.get(context)!.push(toDiagnostic(meta, severity, context.source, report));
   };
 
+  // Everything besides the file itself that the file rules read goes into each key.
+  const ruleIds = rules.map((r) => `${r.scope}:${r.meta.id}`).join(',');
+  const shared = options.cache
+    ? cacheKey([options.cache.salt, ruleIds, String(options.certificationIntervalMonths ?? 12), options.register?.folder,
+      ...(options.register?.sources ?? []).flatMap((s) => [s.file, s.source.text])])
+    : '';
   for (const input of inputs) {
     // An unreadable file still gets a context, so that its one diagnostic goes through the rules like any other.
     const readError = 'error' in input ? input.error : undefined;
     const { source, procedure, schemaIssues, facts } = 'text' in input ? readProcedure(input.file, input.text, options.register) : unreadable(input.file);
     let current: RuleMeta = rules[0]?.meta;
+    const previous = readError === undefined ? options.previous?.(input.file) : undefined;
+    let history: FileHistory | undefined | null = null;
     const context: FileContext = {
       file: input.file, source, procedure, schemaIssues, facts, today: options.today, readError,
       register: options.register, certificationIntervalMonths: options.certificationIntervalMonths ?? 12,
-      history: readError === undefined ? readPrevious(input.file, options) : undefined,
+      // The previous version is read only when a rule asks for it: a file found in the cache needs no second parse.
+      get history() {
+        if (history === null) history = previous ? readPrevious(input.file, previous) : undefined;
+        return history;
+      },
       report: (report) => emit(context, current, report),
     };
     sink.set(context, []);
     contexts.push(context);
+    const key = options.cache && 'text' in input
+      ? cacheKey([shared, input.file, input.text, options.today, previous?.commit, previous?.text])
+      : undefined;
+    const known = key ? options.cache!.store.get<Diagnostic[]>(key) : undefined;
+    if (Array.isArray(known)) {
+      sink.get(context)!.push(...known);
+      continue;
+    }
     for (const rule of rules) {
       if (rule.scope !== 'file') continue;
       current = rule.meta;
       runGuarded(rule, () => rule.check(context), context, emit);
     }
+    if (key) options.cache!.store.set(key, sink.get(context));
   }
 
   const registerDiagnostics: Diagnostic[] = [];
@@ -133,9 +160,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   };
 }
 
-function readPrevious(file: string, options: CheckOptions): FileHistory | undefined {
-  const previous = options.previous?.(file);
-  if (!previous) return undefined;
+function readPrevious(file: string, previous: { text: string; commit: string }): FileHistory {
   const { source, procedure } = readProcedure(file, previous.text);
   return { commit: previous.commit, text: previous.text, source, procedure };
 }

@@ -11,6 +11,7 @@ import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { loadConfig } from './load-config.ts';
 import { loadRegister } from './load-register.ts';
+import { commandCache } from './command-cache.ts';
 
 export const checkHelp = `Usage: stepwright check [options] [paths…]
 
@@ -59,7 +60,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   const register = loadRegister(io.cwd, configured.file?.file, configured.config.register);
   const checked = checkSources(inputs, {
     today: todayOf(io), previous: history.previous, severity: configured.policy, register,
-    certificationIntervalMonths: configured.config.certificationIntervalMonths,
+    certificationIntervalMonths: configured.config.certificationIntervalMonths, cache: commandCache(io, configured.file?.text),
   });
   const result = { ...checked, diagnostics: [...configured.diagnostics, ...checked.diagnostics] };
   const shown = values.quiet ? result.diagnostics.filter((d) => d.severity === 'error') : result.diagnostics;

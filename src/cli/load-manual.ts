@@ -6,6 +6,7 @@ import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from './format-diagnostics.ts';
 import { loadConfig } from './load-config.ts';
 import { loadRegister } from './load-register.ts';
+import { commandCache } from './command-cache.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { procedureStamp, tolerantManualView } from './dev-manual.ts';
 
@@ -57,7 +58,10 @@ export function loadManual(options: LoadOptions): LoadedManual {
   // The site judges procedures by the same stepwright.config.yaml as `stepwright check`.
   const configured = loadConfig(options);
   const register = loadRegister(options.cwd, configured.file?.file, configured.config.register);
-  const result = checkSources(inputs, { today, severity: configured.policy, register, certificationIntervalMonths: configured.config.certificationIntervalMonths });
+  const result = checkSources(inputs, {
+    today, severity: configured.policy, register, certificationIntervalMonths: configured.config.certificationIntervalMonths,
+    cache: commandCache(options, configured.file?.text),
+  });
   const errors = result.diagnostics.filter((d) => d.severity === 'error').length;
   const view = errors === 0 ? buildManualView({ files: result.files, root, today }) : undefined;
   return { root, today, todaySource: source, inputs, result, errors, view };

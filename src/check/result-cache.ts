@@ -1,0 +1,141 @@
+// A content-addressed store of per-file results on disk (by default .stepwright/cache/): an entry is found by
+// the hash of everything the result depends on, so an edited file, another config or another Stepwright simply
+// misses. An entry that is unreadable, cut short, altered or written for another key is ignored, never trusted;
+// the folder may be deleted at any time.
+import { createHash } from 'node:crypto';
+import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+
+/** Bumped when the layout of an entry changes; part of every key. */
+const entryFormat = 'stepwright-cache-1';
+
+export interface ResultCache {
+  /** The value stored under the key, or undefined when there is none or it cannot be trusted. */
+  get<T>(key: string): T | undefined;
+  set(key: string, value: unknown): void;
+  /** Entries found and used, missed, and refused as corrupt or stale in this run. */
+  readonly stats: { hits: number; misses: number; refused: number };
+}
+
+/** The key for a list of parts: a hash, so no part can be mistaken for another. */
+export function cacheKey(parts: ReadonlyArray<string | undefined>): string {
+  const hash = createHash('sha256');
+  hash.update(entryFormat);
+  for (const part of parts) {
+    // Each part is framed by its length, so ("ab", "c") and ("a", "bc") differ.
+    const text = part ?? '\u0000absent';
+    hash.update(`\u0000${text.length}\u0000`);
+    hash.update(text);
+  }
+  return hash.digest('hex');
+}
+
+export function openResultCache(dir: string): ResultCache {
+  const stats = { hits: 0, misses: 0, refused: 0 };
+  const pathOf = (key: string) => join(dir, key.slice(0, 2), `${key}.json`);
+  let broken = false;
+  return {
+    stats,
+    get<T>(key: string): T | undefined {
+      let raw: string;
+      try {
+        raw = readFileSync(pathOf(key), 'utf8');
+      } catch {
+        stats.misses++;
+        return undefined;
+      }
+      try {
+        const entry = JSON.parse(raw) as { format?: unknown; key?: unknown; sum?: unknown; value?: unknown };
+        const body = JSON.stringify(entry.value);
+        if (entry.format !== entryFormat || entry.key !== key || typeof body !== 'string' || entry.sum !== sumOf(body)) throw new Error('stale or altered');
+        stats.hits++;
+        return entry.value as T;
+      } catch {
+        // Cut short, garbled, or written by another version: read the file afresh instead.
+        stats.refused++;
+        try {
+          rmSync(pathOf(key), { force: true });
+        } catch {
+          // A read-only cache is still only a cache.
+        }
+        return undefined;
+      }
+    },
+    set(key: string, value: unknown): void {
+      if (broken) return;
+      const path = pathOf(key);
+      const body = JSON.stringify(value);
+      const tmp = `${path}.tmp-${process.pid}-${Math.random().toString(36).slice(2)}`;
+      try {
+        mkdirSync(dirname(path), { recursive: true });
+        // Written aside and renamed into place: a reader never sees half an entry from this writer.
+        writeFileSync(tmp, `{"format":${JSON.stringify(entryFormat)},"key":${JSON.stringify(key)},"sum":${JSON.stringify(sumOf(body))},"value":${body}}`);
+        renameSync(tmp, path);
+      } catch {
+        // A full disk or a read-only folder: go on without caching rather than fail the check.
+        broken = true;
+        try {
+          rmSync(tmp, { force: true });
+        } catch {
+          // Nothing was written.
+        }
+      }
+    },
+  };
+}
+
+function sumOf(body: string): string {
+  return createHash('sha256').update(body).digest('hex');
+}
+
+let codeStamp: string | undefined;
+
+/**
+ * What identifies this Stepwright: its version and the size and time of every file of its own code, so that a
+ * changed rule (even in a working copy at the same version) never meets results from the old one.
+ */
+export function stepwrightStamp(): string {
+  if (codeStamp !== undefined) return codeStamp;
+  const root = packageRoot(import.meta.dirname);
+  const hash = createHash('sha256');
+  try {
+    const manifest = readFileSync(join(root, 'package.json'));
+    if ((JSON.parse(manifest.toString('utf8')) as { name?: unknown }).name !== 'stepwright') throw new Error('not our package');
+    hash.update(manifest);
+  } catch {
+    // Code bundled away from its package (or a damaged install): nothing can say which code this is, so this
+    // run's results are never reused by another run.
+    codeStamp = `unknown-${process.pid}-${Date.now()}-${Math.random()}`;
+    return codeStamp;
+  }
+  for (const folder of ['src', 'dist']) {
+    const walk = (dir: string) => {
+      let names: string[];
+      try {
+        names = readdirSync(dir).sort();
+      } catch {
+        return;
+      }
+      for (const name of names) {
+        const full = join(dir, name);
+        const s = statSync(full, { throwIfNoEntry: false });
+        if (!s) continue;
+        if (s.isDirectory()) walk(full);
+        else hash.update(`${full.slice(root.length)}\u0000${s.size}\u0000${s.mtimeMs}\n`);
+      }
+    };
+    walk(join(root, folder));
+  }
+  codeStamp = hash.digest('hex');
+  return codeStamp;
+}
+
+function packageRoot(from: string | undefined): string {
+  let dir = from ?? '/';
+  for (;;) {
+    if (statSync(join(dir, 'package.json'), { throwIfNoEntry: false })?.isFile()) return dir;
+    const up = dirname(dir);
+    if (up === dir) return dir;
+    dir = up;
+  }
+}

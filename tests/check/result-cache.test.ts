@@ -1,0 +1,114 @@
+// The per-file result cache: a warm check says exactly what a cold one says; an edited file, another config or
+// another Stepwright misses; a corrupt or stale entry is refused, never trusted; cross-file rules always run.
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
+import { cacheKey, openResultCache, stepwrightStamp } from '../../src/check/result-cache.ts';
+import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
+
+const today = '2026-12-01';
+const demo = readProcedureFiles(['procedures'], process.cwd());
+let dir: string;
+
+beforeEach(() => {
+  dir = mkdtempSync(join(tmpdir(), 'stepwright-cache-'));
+});
+afterEach(() => rmSync(dir, { recursive: true, force: true }));
+
+const entries = () => readdirSync(dir, { recursive: true }).map(String).filter((f) => f.endsWith('.json')).map((f) => join(dir, f));
+const check = (inputs: SourceInput[], salt = 'v1', store = openResultCache(dir)) => ({ store, result: checkSources(inputs, { today, cache: { store, salt } }) });
+const withText = (inputs: SourceInput[], file: string, edit: (text: string) => string): SourceInput[] =>
+  inputs.map((i) => (i.file === file && 'text' in i ? { file, text: edit(i.text) } : i));
+/** A demo procedure with a warning of its own, so a wrong cached answer would show. */
+const noisy = (text: string) => text.replace(/\bdo: /, 'do: Adjust the valve as required and check it. ');
+
+describe('result cache', () => {
+  it('gives the same diagnostics warm as cold, from the cache', () => {
+    const inputs = withText(demo, demo[0].file, noisy);
+    const cold = check(inputs);
+    expect(cold.store.stats).toMatchObject({ hits: 0, misses: inputs.length });
+    const warm = check(inputs);
+    expect(warm.store.stats).toMatchObject({ hits: inputs.length, misses: 0, refused: 0 });
+    expect(warm.result.diagnostics).toEqual(cold.result.diagnostics);
+    expect(warm.result.diagnostics).toEqual(checkSources(inputs, { today }).diagnostics);
+    expect(cold.result.diagnostics.length).toBeGreaterThan(0);
+  });
+
+  it('re-checks only the edited file, and cross-file rules still see every file', () => {
+    check(demo);
+    const first = demo.find((i) => 'text' in i)!;
+    const id = /^id: (.+)$/m.exec((first as { text: string }).text)![1];
+    // A second file now claims the first one's id: only it is re-read by the file rules.
+    const second = demo.find((i) => i !== first && 'text' in i)!;
+    const edited = withText(demo, second.file, (t) => t.replace(/^id: .+$/m, `id: ${id}`));
+    const { store, result } = check(edited);
+    expect(store.stats).toMatchObject({ hits: demo.length - 1, misses: 1 });
+    expect(result.diagnostics.filter((d) => d.rule === 'duplicate-procedure-id').length).toBeGreaterThan(0);
+    expect(result.diagnostics).toEqual(checkSources(edited, { today }).diagnostics);
+  });
+
+  it('misses for another Stepwright, another config, another date or another previous version', () => {
+    const inputs = demo.slice(0, 3);
+    check(inputs, 'v1');
+    expect(check(inputs, 'v2').store.stats.hits).toBe(0);
+    const store = openResultCache(dir);
+    checkSources(inputs, { today: '2027-01-01', cache: { store, salt: 'v1' } });
+    expect(store.stats.hits).toBe(0);
+    const withPrevious = openResultCache(dir);
+    checkSources(inputs, { today, cache: { store: withPrevious, salt: 'v1' }, previous: () => ({ text: (inputs[0] as { text: string }).text, commit: 'abc1234' }) });
+    expect(withPrevious.stats.hits).toBe(0);
+  });
+
+  it('refuses an entry cut short, garbled or altered, and answers as a cold check does', () => {
+    const inputs = withText(demo, demo[0].file, noisy);
+    const cold = check(inputs).result.diagnostics;
+    const files = entries();
+    expect(files.length).toBe(inputs.length);
+    const text = readFileSync(files[0], 'utf8');
+    writeFileSync(files[0], text.slice(0, Math.floor(text.length / 2)));
+    writeFileSync(files[1], '\u0000\u00ff garbage');
+    // Valid JSON whose diagnostics were changed by hand: the checksum no longer fits.
+    for (const file of files.slice(2)) {
+      const entry = JSON.parse(readFileSync(file, 'utf8'));
+      entry.value = [{ file: 'x.md', line: 1, column: 1, severity: 'info', rule: 'forged', message: 'forged' }, ...entry.value];
+      writeFileSync(file, JSON.stringify(entry));
+    }
+    const { store, result } = check(inputs);
+    expect(store.stats).toMatchObject({ hits: 0, refused: inputs.length });
+    expect(result.diagnostics).toEqual(cold);
+    // The refused entries were replaced with good ones.
+    expect(check(inputs).store.stats.hits).toBe(inputs.length);
+  });
+
+  it('refuses an entry moved to another key', () => {
+    const store = openResultCache(dir);
+    store.set(cacheKey(['a']), ['answer for a']);
+    const [file] = entries();
+    const other = cacheKey(['b']);
+    mkdirSync(join(dir, other.slice(0, 2)), { recursive: true });
+    writeFileSync(join(dir, other.slice(0, 2), `${other}.json`), readFileSync(file));
+    expect(openResultCache(dir).get(other)).toBeUndefined();
+    expect(openResultCache(dir).get(cacheKey(['a']))).toEqual(['answer for a']);
+  });
+
+  it('works when the folder is deleted between runs or cannot be written', () => {
+    check(demo.slice(0, 2));
+    rmSync(dir, { recursive: true, force: true });
+    expect(check(demo.slice(0, 2)).store.stats.misses).toBe(2);
+    expect(existsSync(dir)).toBe(true);
+    // A file where the folder should be: nothing can be written, and the check goes on without the cache.
+    rmSync(dir, { recursive: true, force: true });
+    writeFileSync(dir, 'a file where the folder should be');
+    expect(check(demo.slice(0, 2)).result.diagnostics).toEqual(checkSources(demo.slice(0, 2), { today }).diagnostics);
+    rmSync(dir, { force: true });
+  });
+
+  it('keys by every part, framed so parts cannot run together', () => {
+    expect(cacheKey(['ab', 'c'])).not.toBe(cacheKey(['a', 'bc']));
+    expect(cacheKey(['a', undefined])).not.toBe(cacheKey(['a', '']));
+    expect(cacheKey(['a'])).toBe(cacheKey(['a']));
+    expect(stepwrightStamp()).toMatch(/^[0-9a-f]{64}$/);
+  });
+});
