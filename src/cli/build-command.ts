@@ -6,6 +6,9 @@ import { parseArgs } from 'node:util';
 import { formatCheckFailure, loadManual } from './load-manual.ts';
 import { useColour, type CliIo } from './io.ts';
 import { writeOfflineCopy } from './write-offline-copy.ts';
+import { indexSite } from './index-site.ts';
+import { publishSite, recoverSite } from './publish-site.ts';
+import { manifestFile, readPrivateKey, writeSiteManifest } from './site-manifest.ts';
 import { siteConfig } from '../site/astro-config.ts';
 
 export const buildHelp = `Usage: stepwright build [options] [folder]
@@ -18,6 +21,12 @@ The review date marks use $STEPWRIGHT_TODAY or the date of the last commit, so b
 Options:
   --out <dir>     where the site goes (default: dist)
   --no-index      skip the search index
+  --sign-key <f>  sign the site's manifest with this ed25519 private key (from 'stepwright keygen';
+                  default: $STEPWRIGHT_SIGNING_KEY). Every build writes ${manifestFile},
+                  the SHA-256 of every published file, for 'stepwright verify'.
+
+The output path is a link to the newest complete build in <out>.versions/, replaced in one step, so it
+holds a complete site at every moment, even when a build is killed.
   -h, --help      show this help
 
 Exit codes: 0 built, 1 check errors or a failed build, 2 usage or internal failure.
@@ -33,7 +42,10 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { out: { type: 'string', default: 'dist' }, 'no-index': { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } },
+    options: {
+      out: { type: 'string', default: 'dist' }, 'no-index': { type: 'boolean', default: false }, 'sign-key': { type: 'string' },
+      help: { type: 'boolean', short: 'h' },
+    },
     strict: true,
   });
   if (values.help) {
@@ -46,6 +58,19 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   const loaded = loadManual({ cwd: io.cwd, env });
   if (loaded.result.diagnostics.length > 0 || loaded.errors > 0) io.stdout.write(formatCheckFailure(loaded, useColour(io, io.stdout)));
   const outDir = resolve(io.cwd, values.out);
+  // A build killed while publishing can leave the output path without a site: put the newest back first.
+  const recovered = recoverSite(outDir);
+  if (recovered) io.stderr.write(`stepwright build: ${recovered}.\n`);
+  const signKeyPath = values['sign-key'] ?? (io.env.STEPWRIGHT_SIGNING_KEY?.trim() || undefined);
+  let privateKey: ReturnType<typeof readPrivateKey> | undefined;
+  if (signKeyPath) {
+    try {
+      privateKey = readPrivateKey(resolve(io.cwd, signKeyPath));
+    } catch (error) {
+      io.stderr.write(`stepwright build: the signing key ${signKeyPath} could not be read: ${(error as Error).message}\n`);
+      return 1;
+    }
+  }
   if (loaded.errors > 0 || !loaded.view) {
     io.stderr.write(`stepwright build: stopped, the procedures have ${loaded.errors} error${loaded.errors === 1 ? '' : 's'}. ${existsSync(outDir) ? `The last good site in ${relative(io.cwd, outDir) || '.'}/ is unchanged.` : 'No site was written.'}\n`);
     return 1;
@@ -79,11 +104,13 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
     await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`) });
+    // Very last: the SHA-256 of every file, signed when a key is given.
+    writeSiteManifest(work, { privateKey });
     if (work !== tmp) {
       cpSync(work, tmp, { recursive: true });
       rmSync(work, { recursive: true, force: true });
     }
-    swapInto(tmp, outDir);
+    publishSite(tmp, outDir);
   } catch (error) {
     rmSync(work, { recursive: true, force: true });
     rmSync(tmp, { recursive: true, force: true });
@@ -101,28 +128,6 @@ function isInside(path: string, folder: string): boolean {
   return path.startsWith(folder.endsWith(sep) ? folder : folder + sep);
 }
 
-async function indexSite(dir: string): Promise<void> {
-  const pagefind = await import('pagefind');
-  try {
-    const { index, errors } = await pagefind.createIndex({});
-    if (!index) throw new Error(`pagefind: ${errors.join('; ')}`);
-    const added = await index.addDirectory({ path: dir });
-    if (added.errors.length) throw new Error(`pagefind: ${added.errors.join('; ')}`);
-    const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
-    if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
-  } finally {
-    await pagefind.close();
-  }
-}
-
-/** Two renames: the old site stays whole until the new one is complete. */
-function swapInto(tmp: string, outDir: string): void {
-  const old = `${outDir}.old-${process.pid}`;
-  if (existsSync(outDir)) renameSync(outDir, old);
-  renameSync(tmp, outDir);
-  rmSync(old, { recursive: true, force: true });
-}
-
 /** Removes temporary folders left by builds that were killed (their process is gone). */
 export function removeStaleTemporaries(outDir: string): void {
   const parent = dirname(outDir);
@@ -134,7 +139,7 @@ export function removeStaleTemporaries(outDir: string): void {
     return;
   }
   for (const name of names) {
-    const m = new RegExp(`^${prefix.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}(tmp|old)-(\\d+)$`).exec(name);
+    const m = new RegExp(`^${prefix.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}(tmp|old|link)-(\\d+)$`).exec(name);
     if (!m || Number(m[2]) === process.pid || isAlive(Number(m[2]))) continue;
     if (m[1] === 'old' && !existsSync(outDir)) {
       // A build died between the two renames: the old site is still the last good one.

@@ -1,22 +1,32 @@
 // `stepwright verify DIST`: checks that every procedure page of a published site was built from the sources as they are.
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { integrityMeta, sourceDigest, sourceKey } from '../render/source-integrity.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
+import { describeSite, recoverSite } from './publish-site.ts';
+import { checkSiteManifest, manifestFile, publicKeyFile, readPublicKey, signatureFile } from './site-manifest.ts';
 
 export const verifyHelp = `Usage: stepwright verify [options] <site folder>
 
-Compares a published manual with the procedure sources. Every procedure page carries the SHA-256 of
-the source text it was built from; verify names every page whose source has changed or is gone, and
-every source that has no page.
+Checks a published manual, whole. First every file against the build's manifest (${manifestFile},
+the SHA-256 of every published file): a changed page, an added or a removed file is named. With the
+plant's public key the manifest's ed25519 signature is checked too, so a forged manifest is named.
+Then every procedure page against the procedure sources: each page carries the SHA-256 of the source
+text it was built from; verify names every page whose source has changed or is gone, and every source
+that has no page. It also says what it found at the site path (a link to a published version, a folder,
+or nothing because a build was stopped while publishing).
 
 Options:
   --procedures <dir>   the procedure sources (default: $STEPWRIGHT_PROCEDURES or procedures/)
+  --public-key <file>  the ed25519 public key from 'stepwright keygen' (default: $STEPWRIGHT_PUBLIC_KEY,
+                       else ${publicKeyFile} in the current folder when it exists)
+  --repair             when a stopped build left no site at the path, put the newest complete one back
   -h, --help           show this help
 
-Exit codes: 0 every page matches its source, 1 a page or a source does not match, 2 usage failure.
+Exit codes: 0 everything matches, 1 a file, the signature, a page or a source does not match, or there is
+no site, 2 usage failure.
 `;
 
 export interface PageStamp {
@@ -38,7 +48,7 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { procedures: { type: 'string' }, help: { type: 'boolean', short: 'h' } },
+    options: { procedures: { type: 'string' }, 'public-key': { type: 'string' }, repair: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } },
     strict: true,
   });
   if (values.help) {
@@ -46,10 +56,57 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   if (positionals.length !== 1) throw new UsageError('Give one site folder, e.g. stepwright verify dist');
-  const site = resolve(io.cwd, positionals[0]);
-  if (!isDirectory(site)) throw new UsageError(`No site folder at ${positionals[0]}.`);
+  const sitePath = resolve(io.cwd, positionals[0]);
   const folder = values.procedures ?? (io.env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures');
   if (!isDirectory(resolve(io.cwd, folder))) throw new UsageError(`No procedures folder at ${folder}.`);
+  const keyPath = values['public-key'] ?? (io.env.STEPWRIGHT_PUBLIC_KEY?.trim() || (existsSync(resolve(io.cwd, publicKeyFile)) ? publicKeyFile : undefined));
+  let publicKey: ReturnType<typeof readPublicKey> | undefined;
+  if (keyPath) {
+    try {
+      publicKey = readPublicKey(resolve(io.cwd, keyPath));
+    } catch (error) {
+      throw new UsageError(`The public key ${keyPath} could not be read: ${(error as Error).message}`);
+    }
+  }
+  if (values.repair) {
+    const repaired = recoverSite(sitePath);
+    if (repaired) io.stdout.write(`Repaired: ${repaired}.\n`);
+  }
+  const found = describeSite(sitePath);
+  if (!found.exists) {
+    io.stdout.write(`${found.text}.\n`);
+    return 1;
+  }
+  const site = found.folder;
+  if (!isDirectory(site)) throw new UsageError(`No site folder at ${positionals[0]}.`);
+  if (found.text.includes('links to')) io.stdout.write(`${found.text}.\n`);
+
+  // The whole site against the build's manifest (and its signature).
+  const manifest = checkSiteManifest(site, { publicKey });
+  const showFile = (path: string) => relative(io.cwd, join(sitePath, path)) || path;
+  let fileProblems = 0;
+  if (manifest.missing) {
+    fileProblems++;
+    io.stdout.write(`${showFile(manifestFile)}: missing; the files of the site cannot be checked (built by an older version, or the manifest was removed).\n`);
+  } else if (manifest.unreadable) {
+    fileProblems++;
+    io.stdout.write(`${showFile(manifestFile)}: not a readable manifest (${manifest.unreadable}).\n`);
+  }
+  if (manifest.signature === 'invalid') {
+    fileProblems++;
+    io.stdout.write(`${showFile(manifestFile)}: its signature does not match: the manifest was changed after the build, or signed with another key.\n`);
+  } else if (manifest.signature === 'missing') {
+    fileProblems++;
+    io.stdout.write(`${showFile(manifestFile)}: not signed (${signatureFile} is missing), but a public key was given.\n`);
+  }
+  for (const path of manifest.changed) io.stdout.write(`${showFile(path)}: changed since the build (its SHA-256 differs from the manifest)\n`);
+  for (const path of manifest.added) io.stdout.write(`${showFile(path)}: not in the manifest (added after the build)\n`);
+  for (const path of manifest.removed) io.stdout.write(`${showFile(path)}: in the manifest but missing from the site\n`);
+  fileProblems += manifest.changed.length + manifest.added.length + manifest.removed.length;
+  if (!manifest.missing && !manifest.unreadable) {
+    const signature = manifest.signature === 'valid' ? 'signature valid' : manifest.signature === 'not-checked' ? (existsSync(join(site, signatureFile)) ? 'signature not checked (no public key given)' : 'not signed') : 'signature NOT valid';
+    io.stdout.write(`Files: ${manifest.matching} match the manifest, ${manifest.changed.length} changed, ${manifest.added.length} added, ${manifest.removed.length} missing; ${signature}.\n`);
+  }
 
   const pages = readStamps(site);
   if (pages.length === 0) {
@@ -64,7 +121,7 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
     else unreadable.push(key);
   }
   const result = compareStamps(pages, sources);
-  const show = (page: string) => relative(io.cwd, join(site, page)) || page;
+  const show = (page: string) => relative(io.cwd, join(sitePath, page)) || page;
   for (const c of result.changed) io.stdout.write(`${show(c.page)}: does not match its source ${join(folder, c.source)} (page built from sha256 ${c.digest.slice(0, 12)}…, source is ${c.expected.slice(0, 12)}…)\n`);
   for (const o of result.orphaned) io.stdout.write(`${show(o.page)}: its source ${join(folder, o.source)} is not in ${folder}\n`);
   for (const s of result.unpublished) io.stdout.write(`${join(folder, s)}: has no page in ${positionals[0]}${unreadable.includes(s) ? ' (the file could not be read)' : ''}\n`);
@@ -72,7 +129,7 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
   io.stdout.write(problems === 0
     ? `All ${result.matching.length} procedure pages match their sources.\n`
     : `${problems} mismatch${problems === 1 ? '' : 'es'}: ${result.changed.length} changed, ${result.orphaned.length} without source, ${result.unpublished.length} without page; ${result.matching.length} pages match.\n`);
-  return problems === 0 ? 0 : 1;
+  return problems === 0 && fileProblems === 0 ? 0 : 1;
 }
 
 /** Pages against sources (path inside the procedures folder → digest). */

@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { integrityMeta, sourceDigest } from '../../src/render/source-integrity.ts';
 import { runCli } from './run-cli.ts';
+import { writeSiteManifest } from '../../src/cli/site-manifest.ts';
 
 const fixtures = join(import.meta.dirname, '../fixtures/rules/yaml-syntax');
 let dir: string;
@@ -18,6 +19,7 @@ function publish(sources: string, site: string) {
     writeFileSync(join(page, 'index.html'), `<!doctype html><html><head><meta charset="utf-8"><meta name="${integrityMeta.source}" content="${name}"><meta name="${integrityMeta.digest}" content="${sourceDigest(text)}"></head><body>${name}</body></html>`);
   }
   writeFileSync(join(site, 'index.html'), '<!doctype html><html><head><title>Home</title></head><body></body></html>');
+  writeSiteManifest(site);
 }
 
 beforeEach(() => {
@@ -31,7 +33,7 @@ afterEach(() => rmSync(dir, { recursive: true, force: true }));
 describe('stepwright verify', () => {
   it('passes when every page matches its source', async () => {
     const out = await runCli(['verify', 'dist'], dir);
-    expect(out.stdout).toBe('All 2 procedure pages match their sources.\n');
+    expect(out.stdout).toBe('Files: 3 match the manifest, 0 changed, 0 added, 0 missing; not signed.\nAll 2 procedure pages match their sources.\n');
     expect(out.code).toBe(0);
   });
 
@@ -57,7 +59,9 @@ describe('stepwright verify', () => {
     mkdirSync(join(dir, 'empty'));
     expect((await runCli(['verify', 'empty'], dir)).code).toBe(1);
     expect((await runCli(['verify'], dir)).code).toBe(2);
-    expect((await runCli(['verify', 'nowhere'], dir)).stderr).toMatch(/No site folder at nowhere/);
+    const nowhere = await runCli(['verify', 'nowhere'], dir);
+    expect(nowhere.stdout).toMatch(/no site at .*nowhere/);
+    expect(nowhere.code).toBe(1);
     expect((await runCli(['verify', 'dist', '--procedures', 'nope'], dir)).code).toBe(2);
   });
 });
