@@ -47,6 +47,10 @@ import registerDuplicateEntry from './register-duplicate-entry.ts';
 import registerUnknownEntry from './register-unknown-entry.ts';
 import registerEntryUnused from './register-entry-unused.ts';
 import registerConflict from './register-conflict.ts';
+import reviewDateMissing from './review-date-missing.ts';
+import reviewIntervalTooLong from './review-interval-too-long.ts';
+import temporaryWithoutEnd from './temporary-without-end.ts';
+import temporaryExpired from './temporary-expired.ts';
 import reviewOverdue from './review-overdue.ts';
 import revisionDecreased from './revision-decreased.ts';
 import revisionNotBumped from './revision-not-bumped.ts';
@@ -124,6 +128,10 @@ export const rules = {
   'register-unknown-entry': registerUnknownEntry,
   'register-entry-unused': registerEntryUnused,
   'register-conflict': registerConflict,
+  'review-date-missing': reviewDateMissing,
+  'review-interval-too-long': reviewIntervalTooLong,
+  'temporary-without-end': temporaryWithoutEnd,
+  'temporary-expired': temporaryExpired,
   'review-overdue': reviewOverdue,
   'revision-decreased': revisionDecreased,
   'revision-not-bumped': revisionNotBumped,

@@ -1,0 +1,51 @@
+// Document-control facts: the last certification of a procedure, the latest allowed review date, and which
+// temporary procedures are in force over which procedures.
+import type { Procedure } from '../model/procedure.ts';
+
+/** Adds whole months to a YYYY-MM-DD date; the day is clamped to the month's end (2026-08-31 + 6 → 2027-02-28). */
+export function addMonths(date: string, months: number): string {
+  const [y, m, d] = date.split('-').map(Number);
+  const total = y * 12 + (m - 1) + months;
+  const year = Math.floor(total / 12);
+  const month = (total % 12) + 1;
+  const last = new Date(Date.UTC(year, month, 0)).getUTCDate();
+  return `${String(year).padStart(4, '0')}-${String(month).padStart(2, '0')}-${String(Math.min(d, last)).padStart(2, '0')}`;
+}
+
+const isDate = (s: string | undefined): s is string => Boolean(s && /^\d{4}-\d{2}-\d{2}$/.test(s));
+
+/**
+ * The date the procedure was last confirmed current and accurate: its newest certification, or, before the first
+ * one, the day the revision took effect (approval of a revision is a review of its whole text).
+ */
+export function lastCertification(p: Procedure): { date: string; by: 'certification' | 'effective' } | undefined {
+  const certified = p.certifications.map((c) => c.date).filter(isDate).sort().at(-1);
+  const effective = isDate(p.effective) ? p.effective : undefined;
+  if (certified && (!effective || certified >= effective)) return { date: certified, by: 'certification' };
+  return effective ? { date: effective, by: 'effective' } : undefined;
+}
+
+export interface TemporaryInForce {
+  id: string;
+  title: string;
+  file: string;
+  expires?: string;
+}
+
+/**
+ * For each procedure id, the temporary procedures in force that modify it: approved or effective, kind temporary,
+ * and not past their end date on `today`. The site shows them on the modified procedure's page.
+ */
+export function temporaryProceduresInForce(procedures: Procedure[], today: string): Map<string, TemporaryInForce[]> {
+  const out = new Map<string, TemporaryInForce[]>();
+  for (const p of procedures) {
+    if (p.kind !== 'temporary' || !['approved', 'effective'].includes(String(p.status))) continue;
+    if (p.expires && p.expires < today) continue;
+    for (const target of p.modifies) {
+      const list = out.get(target.value) ?? [];
+      list.push({ id: p.id, title: p.title, file: p.file, ...(p.expires ? { expires: p.expires } : {}) });
+      out.set(target.value, list);
+    }
+  }
+  return out;
+}
