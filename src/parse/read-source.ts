@@ -72,7 +72,10 @@ export function readSource(file: string, text: string): ParsedSource {
     }
   }
 
-  if (split.yaml === null) {
+  const misplaced = split.yaml === null ? misplacedFrontMatter(text) : null;
+  if (misplaced) {
+    diagnostics.push({ file, ...at(misplaced.offset), severity: 'error', rule: 'front-matter-not-mapping', message: misplaced.message, hint: misplaced.hint });
+  } else if (split.yaml === null) {
     diagnostics.push({
       file, ...at(0), severity: 'error', rule: 'missing-front-matter',
       message: 'The file has no YAML front-matter, so it holds no procedure.',
@@ -241,6 +244,33 @@ function maxDepth(node: unknown, limit: number): number {
     else if (isSeq(current)) for (const item of current.items) stack.push([item, depth + 1]);
   }
   return deepest;
+}
+
+/**
+ * A file without front-matter on its first line that still looks like a procedure: the "---" fence comes
+ * after blank lines, or procedure keys (id:, steps: ...) are written without the opening fence. Such a file
+ * must be an error, never taken for a plain note.
+ */
+function misplacedFrontMatter(text: string): { offset: number; message: string; hint: string } | null {
+  const head = text.slice(0, 4000);
+  const late = /^(?:[ \t]*\r?\n)+---[ \t]*\r?$/m.exec(head);
+  if (late && late.index === 0) {
+    const line = head.slice(0, late.index + late[0].length).split('\n').length;
+    return {
+      offset: late[0].lastIndexOf('---'),
+      message: `The front-matter starts on line ${line}, not on the first line, so it is not read and the file holds no procedure.`,
+      hint: 'Remove the blank lines above the first "---": it must be the very first line of the file.',
+    };
+  }
+  const keys = head.match(/^(?:id|title|kind|revision|status|steps):[ \t]/gm) ?? [];
+  if (keys.length >= 2 && /^---[ \t]*\r?$/m.test(head)) {
+    return {
+      offset: 0,
+      message: `The file holds procedure keys (${[...new Set(keys.map((k) => k.trim()))].join(' ')}) but does not start with a "---" line, so they are not read and the file holds no procedure.`,
+      hint: 'Add a line "---" as the first line of the file, above the keys.',
+    };
+  }
+  return null;
 }
 
 /**

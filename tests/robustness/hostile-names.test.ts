@@ -101,3 +101,18 @@ describe('whatever the build can fail on is a check error first', () => {
     expect(check(long).filter((d) => d.rule === 'name-format')).toHaveLength(2);
   });
 });
+
+describe('front-matter out of place is an error, not a note', () => {
+  it('front-matter after blank lines', () => {
+    const found = check(`\n\n${base}`).find((d) => d.rule === 'front-matter-not-mapping');
+    expect(found?.severity).toBe('error');
+    expect(found?.message).toMatch(/starts on line 3/);
+  });
+  it('procedure keys without the opening fence', () => {
+    const found = check(base.replace(/^---\n/, '')).find((d) => d.rule === 'front-matter-not-mapping');
+    expect(found?.message).toMatch(/does not start with a "---" line/);
+  });
+  it('a plain note without front-matter is not taken for a procedure', () => {
+    expect(check('# Shift notes\n\nThe kettle was cleaned on Monday.\n').map((d) => d.rule)).not.toContain('front-matter-not-mapping');
+  });
+});
