@@ -17,6 +17,8 @@ const configSchema = z.strictObject({
     rules: z.record(z.string(), level),
   })).optional(),
   register: z.string().min(1).optional(),
+  // Read by the commands (src/cli/project.ts): the procedures folder, relative to this file.
+  procedures: z.string().min(1).optional(),
   'document-control': z.strictObject({
     'certification-interval-months': z.number().int().min(1).max(120).optional(),
   }).optional(),
@@ -73,7 +75,7 @@ export function parseConfig(file: string, text: string, knownRules: readonly str
       const what = issue.code === 'unrecognized_keys'
         ? `Unknown key '${issue.keys[0]}' in the configuration.`
         : `${path.length ? `'${path.join('.')}'` : 'The configuration'}: ${issue.message.replace(/^Invalid input: /, '')}.`;
-      at(range[0], range[1], what, "The configuration holds 'rules' ({rule-id: error|warning|info|off}), 'overrides' ([{files, rules}]), 'register' (a folder) and 'document-control' ({certification-interval-months}).");
+      at(range[0], range[1], what, "The configuration holds 'procedures' (a folder), 'rules' ({rule-id: error|warning|info|off}), 'overrides' ([{files, rules}]), 'register' (a folder) and 'document-control' ({certification-interval-months}).");
     }
     return { config: emptyConfig, diagnostics };
   }

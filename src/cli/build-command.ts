@@ -4,7 +4,8 @@ import { cpSync, existsSync, readdirSync, renameSync, rmSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { formatCheckFailure, loadManual } from './load-manual.ts';
-import { useColour, type CliIo } from './io.ts';
+import { UsageError, useColour, type CliIo } from './io.ts';
+import { proceduresFolder } from './project.ts';
 import { writeOfflineCopy } from './write-offline-copy.ts';
 import { indexSite } from './index-site.ts';
 import { publishSite, recoverSite } from './publish-site.ts';
@@ -13,21 +14,25 @@ import { siteConfig } from '../site/astro-config.ts';
 
 export const buildHelp = `Usage: stepwright build [options] [folder]
 
-Checks every procedure in the folder (default: $STEPWRIGHT_PROCEDURES or procedures/), then builds
+Checks every procedure in the folder (default: see --procedures), then builds
 the operator manual as a static site and indexes it for search. A build with check errors stops
 with the same report as 'stepwright check' and leaves the last good site untouched.
 The review date marks use $STEPWRIGHT_TODAY or the date of the last commit, so builds repeat exactly.
 
 Options:
-  --out <dir>     where the site goes (default: dist)
-  --no-index      skip the search index
-  --sign-key <f>  sign the site's manifest with this ed25519 private key (from 'stepwright keygen';
-                  default: $STEPWRIGHT_SIGNING_KEY). Every build writes ${manifestFile},
-                  the SHA-256 of every published file, for 'stepwright verify'.
+  --out <dir>           where the site goes (default: dist)
+  --procedures <dir>    the procedures folder, same as the folder argument (default: $STEPWRIGHT_PROCEDURES,
+                        else 'procedures' in the config file, else procedures/)
+  --config <file>       the configuration (default: the nearest stepwright.config.yaml from this
+                        folder up to the top of the git repository)
+  --no-index            skip the search index
+  --sign-key <f>        sign the site's manifest with this ed25519 private key (from 'stepwright keygen';
+                        default: $STEPWRIGHT_SIGNING_KEY). Every build writes ${manifestFile},
+                        the SHA-256 of every published file, for 'stepwright verify'.
+  -h, --help            show this help
 
 The output path is a link to the newest complete build in <out>.versions/, replaced in one step, so it
 holds a complete site at every moment, even when a build is killed.
-  -h, --help      show this help
 
 Exit codes: 0 built, 1 check errors or a failed build, 2 usage or internal failure.
 `;
@@ -45,6 +50,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     options: {
       out: { type: 'string', default: 'dist' }, 'no-index': { type: 'boolean', default: false }, 'sign-key': { type: 'string' },
       help: { type: 'boolean', short: 'h' },
+      procedures: { type: 'string' }, config: { type: 'string' },
     },
     strict: true,
   });
@@ -53,8 +59,11 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   const started = performance.now();
-  const folder = positionals[0] ?? (io.env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures');
-  const env = { ...io.env, STEPWRIGHT_PROCEDURES: folder };
+  if (positionals.length > 1 || (positionals.length && values.procedures)) throw new UsageError('Give one procedures folder.');
+  const folder = positionals[0] ?? proceduresFolder(io, values);
+  if (values.config && !existsSync(resolve(io.cwd, values.config))) throw new UsageError(`The configuration file '${values.config}' does not exist.`);
+  const config = values.config ? resolve(io.cwd, values.config) : '';
+  const env = { ...io.env, STEPWRIGHT_PROCEDURES: folder, STEPWRIGHT_CONFIG: config };
   const loaded = loadManual({ cwd: io.cwd, env });
   if (loaded.result.diagnostics.length > 0 || loaded.errors > 0) io.stdout.write(formatCheckFailure(loaded, useColour(io, io.stdout)));
   const outDir = resolve(io.cwd, values.out);
@@ -88,6 +97,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   try {
     // The pages read the same folder and the same build date as the check above.
     process.env.STEPWRIGHT_PROCEDURES = folder;
+    process.env.STEPWRIGHT_CONFIG = config;
     process.env.STEPWRIGHT_TODAY = loaded.today;
     process.env.STEPWRIGHT_TODAY_SOURCE = loaded.todaySource;
     process.env.ASTRO_TELEMETRY_DISABLED = '1';

@@ -10,6 +10,7 @@ import { previousFromGit, repoPath } from './repository.ts';
 import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { loadConfig } from './load-config.ts';
+import { proceduresFolder } from './project.ts';
 import { loadRegister } from './load-register.ts';
 import { commandCache } from './command-cache.ts';
 
@@ -17,7 +18,7 @@ export const checkHelp = `Usage: stepwright check [options] [paths…]
 
 Checks procedure files (markdown with YAML front-matter) and reports every problem with
 file:line:column, severity, rule id, message and a hint. Paths may be files or folders
-(default: procedures/). Folders are searched for *.md files.
+(default: the procedures folder, see --procedures). Folders are searched for *.md files.
 
 Options:
   --format <human|json|github>  output format (default: human); github prints workflow annotations
@@ -26,7 +27,10 @@ Options:
                           its loops and exits, and how each decision splits the signal space
   --base <ref>            judge changes against this git ref (default: HEAD, the last commit)
   --no-history            do not read git history (the revision and status rules stay silent)
-  --config <file>         rule severities and per-folder overrides (default: ./stepwright.config.yaml if present)
+  --procedures <dir>      the procedures folder (default: $STEPWRIGHT_PROCEDURES, else 'procedures' in the
+                          config file, else procedures/)
+  --config <file>         rule severities and per-folder overrides (default: the nearest
+                          stepwright.config.yaml from this folder up to the top of the git repository)
   -h, --help              show this help
 
 Exit codes: 0 no errors (warnings allowed), 1 errors found, 2 usage or internal failure.
@@ -38,7 +42,7 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     allowPositionals: true,
     options: {
       format: { type: 'string', default: 'human' }, quiet: { type: 'boolean', default: false }, explain: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' },
-      base: { type: 'string' }, 'no-history': { type: 'boolean', default: false }, config: { type: 'string' },
+      base: { type: 'string' }, 'no-history': { type: 'boolean', default: false }, config: { type: 'string' }, procedures: { type: 'string' },
     },
     strict: true,
   });
@@ -47,11 +51,12 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   if (values.format !== 'human' && values.format !== 'json' && values.format !== 'github') throw new UsageError(`Unknown format '${values.format}'; use human, json or github.`);
-  const inputs = readProcedureFiles(positionals.length ? positionals : ['procedures'], io.cwd);
+  const paths = positionals.length ? [...positionals, ...(values.procedures ? [values.procedures] : [])] : [proceduresFolder(io, values)];
+  const inputs = readProcedureFiles(paths, io.cwd);
   const configured = loadConfig(io, values.config);
   let history: Awaited<ReturnType<typeof previousFromGit>> = {};
   try {
-    if (!values['no-history']) history = await previousFromGit(inputs, io, values.base);
+    if (!values['no-history']) history = await previousFromGit(inputs, io, values.base, paths[0]);
   } catch (error) {
     if (!(error instanceof GitError)) throw error;
     io.stderr.write(`stepwright check: ${error.message}\n`);

@@ -1,27 +1,35 @@
 // `stepwright dev [folder]`: the live preview. Serves the manual from the procedures as they are on disk;
 // a saved procedure reloads the open pages, and check findings show on the pages instead of stopping them.
+import { existsSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { siteConfig } from '../site/astro-config.ts';
 import { UsageError, type CliIo } from './io.ts';
+import { proceduresFolder } from './project.ts';
 
 export const devHelp = `Usage: stepwright dev [options] [folder]
 
 Live preview of the operator manual while you write: serves the pages straight from the procedures
-folder (default: $STEPWRIGHT_PROCEDURES or procedures/), re-checks a procedure when you save it and shows
+folder (default: see --procedures), re-checks a procedure when you save it and shows
 its findings on its page. Nothing is published; use 'stepwright build' for the manual.
 
 Options:
-  --port <n>      port (default: 4321)
-  --host <host>   address to listen on (default: localhost)
-  -h, --help      show this help
+  --port <n>            port (default: 4321)
+  --host <host>         address to listen on (default: localhost)
+  --procedures <dir>    the procedures folder, same as the folder argument (default: $STEPWRIGHT_PROCEDURES,
+                        else 'procedures' in the config file, else procedures/)
+  --config <file>       the configuration (default: the nearest stepwright.config.yaml from this
+                        folder up to the top of the git repository)
+  -h, --help            show this help
 `;
 
 export async function runDev(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' }, help: { type: 'boolean', short: 'h' } },
+    options: { port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' }, help: { type: 'boolean', short: 'h' },
+      procedures: { type: 'string' }, config: { type: 'string' },
+    },
     strict: true,
   });
   if (values.help) {
@@ -30,9 +38,12 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
   }
   const port = Number(values.port);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError(`--port must be a whole number from 0 to 65535, not '${values.port}'.`);
-  const folder = positionals[0] ?? (io.env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures');
-  // The pages read the procedures folder from the environment, relative to the working folder.
+  if (positionals.length > 1 || (positionals.length && values.procedures)) throw new UsageError('Give one procedures folder.');
+  const folder = positionals[0] ?? proceduresFolder(io, values);
+  if (values.config && !existsSync(resolve(io.cwd, values.config))) throw new UsageError(`The configuration file '${values.config}' does not exist.`);
+  // The pages read the procedures folder and the configuration from the environment.
   process.env.STEPWRIGHT_PROCEDURES = folder;
+  process.env.STEPWRIGHT_CONFIG = values.config ? resolve(io.cwd, values.config) : '';
   process.env.ASTRO_TELEMETRY_DISABLED = '1';
   const { dev } = await import('astro');
   const config = siteConfig({

@@ -1,4 +1,5 @@
 // `stepwright export ID --format json|mermaid`: one procedure of the manual as model JSON or a mermaid flowchart.
+import { proceduresFolder } from './project.ts';
 import { parseArgs } from 'node:util';
 import { closest } from 'fastest-levenshtein';
 import { estimateCycleTime } from '../analysis/cycle-time.ts';
@@ -50,14 +51,14 @@ export async function runExport(argv: string[], io: CliIo): Promise<number> {
   if (!id) throw new UsageError('Give the id of the procedure to export, e.g. stepwright export U2-K210-INERT-001.');
   if (values.format !== 'json' && values.format !== 'mermaid') throw new UsageError(`Unknown format '${values.format}'; use json or mermaid.`);
 
-  const inputs = readProcedureFiles(paths.length ? paths : ['procedures'], io.cwd);
+  const inputs = readProcedureFiles(paths.length ? paths : [proceduresFolder(io)], io.cwd);
   const result = checkSources(inputs, { today: todayOf(io) });
   const byId = new Map<string, Procedure>();
   for (const f of result.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f.procedure);
   const found = result.files.find((f) => f.procedure?.id === id);
   if (!found?.procedure) {
     const guess = byId.size ? closest(id, [...byId.keys()]) : undefined;
-    io.stderr.write(`stepwright export: no procedure with id '${id}' in ${paths.join(', ') || 'procedures'}.${guess ? ` Did you mean '${guess}'?` : ''}\n`);
+    io.stderr.write(`stepwright export: no procedure with id '${id}' in ${paths.join(', ') || proceduresFolder(io)}.${guess ? ` Did you mean '${guess}'?` : ''}\n`);
     return 1;
   }
   const errors = found.diagnostics.filter((d) => d.severity === 'error');

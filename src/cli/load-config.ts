@@ -1,4 +1,5 @@
-// Finds and reads stepwright.config.yaml for a command: from --config, or from the working folder when present.
+// Finds and reads stepwright.config.yaml for a command: from --config, or the nearest one from the working
+// folder up to the top of its git repository.
 import { existsSync, readFileSync } from 'node:fs';
 import { relative, resolve } from 'node:path';
 import type { Diagnostic } from '../parse/diagnostic.ts';
@@ -6,6 +7,7 @@ import { configFileName, emptyConfig, parseConfig, severityPolicy, type Stepwrig
 import type { SeverityPolicy } from '../check/run-checks.ts';
 import { rules } from '../check/rules/index.ts';
 import { UsageError, type CliIo } from './io.ts';
+import { findConfigFile } from './project.ts';
 
 export interface CommandConfig {
   config: StepwrightConfig;
@@ -16,8 +18,8 @@ export interface CommandConfig {
 }
 
 export function loadConfig(io: Pick<CliIo, 'cwd'>, explicit?: string): CommandConfig {
-  const path = resolve(io.cwd, explicit ?? configFileName);
-  if (!existsSync(path)) {
+  const path = explicit ? resolve(io.cwd, explicit) : findConfigFile(io.cwd);
+  if (!path || !existsSync(path)) {
     if (explicit) throw new UsageError(`The configuration file '${explicit}' does not exist.`);
     return { config: emptyConfig, policy: severityPolicy(emptyConfig), diagnostics: [] };
   }

@@ -1,6 +1,9 @@
 // Reads and checks the procedures folder for a site build: the same reading as `stepwright check`,
 // plus the build date (never the wall clock, so a build is reproducible byte for byte).
 import { execFileSync } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { proceduresFolder } from './project.ts';
 import { checkSources, type CheckResult, type SourceInput } from '../check/run-checks.ts';
 import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from './format-diagnostics.ts';
@@ -27,8 +30,9 @@ export interface LoadOptions {
   env: Record<string, string | undefined>;
 }
 
-export function proceduresFolder(env: Record<string, string | undefined>): string {
-  return env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures';
+/** The procedures folder of a build (`stepwright build` hands its choice to the pages in $STEPWRIGHT_PROCEDURES). */
+function manualFolder(options: LoadOptions): string {
+  return proceduresFolder(options, { config: options.env.STEPWRIGHT_CONFIG });
 }
 
 /** The build date: STEPWRIGHT_TODAY, else the last commit's date, else the newest effective or approval date. */
@@ -41,7 +45,9 @@ export function buildDate(options: LoadOptions, inputs: SourceInput[]): { today:
     return { today: fixed, source };
   }
   try {
-    const out = execFileSync('git', ['log', '-1', '--format=%cs'], { cwd: options.cwd, encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] }).trim();
+    // The repository that holds the procedures, not the one the command was started in.
+    const folder = resolve(options.cwd, manualFolder(options));
+    const out = execFileSync('git', ['log', '-1', '--format=%cs'], { cwd: existsSync(folder) ? folder : options.cwd, encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] }).trim();
     if (/^\d{4}-\d{2}-\d{2}$/.test(out)) return { today: out, source: 'last commit' };
   } catch {
     // Not a git checkout: fall back to the content itself.
@@ -52,11 +58,11 @@ export function buildDate(options: LoadOptions, inputs: SourceInput[]): { today:
 }
 
 export function loadManual(options: LoadOptions): LoadedManual {
-  const root = proceduresFolder(options.env);
+  const root = manualFolder(options);
   const inputs = readProcedureFiles([root], options.cwd);
   const { today, source } = buildDate(options, inputs);
   // The site judges procedures by the same stepwright.config.yaml as `stepwright check`.
-  const configured = loadConfig(options);
+  const configured = loadConfig(options, options.env.STEPWRIGHT_CONFIG || undefined);
   const register = loadRegister(options.cwd, configured.file?.file, configured.config.register);
   const result = checkSources(inputs, {
     today, severity: configured.policy, register, certificationIntervalMonths: configured.config.certificationIntervalMonths,
@@ -80,8 +86,8 @@ let cached: { key: string; loaded: LoadedManual } | undefined;
 export function siteManual(): { loaded: LoadedManual; view: ManualView } {
   // The dev server (live preview) re-reads on every save and shows check errors on the pages instead of failing.
   const dev = (import.meta as { env?: { DEV?: boolean } }).env?.DEV === true;
-  const stamp = dev ? procedureStamp(proceduresFolder(process.env), process.cwd()) : '';
-  const key = `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}\u0000${stamp}`;
+  const stamp = dev ? procedureStamp(manualFolder({ cwd: process.cwd(), env: process.env }), process.cwd()) : '';
+  const key = `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_CONFIG ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}\u0000${stamp}`;
   if (!cached || cached.key !== key) cached = { key, loaded: loadManual({ cwd: process.cwd(), env: process.env }) };
   const { loaded } = cached;
   if (!loaded.view && dev) loaded.view = tolerantManualView({ files: loaded.result.files, root: loaded.root, today: loaded.today });

@@ -7,6 +7,8 @@ import { kinds, procedureIdPattern } from '../model/schema.ts';
 import type { Kind } from '../model/procedure.ts';
 import { scaffoldProcedure } from '../render/procedure-scaffold.ts';
 import { todayOf, UsageError, type CliIo } from './io.ts';
+import { schemaReference } from './package-files.ts';
+import { projectRoot, proceduresFolder } from './project.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 
 export const newHelp = `Usage: stepwright new KIND ID [--title TEXT] [--dir FOLDER]
@@ -20,7 +22,8 @@ ID   is the document number, upper-case letters, digits and hyphens, e.g. U2-K21
 
 Options:
   --title <text>    the title (otherwise a TODO placeholder)
-  --dir <folder>    where to write it (default: procedures)
+  --dir <folder>    where to write it (default: the procedures folder: $STEPWRIGHT_PROCEDURES,
+                    else 'procedures' in the config file, else procedures/)
   -h, --help        show this help
 
 Exit codes: 0 written, 1 not written (file exists or id in use), 2 usage error.
@@ -30,7 +33,7 @@ export async function runNew(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { title: { type: 'string' }, dir: { type: 'string', default: 'procedures' }, help: { type: 'boolean', short: 'h' } },
+    options: { title: { type: 'string' }, dir: { type: 'string' }, help: { type: 'boolean', short: 'h' } },
     strict: true,
   });
   if (values.help) {
@@ -44,21 +47,25 @@ export async function runNew(argv: string[], io: CliIo): Promise<number> {
   if (!procedureIdPattern.test(id)) throw new UsageError(`'${id}' is not a procedure id: use upper-case letters, digits and hyphens, e.g. U2-K210-SD-002.`);
   if (values.title !== undefined && values.title.trim() === '') throw new UsageError('The title must not be empty.');
 
-  const folder = resolve(io.cwd, values.dir);
+  const procedures = proceduresFolder(io);
+  const dir = values.dir ?? procedures;
+  const folder = resolve(io.cwd, dir);
   const target = join(folder, `${id.toLowerCase()}.md`);
   const shown = relative(io.cwd, target) || target;
   if (existsSync(target)) {
     io.stderr.write(`stepwright new: ${shown} already exists; nothing was written.\nOpen it to edit, or choose another id.\n`);
     return 1;
   }
-  const inUse = idInUse(id, [values.dir, ...(existsSync(resolve(io.cwd, 'procedures')) ? ['procedures'] : [])], io.cwd);
+  const inUse = idInUse(id, [dir, ...(existsSync(resolve(io.cwd, procedures)) ? [procedures] : [])], io.cwd);
   if (inUse) {
     io.stderr.write(`stepwright new: id ${id} is already used by ${inUse}; nothing was written.\nA new revision goes into that file; a new procedure needs its own id.\n`);
     return 1;
   }
 
-  const schemaFile = resolve(io.cwd, 'schema', 'procedure.schema.json');
-  const schemaPath = existsSync(schemaFile) ? relative(folder, schemaFile).split('\\').join('/') : undefined;
+  // The editor hint names the project's own copy of the schema when it keeps one, else the one that ships
+  // with this stepwright (in the project's node_modules).
+  const ownSchema = resolve(io.cwd, 'schema', 'procedure.schema.json');
+  const schemaPath = existsSync(ownSchema) ? relative(folder, ownSchema).split('\\').join('/') : schemaReference(folder, projectRoot(io.cwd));
   const text = scaffoldProcedure({ kind: kind as Kind, id, title: values.title, schemaPath });
   mkdirSync(dirname(target), { recursive: true });
   try {
@@ -73,7 +80,7 @@ export async function runNew(argv: string[], io: CliIo): Promise<number> {
   const others = checked.diagnostics.length - todos;
   io.stdout.write(`Created ${shown} (${kind}, draft, revision 0).
 ${todos} placeholders marked TODO are waiting to be filled in${others ? `; ${others} other findings` : ''}.
-Next: fill them in, then run 'stepwright check ${shown}' and 'npm run dev' to preview it.
+Next: fill them in, then run 'npx stepwright check ${shown}', and 'npx stepwright dev' to preview it.
 `);
   return 0;
 }

@@ -1,5 +1,7 @@
-// Opens the git repository around the working folder for the commands that read history (check, review).
-import { isAbsolute, relative, resolve } from 'node:path';
+// Opens the git repository that holds the procedures (not the working folder's, not the tool's own) for the
+// commands that read history: check, review and the site's revisions, audit trail and build date.
+import { realpathSync, statSync } from 'node:fs';
+import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import type { SourceInput } from '../check/run-checks.ts';
 import { GitError, gitIn, type Git } from '../history/git.ts';
 import { previousVersions, type PreviousVersion } from '../history/previous-version.ts';
@@ -9,29 +11,64 @@ export interface Repository {
   /** Runs git in the repository's top folder. */
   git: Git;
   root: string;
-  /** The working folder relative to the root ('' or 'sub/dir/'). */
-  prefix: string;
+  /** The working folder, against which relative file names are read. */
+  cwd: string;
   shallow: boolean;
 }
 
-export async function openRepository(io: Pick<CliIo, 'cwd' | 'env'>): Promise<Repository | undefined> {
+/**
+ * The repository around `at` (a file or folder; default the working folder). Pass the procedures folder:
+ * history belongs to the repository that holds the procedures, wherever the command was started.
+ */
+export async function openRepository(io: Pick<CliIo, 'cwd' | 'env'>, at?: string): Promise<Repository | undefined> {
+  const start = existingFolder(resolve(io.cwd, at ?? '.'));
   // git runs with the process environment (PATH, HOME, GIT_*), not the CLI's injected variables.
   let lines: string[];
   try {
-    // One git process for all three answers: this runs before every check.
-    lines = (await gitIn(io.cwd)(['rev-parse', '--show-toplevel', '--show-prefix', '--is-shallow-repository'])).split('\n');
+    // One git process for both answers: this runs before every check.
+    lines = (await gitIn(start)(['rev-parse', '--show-toplevel', '--is-shallow-repository'])).split('\n');
   } catch {
     return undefined;
   }
-  const [root, prefix = '', shallow = 'false'] = lines;
+  const [root, shallow = 'false'] = lines;
   if (!root) return undefined;
-  return { git: gitIn(root), root, prefix: prefix.trim(), shallow: shallow.trim() === 'true' };
+  return { git: gitIn(root), root, cwd: io.cwd, shallow: shallow.trim() === 'true' };
 }
 
 /** A file name as the CLI shows it (relative to the working folder, or absolute) → a path relative to the repository root. */
 export function repoPath(repo: Repository, file: string): string {
-  if (isAbsolute(file)) return relative(repo.root, file).split('\\').join('/');
-  return relative('/', resolve('/', repo.prefix, file)).split('\\').join('/');
+  // git names the root by its real path; the working folder may be reached through a symbolic link.
+  return relative(repo.root, realPath(resolve(repo.cwd, file))).split(sep).join('/');
+}
+
+/** The real path of `path`, or of its nearest existing folder with the rest appended (a deleted file). */
+function realPath(path: string): string {
+  try {
+    return realpathSync(path);
+  } catch {
+    const parent = dirname(path);
+    return parent === path ? path : join(realPath(parent), basename(path));
+  }
+}
+
+/** The folder itself, or the nearest existing folder above a file or a missing path (git needs a folder to start in). */
+function existingFolder(path: string): string {
+  let here = path;
+  for (;;) {
+    try {
+      const real = realpathSync(here);
+      // A file: start from its folder.
+      return here === path && !isFolder(real) ? dirname(real) : real;
+    } catch {
+      const parent = dirname(here);
+      if (parent === here) return path;
+      here = parent;
+    }
+  }
+}
+
+function isFolder(path: string): boolean {
+  return statSync(path, { throwIfNoEntry: false })?.isDirectory() === true;
 }
 
 /**
@@ -43,8 +80,10 @@ export async function previousFromGit(
   inputs: SourceInput[],
   io: Pick<CliIo, 'cwd' | 'env'>,
   base?: string,
+  /** Where the procedures are (default: the first file read): its repository holds their history. */
+  at?: string,
 ): Promise<{ previous?: (file: string) => PreviousVersion | undefined; repo?: Repository }> {
-  const repo = await openRepository(io);
+  const repo = await openRepository(io, at ?? inputs.find((i) => 'text' in i)?.file);
   if (!repo) return {};
   const files = inputs.flatMap((i) => ('text' in i ? [{ file: i.file, path: repoPath(repo, resolve(io.cwd, i.file)) }] : []));
   let found: Map<string, PreviousVersion>;

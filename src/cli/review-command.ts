@@ -15,6 +15,7 @@ import { formatGithub } from './format-github.ts';
 import { todayOf, UsageError, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { openRepository, repoPath, type Repository } from './repository.ts';
+import { findConfigFile, proceduresFolder } from './project.ts';
 
 export const reviewHelp = `Usage: stepwright review --base <ref> [options] [paths…]
 
@@ -22,13 +23,17 @@ Summarises the procedure changes between the merge base of <ref> and the working
 request: per changed procedure the revision and status change, the safety-relevant changes (hazards,
 interlocks, limits, setpoints, transitions on guarded signals, removed hazard messages), a table of
 step changes, the sign-offs the review policy requires, the check results and a mermaid flowchart with
-the changed steps marked. Paths default to procedures/. See docs/review.md.
+the changed steps marked. Paths default to the procedures folder (see --procedures). See docs/review.md.
 
 Options:
   --base <ref>                 the branch or commit the change is reviewed against (required)
   --format <markdown|github>   markdown (default) prints the summary; github prints workflow
                                annotations for the check problems of the changed files
   --output <file>              also write the Markdown summary to this file
+  --procedures <dir>           the procedures folder (default: $STEPWRIGHT_PROCEDURES, else
+                               'procedures' in the config file, else procedures/)
+  --config <file>              the configuration with the review policy (default: the nearest
+                               stepwright.config.yaml up to the top of the git repository)
   -h, --help                   show this help
 
 Exit codes: 0 no errors in the changed files, 1 errors found, 2 usage, git or internal failure.
@@ -42,6 +47,7 @@ export async function runReview(argv: string[], io: CliIo): Promise<number> {
     allowPositionals: true,
     options: {
       base: { type: 'string' }, format: { type: 'string', default: 'markdown' }, output: { type: 'string' }, help: { type: 'boolean', short: 'h' },
+      procedures: { type: 'string' }, config: { type: 'string' },
     },
     strict: true,
   });
@@ -52,19 +58,21 @@ export async function runReview(argv: string[], io: CliIo): Promise<number> {
   if (!values.base) throw new UsageError("Missing '--base <ref>', e.g. '--base origin/main'.");
   if (values.format !== 'markdown' && values.format !== 'github') throw new UsageError(`Unknown format '${values.format}'; use markdown or github.`);
 
-  const repo = await openRepository(io);
+  const paths = positionals.length ? [...positionals, ...(values.procedures ? [values.procedures] : [])] : [proceduresFolder(io, values)];
+  // The repository that holds the procedures, wherever the command was started.
+  const repo = await openRepository(io, paths[0]);
   if (!repo) {
-    io.stderr.write('stepwright review: this folder is not inside a git repository; review compares against a git base.\n');
+    io.stderr.write(`stepwright review: ${paths[0]} is not inside a git repository; review compares against a git base.\n`);
     return 2;
   }
-  const policy = loadPolicy(io, repo);
+  const policy = loadPolicy(io, values.config);
   if ('problems' in policy) {
     io.stderr.write(`stepwright review: ${policy.file} has a bad 'review-policy':\n${policy.problems.map((p) => `  ${p}`).join('\n')}\n`);
     return 2;
   }
 
   try {
-    const report = await buildReview(repo, io, values.base, positionals.length ? positionals : ['procedures'], policy);
+    const report = await buildReview(repo, io, values.base, paths, policy);
     const markdown = renderReviewMarkdown(report.input);
     if (values.output) writeFileSync(resolve(io.cwd, values.output), markdown);
     if (values.format === 'github') io.stdout.write(formatGithub(report.diagnostics, (file) => repoPath(repo, file)));
@@ -163,8 +171,9 @@ function readIfThere(file: string): string | undefined {
   }
 }
 
-function loadPolicy(io: CliIo, repo: Repository): { policy: PolicyEntry[]; source: string } | { problems: string[]; file: string } {
-  const file = [join(io.cwd, configFile), join(repo.root, configFile)].find((f) => existsSync(f));
+function loadPolicy(io: CliIo, explicit?: string): { policy: PolicyEntry[]; source: string } | { problems: string[]; file: string } {
+  const file = explicit ? resolve(io.cwd, explicit) : findConfigFile(io.cwd);
+  if (explicit && !existsSync(file!)) throw new UsageError(`The configuration file '${explicit}' does not exist.`);
   const fallback = { policy: defaultReviewPolicy, source: 'default review policy (docs/review.md)' };
   if (!file) return fallback;
   let config: unknown;

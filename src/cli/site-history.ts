@@ -20,7 +20,8 @@ export function siteHistory(): Promise<Map<string, HistoryView>> {
 async function loadHistories(): Promise<Map<string, HistoryView>> {
   const { loaded, view } = siteManual();
   const io = { cwd: process.cwd(), env: process.env };
-  const repo = await openRepository(io);
+  // History comes from the repository that holds the procedures.
+  const repo = await openRepository(io, loaded.root);
   const out = new Map<string, HistoryView>();
   const identity = (p: ProcedureView) => ({ id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status });
   if (!repo) {

@@ -3,6 +3,7 @@ import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { integrityMeta, sourceDigest, sourceKey } from '../render/source-integrity.ts';
+import { proceduresFolder } from './project.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { describeSite, recoverSite } from './publish-site.ts';
@@ -19,7 +20,8 @@ that has no page. It also says what it found at the site path (a link to a publi
 or nothing because a build was stopped while publishing).
 
 Options:
-  --procedures <dir>   the procedure sources (default: $STEPWRIGHT_PROCEDURES or procedures/)
+  --procedures <dir>   the procedure sources (default: $STEPWRIGHT_PROCEDURES, else 'procedures' in
+                       the nearest stepwright.config.yaml, else procedures/)
   --public-key <file>  the ed25519 public key from 'stepwright keygen' (default: $STEPWRIGHT_PUBLIC_KEY,
                        else ${publicKeyFile} in the current folder when it exists)
   --repair             when a stopped build left no site at the path, put the newest complete one back
@@ -57,7 +59,7 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
   }
   if (positionals.length !== 1) throw new UsageError('Give one site folder, e.g. stepwright verify dist');
   const sitePath = resolve(io.cwd, positionals[0]);
-  const folder = values.procedures ?? (io.env.STEPWRIGHT_PROCEDURES?.trim() || 'procedures');
+  const folder = proceduresFolder(io, values);
   if (!isDirectory(resolve(io.cwd, folder))) throw new UsageError(`No procedures folder at ${folder}.`);
   const keyPath = values['public-key'] ?? (io.env.STEPWRIGHT_PUBLIC_KEY?.trim() || (existsSync(resolve(io.cwd, publicKeyFile)) ? publicKeyFile : undefined));
   let publicKey: ReturnType<typeof readPublicKey> | undefined;
