@@ -1,7 +1,8 @@
 // Runs every benchmark in bench/ one after another (`npm run bench [-- --quick]`): the *.bench.ts files, then
 // the demo site build, then the scaled site builds. Prints one summary and writes bench/results.json.
 import { spawnSync } from 'node:child_process';
-import { cpus, tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import { writeReadmeTable } from './readme-table.ts';
 import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Figure } from './results.ts';
@@ -10,12 +11,16 @@ const here = import.meta.dirname;
 const quick = process.argv.includes('--quick');
 const scripts = readdirSync(here).filter((f) => f.endsWith('.bench.ts')).sort();
 // The site benchmarks build whole sites, so they run last.
-for (const last of ['manual-site.ts', 'site-scale.ts']) if (existsSync(join(here, last))) scripts.push(last);
+for (const last of ['check-scale.ts', 'manual-site.ts', 'site-scale.ts']) if (existsSync(join(here, last))) scripts.push(last);
 
+// STEPWRIGHT_BENCH_ONLY=check-scale.ts,site-scale.ts runs only those scripts (figures of the others are absent).
+const only = process.env.STEPWRIGHT_BENCH_ONLY?.split(',').map((s) => s.trim()).filter(Boolean);
+if (only?.length) scripts.splice(0, scripts.length, ...scripts.filter((s) => only.includes(s)));
 const scratch = mkdtempSync(join(tmpdir(), 'stepwright-bench-results-'));
 const sink = join(scratch, 'figures.jsonl');
 const runs: Record<string, { seconds: number; exitCode: number | null }> = {};
 const started = performance.now();
+const loadAtStart = loadavg().map((n) => Number(n.toFixed(2)));
 let failed = 0;
 for (const script of scripts) {
   process.stdout.write(`\n### ${script}\n\n`);
@@ -40,12 +45,14 @@ rmSync(scratch, { recursive: true, force: true });
 const results = {
   date: new Date().toISOString(),
   quick,
-  machine: { cpus: cpus().length, cpu: cpus()[0]?.model, node: process.version, loadAverage: (await import('node:os')).loadavg().map((n) => Number(n.toFixed(2))) },
+  machine: { cpus: cpus().length, cpu: cpus()[0]?.model, node: process.version, loadAtStart, loadAverage: loadavg().map((n) => Number(n.toFixed(2))) },
   totalSeconds: Number(((performance.now() - started) / 1000).toFixed(1)),
   scripts: runs,
   figures,
 };
 writeFileSync(join(here, 'results.json'), `${JSON.stringify(results, null, 2)}\n`);
+// The README's table of figures is regenerated from the same results (only by a full-size run).
+if (!quick) writeReadmeTable(join(here, '..', 'README.md'), results);
 
 const width = Math.max(...Object.keys(figures).map((k) => k.length), 10);
 console.log(`\n### Summary${quick ? ' (quick sizes)' : ''}: ${Object.keys(figures).length} figures in ${results.totalSeconds} s on ${results.machine.cpus} cores (load ${results.machine.loadAverage.join(' ')})\n`);

@@ -50,14 +50,16 @@ export function plainMarkdown(p: GeneratedProcedure): string {
 }
 
 /** Runs a command, timing it and taking its peak memory from /usr/bin/time when the machine has it. */
-function run(command: string, args: string[], env: Record<string, string>, cwd = repo): { seconds: number; peakMb?: number } {
+function run(command: string, args: string[], env: Record<string, string>, cwd = repo): { seconds: number; cpu?: number; peakMb?: number } {
   const started = performance.now();
-  const argv = timeBinary ? [timeBinary, ['-f', 'peak-kb=%M', command, ...args]] as const : [command, args] as const;
+  const argv = timeBinary ? [timeBinary, ['-f', 'peak-kb=%M cpu=%U+%S', command, ...args]] as const : [command, args] as const;
   const result = spawnSync(argv[0], argv[1], { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ASTRO_TELEMETRY_DISABLED: '1', ...env }, maxBuffer: 64 * 1024 * 1024 });
   const seconds = (performance.now() - started) / 1000;
   if (result.status !== 0) throw new Error(`${command} ${args.join(' ')} failed (exit ${result.status}):\n${result.stdout.slice(-3000)}\n${result.stderr.slice(-3000)}`);
   const peak = /peak-kb=(\d+)/.exec(result.stderr)?.[1];
-  return { seconds, peakMb: peak ? Math.round(Number(peak) / 1024) : undefined };
+  // CPU time (user + system, children included): steadier than wall time on a busy shared machine.
+  const cpu = /cpu=([\d.]+)\+([\d.]+)/.exec(result.stderr);
+  return { seconds, cpu: cpu ? Number(cpu[1]) + Number(cpu[2]) : undefined, peakMb: peak ? Math.round(Number(peak) / 1024) : undefined };
 }
 
 function largestPage(site: string): { slug: string; raw: number; gzip: number } {
@@ -94,7 +96,12 @@ for (const count of sizes) {
     rmSync(join(baselineRoot, 'node_modules'), { recursive: true, force: true });
     const bare = run(process.execPath, [join(repo, 'node_modules/astro/bin/astro.mjs'), 'build', '--root', baselineRoot, '--outDir', join(work, 'bare-site'), '--silent'],
       { BASELINE_CONTENT: join(work, 'plain') });
-    const full = run(process.execPath, ['bin/stepwright.mjs', 'build', join(work, 'procedures'), '--out', join(work, 'site')], { STEPWRIGHT_TODAY: '2026-12-01' });
+    const full = run(process.execPath, ['bin/stepwright.mjs', 'build', join(work, 'procedures'), '--out', join(work, 'site')], { STEPWRIGHT_TODAY: '2026-12-01', STEPWRIGHT_CACHE: join(work, 'cache') });
+    // One procedure edited, the same folder built again into the same output (its cache from the build before).
+    const edited = join(work, 'procedures', procedures[Math.floor(procedures.length / 2)].file);
+    writeFileSync(edited, readFileSync(edited, 'utf8').replace('## Purpose', '## Purpose\n\nEdited for the rebuild benchmark.'));
+    const rebuild = run(process.execPath, ['bin/stepwright.mjs', 'build', join(work, 'procedures'), '--out', join(work, 'site')], { STEPWRIGHT_TODAY: '2026-12-01', STEPWRIGHT_CACHE: join(work, 'cache') });
+    const rebuildRatio = rebuild.seconds / full.seconds;
     const pages = readdirSync(join(work, 'site', 'procedures')).length;
     const barePages = readdirSync(join(work, 'bare-site', 'generated')).length;
     const ratio = full.seconds / bare.seconds;
@@ -103,11 +110,18 @@ for (const count of sizes) {
     console.log(`  full build (check + Astro + pagefind): ${full.seconds.toFixed(1)} s${full.peakMb ? `, peak ${full.peakMb} MB` : ''}`);
     console.log(`  bare Astro build of plain markdown:    ${bare.seconds.toFixed(1)} s${bare.peakMb ? `, peak ${bare.peakMb} MB` : ''}`);
     console.log(`  ratio: ${ratio.toFixed(2)}x (goal <= ${goalRatio}x: ${ratio <= goalRatio ? 'met' : 'NOT met'})`);
+    if (full.cpu && bare.cpu) console.log(`  CPU time: full ${full.cpu.toFixed(1)} s, bare ${bare.cpu.toFixed(1)} s, ratio ${(full.cpu / bare.cpu).toFixed(2)}x`);
+    if (full.peakMb && bare.peakMb) console.log(`  peak memory ratio: ${(full.peakMb / bare.peakMb).toFixed(2)}x (goal <= 1.5x)`);
+    console.log(`  rebuild after editing one procedure: ${rebuild.seconds.toFixed(1)} s, ${rebuildRatio.toFixed(2)}x the full build (goal <= 0.3x)`);
     console.log(`  largest procedure page without search: ${(page.gzip / 1024).toFixed(1)} KB gzip, ${(page.raw / 1024).toFixed(1)} KB raw (${page.slug})\n`);
     record(`site/${count}/full-build`, { value: Number(full.seconds.toFixed(2)), unit: 's', note: 'stepwright build: check + Astro + pagefind + offline copy' });
     record(`site/${count}/bare-astro-build`, { value: Number(bare.seconds.toFixed(2)), unit: 's', note: 'bench/baseline-site: plain markdown pages, same content' });
     record(`site/${count}/ratio`, { value: Number(ratio.toFixed(2)), unit: 'x', goal: `<= ${goalRatio}`, met: ratio <= goalRatio });
     if (full.peakMb) record(`site/${count}/full-build-peak-memory`, { value: full.peakMb, unit: 'MB' });
+    if (full.peakMb && bare.peakMb) record(`site/${count}/peak-memory-ratio`, { value: Number((full.peakMb / bare.peakMb).toFixed(2)), unit: 'x', goal: '<= 1.5', met: full.peakMb / bare.peakMb <= 1.5 });
+    if (full.cpu && bare.cpu) record(`site/${count}/cpu-ratio`, { value: Number((full.cpu / bare.cpu).toFixed(2)), unit: 'x', goal: '<= 1.3', met: full.cpu / bare.cpu <= 1.3, note: `CPU seconds ${full.cpu.toFixed(1)} against ${bare.cpu.toFixed(1)}` });
+    record(`site/${count}/rebuild-one-change`, { value: Number(rebuild.seconds.toFixed(2)), unit: 's', note: 'one procedure edited, built again into the same output' });
+    record(`site/${count}/rebuild-ratio`, { value: Number(rebuildRatio.toFixed(2)), unit: 'x', goal: '<= 0.3', met: rebuildRatio <= 0.3, note: 'rebuild after one change / full build' });
     if (bare.peakMb) record(`site/${count}/bare-astro-peak-memory`, { value: bare.peakMb, unit: 'MB' });
     record(`site/${count}/largest-page-gzip`, { value: Number((page.gzip / 1024).toFixed(1)), unit: 'KB', goal: '<= 60', met: page.gzip / 1024 <= 60, note: `${page.slug}, HTML + CSS + JS, no search` });
   } finally {

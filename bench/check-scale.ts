@@ -1,0 +1,82 @@
+// `stepwright check` of 1,001 procedures (the demo procedures copied 77 times, ids renamed per copy) as whole
+// processes, against the floor of reading the same files and parsing their front-matter with positions
+// (bench/floor-read.ts); interleaved, median of three. Cold (no cache) and warm (cache from the run before).
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { basename, join } from 'node:path';
+import { quick, record } from './results.ts';
+
+const repo = join(import.meta.dirname, '..');
+const copies = quick ? 23 : 77;
+const timeBinary = existsSync('/usr/bin/time') ? '/usr/bin/time' : undefined;
+
+function demoFiles(dir: string): string[] {
+  return readdirSync(dir).flatMap((name) => {
+    const full = join(dir, name);
+    return statSync(full).isDirectory() ? demoFiles(full) : name.endsWith('.md') ? [full] : [];
+  });
+}
+
+/** Wall time, and CPU time (user + system) from /usr/bin/time: on a busy shared machine CPU time is the steadier figure. */
+function run(args: string[], env: Record<string, string> = {}): { seconds: number; cpu?: number; peakMb?: number; out: string } {
+  const argv = timeBinary ? [timeBinary, '-f', 'peak-kb=%M cpu=%U+%S', process.execPath, ...args] : [process.execPath, ...args];
+  const started = performance.now();
+  const r = spawnSync(argv[0], argv.slice(1), { cwd: repo, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ...env }, maxBuffer: 256 * 1024 * 1024 });
+  const seconds = (performance.now() - started) / 1000;
+  if (r.status !== 0 && r.status !== 1) throw new Error(`${args.join(' ')} failed (exit ${r.status}): ${r.stderr.slice(-2000)}`);
+  const peak = /peak-kb=(\d+)/.exec(r.stderr)?.[1];
+  const cpu = /cpu=([\d.]+)\+([\d.]+)/.exec(r.stderr);
+  return { seconds, cpu: cpu ? Number(cpu[1]) + Number(cpu[2]) : undefined, peakMb: peak ? Math.round(Number(peak) / 1024) : undefined, out: r.stdout };
+}
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
+const work = mkdtempSync(join(tmpdir(), 'stepwright-bench-check-'));
+try {
+  const demo = demoFiles(join(repo, 'procedures'));
+  for (let c = 1; c <= copies; c++) {
+    mkdirSync(join(work, 'procedures', `copy-${c}`), { recursive: true });
+    for (const file of demo) writeFileSync(join(work, 'procedures', `copy-${c}`, basename(file)), readFileSync(file, 'utf8').replaceAll('U2-', `U2C${c}-`));
+  }
+  const count = demo.length * copies;
+  const cache = join(work, 'cache');
+  const floor: number[] = [];
+  const cold: number[] = [];
+  const warm: number[] = [];
+  const cpu = { floor: [] as number[], cold: [] as number[], warm: [] as number[] };
+  let peak = { floor: 0, cold: 0, warm: 0 };
+  const check = ['bin/stepwright.mjs', 'check', join(work, 'procedures'), '--no-history', '--quiet'];
+  for (let i = 0; i < 3; i++) {
+    const f = run([join(import.meta.dirname, 'floor-read.ts'), join(work, 'procedures')]);
+    const c = run(check, { STEPWRIGHT_CACHE: 'off' });
+    rmSync(cache, { recursive: true, force: true });
+    run(check, { STEPWRIGHT_CACHE: cache });
+    const w = run(check, { STEPWRIGHT_CACHE: cache });
+    cpu.floor.push(f.cpu ?? Number.NaN);
+    cpu.cold.push(c.cpu ?? Number.NaN);
+    cpu.warm.push(w.cpu ?? Number.NaN);
+    floor.push(f.seconds);
+    cold.push(c.seconds);
+    warm.push(w.seconds);
+    peak = { floor: Math.max(peak.floor, f.peakMb ?? 0), cold: Math.max(peak.cold, c.peakMb ?? 0), warm: Math.max(peak.warm, w.peakMb ?? 0) };
+  }
+  const [f, c, w] = [median(floor), median(cold), median(warm)];
+  console.log(`check of ${count} procedures (${copies} copies of the demo), whole processes, median of 3`);
+  console.log(`  floor: read + split + yaml with positions: ${f.toFixed(2)} s, peak ${peak.floor} MB`);
+  console.log(`  check, cold (no cache):                    ${c.toFixed(2)} s, peak ${peak.cold} MB  (${(c / f).toFixed(2)}x floor; goal <= 2x and < 2 s)`);
+  console.log(`  check, warm (cache from the run before):   ${w.toFixed(2)} s, peak ${peak.warm} MB  (${(w / f).toFixed(2)}x floor)`);
+  const [fc, cc, wc] = [median(cpu.floor), median(cpu.cold), median(cpu.warm)];
+  console.log(`  CPU time (user + system): floor ${fc.toFixed(2)} s, cold ${cc.toFixed(2)} s (${(cc / fc).toFixed(2)}x), warm ${wc.toFixed(2)} s (${(wc / fc).toFixed(2)}x)`);
+  if (Number.isFinite(cc)) {
+    record(`check/${count}/cold-cpu-ratio`, { value: Number((cc / fc).toFixed(2)), unit: 'x', goal: '<= 2', met: cc / fc <= 2, note: `CPU seconds ${cc.toFixed(2)} against ${fc.toFixed(2)}: steadier than wall time on a shared machine` });
+    record(`check/${count}/warm-cpu-ratio`, { value: Number((wc / fc).toFixed(2)), unit: 'x', goal: '<= 2', met: wc / fc <= 2, note: `CPU seconds ${wc.toFixed(2)} against ${fc.toFixed(2)}` });
+  }
+  record(`check/${count}/floor-read-parse`, { value: Number(f.toFixed(2)), unit: 's', note: 'read files, split front-matter, yaml parseDocument with a LineCounter; one process' });
+  record(`check/${count}/cold`, { value: Number(c.toFixed(2)), unit: 's', goal: '< 2', met: c < 2, note: 'stepwright check --no-history, STEPWRIGHT_CACHE=off; one process' });
+  record(`check/${count}/cold-ratio`, { value: Number((c / f).toFixed(2)), unit: 'x', goal: '<= 2', met: c / f <= 2, note: 'cold check / floor, same run' });
+  record(`check/${count}/warm`, { value: Number(w.toFixed(2)), unit: 's', goal: '< 2', met: w < 2, note: 'same check with the cache of the run before' });
+  record(`check/${count}/warm-ratio`, { value: Number((w / f).toFixed(2)), unit: 'x', goal: '<= 2', met: w / f <= 2 });
+  record(`check/${count}/cold-peak-memory-ratio`, { value: Number((peak.cold / Math.max(1, peak.floor)).toFixed(2)), unit: 'x', note: `${peak.cold} MB against ${peak.floor} MB` });
+} finally {
+  rmSync(work, { recursive: true, force: true });
+}
