@@ -83,8 +83,16 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     : '';
   for (const input of inputs) {
     // An unreadable file still gets a context, so that its one diagnostic goes through the rules like any other.
-    const readError = 'error' in input ? input.error : undefined;
-    const { source, procedure, schemaIssues, facts } = 'text' in input ? readProcedure(input.file, input.text, options.register) : unreadable(input.file);
+    let readError = 'error' in input ? input.error : undefined;
+    let read: ReturnType<typeof readProcedure>;
+    try {
+      read = 'text' in input ? readProcedure(input.file, input.text, options.register) : unreadable(input.file);
+    } catch (error) {
+      // Whatever a file holds, the check goes on and the file gets a diagnostic: never a crash of the whole run.
+      readError = `reading it failed inside Stepwright (${firstLineOf(error)}); this is a fault in Stepwright, please report it with the file`;
+      read = unreadable(input.file);
+    }
+    const { source, procedure, schemaIssues, facts } = read;
     let current: RuleMeta = rules[0]?.meta;
     const previous = readError === undefined ? options.previous?.(input.file) : undefined;
     let history: FileHistory | undefined | null = null;
@@ -163,6 +171,10 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
 function readPrevious(file: string, previous: { text: string; commit: string }): FileHistory {
   const { source, procedure } = readProcedure(file, previous.text);
   return { commit: previous.commit, text: previous.text, source, procedure };
+}
+
+function firstLineOf(error: unknown): string {
+  return String((error as Error)?.message ?? error).split('\n')[0].slice(0, 200);
 }
 
 function unreadable(file: string) {
