@@ -3,6 +3,7 @@ import { runBuild } from './build-command.ts';
 import { runCheck } from './check-command.ts';
 import { runDev } from './dev-command.ts';
 import { runExport } from './export-command.ts';
+import { runInit } from './init-command.ts';
 import { runKeygen } from './keygen-command.ts';
 import { runNew } from './new-command.ts';
 import { runReview } from './review-command.ts';
@@ -19,6 +20,7 @@ export const commands: Record<string, Command> = {
   dev: { summary: 'live preview of the manual while you write: re-checks and reloads on save', run: runDev },
   export: { summary: 'print one procedure as model JSON or a mermaid flowchart', run: runExport },
   keygen: { summary: 'write a key pair for signing the published manual (never overwrites a key)', run: runKeygen },
+  init: { summary: 'set up a plant repository: config, procedures folder, ignore entries, editor settings, CI workflow', run: runInit },
   new: { summary: 'write a new procedure of a given kind, with TODO placeholders', run: runNew },
   review: { summary: 'summarise procedure changes against a git base for a pull request', run: runReview },
   schema: { summary: 'print or write the JSON Schema of the front-matter for editors', run: runSchema },

@@ -15,9 +15,11 @@ const invocations = Object.values(workflow.jobs).flatMap((job) => job.steps.flat
   .map((line) => line.slice(line.indexOf('npx stepwright') + 'npx stepwright'.length).trim().split(/\s+/));
 
 describe('examples/github-workflow.yml', () => {
-  it('runs check and review on pull requests and build on main', () => {
+  it('checks every push, runs check and review on pull requests and builds on main', () => {
     expect(Object.keys(workflow.on)).toEqual(['pull_request', 'push']);
-    expect(invocations.map((args) => args[0])).toEqual(['check', 'review', 'build']);
+    expect(workflow.on.push).toBeNull();
+    expect(invocations.map((args) => args[0])).toEqual(['check', 'check', 'review', 'build']);
+    expect((workflow.jobs.publish as unknown as { if: string }).if).toContain("refs/heads/main");
   });
 
   it.each(invocations.map((args) => [args.join(' ')]))('stepwright %s uses options the command documents', async (line) => {
