@@ -28,6 +28,8 @@ let copied = 0;
 function copySiteFiles(dir) {
   for (const name of readdirSync(dir)) {
     const from = join(dir, name);
+    // Caches a type check or an editor may leave in the folder (.astro/, node_modules/.vite) are not the site.
+    if (name.startsWith('.') || name === 'node_modules') continue;
     if (statSync(from).isDirectory()) {
       copySiteFiles(from);
       continue;
@@ -55,4 +57,5 @@ if (leftovers.length) {
   process.stderr.write(`compile: still importing .ts files: ${leftovers.join(', ')}\n`);
   process.exit(1);
 }
-process.stdout.write(`compile: lib/ written (${copied} site files copied).\n`);
+// On standard error: `npm pack --json` keeps standard output for its own report.
+process.stderr.write(`compile: lib/ written (${copied} site files copied).\n`);
