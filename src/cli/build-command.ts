@@ -6,11 +6,12 @@ import { parseArgs } from 'node:util';
 import { formatCheckFailure, loadManual } from './load-manual.ts';
 import { UsageError, useColour, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
-import { writeOfflineCopy } from './write-offline-copy.ts';
 import { indexSite } from './index-site.ts';
 import { publishSite, recoverSite } from './publish-site.ts';
 import { manifestFile, readPrivateKey, writeSiteManifest } from './site-manifest.ts';
 import { siteConfig } from '../site/astro-config.ts';
+import { offlineReport } from './offline-report.ts';
+import { writeOfflineCopy, type OfflineCopySummary } from './write-offline-copy.ts';
 
 export const buildHelp = `Usage: stepwright build [options] [folder]
 
@@ -86,6 +87,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   }
 
   const tmp = `${outDir}.tmp-${process.pid}`;
+  let offline: OfflineCopySummary | undefined;
   // Astro keeps its intermediate files inside the output folder only when that folder is inside the
   // project; elsewhere it would share <project>/.astro with any other build running at the same time.
   const scratch = join(io.cwd, '.stepwright');
@@ -113,7 +115,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     if (!values['no-index']) await indexSite(work);
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
-    await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`) });
+    const places = loaded.view.procedures.map((p) => ({ slug: p.slug, area: p.area, kind: p.kind }));
+    offline = await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`), places, previousSite: outDir });
     // Very last: the SHA-256 of every file, signed when a key is given.
     writeSiteManifest(work, { privateKey });
     if (work !== tmp) {
@@ -131,6 +134,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   }
   const seconds = (performance.now() - started) / 1000;
   io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${loaded.view.tags.length} tag pages into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
+  if (offline) io.stdout.write(offlineReport(offline));
   return 0;
 }
 

@@ -1,25 +1,65 @@
-// Post-build step (after pagefind): writes the service worker and offline manifest for everything in the built site.
+// Post-build step (after pagefind): writes the offline copy's file list, the small publication record tablets
+// check, and the service worker (a plain copy of its code: no list inside, so it stays byte-identical between
+// publications and is not downloaded again).
 import { readdir, readFile, writeFile } from 'node:fs/promises';
 import { join, relative, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { offlineManifest, serviceWorkerSource, type BuiltFile, type OfflineManifest } from '../render/offline-manifest.ts';
+import {
+  offlineFileList, publicationOf, updateCost, type BuiltFile, type OfflineFileList, type OfflinePublication, type ProcedurePlace, type UpdateCost,
+} from '../render/offline-manifest.ts';
+import { fragmentPages } from './pagefind-fragments.ts';
 
 const workerCodeFile = fileURLToPath(new URL('../site/client/service-worker.js', import.meta.url));
 
-export interface OfflineCopySummary extends OfflineManifest {
-  builtAt: string;
+export const fileListName = 'offline-files.json';
+export const publicationName = 'offline-manifest.json';
+
+export interface OfflineCopySummary extends OfflinePublication {
+  list: OfflineFileList;
+  /** What a tablet holding the previous build's whole copy fetches; null when there was no previous build. */
+  update: UpdateCost | null;
 }
 
-export async function writeOfflineCopy(siteDir: string, options: { now: Date }): Promise<OfflineCopySummary> {
+export interface OfflineCopyOptions {
+  /** The publication time written into the record (the build date: the same sources give the same bytes). */
+  now: Date;
+  /** Procedure pages by area and kind, from the manual. */
+  places?: ProcedurePlace[];
+  /** The site's sub-path, "/" or e.g. "/manual/". */
+  base?: string;
+  /** A folder holding the previously published site, to report what an update from it costs. */
+  previousSite?: string;
+}
+
+export async function writeOfflineCopy(siteDir: string, options: OfflineCopyOptions): Promise<OfflineCopySummary> {
   const files: BuiltFile[] = [];
   for (const entry of await readdir(siteDir, { recursive: true, withFileTypes: true })) {
     if (!entry.isFile()) continue;
     const full = join(entry.parentPath, entry.name);
     files.push({ path: relative(siteDir, full).split(sep).join('/'), bytes: await readFile(full) });
   }
-  const manifest = offlineManifest(files);
-  const builtAt = options.now.toISOString();
-  await writeFile(join(siteDir, 'sw.js'), serviceWorkerSource(manifest, await readFile(workerCodeFile, 'utf8')));
-  await writeFile(join(siteDir, 'offline-manifest.json'), `${JSON.stringify({ version: manifest.version, builtAt, files: manifest.files.length, bytes: manifest.bytes })}\n`);
-  return { ...manifest, builtAt };
+  const list = offlineFileList(files, { builtAt: options.now.toISOString(), places: options.places, fragmentPages: fragmentPages(files, options.base ?? '/') });
+  const publication = publicationOf(list);
+  const previous = options.previousSite ? await readFileList(options.previousSite) : null;
+  await writeFile(join(siteDir, 'sw.js'), await readFile(workerCodeFile));
+  await writeFile(join(siteDir, fileListName), formatFileList(list));
+  await writeFile(join(siteDir, publicationName), `${JSON.stringify({ ...publication, list: fileListName })}\n`);
+  return { ...publication, list, update: previous ? updateCost(previous, list) : null };
+}
+
+/** One file per line: the list stays readable, and two publications compare line by line. */
+export function formatFileList(list: OfflineFileList): string {
+  const { files, ...head } = list;
+  const top = JSON.stringify(head).slice(0, -1);
+  return `${top},"files":[\n${files.map((f) => JSON.stringify(f)).join(',\n')}\n]}\n`;
+}
+
+/** The file list of a built site, or null when it has none (never built, or built before lists existed). */
+export async function readFileList(siteDir: string): Promise<OfflineFileList | null> {
+  try {
+    const list = JSON.parse(await readFile(join(siteDir, fileListName), 'utf8')) as OfflineFileList;
+    return list.format === 1 && Array.isArray(list.files) ? list : null;
+  } catch {
+    return null;
+  }
 }

@@ -1,24 +1,64 @@
-import { mkdtemp, mkdir, readFile, writeFile } from 'node:fs/promises';
+import { mkdtemp, mkdir, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
-import { writeOfflineCopy } from '../../src/cli/write-offline-copy.ts';
+import { readFileList, writeOfflineCopy } from '../../src/cli/write-offline-copy.ts';
+import { offlineReport } from '../../src/cli/offline-report.ts';
+
+async function site(pages: Record<string, string>): Promise<string> {
+  const dir = await mkdtemp(join(tmpdir(), 'stepwright-offline-'));
+  for (const [path, text] of Object.entries(pages)) {
+    await mkdir(join(dir, path, '..'), { recursive: true });
+    await writeFile(join(dir, path), text);
+  }
+  return dir;
+}
+
+const fragment = (url: string) => gzipSync(Buffer.from(`pagefind_dcd${JSON.stringify({ url, content: 'words' })}`));
+const places = [{ slug: 'p-1', area: 'east', kind: 'batch' }, { slug: 'p-2', area: 'west', kind: 'emergency' }];
 
 describe('writeOfflineCopy', () => {
-  it('writes sw.js and offline-manifest.json for a built site, stable across rebuilds', async () => {
-    const dir = await mkdtemp(join(tmpdir(), 'stepwright-offline-'));
-    await mkdir(join(dir, 'procedures', 'p-1'), { recursive: true });
-    await writeFile(join(dir, 'index.html'), '<h1>Manual</h1>');
-    await writeFile(join(dir, 'procedures', 'p-1', 'index.html'), '<h1>P-1</h1>');
-    const first = await writeOfflineCopy(dir, { now: new Date('2026-12-01T10:00:00Z') });
+  it('writes the worker as a plain file, the publication record and the file list, stable across rebuilds', async () => {
+    const dir = await site({ 'index.html': '<h1>Manual</h1>', 'procedures/p-1/index.html': '<h1>P-1</h1>', 'procedures/p-2/index.html': '<h1>P-2</h1>' });
+    await writeFile(join(dir, 'pagefind', 'fragment', 'en_1.pf_fragment'), fragment('/procedures/p-2/')).catch(async () => {
+      await mkdir(join(dir, 'pagefind', 'fragment'), { recursive: true });
+      await writeFile(join(dir, 'pagefind', 'fragment', 'en_1.pf_fragment'), fragment('/procedures/p-2/'));
+    });
+    const first = await writeOfflineCopy(dir, { now: new Date('2026-12-01T10:00:00Z'), places });
     const worker = await readFile(join(dir, 'sw.js'), 'utf8');
-    expect(first.files).toEqual(['/', '/procedures/p-1/']);
-    expect(worker).toContain(`"version":"${first.version}"`);
+    expect(first.list.files.map((f) => f.url)).toEqual(['./', 'pagefind/fragment/en_1.pf_fragment', 'procedures/p-1/', 'procedures/p-2/']);
+    // No list inside the worker: it stays the same file from one publication to the next.
+    expect(worker).not.toContain(first.version);
     expect(worker).toContain("addEventListener('fetch'");
-    expect(JSON.parse(await readFile(join(dir, 'offline-manifest.json'), 'utf8'))).toMatchObject({ version: first.version, builtAt: '2026-12-01T10:00:00.000Z' });
-    // A second run over its own output must not count sw.js or the manifest into the version.
-    const second = await writeOfflineCopy(dir, { now: new Date('2026-12-02T10:00:00Z') });
+    expect(JSON.parse(await readFile(join(dir, 'offline-manifest.json'), 'utf8')))
+      .toEqual({ version: first.version, builtAt: '2026-12-01T10:00:00.000Z', files: 4, bytes: first.bytes, list: 'offline-files.json' });
+    const list = await readFileList(dir);
+    expect(list?.version).toBe(first.version);
+    expect(list?.files.find((f) => f.url === 'pagefind/fragment/en_1.pf_fragment')).toMatchObject({ area: 'west', always: true, page: 'procedures/p-2/' });
+    // One file per line, so two publications compare line by line.
+    expect((await readFile(join(dir, 'offline-files.json'), 'utf8')).split('\n').filter((l) => l.startsWith('{"url"'))).toHaveLength(4);
+    // A second run over its own output must not count the worker, the record or the list into the version.
+    const second = await writeOfflineCopy(dir, { now: new Date('2026-12-02T10:00:00Z'), places });
     expect(second.version).toBe(first.version);
     expect(await readFile(join(dir, 'sw.js'), 'utf8')).toBe(worker);
+    await rm(dir, { recursive: true, force: true });
+  });
+
+  it('reports what an update from the previous build costs', async () => {
+    const before = await site({ 'index.html': '<h1>Manual</h1>', 'procedures/p-1/index.html': '<h1>P-1</h1>', 'procedures/p-2/index.html': '<h1>P-2</h1>', 'old.css': 'x' });
+    await writeOfflineCopy(before, { now: new Date('2026-12-01T00:00:00Z'), places });
+    const after = await site({ 'index.html': '<h1>Manual</h1>', 'procedures/p-1/index.html': '<h1>P-1, changed</h1>', 'procedures/p-2/index.html': '<h1>P-2</h1>' });
+    const summary = await writeOfflineCopy(after, { now: new Date('2026-12-02T00:00:00Z'), places, previousSite: before });
+    expect(summary.update).toEqual({ fetched: 1, fetchedBytes: 21, added: 0, changed: 1, removed: 1, urls: ['procedures/p-1/'] });
+    const report = offlineReport(summary);
+    expect(report).toMatch(/^Offline copy: 3 files, 48 B \(version [0-9a-f]{16}\)\.$/m);
+    expect(report).toContain('Update from the previous build: 1 file to download, 21 B (1 changed, 0 new), 1 file to delete.');
+    expect(report).toContain('Area east: 1 procedure, 1 file, 21 B.');
+    expect(report).toMatch(/emergency procedures \(1 file, 12 B\)/);
+    const fresh = await writeOfflineCopy(after, { now: new Date('2026-12-02T00:00:00Z'), places, previousSite: join(after, 'nowhere') });
+    expect(offlineReport(fresh)).toContain('No earlier build in the output folder');
+    await rm(before, { recursive: true, force: true });
+    await rm(after, { recursive: true, force: true });
   });
 });

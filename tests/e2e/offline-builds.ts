@@ -1,0 +1,103 @@
+// Two publications of a generated manual of 300 procedures in four areas (some of them emergency procedures),
+// the second with one procedure changed: built once and shared between runs through a folder in the temp
+// directory, keyed by the sources' content like the demo site (site-build.ts).
+import { spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { generateProcedure } from '../../bench/generate-procedures.ts';
+import { siteKey } from './site-build.ts';
+
+export const procedureCount = 300;
+export const areas = ['area-east', 'area-north', 'area-south', 'area-west'];
+/** The procedure the second publication changes: its title (shown in the lists) and one step's text. */
+export const changedId = 'GEN-0150';
+
+export interface GeneratedManual {
+  procedures: string;
+  /** The first publication. */
+  a: string;
+  /** The second: one procedure changed. */
+  b: string;
+}
+
+/** The generated procedures: small ones (six steps) so that two builds of 300 stay quick; every tenth is an emergency procedure. */
+export function generatedManual(changed: boolean): Array<{ file: string; text: string }> {
+  return Array.from({ length: procedureCount }, (_, i) => {
+    const p = generateProcedure(i + 1, 6);
+    const id = p.file.slice('generated/'.length);
+    let text = i % 10 === 4 ? p.text.replace('kind: batch', 'kind: emergency') : p.text;
+    if (changed && p.text.includes(`id: ${changedId}\n`)) {
+      text = text.replace(/^title: .*$/m, 'title: Generated batch procedure 150, second edition')
+        .replace('Generated for benchmarks.', 'Generated for benchmarks. Changed in the second publication: sample the batch twice.');
+    }
+    return { file: `${areas[i % areas.length]}/${id}`, text };
+  });
+}
+
+function write(folder: string, changed: boolean): void {
+  rmSync(folder, { recursive: true, force: true });
+  for (const p of generatedManual(changed)) {
+    const file = join(folder, p.file);
+    mkdirSync(dirname(file), { recursive: true });
+    writeFileSync(file, p.text);
+  }
+}
+
+function buildEnv(): NodeJS.ProcessEnv {
+  const env = { ...process.env };
+  for (const key of Object.keys(env)) if (/^(NODE_ENV|DEV|PROD|MODE|SSR|BASE_URL|TEST|VITEST.*)$/.test(key)) delete env[key];
+  return { ...env, NO_COLOR: '1', STEPWRIGHT_TODAY: '2026-12-01' };
+}
+
+function build(cwd: string, procedures: string, out: string): string {
+  const run = spawnSync(process.execPath, ['bin/stepwright.mjs', 'build', procedures, '--out', out], {
+    cwd, encoding: 'utf8', env: buildEnv(), timeout: 8 * 60_000,
+  });
+  if (run.status !== 0) throw new Error(`The generated manual did not build (exit ${run.status}):\n${run.stdout}\n${run.stderr}`);
+  return run.stdout;
+}
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+/**
+ * Both publications, built from the same folder (the pages name their source file) into two output folders.
+ * The second build goes over a copy of the first, as a plant republishes into the same folder, so its report
+ * says what the update costs (kept in b-build.txt).
+ */
+export async function ensureGeneratedBuilds(cwd = process.cwd()): Promise<GeneratedManual> {
+  const key = createHash('sha256').update(siteKey(cwd)).update(readFileSync(join(cwd, 'bench/generate-procedures.ts')))
+    .update(readFileSync(join(cwd, 'tests/e2e/offline-builds.ts'))).digest('hex').slice(0, 16);
+  const dir = join(tmpdir(), `stepwright-e2e-offline-${key}`);
+  const result = { procedures: join(dir, 'procedures'), a: join(dir, 'a'), b: join(dir, 'b') };
+  const done = join(dir, 'done');
+  const lock = `${dir}.lock`;
+  const deadline = Date.now() + 15 * 60_000;
+  while (Date.now() < deadline) {
+    if (existsSync(done)) return result;
+    try {
+      mkdirSync(lock);
+    } catch {
+      const age = Date.now() - (statSync(lock, { throwIfNoEntry: false })?.mtimeMs ?? Date.now());
+      if (age > 12 * 60_000) rmSync(lock, { recursive: true, force: true });
+      await sleep(1000);
+      continue;
+    }
+    try {
+      if (existsSync(done)) return result;
+      rmSync(dir, { recursive: true, force: true });
+      mkdirSync(dir, { recursive: true });
+      write(result.procedures, false);
+      writeFileSync(join(dir, 'a-build.txt'), build(cwd, result.procedures, result.a));
+      write(result.procedures, true);
+      cpSync(result.a, result.b, { recursive: true });
+      writeFileSync(join(dir, 'b-build.txt'), build(cwd, result.procedures, result.b));
+      writeFileSync(done, '');
+      return result;
+    } finally {
+      rmSync(lock, { recursive: true, force: true });
+    }
+  }
+  throw new Error('Timed out waiting for another test run to build the generated manuals.');
+}
