@@ -1,5 +1,5 @@
 // Runs every benchmark in bench/ one after another (`npm run bench [-- --quick]`): the *.bench.ts files, then
-// the demo site build, then the scaled site builds. Prints one summary and writes bench/results.json.
+// the demo site build, the scaled site builds, then the offline copy and its one-procedure update. Prints one summary and writes bench/results.json.
 import { spawnSync } from 'node:child_process';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { writeReadmeTable } from './readme-table.ts';
@@ -11,7 +11,7 @@ const here = import.meta.dirname;
 const quick = process.argv.includes('--quick');
 const scripts = readdirSync(here).filter((f) => f.endsWith('.bench.ts')).sort();
 // The site benchmarks build whole sites, so they run last.
-for (const last of ['check-scale.ts', 'manual-site.ts', 'site-scale.ts']) if (existsSync(join(here, last))) scripts.push(last);
+for (const last of ['check-scale.ts', 'manual-site.ts', 'site-scale.ts', 'offline-update.ts']) if (existsSync(join(here, last))) scripts.push(last);
 
 // STEPWRIGHT_BENCH_ONLY=check-scale.ts,site-scale.ts runs only those scripts (figures of the others are absent).
 const only = process.env.STEPWRIGHT_BENCH_ONLY?.split(',').map((s) => s.trim()).filter(Boolean);

@@ -3,11 +3,10 @@
 // directory, keyed by the sources' content like the demo site (site-build.ts).
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { cpSync, existsSync, mkdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { copyFileSync, cpSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { generateProcedure } from '../../bench/generate-procedures.ts';
-import { siteKey } from './site-build.ts';
 
 export const procedureCount = 300;
 export const areas = ['area-east', 'area-north', 'area-south', 'area-west'];
@@ -61,21 +60,45 @@ function build(cwd: string, procedures: string, out: string): string {
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
+const workerFile = 'src/site/client/service-worker.js';
+
+/**
+ * Keyed by everything the build reads except the service worker: the build copies that file unchanged
+ * (sw.js), so a change to it is put in place without building 600 pages again.
+ */
+function buildKey(cwd: string): string {
+  const hash = createHash('sha256');
+  const tree = (path: string): void => {
+    if (!existsSync(path) || path === join(cwd, workerFile)) return;
+    if (statSync(path).isDirectory()) {
+      for (const name of readdirSync(path).sort()) tree(join(path, name));
+      return;
+    }
+    hash.update(path).update('\0').update(readFileSync(path)).update('\0');
+  };
+  for (const input of ['src', 'package-lock.json', 'bench/generate-procedures.ts', 'tests/e2e/offline-builds.ts']) tree(join(cwd, input));
+  return hash.digest('hex').slice(0, 16);
+}
+
+function withCurrentWorker(cwd: string, built: GeneratedManual): GeneratedManual {
+  for (const site of [built.a, built.b]) copyFileSync(join(cwd, workerFile), join(site, 'sw.js'));
+  return built;
+}
+
 /**
  * Both publications, built from the same folder (the pages name their source file) into two output folders.
  * The second build goes over a copy of the first, as a plant republishes into the same folder, so its report
  * says what the update costs (kept in b-build.txt).
  */
 export async function ensureGeneratedBuilds(cwd = process.cwd()): Promise<GeneratedManual> {
-  const key = createHash('sha256').update(siteKey(cwd)).update(readFileSync(join(cwd, 'bench/generate-procedures.ts')))
-    .update(readFileSync(join(cwd, 'tests/e2e/offline-builds.ts'))).digest('hex').slice(0, 16);
+  const key = buildKey(cwd);
   const dir = join(tmpdir(), `stepwright-e2e-offline-${key}`);
   const result = { procedures: join(dir, 'procedures'), a: join(dir, 'a'), b: join(dir, 'b') };
   const done = join(dir, 'done');
   const lock = `${dir}.lock`;
   const deadline = Date.now() + 15 * 60_000;
   while (Date.now() < deadline) {
-    if (existsSync(done)) return result;
+    if (existsSync(done)) return withCurrentWorker(cwd, result);
     try {
       mkdirSync(lock);
     } catch {
@@ -85,7 +108,7 @@ export async function ensureGeneratedBuilds(cwd = process.cwd()): Promise<Genera
       continue;
     }
     try {
-      if (existsSync(done)) return result;
+      if (existsSync(done)) return withCurrentWorker(cwd, result);
       rmSync(dir, { recursive: true, force: true });
       mkdirSync(dir, { recursive: true });
       write(result.procedures, false);
@@ -94,7 +117,7 @@ export async function ensureGeneratedBuilds(cwd = process.cwd()): Promise<Genera
       cpSync(result.a, result.b, { recursive: true });
       writeFileSync(join(dir, 'b-build.txt'), build(cwd, result.procedures, result.b));
       writeFileSync(done, '');
-      return result;
+      return withCurrentWorker(cwd, result);
     } finally {
       rmSync(lock, { recursive: true, force: true });
     }

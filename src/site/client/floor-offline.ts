@@ -117,7 +117,7 @@ export function staleWarning(s: OfflineStatus): string | null {
     return 'A newer manual has been saved on this device. Reload the page to read the current revision.';
   }
   const latest = s.latest;
-  if (!latest || latest.version === s.copy.version || s.page === 'network') return null;
+  if (!latest || latest.version === s.copy.version) return null;
   return `This offline copy is older than the published manual seen ${formatTime(latest.seenAt)}`
     + `${latest.builtAt ? ` (manual of ${formatTime(latest.builtAt)})` : ''}. Check the revision of a procedure before use; `
     + (s.download?.active ? 'the newer manual is being saved now.' : 'connect to the plant network and reload to update the offline copy.');
@@ -154,7 +154,7 @@ export function detailLines(s: OfflineStatus): string[] {
 function renderChoice(holder: HTMLElement, s: OfflineStatus, root: Document): void {
   if (holder.dataset.rendered === s.areas.map((a) => a.area).join('\n') + s.choice.mode + s.choice.areas.join('\n')) return;
   holder.dataset.rendered = s.areas.map((a) => a.area).join('\n') + s.choice.mode + s.choice.areas.join('\n');
-  const el = <K extends keyof HTMLElementTagNameMap>(tag: K, props: Partial<HTMLElementTagNameMap[K]> = {}, ...children: Array<Node | string>) => {
+  const el = (tag: string, props: Record<string, string | boolean> = {}, ...children: Array<Node | string>): HTMLElement => {
     const node = Object.assign(root.createElement(tag), props);
     node.append(...children);
     return node;

@@ -295,11 +295,8 @@ async function fetchList(version) {
   if (!response.ok) throw new Error(`the file list answered ${response.status}`);
   const list = await response.json();
   if (list.format !== 1 || !Array.isArray(list.files)) throw new Error('the file list is in an unknown format');
-  // Published between the two reads: the next check reads the record again.
-  if (list.version !== version) {
-    settings.latest = null;
-    return null;
-  }
+  // Published between the two reads (or the two files do not belong together): the next check starts again.
+  if (list.version !== version) throw new Error('the file list belongs to another publication; publishing may be under way');
   return list;
 }
 
@@ -359,8 +356,9 @@ async function fetchAll(entries, version) {
   const files = await caches.open(filesCacheName);
   let next = 0;
   let lastTold = 0;
+  let stopped = false;
   const worker = async () => {
-    while (next < entries.length) {
+    while (next < entries.length && !stopped) {
       const entry = entries[next++];
       const { bytes, type } = await fetchChecked(entry, version);
       await files.put(fileKey(entry.hash), new Response(bytes, { headers: { 'content-type': type } }));
@@ -373,7 +371,13 @@ async function fetchAll(entries, version) {
       }
     }
   };
-  await Promise.all(Array.from({ length: Math.min(parallel, entries.length) }, worker));
+  // The first failure stops the others from taking more files; files already saved stay for the next attempt.
+  const results = await Promise.allSettled(Array.from({ length: Math.min(parallel, entries.length) }, () => worker().catch((error) => {
+    stopped = true;
+    throw error;
+  })));
+  const failure = results.find((r) => r.status === 'rejected');
+  if (failure) throw failure.reason;
 }
 
 /** Fetches one file and checks it against its hash: a file replaced while the tablet saved it is never kept. */

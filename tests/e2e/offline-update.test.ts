@@ -1,0 +1,310 @@
+// The offline copy at plant scale: two publications of a generated manual of 300 procedures, the second with one
+// procedure changed. A tablet (headless Chromium) updates from the first to the second; the test server's request
+// log shows what it fetched. The network drops halfway through an update; a tablet keeps chosen areas only.
+import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
+import { readFile, stat } from 'node:fs/promises';
+import { extname, join, normalize } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { launchChromium } from './floor-fixture.ts';
+import { changedId, ensureGeneratedBuilds, procedureCount, type GeneratedManual } from './offline-builds.ts';
+import { updateCost, type OfflineFileList, type UpdateCost } from '../../src/render/offline-manifest.ts';
+
+vi.setConfig({ testTimeout: 180_000, hookTimeout: 20 * 60_000 });
+
+const types: Record<string, string> = {
+  '.html': 'text/html; charset=utf-8', '.js': 'text/javascript', '.css': 'text/css', '.json': 'application/json',
+  '.svg': 'image/svg+xml', '.wasm': 'application/wasm',
+};
+
+/** A static server whose published folder can be swapped, with a request log, and a network that can drop. */
+interface TestServer {
+  url: string;
+  serve(dir: string): void;
+  /** Requests the service worker made to save files (marked with its header), by path. */
+  saved: string[];
+  /** After this many more saving requests, every request fails (the connection is cut); null: never. */
+  dropAfter: number | null;
+  down: boolean;
+  close(): Promise<void>;
+}
+
+async function startServer(first: string): Promise<TestServer> {
+  let dir = first;
+  const state: TestServer = {
+    url: '', saved: [], dropAfter: null, down: false,
+    serve(next) { dir = next; },
+    close: () => new Promise<void>((resolve) => { server.closeAllConnections(); server.close(() => resolve()); }),
+  };
+  const handle = async (req: IncomingMessage, res: ServerResponse) => {
+    const path = decodeURIComponent(new URL(req.url ?? '/', 'http://x').pathname);
+    const saving = req.headers['x-stepwright-offline'] !== undefined;
+    if (saving && state.dropAfter !== null && !state.down) {
+      if (state.dropAfter <= 0) state.down = true;
+      else state.dropAfter--;
+    }
+    if (state.down) {
+      req.socket.destroy();
+      return;
+    }
+    if (saving) state.saved.push(path);
+    let file = join(dir, normalize(path).replace(/^(\.\.[/\\])+/, ''));
+    try {
+      if ((await stat(file)).isDirectory()) file = join(file, 'index.html');
+      const body = await readFile(file);
+      res.writeHead(200, { 'content-type': types[extname(file)] ?? 'application/octet-stream', 'cache-control': 'no-cache' });
+      res.end(body);
+    } catch {
+      res.writeHead(404, { 'content-type': 'text/plain' });
+      res.end('not found');
+    }
+  };
+  const server: Server = createServer((req, res) => { void handle(req, res); });
+  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  const address = server.address();
+  // localhost: a secure context for the service worker.
+  state.url = `http://localhost:${typeof address === 'object' && address ? address.port : 0}`;
+  return state;
+}
+
+interface Status {
+  copy: null | { version: string; files: number; keptFiles: number };
+  page: string | null;
+  latest: null | { version: string };
+  download: null | { active: boolean; files: number; done: number; failed: string | null };
+  choice: { mode: string; areas: string[] };
+}
+
+async function status(page: Page): Promise<Status | null> {
+  return page.evaluate(async () => {
+    const r = await fetch('/__offline/status.json', { cache: 'no-store' });
+    return r.ok && (r.headers.get('content-type') ?? '').includes('json') ? r.json() : null;
+  });
+}
+
+async function waitForCopy(page: Page, version: string): Promise<void> {
+  await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 60_000 });
+  await expect.poll(async () => {
+    const s = await status(page);
+    return s?.copy?.version === version && !s.download ? 'saved' : JSON.stringify(s?.download ?? s?.copy?.version ?? null);
+  }, { timeout: 150_000, interval: 500 }).toBe('saved');
+}
+
+/** Pagefind search from the page's own search screen; the result links' text (id and title). */
+async function searchTitles(page: Page, term: string): Promise<string[]> {
+  await page.locator('#search-status').evaluate((el) => { el.textContent = ''; });
+  await page.locator('#search-input').fill(term);
+  await page.locator('#search-form button[type="submit"]').click();
+  await expect.poll(() => page.locator('#search-status').textContent(), { timeout: 20_000 }).toMatch(/found/);
+  return page.locator('#search-results a').allTextContents();
+}
+
+let built: GeneratedManual;
+let listA: OfflineFileList;
+let listB: OfflineFileList;
+let cost: UpdateCost;
+let browser: Browser;
+let server: TestServer;
+const changedSlug = changedId.toLowerCase();
+
+beforeAll(async () => {
+  built = await ensureGeneratedBuilds();
+  listA = JSON.parse(await readFile(join(built.a, 'offline-files.json'), 'utf8'));
+  listB = JSON.parse(await readFile(join(built.b, 'offline-files.json'), 'utf8'));
+  cost = updateCost(listA, listB);
+  browser = await launchChromium();
+});
+afterAll(async () => { await browser?.close(); await server?.close(); });
+
+describe('two publications of a generated manual', () => {
+  it(`has ${procedureCount} procedures, and the second build reports what the update costs`, async () => {
+    expect(listA.files.filter((f) => /^procedures\/[^/]+\/$/.test(f.url))).toHaveLength(procedureCount);
+    const report = await readFile(join(built.b, '..', 'b-build.txt'), 'utf8');
+    expect(report).toContain(`Update from the previous build: ${cost.fetched} file${cost.fetched === 1 ? '' : 's'} to download`);
+    expect(report).toMatch(/^Offline copy: [\d,]+ files, [\d.]+ MB/m);
+  });
+
+  it('changes only the changed procedure\'s pages, the pages that list it and some search-index parts', () => {
+    const pages = cost.urls.filter((u) => !u.startsWith('pagefind/'));
+    const index = cost.urls.filter((u) => u.startsWith('pagefind/'));
+    // The changed procedure's own pages, the procedure list (its title changed) and tag pages listing it.
+    for (const url of pages) expect(url).toMatch(new RegExp(`^(procedures/${changedSlug}/.*|\\./|tags/.*)$`));
+    expect(pages).toContain(`procedures/${changedSlug}/`);
+    expect(pages).toContain('./');
+    // No other procedure page changed: pages carry no build-wide counter or date.
+    expect(pages.filter((u) => u.startsWith('procedures/') && !u.startsWith(`procedures/${changedSlug}/`))).toEqual([]);
+    // Pagefind: the page's fragment, its entry and meta files and the index chunks holding changed words — far
+    // from all of the index.
+    const chunks = listB.files.filter((f) => f.url.startsWith('pagefind/index/')).length;
+    const changedChunks = index.filter((u) => u.startsWith('pagefind/index/')).length;
+    console.log(`update ${cost.fetched} files, ${cost.fetchedBytes} bytes: ${pages.length} pages, ${index.length} search files (${changedChunks} of ${chunks} index chunks); ${cost.removed} removed`);
+    expect(index.filter((u) => u.startsWith('pagefind/fragment/'))).toHaveLength(1);
+    expect(changedChunks).toBeLessThan(chunks);
+    expect(cost.fetched).toBeLessThan(listB.files.length / 20);
+  });
+});
+
+describe('a tablet updating from the first publication to the second', () => {
+  let context: BrowserContext;
+  let reader: Page;
+  const seen: Array<{ url: string; copy: string | null }> = [];
+
+  it('saves the whole first publication on its first visit', async () => {
+    server = await startServer(built.a);
+    context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const first = await context.newPage();
+    await first.goto(`${server.url}/`);
+    await waitForCopy(first, listA.version);
+    // Every distinct content once.
+    expect(server.saved.length).toBe(new Set(listA.files.map((f) => f.hash)).size);
+    await expect.poll(() => first.locator('[data-offline-status]').textContent(), { timeout: 10_000 }).toMatch(/^Offline copy: manual of 2026-12-01, saved/);
+    await first.close();
+  });
+
+  it('fetches only the changed files, once each, and switches in one step', async () => {
+    // A reader has the search screen open, shown from the first publication's copy.
+    reader = await context.newPage();
+    reader.on('response', (r) => { if (r.url().startsWith(server.url)) seen.push({ url: r.url(), copy: r.headers()['x-offline-copy'] ?? null }); });
+    await reader.goto(`${server.url}/search/`);
+    expect((await status(reader))?.page).toBe(listA.version);
+    expect(await searchTitles(reader, changedId)).toEqual([expect.stringContaining('Generated batch procedure 150')]);
+
+    server.serve(built.b);
+    server.saved.length = 0;
+    const other = await context.newPage();
+    await other.goto(`${server.url}/rules/`);
+    await waitForCopy(other, listB.version);
+    const expected = cost.urls.map((u) => `/${u === './' ? '' : u}`).sort();
+    expect([...server.saved].sort()).toEqual(expected);
+    await other.close();
+  });
+
+  it('never shows the old page with the new index: the open page keeps reading the copy it came from', async () => {
+    // Searching again on the page that is still open: the old index, the old title, nothing of the new text.
+    expect(await searchTitles(reader, changedId)).toEqual([expect.not.stringContaining('second edition')]);
+    await reader.locator('#search-status').evaluate((el) => { el.textContent = ''; });
+    await reader.locator('#search-input').fill('second edition');
+    await reader.locator('#search-form button[type="submit"]').click();
+    await expect.poll(() => reader.locator('#search-status').textContent(), { timeout: 20_000 }).toMatch(/^0 procedures found/);
+    // It says a newer manual is saved.
+    await expect.poll(() => reader.locator('[data-offline-stale]').textContent(), { timeout: 20_000 }).toMatch(/newer manual has been saved/);
+    const fromCopy = seen.filter((s) => s.copy !== null);
+    expect(fromCopy.length).toBeGreaterThan(3);
+    expect(new Set(fromCopy.map((s) => s.copy))).toEqual(new Set([listA.version]));
+
+    // Reloaded, it is the new manual throughout: page, index and fragments.
+    seen.length = 0;
+    await reader.reload();
+    expect(await searchTitles(reader, 'second edition')).toEqual([expect.stringContaining('second edition')]);
+    expect(new Set(seen.filter((s) => s.copy !== null).map((s) => s.copy))).toEqual(new Set([listB.version]));
+    await context.close();
+  });
+});
+
+describe('a tablet whose network drops halfway through an update', () => {
+  it('keeps its complete old copy, then finishes the update where it stopped', async () => {
+    server.serve(built.a);
+    server.dropAfter = null;
+    server.down = false;
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const page = await context.newPage();
+    await page.goto(`${server.url}/`);
+    await waitForCopy(page, listA.version);
+
+    // The second publication appears; the network is cut after a third of its files.
+    server.serve(built.b);
+    server.saved.length = 0;
+    const cutAfter = Math.max(1, Math.floor(cost.fetched / 3));
+    server.dropAfter = cutAfter;
+    await page.reload().catch(() => undefined);
+    await expect.poll(async () => (await status(page))?.download?.failed ?? null, { timeout: 60_000 }).not.toBeNull();
+    const before = [...server.saved];
+    expect(before).toHaveLength(cutAfter);
+    const s = (await status(page))!;
+    expect(s.copy?.version).toBe(listA.version);
+    expect(s.download?.done).toBeGreaterThanOrEqual(1);
+    expect(s.download?.done).toBeLessThan(s.download!.files);
+
+    // Without a network the tablet reads its whole old copy: the changed procedure as it was, and search.
+    await page.goto(`${server.url}/procedures/${changedSlug}/`);
+    await expect(page.locator('h1').textContent()).resolves.toContain(changedId);
+    await expect(page.locator('body').textContent()).resolves.not.toContain('second edition');
+    expect((await status(page))?.page).toBe(listA.version);
+    await page.goto(`${server.url}/search/`);
+    expect(await searchTitles(page, changedId)).toEqual([expect.stringContaining('Generated batch procedure 150')]);
+    await expect.poll(() => page.locator('[data-offline-status]').textContent(), { timeout: 10_000 }).toMatch(/Update stopped at \d+ of \d+ files/);
+
+    // The network returns: the update goes on with the files it does not hold yet, and switches.
+    server.dropAfter = null;
+    server.down = false;
+    await page.reload();
+    await waitForCopy(page, listB.version);
+    const after = server.saved.slice(before.length);
+    const expected = cost.urls.map((u) => `/${u === './' ? '' : u}`).sort();
+    // Files saved before the cut are not fetched again; together the two parts are exactly the update.
+    expect(after.filter((p) => before.includes(p))).toEqual([]);
+    expect([...new Set([...before, ...after])].sort()).toEqual(expected);
+    await page.goto(`${server.url}/procedures/${changedSlug}/`);
+    await expect(page.locator('body').textContent()).resolves.toContain('second edition');
+    await context.close();
+  });
+});
+
+describe('a tablet that keeps chosen areas', () => {
+  it('keeps its areas and every emergency procedure, keeps pages once opened, and remembers the choice', async () => {
+    server.serve(built.b);
+    const context = await browser.newContext({ viewport: { width: 800, height: 1280 } });
+    const page = await context.newPage();
+    await page.goto(`${server.url}/offline/`);
+    await waitForCopy(page, listB.version);
+    const whole = (await status(page))!.copy!.keptFiles;
+    expect(whole).toBe(listB.files.length);
+    await expect.poll(() => page.locator('[data-offline-details]').textContent(), { timeout: 10_000 }).toMatch(/keeps the whole manual/);
+
+    // The choice is made on the tablet: one area.
+    await page.locator('input[name="offline-mode"][value="areas"]').check();
+    await page.locator('input[name="offline-area"][value="area-east"]').check();
+    await page.getByRole('button', { name: 'Keep this choice' }).click();
+    await expect.poll(async () => (await status(page))?.copy?.keptFiles, { timeout: 30_000 }).toBeLessThan(whole / 2);
+    const stored = await page.evaluate(async () => {
+      const names = await caches.keys();
+      const files = await caches.open(names.find((n) => n.startsWith('stepwright-offline-files'))!);
+      return (await files.keys()).length;
+    });
+    expect(stored).toBeLessThan(whole / 2);
+
+    // It survives a reload.
+    await page.reload();
+    await expect.poll(() => page.locator('input[name="offline-area"][value="area-east"]').isChecked(), { timeout: 10_000 }).toBe(true);
+    await expect(page.locator('input[name="offline-mode"][value="areas"]').isChecked()).resolves.toBe(true);
+
+    // Pages by area from the list: east is kept, an emergency procedure of another area is kept, a batch procedure
+    // of another area is not.
+    const byArea = (area: string, emergency: boolean) => listB.files.find((f) => f.area === area && !!f.always === emergency && /^procedures\/[^/]+\/$/.test(f.url))!.url;
+    const east = byArea('area-east', false);
+    const otherEmergency = byArea('area-south', true);
+    const westBatch = byArea('area-west', false);
+    const westOther = listB.files.filter((f) => f.area === 'area-west' && !f.always && /^procedures\/[^/]+\/$/.test(f.url))[1].url;
+    // Opened once with a network: kept from then on.
+    await page.goto(`${server.url}/${westOther}`);
+    await expect.poll(async () => {
+      const s = await page.evaluate(async () => (await (await fetch('/__offline/status.json')).json()).opened);
+      return s;
+    }, { timeout: 20_000 }).toBe(1);
+
+    server.down = true;
+    for (const url of [east, otherEmergency, westOther]) {
+      await page.goto(`${server.url}/${url}`);
+      await expect(page.locator('h1').textContent()).resolves.toMatch(/^GEN-\d{4}/);
+    }
+    await page.goto(`${server.url}/${westBatch}`);
+    await expect(page.locator('h1').textContent()).resolves.toBe('Not in the offline copy');
+    // Search offline finds what the tablet holds, and says what it cannot show.
+    await page.goto(`${server.url}/search/`);
+    const titles = await searchTitles(page, 'Generated batch procedure');
+    expect(titles.length).toBeGreaterThan(0);
+    await expect(page.locator('#search-status').textContent()).resolves.toMatch(/more match(es)? in pages this tablet has not saved/);
+    server.down = false;
+    await context.close();
+  });
+});
