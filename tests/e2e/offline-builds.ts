@@ -91,6 +91,9 @@ function withCurrentWorker(cwd: string, built: GeneratedManual): GeneratedManual
  * says what the update costs (kept in b-build.txt).
  */
 export async function ensureGeneratedBuilds(cwd = process.cwd()): Promise<GeneratedManual> {
+  // Both publications built beforehand (a folder holding procedures/, a/ and b/), like STEPWRIGHT_SITE_DIR.
+  const given = process.env.STEPWRIGHT_OFFLINE_BUILDS_DIR;
+  if (given) return withCurrentWorker(cwd, { procedures: join(given, 'procedures'), a: join(given, 'a'), b: join(given, 'b') });
   const key = buildKey(cwd);
   const dir = join(tmpdir(), `stepwright-e2e-offline-${key}`);
   const result = { procedures: join(dir, 'procedures'), a: join(dir, 'a'), b: join(dir, 'b') };

@@ -56,7 +56,8 @@ export function setUpOffline(root: Document = document): void {
       if (warning) stale.textContent = warning;
     }
     if (details) details.replaceChildren(...detailLines(s).map((line) => Object.assign(root.createElement('li'), { textContent: line })));
-    if (choice) renderChoice(choice, s, root);
+    // The choice needs the list of areas, which comes with the first saved copy.
+    if (choice && s.copy) renderChoice(choice, s, root);
   }
 
   navigator.serviceWorker.addEventListener('message', () => { void show(); });

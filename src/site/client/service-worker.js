@@ -36,6 +36,7 @@ let settings = defaults();
 let loading = null;
 let checking = null;
 let updating = null;
+let again = false;
 let saving = Promise.resolve();
 // The copy and choice last found complete in this run of the worker: nothing to look at until one changes.
 let settled = '';
@@ -271,22 +272,26 @@ function checkAndUpdate() {
   return check().then(() => runUpdate());
 }
 
-/** Brings the copy to the newest publication known and the tablet's choice; one run at a time. */
+/**
+ * Brings the copy to the newest publication known and the tablet's choice; one run at a time. A call during a
+ * run (a new choice, a newer publication) makes the run go round once more, so nothing asked for is dropped.
+ */
 function runUpdate() {
-  if (!updating) {
-    updating = (async () => {
-      await load();
-      // A publication that appears while an update runs is taken in the next round.
-      for (let round = 0; round < 3; round++) {
-        const target = settings.latest?.version ?? held?.version;
-        if (!target) return;
-        const list = held && held.version === target ? held : await fetchList(target);
-        if (!list) return;
-        await bringTo(list);
-        if ((settings.latest?.version ?? target) === target) return;
-      }
-    })().finally(() => { updating = null; });
+  if (updating) {
+    again = true;
+    return updating;
   }
+  updating = (async () => {
+    await load();
+    for (let round = 0; round < 5; round++) {
+      again = false;
+      const target = settings.latest?.version ?? held?.version;
+      if (!target) return;
+      const list = held && held.version === target ? held : await fetchList(target);
+      await bringTo(list);
+      if (!again && (settings.latest?.version ?? target) === target) return;
+    }
+  })().finally(() => { updating = null; });
   return updating;
 }
 
