@@ -108,7 +108,7 @@ export function stepwrightStamp(): string {
     codeStamp = `unknown-${process.pid}-${Date.now()}-${Math.random()}`;
     return codeStamp;
   }
-  for (const folder of ['src', 'dist']) {
+  for (const folder of ['src', 'lib', 'dist']) {
     const walk = (dir: string) => {
       let names: string[];
       try {
