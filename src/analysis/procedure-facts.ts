@@ -7,12 +7,14 @@ import { parseCondition } from './conditions/parse.ts';
 import { resolveCondition, type ResolveProblem } from './conditions/resolve.ts';
 import { compileStepGraph, type StepGraph } from './step-graph.ts';
 import { collectQuantities, type QuantitySite } from './quantity-sites.ts';
+import { analyseState, type StateAnalysis } from './state/analyse-state.ts';
+import { stateInputOf } from './state/state-input.ts';
 
 export interface ConditionSite {
   path: PathKey[];
   text: string;
-  role: 'until' | 'when' | 'trips-when';
-  /** The step the condition ends, or the interlock tag. */
+  role: 'until' | 'when' | 'trips-when' | 'needs' | 'line-up' | 'hazard-when';
+  /** The step the condition ends or needs, or the interlock tag. */
   owner?: string;
   result: ConditionParseResult;
   /** Undeclared names, unit mismatches ... (empty when the text did not parse). */
@@ -30,6 +32,8 @@ export interface ProcedureFacts {
   /** Setpoints and operating limits, parsed. */
   quantities: QuantitySite[];
   readonly graph: StepGraph;
+  /** The plant state at every step, over every path (computed on first use). */
+  readonly state: StateAnalysis;
 }
 
 /**
@@ -66,11 +70,16 @@ export function collectFacts(procedure: Procedure): ProcedureFacts {
     for (const b of block.branches) if (b.when) add(b.when.value, b.when.path, 'when');
   }
   for (const i of procedure.interlocks) if (i.tripsWhen.value) add(i.tripsWhen.value, i.tripsWhen.path, 'trips-when', i.tag, i.from?.id);
+  for (const s of steps) if (s.step.needs) add(s.step.needs.value, s.step.needs.path, 'needs', s.step.id);
+  for (const l of procedure.lineUp ?? []) add(l.value, l.path, 'line-up');
+  for (const h of procedure.hazards) if (h.when) add(h.when.value, h.when.path, 'hazard-when');
   // Register trips share the path of the `uses` item that brought them; the procedure's own sites come first.
   const byPath = new Map<string, ConditionSite>();
   for (const c of conditions) if (!byPath.has(c.path.join('\u0000'))) byPath.set(c.path.join('\u0000'), c);
 
   let graph: StepGraph | undefined;
+  let state: StateAnalysis | undefined;
+  const graphOnce = () => (graph ??= compileStepGraph(procedure));
   return {
     procedure,
     steps,
@@ -79,8 +88,12 @@ export function collectFacts(procedure: Procedure): ProcedureFacts {
     conditionAt: (path) => byPath.get(path.join('\u0000')),
     quantities: collectQuantities(procedure, steps),
     get graph() {
-      graph ??= compileStepGraph(procedure);
-      return graph;
+      return graphOnce();
+    },
+    get state() {
+      const extra = conditions.filter((c) => c.role === 'needs' || c.role === 'hazard-when').map((c) => c.text);
+      state ??= analyseState(stateInputOf(procedure, graphOnce()), extra);
+      return state;
     },
   };
 }

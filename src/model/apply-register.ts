@@ -104,8 +104,26 @@ export function tripOf(fn: RegisterSafetyFunction, register: PlantRegister, path
     tag: fn.id,
     tripsWhen: { value: fn.tripsWhen?.value ?? '', path },
     action: describeSafetyFunction(fn, register),
+    latches: fn.latches === true,
+    holds: heldOutputs(fn, register, path),
     path,
   };
+}
+
+/** The outputs a safety function forces, as states of register signals that can take those values. */
+function heldOutputs(fn: RegisterSafetyFunction, register: PlantRegister, path: PathKey[]): Interlock['holds'] {
+  const out: Interlock['holds'] = [];
+  const add = (tags: string[], value: string) => {
+    for (const tag of tags) {
+      const values = register.signals.get(tag)?.values?.map(String);
+      if (values?.includes(value)) out.push({ signal: tag, value, path });
+    }
+  };
+  add(fn.closes, 'closed');
+  add(fn.opens, 'open');
+  add(fn.stops, 'stopped');
+  add(fn.keepsRunning, 'running');
+  return out;
 }
 
 /** A relief device as the interlock a procedure shows: it lifts when its signal reaches the set pressure. */
@@ -115,6 +133,8 @@ export function reliefOf(device: RegisterReliefDevice, path: PathKey[]): Interlo
     tag: device.id,
     tripsWhen: { value: `${device.signal} >= ${device.setPressure.value}`, path },
     action: `Relief device lifts${device.dischargesTo ? ` to ${device.dischargesTo}` : ''}${device.protects.length ? `, protecting ${device.protects.join(', ')}` : ''}.`,
+    latches: false,
+    holds: [],
     path,
   };
 }

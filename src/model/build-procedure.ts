@@ -2,12 +2,14 @@
 import type { Root } from 'mdast';
 import type { PathKey } from '../parse/read-source.ts';
 import type {
-  Approval, ChooseBlock, ChooseBranch, Hazard, Interlock, Limit, Located, ParallelBlock, Procedure, SequenceItem, Signal, Step,
+  Approval, ChooseBlock, ChooseBranch, Hazard, Interlock, Limit, Located, ParallelBlock, Procedure, SequenceItem, Signal, StateAction,
+  StateEntry, Step,
 } from './procedure.ts';
 
 type Data = Record<string, unknown>;
 
-const stepKeys = new Set(['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note', 'waive']);
+const stepKeys = new Set(['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note', 'waive',
+  'state', 'needs', 'trips', 'resets', 'performer', 'verify', 'time-limit', 'if-not']);
 const branchKeys = new Set(['when', 'otherwise', 'steps', 'goto']);
 
 export function buildProcedure(file: string, data: unknown, body: Root, bodyText: string): Procedure {
@@ -34,6 +36,8 @@ export function buildProcedure(file: string, data: unknown, body: Root, bodyText
     shutdownConditions: (Array.isArray(d['conditions-requiring']) ? d['conditions-requiring'] : [d['conditions-requiring']])
       .map(asText).filter((c): c is string => Boolean(c?.trim())),
     responsible: asText(d.responsible),
+    lineUp: locatedList(d['line-up'], ['line-up']),
+    requires: locatedList(d.requires, ['requires']),
     steps: buildSequence(d.steps, ['steps']),
     uses: asArray(d.uses).flatMap((u, i) => (u === null || typeof u === 'object' ? [] : [{ value: String(u), path: ['uses', i] }])),
     certifications: asArray(d.certifications).map((c, i) => {
@@ -84,6 +88,8 @@ function buildInterlock(value: unknown, path: PathKey[]): Interlock {
     tag: asText(l.tag) ?? '',
     tripsWhen: located(l['trips-when'], [...path, 'trips-when']) ?? { value: '', path: [...path, 'trips-when'] },
     action: asText(l.action) ?? '',
+    latches: l.latches === true,
+    holds: stateEntries(l.holds, [...path, 'holds']),
     path,
   };
 }
@@ -97,6 +103,7 @@ function buildHazard(value: unknown, path: PathKey[]): Hazard {
     consequence: asText(h.consequence),
     avoid: asText(h.avoid),
     at: at.map((s, i) => ({ value: String(s), path: Array.isArray(h.at) ? [...path, 'at', i] : [...path, 'at'] })),
+    when: located(h.when, [...path, 'when']),
     path,
   };
 }
@@ -134,6 +141,15 @@ function buildStep(r: Data, path: PathKey[]): Step {
       const wr = asRecord(w);
       return { rule: asText(wr.rule) ?? '', reason: asText(wr.reason), path: [...path, 'waive', i] };
     }),
+    state: stateActions(r.state, [...path, 'state']),
+    needs: located(r.needs, [...path, 'needs']),
+    trips: locatedList(r.trips, [...path, 'trips']),
+    resets: locatedList(r.resets, [...path, 'resets']),
+    performer: asText(r.performer),
+    verify: r.verify && typeof r.verify === 'object' && !Array.isArray(r.verify)
+      ? { kind: asText(asRecord(r.verify).kind) ?? '', role: asText(asRecord(r.verify).role) ?? '', path: [...path, 'verify'] } : undefined,
+    timeLimit: timeLimitOf(r['time-limit'], [...path, 'time-limit']),
+    ifNot: ifNotOf(r['if-not'], [...path, 'if-not']),
     path,
     extra,
   };
@@ -168,6 +184,49 @@ function buildChoose(r: Data, path: PathKey[]): ChooseBlock {
     }),
     path,
   };
+}
+
+function stateEntries(value: unknown, path: PathKey[]): StateEntry[] {
+  return Object.entries(asRecord(value))
+    .filter(([, v]) => v !== null && typeof v !== 'object')
+    .map(([signal, v]) => ({ signal, value: String(v), path: [...path, signal] }));
+}
+
+function stateActions(value: unknown, path: PathKey[]): StateAction[] {
+  return Object.entries(asRecord(value)).flatMap(([signal, v]): StateAction[] => {
+    const at = [...path, signal];
+    if (v === null || v === undefined) return [];
+    if (typeof v !== 'object') return [{ signal, value: String(v), lasts: 'stored', path: at }];
+    const o = asRecord(v);
+    const to = asText(o.to);
+    if (to === undefined) return [];
+    const lasts = asText(o.lasts);
+    const after = located(o.after, [...at, 'after']);
+    if (after) return [{ signal, value: to, lasts: 'delayed', duration: after, whileActive: lasts === 'step', path: at }];
+    if (lasts === 'step') return [{ signal, value: to, lasts: 'step', path: at }];
+    if (lasts !== undefined) return [{ signal, value: to, lasts: 'limited', duration: located(o.lasts, [...at, 'lasts']), path: at }];
+    return [{ signal, value: to, lasts: 'stored', path: at }];
+  });
+}
+
+function timeLimitOf(value: unknown, path: PathKey[]): Step['timeLimit'] {
+  const t = asRecord(value);
+  const max = located(t.max, [...path, 'max']);
+  if (!max) return undefined;
+  return { max, then: asText(t.then) ?? '', goto: located(t.goto, [...path, 'goto']), path };
+}
+
+function ifNotOf(value: unknown, path: PathKey[]): Step['ifNot'] {
+  if (value === undefined || value === null || typeof value !== 'object' || Array.isArray(value)) return undefined;
+  const o = asRecord(value);
+  const actions = Array.isArray(o.do) ? o.do.map(String) : o.do === undefined ? [] : [String(o.do)];
+  return { actions, goto: located(o.goto, [...path, 'goto']), path };
+}
+
+function locatedList(value: unknown, path: PathKey[]): Located<string>[] {
+  if (value === undefined || value === null) return [];
+  const list = Array.isArray(value) ? value : [value];
+  return list.flatMap((v, i) => located(v, Array.isArray(value) ? [...path, i] : path) ?? []);
 }
 
 function located(value: unknown, path: PathKey[]): Located<string> | undefined {

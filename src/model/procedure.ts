@@ -56,7 +56,30 @@ export interface Interlock {
   tag: string;
   tripsWhen: Located<string>;
   action: string;
+  /** True when the trip stays in force until a step resets it. */
+  latches: boolean;
+  /** Outputs the trip forces while in force. */
+  holds: StateEntry[];
   path: PathKey[];
+}
+
+/** A signal and the value a step, trip or line-up gives it. */
+export interface StateEntry {
+  signal: string;
+  value: string;
+  path: PathKey[];
+}
+
+/**
+ * A lasting action (the action qualifiers of IEC 61131-3 SFC, in our own words): `stored` lasts until another
+ * step changes it (S, and R when it puts the signal back); `step` only while the step is active (N);
+ * `limited` at most `duration` and never past the step (L); `delayed` takes effect after `duration`, then
+ * lasts like `stored` (SD) or only while the step is active when `whileActive` (D).
+ */
+export interface StateAction extends StateEntry {
+  lasts: 'stored' | 'step' | 'limited' | 'delayed';
+  duration?: Located<string>;
+  whileActive?: boolean;
 }
 
 export interface Hazard {
@@ -65,6 +88,8 @@ export interface Hazard {
   consequence?: string;
   avoid?: string;
   at: Located<string>[];
+  /** When the hazard is present, as a condition over the signals. */
+  when?: Located<string>;
   path: PathKey[];
 }
 
@@ -88,6 +113,18 @@ export interface Step {
   note?: string;
   /** Rules waived on this step, each with its written reason. */
   waivers?: Waiver[];
+  /** Lasting actions: states the step puts equipment in. */
+  state?: StateAction[];
+  /** A condition the step relies on. */
+  needs?: Located<string>;
+  /** Interlocks the step trips on purpose, and latched interlocks it resets. */
+  trips?: Located<string>[];
+  resets?: Located<string>[];
+  performer?: string;
+  verify?: { kind: 'independent' | 'peer-check' | 'second-person' | string; role: string; path: PathKey[] };
+  timeLimit?: { max: Located<string>; then: string; goto?: Located<string>; path: PathKey[] };
+  /** What to do when the expected result does not come: actions, a jump, or both. */
+  ifNot?: { actions: string[]; goto?: Located<string>; path: PathKey[] };
   path: PathKey[];
   /** Extra keys added beyond the core contract, kept as written for later stages. */
   extra: Record<string, unknown>;
@@ -169,6 +206,10 @@ export interface Procedure {
   shutdownConditions: string[];
   /** Emergency shutdown: who initiates it and who is in charge. */
   responsible?: string;
+  /** Conditions that must hold before the first step (the line-up). */
+  lineUp: Located<string>[];
+  /** Procedures that must have been completed first. */
+  requires: Located<string>[];
   steps: SequenceItem[];
   /** Register ids listed under `uses`, as written. */
   uses: Located<string>[];

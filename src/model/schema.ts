@@ -19,6 +19,9 @@ const date = z
 /** A quantity written as text, e.g. "238 degC"; its unit is checked by the rules, not here. */
 const quantityText = z.union([z.string(), z.number()]);
 
+/** A state an equipment or signal can be in: a declared value ("open", "running", true). */
+const stateValue = z.union([z.string(), z.boolean(), z.number()]);
+
 export const approvalSchema = z.strictObject({
   role: text.describe('The signer\'s role, e.g. "Process engineer", "Shift supervisor".'),
   name: text.describe('Printed name of the signer.'),
@@ -50,6 +53,9 @@ export const interlockSchema = z.strictObject({
   tag: text.describe('Tag of the safety system, e.g. TSHH-210.'),
   'trips-when': text.describe('The trip condition, e.g. "TI-210 >= 255 degC".'),
   action: text.describe('What the interlock does when it trips.'),
+  latches: z.boolean().optional().describe('True when the trip stays in force until a step resets it.'),
+  holds: z.record(z.string(), stateValue).optional()
+    .describe('The outputs the trip forces, {signal: value}; a latched trip holds them until a reset step.'),
 });
 
 export const hazardSchema = z.strictObject({
@@ -58,9 +64,26 @@ export const hazardSchema = z.strictObject({
   consequence: z.string().optional().describe('The consequence of not avoiding the hazard.'),
   avoid: z.string().optional().describe('How to avoid the hazard.'),
   at: z.array(z.string()).optional().describe('Step ids the message is repeated before.'),
+  when: z.string().optional().describe('The plant state in which the hazard is present, as a condition; no step may be reachable with it true.'),
 });
 
 const doSchema = z.union([text, z.array(text).min(1)]);
+
+/** A duration written as text, e.g. "30 s"; checked by the rules. */
+const durationText = z.union([z.string(), z.number()]);
+
+/** A lasting action: a plain value lasts until another step changes it; the long form says how long it lasts. */
+export const stateActionSchema = z.union([
+  stateValue,
+  z.strictObject({
+    to: stateValue.describe('The value the step gives the signal.'),
+    lasts: durationText.optional()
+      .describe('"step": only while the step is active; a duration: at most that long and never past the step; left out: until another step changes it.'),
+    after: durationText.optional().describe('A delay: the value takes effect this long after the step starts, if the step is still active.'),
+  }),
+]);
+
+export const verificationKinds = ['independent', 'peer-check', 'second-person'] as const;
 
 export const stepSchema = z.strictObject({
   step: z.string().regex(stepIdPattern, 'must be lower-case letters, digits and hyphens, starting with a letter or digit')
@@ -85,6 +108,25 @@ export const stepSchema = z.strictObject({
       revision: z.number().int().min(0).optional().describe('The revision of the called procedure this step was written and reviewed against.'),
     }),
   ]).optional().describe('Runs another procedure (a shared operation) as this step; the step ends when that procedure ends.'),
+  state: z.record(z.string(), stateActionSchema).optional()
+    .describe('States the step puts equipment in, {signal: value}; they last until another step changes them unless the long form says otherwise.'),
+  needs: z.string().optional().describe('A condition the step relies on; it must hold on every path that reaches the step.'),
+  trips: z.array(z.string()).optional().describe('Interlocks the step trips on purpose (a trip test).'),
+  resets: z.array(z.string()).optional().describe('Latched interlocks the step resets.'),
+  performer: z.string().optional().describe('The role that does the step.'),
+  verify: z.strictObject({
+    kind: z.enum(verificationKinds).describe('independent: a second person checks separately afterwards; peer-check: a second person watches as it is done; second-person: a second person signs.'),
+    role: text.describe('The role of the person who checks or signs.'),
+  }).optional().describe('Who checks the step and how.'),
+  'time-limit': z.strictObject({
+    max: durationText.describe('The longest the step may take, e.g. "15 min".'),
+    then: text.describe('What to do when the step takes longer.'),
+    goto: z.string().optional().describe('Step id to go to when the limit is exceeded.'),
+  }).optional().describe('A maximum duration and what to do when it is exceeded.'),
+  'if-not': z.strictObject({
+    do: doSchema.optional().describe('The response: actions to take when the expected result does not come.'),
+    goto: z.string().optional().describe('Step id to go to instead.'),
+  }).optional().describe('What to do when the step\'s expected result does not come (a response with actions, or a jump).'),
 });
 
 export type StepInput = z.infer<typeof stepSchema>;
@@ -157,6 +199,9 @@ export const procedureSchema = z.strictObject({
   expires: date.optional().describe('Temporary procedures: the last day the procedure may be used.'),
   modifies: z.array(z.string().regex(procedureIdPattern, 'must be a procedure id, e.g. U2-T230-CIP-001')).optional()
     .describe('Temporary procedures: ids of the procedures this one changes while it is in force.'),
+  'line-up': z.array(text).optional().describe('Conditions that must hold before the first step, e.g. "XV-2101 == closed"; shown as a checklist.'),
+  requires: z.array(z.string().regex(procedureIdPattern, 'must be a procedure id')).optional()
+    .describe('Procedures that must have been completed before this one starts.'),
   steps: sequenceSchema.describe('The sequence: steps and blocks, run in order.'),
 });
 

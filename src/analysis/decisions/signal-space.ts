@@ -83,6 +83,16 @@ export class SignalSpace {
     for (const name of order) this.variables.set(name, this.variableFor(name, words.get(name), numbers.has(name)));
   }
 
+  /** Adds a signal that no condition names (e.g. one a step only drives), with its declared values. */
+  include(name: string): Variable {
+    let v = this.variables.get(name);
+    if (!v) {
+      v = this.variableFor(name, undefined, false);
+      this.variables.set(name, v);
+    }
+    return v;
+  }
+
   private variableFor(name: string, words: Set<string> | undefined, numeric: boolean): Variable {
     const signal = Object.hasOwn(this.signals, name) ? this.signals[name] : undefined;
     if (!signal) {

@@ -26,7 +26,14 @@ outside the declared range is reported by threshold-outside-range instead.`,
       if (site.fromRegister) continue;
       if (!site.result.ok || site.problems.length) continue;
       if (neverTrue([site.result.condition], signals) !== true) continue;
-      const role = site.role === 'until' ? `step '${site.owner}' can never end` : site.role === 'when' ? 'this branch can never be taken' : `interlock ${site.owner} can never trip`;
+      const role = {
+        until: `step '${site.owner}' can never end`,
+        when: 'this branch can never be taken',
+        'trips-when': `interlock ${site.owner} can never trip`,
+        needs: `step '${site.owner}' can never be started`,
+        'line-up': 'the procedure can never be started',
+        'hazard-when': 'the hazard is never checked',
+      }[site.role];
       ctx.report({
         path: site.path,
         message: `'${site.text}' can never be true: no value of ${names(site.result.condition)} satisfies it, so ${role}.`,

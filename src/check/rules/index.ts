@@ -79,8 +79,24 @@ import valueNotAllowed from './value-not-allowed.ts';
 import waiverUnknownRule from './waiver-unknown-rule.ts';
 import waiverWithoutReason from './waiver-without-reason.ts';
 import yamlSyntax from './yaml-syntax.ts';
+import contingencyMissing from './contingency-missing.ts';
+import hazardCanOccur from './hazard-can-occur.ts';
+import independentCheckByPerformer from './independent-check-by-performer.ts';
+import latchedTripHoldsOutput from './latched-trip-holds-output.ts';
+import retryWithoutLimit from './retry-without-limit.ts';
+import stateNotAnalysed from './state-not-analysed.ts';
+import stateReferenceUnknown from './state-reference-unknown.ts';
+import stepNeedUnmet from './step-need-unmet.ts';
 
 export const rules = {
+  'contingency-missing': contingencyMissing,
+  'hazard-can-occur': hazardCanOccur,
+  'independent-check-by-performer': independentCheckByPerformer,
+  'latched-trip-holds-output': latchedTripHoldsOutput,
+  'retry-without-limit': retryWithoutLimit,
+  'state-not-analysed': stateNotAnalysed,
+  'state-reference-unknown': stateReferenceUnknown,
+  'step-need-unmet': stepNeedUnmet,
   'approval-missing': approvalMissing,
   'author-only-approver': authorOnlyApprover,
   'body-too-deep': bodyTooDeep,

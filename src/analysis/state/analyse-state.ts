@@ -1,0 +1,326 @@
+// The plant state along every path: which values every signal, valve and latched trip can have while each step
+// is active. It explores the step graph's markings (so parallel branches interleave as they can on the plant)
+// with sets of values (boxes of interval sets per signal, in SI base units), and stops when nothing new is
+// reachable: a fixed point over the step graph.
+//
+// What changes a value: a step's lasting actions (`state`), a step's trips and resets, and the signals a step
+// drives (those in its `set` and `until`), which move from where they were towards the step's target while it is
+// active. A transition guarantees its condition when it fires. Every other signal keeps its value, starting from
+// the line-up and, without one, its declared range.
+import type { Condition } from '../conditions/ast.ts';
+import { comparisonsIn, parseCondition } from '../conditions/parse.ts';
+import { NotAnalysable, SignalSpace, type Box, type Region, type SignalInfo, type ValueSet } from '../decisions/signal-space.ts';
+import { intersect, normalize, union, type IntervalSet } from '../decisions/interval-set.ts';
+import { parseQuantity, toBase } from '../units.ts';
+import type { Step } from '../../model/procedure.ts';
+import type { Transition } from '../step-graph.ts';
+import { activeOnlyActions, clear, latched, storedActions, tripVariable, type StateInput } from './state-input.ts';
+
+export interface StateView {
+  box: Box;
+  /** The exploration node it came from, for the path that leads there. */
+  node: number;
+}
+
+export interface StateAnalysis {
+  space: SignalSpace;
+  /** Step place id → the values that can hold while the step is active. */
+  views: Map<string, StateView[]>;
+  /** False when part of the procedure could not be analysed; `gaps` says what. */
+  complete: boolean;
+  gaps: string[];
+  /** The step ids entered on the way to a node, in order. */
+  pathTo(node: number): string[];
+  /** The condition as a region of the space, or undefined when it cannot be analysed. */
+  regionOf(text: string): Region | undefined;
+}
+
+const builtIns = new Set(['elapsed', 'done']);
+const defaultBudget = 60_000;
+
+interface Node {
+  marking: number[];
+  box: Box;
+  parent: number;
+  entered: string[];
+}
+
+export function analyseState(input: StateInput, extraConditions: string[] = [], budget = defaultBudget): StateAnalysis {
+  const gaps: string[] = [];
+  const parsed = new Map<string, Condition | null>();
+  const parse = (text: string): Condition | null => {
+    if (!parsed.has(text)) {
+      const r = parseCondition(text);
+      parsed.set(text, r.ok ? r.condition : null);
+    }
+    return parsed.get(text)!;
+  };
+  const { graph } = input;
+  const guardTexts = graph.transitions.flatMap((t) => t.guard.filter((g) => g.kind === 'until' || g.kind === 'when').map((g) => g.text));
+  const texts = [...new Set([...guardTexts, ...input.lineUp, ...extraConditions])];
+  const latching = input.trips.filter((t) => t.latches);
+  const signals: Record<string, SignalInfo> = { ...input.signals };
+  for (const t of latching) signals[tripVariable(t.tag)] = { values: [clear, latched] };
+
+  // Declare every variable; a condition that cannot be analysed is left out and said so.
+  const usable: Condition[] = [];
+  for (const text of texts) {
+    const c = parse(text);
+    if (!c) continue;
+    try {
+      new SignalSpace(signals, [c], { useRanges: true });
+      usable.push(c);
+    } catch (e) {
+      gaps.push(`'${text}' cannot be analysed (${(e as Error).message})`);
+      parsed.set(text, null);
+    }
+  }
+  const space = new SignalSpace(signals, usable, { useRanges: true });
+  for (const name of Object.keys(signals)) {
+    try {
+      space.include(name);
+    } catch (e) {
+      gaps.push(`signal ${name} cannot be analysed (${(e as Error).message})`);
+    }
+  }
+  const names = [...space.variables.keys()].filter((n) => !builtIns.has(n));
+  const regionCache = new Map<string, Region | null>();
+  const regionOf = (text: string): Region | undefined => {
+    if (!regionCache.has(text)) {
+      const c = parse(text);
+      let region: Region | null = null;
+      if (c) {
+        try {
+          region = space.regionOf(c).map(stripBuiltIns);
+        } catch (e) {
+          gaps.push(`'${text}' cannot be analysed (${(e as Error).message})`);
+        }
+      }
+      regionCache.set(text, region);
+    }
+    return regionCache.get(text) ?? undefined;
+  };
+  const full = (): Box => new Map(names.map((n) => [n, space.full(space.variables.get(n)!)]));
+  const complete = (box: Box): Box => {
+    const out = full();
+    for (const [n, v] of box) if (!builtIns.has(n)) out.set(n, v);
+    return out;
+  };
+  const and = (boxes: Box[], region: Region | undefined): Box[] => (region ? space.and(boxes, region).map(complete) : boxes);
+
+  const heldBy = new Map<string, Array<{ trip: string; value: string }>>();
+  for (const t of latching) for (const h of t.holds) heldBy.set(h.signal, [...(heldBy.get(h.signal) ?? []), { trip: t.tag, value: h.value }]);
+  /** The value a latched trip forces on the signal in this box, if any. */
+  const heldValue = (box: Box, signal: string): string | undefined => {
+    for (const h of heldBy.get(signal) ?? []) {
+      const v = box.get(tripVariable(h.trip));
+      if (v?.kind === 'enum' && v.set.length === 1 && v.set[0] === latched) return h.value;
+    }
+    return undefined;
+  };
+  const assignWord = (box: Box, signal: string, value: string, keepPrevious: boolean) => {
+    const v = space.variables.get(signal);
+    if (!v || v.kind !== 'enum') return;
+    const held = heldValue(box, signal);
+    if (held !== undefined) {
+      box.set(signal, { kind: 'enum', set: [held] });
+      return;
+    }
+    const before = box.get(signal);
+    const previous = keepPrevious && before?.kind === 'enum' ? before.set : [];
+    box.set(signal, { kind: 'enum', set: v.values.filter((w) => w === value || previous.includes(w)) });
+  };
+  const setTrip = (box: Box, tag: string, state: typeof latched | typeof clear) => {
+    const trip = latching.find((t) => t.tag === tag);
+    if (!trip) return;
+    box.set(tripVariable(tag), { kind: 'enum', set: [state] });
+    if (state === latched) for (const h of trip.holds) assignWord(box, h.signal, h.value, false);
+  };
+
+  // What a step drives: the numeric signals in its until and set, and where it drives them.
+  const motionCache = new Map<Step, Array<{ signal: string; target: IntervalSet }>>();
+  const motionOf = (step: Step) => {
+    let found = motionCache.get(step);
+    if (found) return found;
+    found = [];
+    const targets = new Map<string, IntervalSet>();
+    const untilCondition = step.until ? parse(step.until.value) : null;
+    const untilRegion = step.until ? regionOf(step.until.value) : undefined;
+    if (untilCondition && untilRegion) {
+      for (const cmp of comparisonsIn(untilCondition)) {
+        const v = space.variables.get(cmp.name.name);
+        if (!v || v.kind !== 'number' || builtIns.has(v.name)) continue;
+        let set: IntervalSet = [];
+        for (const b of untilRegion) {
+          const s = b.get(v.name);
+          set = union(set, s?.kind === 'number' ? s.set : v.domain);
+        }
+        targets.set(v.name, set);
+      }
+    }
+    for (const sp of step.set) {
+      const v = space.variables.get(sp.signal);
+      const q = parseQuantity(sp.quantity);
+      if (!v || v.kind !== 'number' || !q.ok) continue;
+      const base = toBase(q.value, q.unit);
+      if (base === null || Number.isNaN(base)) continue;
+      const point = intersect(v.domain, [{ lo: base, hi: base, loOpen: false, hiOpen: false }]);
+      targets.set(v.name, union(targets.get(v.name) ?? [], point));
+    }
+    for (const [signal, target] of targets) found.push({ signal, target });
+    motionCache.set(step, found);
+    return found;
+  };
+
+  const enter = (box: Box, step: Step): Box => {
+    const out = new Map(box);
+    for (const r of step.resets ?? []) setTrip(out, r.value, clear);
+    for (const t of step.trips ?? []) setTrip(out, t.value, latched);
+    for (const a of storedActions(step)) assignWord(out, a.signal, a.value, a.lasts === 'delayed');
+    for (const m of motionOf(step)) {
+      const before = out.get(m.signal);
+      if (before?.kind !== 'number') continue;
+      const v = space.variables.get(m.signal)!;
+      out.set(m.signal, { kind: 'number', set: intersect(v.kind === 'number' ? v.domain : before.set, hull(union(before.set, m.target))) });
+    }
+    return out;
+  };
+  const overlay = (box: Box, steps: Step[]): Box => {
+    const out = new Map(box);
+    for (const step of steps) {
+      for (const a of activeOnlyActions(step)) assignWord(out, a.signal, a.value, a.lasts !== 'step');
+    }
+    return out;
+  };
+
+  // The guard of a transition as regions; `otherwise` is the complement of its sibling branches.
+  const siblingsOf = new Map<string, Transition[]>();
+  for (const t of graph.transitions) {
+    if (!t.choose) continue;
+    const key = `${t.choose.path.join('.')}|${t.from.join(',')}`;
+    siblingsOf.set(key, [...(siblingsOf.get(key) ?? []), t]);
+  }
+  const guardFilter = (t: Transition, boxes: Box[]): Box[] => {
+    let out = boxes;
+    for (const g of t.guard) {
+      if (g.kind === 'until' || g.kind === 'when') out = and(out, regionOf(g.text));
+      else if (g.kind === 'otherwise' && t.choose) {
+        const others = (siblingsOf.get(`${t.choose.path.join('.')}|${t.from.join(',')}`) ?? []).filter((s) => s !== t)
+          .flatMap((s) => s.guard.filter((p) => p.kind === 'when').map((p) => regionOf(p.text)));
+        if (others.some((r) => r === undefined)) continue;
+        const taken = (others as Region[]).reduce<Region>((a, b) => space.or(a, b), []);
+        out = and(out, space.not(taken));
+      }
+      if (!out.length) return out;
+    }
+    return out;
+  };
+
+  const placeIndex = new Map(graph.places.map((p, i) => [p.id, i]));
+  const stepOf = graph.places.map((p) => (p.kind === 'step' ? p.step : undefined));
+  const transitions = graph.transitions.map((t) => ({ t, from: t.from.map((p) => placeIndex.get(p)!), to: t.to.map((p) => placeIndex.get(p)!) }));
+
+  // Start: the line-up, and latching trips that may already be in force.
+  let initial: Box[] = [full()];
+  for (const text of input.lineUp) initial = and(initial, regionOf(text));
+  for (const tag of input.latchedAtStart) {
+    initial = initial.flatMap((b) => {
+      const a = new Map(b);
+      const c = new Map(b);
+      setTrip(a, tag, latched);
+      setTrip(c, tag, clear);
+      return latching.some((t) => t.tag === tag) ? [c, a] : [b];
+    });
+  }
+  for (const t of latching) {
+    if (input.latchedAtStart.includes(t.tag)) continue;
+    for (const b of initial) b.set(tripVariable(t.tag), { kind: 'enum', set: [clear] });
+  }
+
+  const nodes: Node[] = [];
+  const index = new Map<string, number>();
+  const views = new Map<string, StateView[]>();
+  const viewKeys = new Map<string, Set<string>>();
+  let exceeded = false;
+  const add = (marking: number[], box: Box, parent: number, entered: string[]) => {
+    const key = `${marking.join(',')}|${boxKey(names, box)}`;
+    if (index.has(key)) return;
+    if (nodes.length >= budget) {
+      exceeded = true;
+      return;
+    }
+    index.set(key, nodes.length);
+    nodes.push({ marking, box, parent, entered });
+  };
+  const start = placeIndex.get(graph.start)!;
+  for (const b of initial) add([start], b, -1, []);
+
+  for (let n = 0; n < nodes.length; n++) {
+    const { marking, box } = nodes[n];
+    const active = marking.map((p) => stepOf[p]).filter((s): s is Step => s !== undefined);
+    if (active.length) {
+      const seen = overlay(box, active);
+      const key = boxKey(names, seen);
+      for (const p of marking) {
+        if (!stepOf[p]) continue;
+        const id = graph.places[p].id;
+        const keys = viewKeys.get(id) ?? new Set();
+        viewKeys.set(id, keys);
+        if (keys.has(key)) continue;
+        keys.add(key);
+        views.set(id, [...(views.get(id) ?? []), { box: seen, node: n }]);
+      }
+    }
+    for (const { t, from, to } of transitions) {
+      if (!from.every((p) => marking.includes(p))) continue;
+      const rest = marking.filter((p) => !from.includes(p));
+      const next = [...new Set([...rest, ...to])].sort((a, b) => a - b);
+      const entered = to.map((p) => stepOf[p]).filter((s): s is Step => s !== undefined);
+      for (const b of guardFilter(t, [box])) {
+        let after = b;
+        for (const s of entered) after = enter(after, s);
+        add(next, after, n, entered.map((s) => s.id));
+      }
+    }
+  }
+  if (exceeded) gaps.push(`the procedure has more than ${budget} combinations of active steps and plant states; only part of it was analysed`);
+
+  return {
+    space,
+    views,
+    complete: gaps.length === 0,
+    gaps,
+    pathTo(node: number) {
+      const out: string[] = [];
+      for (let n = node; n >= 0; n = nodes[n].parent) out.unshift(...nodes[n].entered);
+      return out;
+    },
+    regionOf,
+  };
+}
+
+function stripBuiltIns(box: Box): Box {
+  const out = new Map(box);
+  for (const n of builtIns) out.delete(n);
+  return out;
+}
+
+function hull(set: IntervalSet): IntervalSet {
+  const s = normalize(set);
+  if (s.length < 2) return s;
+  const first = s[0];
+  const last = s[s.length - 1];
+  return [{ lo: first.lo, loOpen: first.loOpen, hi: last.hi, hiOpen: last.hiOpen }];
+}
+
+function boxKey(names: string[], box: Box): string {
+  return names.map((n) => showSet(box.get(n))).join(';');
+}
+
+function showSet(v: ValueSet | undefined): string {
+  if (!v) return '*';
+  if (v.kind === 'enum') return [...v.set].sort().join('|');
+  return v.set.map((i) => `${i.loOpen ? '(' : '['}${i.lo},${i.hi}${i.hiOpen ? ')' : ']'}`).join('u');
+}
+
+export { NotAnalysable };

@@ -1,0 +1,65 @@
+// Reports, in emergency and emergency-shutdown procedures, a step that checks equipment moved without saying
+// what to do when it did not.
+import type { Procedure, Step } from '../../model/procedure.ts';
+import { walkSteps } from '../../model/walk-steps.ts';
+import { comparisonsIn, parseCondition } from '../../analysis/conditions/parse.ts';
+import { defineFileRule } from '../define-rule.ts';
+
+const emergencyKinds = new Set(['emergency', 'emergency-shutdown']);
+const movedWords = /\b(open|opened|closed|shut|stopped|running|started|isolated|tripped|moved|in position)\b/i;
+
+export default defineFileRule(
+  {
+    id: 'contingency-missing',
+    summary: 'An emergency step that checks equipment moved does not say what to do if it did not.',
+    category: 'safety',
+    defaultSeverity: 'error',
+    source: 'DOE-STD-1029-92, Writer\'s Guide for Technical Procedures (contingency actions); HSE HSG48 (plan for the expected failure)',
+    docs: `In an emergency the valve that should close sometimes does not. Every step of an \`emergency\` or
+\`emergency-shutdown\` procedure that checks that equipment moved (its \`until\` compares a valve, motor or other
+equipment state, or its \`confirm\` says a thing is open, closed, stopped or running) needs an \`if-not\`: the
+response with its own actions (\`do\`), or a jump to another step (\`goto\`), or both. The step table shows it in a
+second column and placekeeping offers it.
+
+\`\`\`yaml
+- step: confirm-hot-oil-closed
+  do: Confirm hot-oil valve XV-2101 is closed
+  until: XV-2101 == closed
+  if-not:
+    do: [Close hand valve HV-2101 upstream of XV-2101, Tell the shift supervisor]
+\`\`\``,
+    examples: {
+      bad: 'kind: emergency-shutdown\nsteps: [{ step: check-closed, until: XV-2101 == closed }]',
+      good: "steps: [{ step: check-closed, until: XV-2101 == closed, if-not: { do: Close hand valve HV-2101 } }]",
+    },
+  },
+  (ctx) => {
+    if (!ctx.procedure || !emergencyKinds.has(ctx.procedure.kind)) return;
+    for (const { step } of walkSteps(ctx.procedure.steps)) {
+      if (step.ifNot && (step.ifNot.actions.length || step.ifNot.goto)) continue;
+      const why = checksMovement(step, ctx.procedure);
+      if (!why) continue;
+      ctx.report({
+        path: [...step.path, 'step'],
+        message: `Emergency step '${step.id}' checks that ${why}, but does not say what to do if it did not.`,
+        hint: 'Add if-not with the response (do: the actions, e.g. close the hand valve upstream) or a goto to the step to go to.',
+      });
+    }
+  },
+);
+
+function checksMovement(step: Step, procedure: Procedure): string | undefined {
+  if (step.until) {
+    const parsed = parseCondition(step.until.value);
+    if (parsed.ok) {
+      for (const cmp of comparisonsIn(parsed.condition)) {
+        const signal = procedure.signals[cmp.name.name];
+        if (signal?.values?.length && cmp.value.kind === 'word') return `${cmp.name.name} is ${cmp.op === '!=' ? 'not ' : ''}${cmp.value.value}`;
+      }
+      if (parsed.condition.kind === 'flag') return `${parsed.condition.name.name} is true`;
+    }
+  }
+  const m = step.confirm?.value.match(movedWords);
+  if (m) return `"${step.confirm!.value}"`;
+  return undefined;
+}

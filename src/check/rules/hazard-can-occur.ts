@@ -1,0 +1,91 @@
+// Reports a step at which a hazard's condition can hold, over any path through the procedure (calls expanded),
+// for the procedure's own hazards and for hazards other procedures state about the same signals.
+import { inlineCalls, callSitesOf } from '../../analysis/inline-calls.ts';
+import { parseCondition, namesIn } from '../../analysis/conditions/parse.ts';
+import { analyseState } from '../../analysis/state/analyse-state.ts';
+import { stateInputOf } from '../../analysis/state/state-input.ts';
+import { stepsWhere } from '../../analysis/state/state-findings.ts';
+import { compileStepGraph } from '../../analysis/step-graph.ts';
+import { unitDimension } from '../../analysis/units.ts';
+import type { Hazard, Procedure, Signal } from '../../model/procedure.ts';
+import { defineManualRule, type FileContext } from '../define-rule.ts';
+import { showPath } from '../state-path.ts';
+
+export default defineManualRule(
+  {
+    id: 'hazard-can-occur',
+    summary: 'A hazard\'s condition can hold at a step on some path through the procedure.',
+    category: 'safety',
+    defaultSeverity: 'error',
+    source: 'OSHA 29 CFR 1910.119(f)(1)(ii) and (iii): consequences of deviation, steps to avoid it, precautions',
+    docs: `A hazard may say when it is present: \`when: M-210 == running and LI-210 < 20 percent\`. Stepwright works
+out which values every signal, valve and trip can have at each step over every path (sequences, decisions,
+parallel branches, loops and called procedures), and reports each step at which the condition can be true,
+with the path of steps that leads there. Hazards that another procedure states about the same signals apply
+too: a caution in the shutdown procedure about opening the cooling valve when hot holds in the batch procedure.
+
+Fix it by changing the steps, not the hazard: add the step that brings the plant to a safe state first
+(cool to below 200 degC before opening the cooling valve; check the level before starting the agitator), or
+make the transition of the step before guarantee it (\`until: LI-210 >= 20 percent\`).`,
+    examples: {
+      bad: "hazards: [{ when: 'M-210 == running and LI-210 < 20 percent' }]\nsteps: start M-210 with the kettle empty",
+      good: 'a step with until: LI-210 >= 20 percent comes before the step that starts M-210',
+    },
+  },
+  (ctx) => {
+    const byId = new Map<string, FileContext>();
+    for (const f of ctx.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f);
+    const withCondition = ctx.files.flatMap((f) => (f.procedure ? f.procedure.hazards.filter((h) => h.when?.value.trim()).map((h) => ({ file: f, hazard: h })) : []));
+    for (const file of ctx.files) {
+      const procedure = file.procedure;
+      if (!procedure || !file.facts) continue;
+      const hasCalls = callSitesOf(procedure).length > 0;
+      const expanded = hasCalls ? inlineCalls(procedure, (id) => byId.get(id)?.procedure ?? undefined).procedure : procedure;
+      const own = expanded.hazards.filter((h) => h.when?.value.trim()).map((h) => ({ hazard: h, from: undefined as string | undefined }));
+      const ownTexts = new Set(own.map((h) => h.hazard.when!.value));
+      const foreign = withCondition
+        .filter((w) => w.file !== file && w.file.procedure && !ownTexts.has(w.hazard.when!.value) && appliesTo(w.hazard, w.file.procedure, expanded))
+        .map((w) => ({ hazard: w.hazard, from: w.file.procedure!.id }));
+      const all = [...own, ...foreign];
+      if (!all.length) continue;
+      const graph = expanded === procedure && !foreign.length ? file.facts.graph : compileStepGraph(expanded);
+      const analysis = expanded === procedure && !foreign.length
+        ? file.facts.state
+        : analyseState(stateInputOf(expanded, graph), all.map((h) => h.hazard.when!.value));
+      const reported = new Set<string>();
+      for (const { hazard, from } of all) {
+        const region = analysis.regionOf(hazard.when!.value);
+        if (!region) continue;
+        for (const finding of stepsWhere(analysis, graph, region)) {
+          const key = `${hazard.when!.value}|${finding.step.id}`;
+          if (reported.has(key)) continue;
+          reported.add(key);
+          const source = from ? ` (stated in ${from})` : '';
+          ctx.report(file, {
+            path: [...finding.step.path, 'step'],
+            message: `Hazard '${hazard.hazard}'${source} can be present at step '${finding.step.id}': ${hazard.when!.value} can hold there (${finding.values}). Path: ${showPath(finding.path)}.`,
+            hint: 'Add or move a step so that the plant is safe before this one (or make the step before guarantee it with its until), or change what this step does.',
+            related: from ? undefined : [{ path: hazard.when!.path, message: 'the hazard\'s condition' }],
+            trace: finding.path,
+          });
+        }
+      }
+    }
+  },
+);
+
+/** A hazard of another procedure applies when every signal its condition names is declared here alike. */
+function appliesTo(hazard: Hazard, owner: Procedure, here: Procedure): boolean {
+  const parsed = parseCondition(hazard.when!.value);
+  if (!parsed.ok) return false;
+  const names = [...new Set(namesIn(parsed.condition).map((n) => n.name))].filter((n) => n !== 'elapsed' && n !== 'done');
+  return names.length > 0 && names.every((n) => alike(owner.signals[n], here.signals[n]));
+}
+
+function alike(a: Signal | undefined, b: Signal | undefined): boolean {
+  if (!a || !b) return false;
+  if (a.unit || b.unit) return !!a.unit && !!b.unit && unitDimension(a.unit) === unitDimension(b.unit);
+  const va = (a.values ?? []).map(String).sort().join('|');
+  const vb = (b.values ?? []).map(String).sort().join('|');
+  return va === vb && va !== '';
+}
