@@ -181,7 +181,7 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
       const before = out.get(m.signal);
       if (before?.kind !== 'number') continue;
       const v = space.variables.get(m.signal)!;
-      out.set(m.signal, { kind: 'number', set: intersect(v.kind === 'number' ? v.domain : before.set, hull(union(before.set, m.target))) });
+      out.set(m.signal, { kind: 'number', set: intersect(v.kind === 'number' ? v.domain : before.set, hull(union(before.set, nearestPart(before.set, m.target)))) });
     }
     return out;
   };
@@ -302,6 +302,32 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
 function stripBuiltIns(box: Box): Box {
   const out = new Map(box);
   for (const n of builtIns) out.delete(n);
+  return out;
+}
+
+/**
+ * The part of the target a value moving from `from` reaches first: for each end of `from` outside the target,
+ * the nearest point of the target, or a sliver just inside an open end. A signal moves continuously, so while
+ * the step is active it takes the values between where it was and where the step stops it.
+ */
+function nearestPart(from: IntervalSet, target: IntervalSet): IntervalSet {
+  let out: IntervalSet = [];
+  const t = normalize(target);
+  for (const i of from) {
+    for (const end of [i.lo, i.hi]) {
+      if (!Number.isFinite(end)) continue;
+      let best: { d: number; piece: IntervalSet } | undefined;
+      for (const c of t) {
+        const edge = end < c.lo ? c.lo : end > c.hi ? c.hi : end;
+        if (!Number.isFinite(edge)) continue;
+        const d = Math.abs(edge - end);
+        const w = 1e-6 * Math.max(1, Math.abs(edge));
+        const piece = intersect([c], [{ lo: edge - w, hi: edge + w, loOpen: false, hiOpen: false }]);
+        if (!best || d < best.d) best = { d, piece };
+      }
+      if (best) out = union(out, best.piece);
+    }
+  }
   return out;
 }
 
