@@ -10,7 +10,7 @@
 import type { Condition } from '../conditions/ast.ts';
 import { comparisonsIn, parseCondition } from '../conditions/parse.ts';
 import { NotAnalysable, SignalSpace, type Box, type Region, type SignalInfo, type ValueSet } from '../decisions/signal-space.ts';
-import { intersect, normalize, union, type IntervalSet } from '../decisions/interval-set.ts';
+import { contains, intersect, normalize, union, type IntervalSet } from '../decisions/interval-set.ts';
 import { parseQuantity, toBase } from '../units.ts';
 import type { Step } from '../../model/procedure.ts';
 import type { Transition } from '../step-graph.ts';
@@ -315,7 +315,7 @@ function nearestPart(from: IntervalSet, target: IntervalSet): IntervalSet {
   const t = normalize(target);
   for (const i of from) {
     for (const end of [i.lo, i.hi]) {
-      if (!Number.isFinite(end)) continue;
+      if (!Number.isFinite(end) || contains(t, end)) continue;
       let best: { d: number; piece: IntervalSet } | undefined;
       for (const c of t) {
         const edge = end < c.lo ? c.lo : end > c.hi ? c.hi : end;

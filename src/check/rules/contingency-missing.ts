@@ -7,6 +7,9 @@ import { defineFileRule } from '../define-rule.ts';
 
 const emergencyKinds = new Set(['emergency', 'emergency-shutdown']);
 const movedWords = /\b(open|opened|closed|shut|stopped|running|started|isolated|tripped|moved|in position)\b/i;
+const stateWords = /^(open|opened|closed|shut|stopped|running|started|on|off|isolated|tripped|latched|cip|product)$/i;
+/** A plant tag: letters, a hyphen, digits (XV-2101, M-210, P-221A). */
+const plantTag = /^[A-Z]{1,5}-\d/;
 
 export default defineFileRule(
   {
@@ -54,9 +57,9 @@ function checksMovement(step: Step, procedure: Procedure): string | undefined {
     if (parsed.ok) {
       for (const cmp of comparisonsIn(parsed.condition)) {
         const signal = procedure.signals[cmp.name.name];
-        if (signal?.values?.length && cmp.value.kind === 'word') return `${cmp.name.name} is ${cmp.op === '!=' ? 'not ' : ''}${cmp.value.value}`;
+        if (!signal?.values?.length || cmp.value.kind !== 'word') continue;
+        if (plantTag.test(cmp.name.name) || stateWords.test(String(cmp.value.value))) return `${cmp.name.name} is ${cmp.op === '!=' ? 'not ' : ''}${cmp.value.value}`;
       }
-      if (parsed.condition.kind === 'flag') return `${parsed.condition.name.name} is true`;
     }
   }
   const m = step.confirm?.value.match(movedWords);

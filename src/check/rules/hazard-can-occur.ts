@@ -11,6 +11,8 @@ import type { Hazard, Procedure, Signal } from '../../model/procedure.ts';
 import { defineManualRule, type FileContext } from '../define-rule.ts';
 import { showPath } from '../state-path.ts';
 
+const emergencyKinds = new Set(['emergency', 'emergency-shutdown']);
+
 export default defineManualRule(
   {
     id: 'hazard-can-occur',
@@ -22,7 +24,8 @@ export default defineManualRule(
 out which values every signal, valve and trip can have at each step over every path (sequences, decisions,
 parallel branches, loops and called procedures), and reports each step at which the condition can be true,
 with the path of steps that leads there. Hazards that another procedure states about the same signals apply
-too: a caution in the shutdown procedure about opening the cooling valve when hot holds in the batch procedure.
+too (in \`emergency\` and \`emergency-shutdown\` procedures, except another procedure's NOTICE: damage to equipment
+is accepted there to protect people): a caution in the shutdown procedure about opening the cooling valve when hot holds in the batch procedure.
 
 Fix it by changing the steps, not the hazard: add the step that brings the plant to a safe state first
 (cool to below 200 degC before opening the cooling valve; check the level before starting the agitator), or
@@ -45,6 +48,8 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
       const ownTexts = new Set(own.map((h) => h.hazard.when!.value));
       const foreign = withCondition
         .filter((w) => w.file !== file && w.file.procedure && !ownTexts.has(w.hazard.when!.value) && appliesTo(w.hazard, w.file.procedure, expanded))
+        // In an emergency, damage to equipment is accepted to protect people: another procedure's NOTICE does not apply.
+        .filter((w) => !(emergencyKinds.has(procedure.kind) && w.hazard.level === 'notice'))
         .map((w) => ({ hazard: w.hazard, from: w.file.procedure!.id }));
       const all = [...own, ...foreign];
       if (!all.length) continue;
