@@ -152,8 +152,8 @@ describe('plan numbers', () => {
     const file = 'procedures/k-210-resin/u2-k210-batch-001.md';
     const plan = placekeepingPlan(readProcedure(file, readFileSync(file, 'utf8')).procedure!);
     expect(plan.numbers['check-inert']).toBe('1');
-    expect(plan.numbers['charge-solvent']).toBe('3A.1');
-    expect(plan.numbers['close-chute']).toBe('3C.2');
+    expect(plan.numbers['start-agitator']).toBe('3A.1');
+    expect(plan.numbers['bond-bags']).toBe('3B.2');
   });
 });
 

@@ -36,7 +36,7 @@ export interface StateAnalysis {
 }
 
 const builtIns = new Set(['elapsed', 'done']);
-const defaultBudget = 60_000;
+const defaultBudget = 20_000;
 
 interface Node {
   marking: number[];
@@ -219,6 +219,8 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
   const placeIndex = new Map(graph.places.map((p, i) => [p.id, i]));
   const stepOf = graph.places.map((p) => (p.kind === 'step' ? p.step : undefined));
   const transitions = graph.transitions.map((t) => ({ t, from: t.from.map((p) => placeIndex.get(p)!), to: t.to.map((p) => placeIndex.get(p)!) }));
+  const byFirstInput = new Map<number, typeof transitions>();
+  for (const tr of transitions) if (tr.from.length) byFirstInput.set(tr.from[0], [...(byFirstInput.get(tr.from[0]) ?? []), tr]);
 
   // Start: the line-up, and latching trips that may already be in force.
   let initial: Box[] = [full()];
@@ -271,7 +273,7 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
         views.set(id, [...(views.get(id) ?? []), { box: seen, node: n }]);
       }
     }
-    for (const { t, from, to } of transitions) {
+    for (const { t, from, to } of marking.flatMap((p) => byFirstInput.get(p) ?? [])) {
       if (!from.every((p) => marking.includes(p))) continue;
       const rest = marking.filter((p) => !from.includes(p));
       const next = [...new Set([...rest, ...to])].sort((a, b) => a - b);

@@ -57,6 +57,15 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
       const analysis = expanded === procedure && !foreign.length
         ? file.facts.state
         : analyseState(stateInputOf(expanded, graph), all.map((h) => h.hazard.when!.value));
+      if (!analysis.complete && !(expanded === procedure && !foreign.length)) {
+        ctx.report(file, {
+          path: ['steps'],
+          part: 'key',
+          severity: 'warning',
+          message: `Hazard conditions were checked only in part: ${[...new Set(analysis.gaps)].slice(0, 2).join('; ')}.`,
+          hint: 'Correct the conditions named here; until then a step where a hazard can be present may not be reported.',
+        });
+      }
       const reported = new Set<string>();
       for (const { hazard, from } of all) {
         const region = analysis.regionOf(hazard.when!.value);

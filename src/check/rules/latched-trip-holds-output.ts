@@ -25,6 +25,7 @@ or use another way that the trip does not block.`,
   },
   (ctx) => {
     if (!ctx.facts || !ctx.procedure) return;
+    if (!ctx.procedure.interlocks.some((i) => i.latches && i.holds.length)) return;
     const state = ctx.facts.state;
     const trips = ctx.procedure.interlocks.map((i) => ({ tag: i.tag, latches: i.latches, holds: i.holds }));
     for (const f of heldOutputConflicts(state, ctx.facts.graph, trips)) {

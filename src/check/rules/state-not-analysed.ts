@@ -18,8 +18,8 @@ procedure.`,
   (ctx) => {
     if (!ctx.facts || !ctx.procedure) return;
     const p = ctx.procedure;
-    const usesState = p.hazards.some((h) => h.when) || p.interlocks.some((i) => i.latches)
-      || ctx.facts.steps.some(({ step }) => step.needs || step.state?.length);
+    const usesState = p.hazards.some((h) => h.when) || p.interlocks.some((i) => i.latches && i.holds.length)
+      || ctx.facts.steps.some(({ step }) => step.needs);
     if (!usesState) return;
     const gaps = ctx.facts.state.gaps;
     if (!gaps.length) return;

@@ -24,6 +24,7 @@ the needed state. When a latched trip is what holds the state, latched-trip-hold
   },
   (ctx) => {
     if (!ctx.facts || !ctx.procedure) return;
+    if (!ctx.facts.steps.some(({ step }) => step.needs)) return;
     const state = ctx.facts.state;
     const trips = ctx.procedure.interlocks.map((i) => ({ tag: i.tag, latches: i.latches, holds: i.holds }));
     for (const f of unmetNeeds(state, ctx.facts.graph, trips)) {
