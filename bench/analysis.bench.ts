@@ -1,7 +1,8 @@
 // Prints how long the sequence analysis and the whole check take: wide and deep parallel blocks, and a
 // thousand generated procedures against the time to only parse their YAML. Figures, not assertions.
 import { parseDocument } from 'yaml';
-import { checkSources, readProcedure } from '../src/check/run-checks.ts';
+import { checkSources } from '../src/check/run-checks.ts';
+import { readProcedure } from '../src/read/read-procedure.ts';
 import { structuralSoundness } from '../src/analysis/soundness/structural.ts';
 import { exploreSoundness } from '../src/analysis/soundness/explicit.ts';
 import { analyseDecisions } from '../src/analysis/decisions/analyse-decisions.ts';

@@ -25,4 +25,10 @@ if (existsSync(sources)) {
   process.exit(2);
 }
 const { main } = await import(entry.href);
-process.exitCode = await main(process.argv.slice(2), { stdout: process.stdout, stderr: process.stderr, cwd: process.cwd(), env: process.env });
+// Standard input is read only when a command is given the path '-'.
+const stdin = async () => {
+  const chunks = [];
+  for await (const chunk of process.stdin) chunks.push(chunk);
+  return Buffer.concat(chunks).toString('utf8');
+};
+process.exitCode = await main(process.argv.slice(2), { stdout: process.stdout, stderr: process.stderr, cwd: process.cwd(), env: process.env, stdin });

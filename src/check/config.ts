@@ -2,6 +2,7 @@
 import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document } from 'yaml';
 import { z } from 'zod';
 import { closest } from 'fastest-levenshtein';
+import picomatch from 'picomatch';
 import type { Diagnostic, Severity } from '../parse/diagnostic.ts';
 import type { SeverityPolicy } from './run-checks.ts';
 
@@ -109,26 +110,18 @@ export function severityPolicy(config: StepwrightConfig): SeverityPolicy {
   };
 }
 
-/** A folder prefix ("procedures/utilities" or "procedures/utilities/") or a glob with *, ** and ?. */
+/**
+ * A folder prefix ("procedures/utilities" or "procedures/utilities/"), or a glob in the usual syntax
+ * (`*`, `**`, `?`, `[abc]`, `{a,b}`, `!(x)`), matched against the file path relative to the working folder.
+ */
 export function fileMatcher(pattern: string): (file: string) => boolean {
   const p = normalise(pattern);
-  if (!/[*?[]/.test(p)) {
+  if (!picomatch.scan(p).isGlob) {
     const folder = p.replace(/\/$/, '');
     return (file) => file === folder || file.startsWith(`${folder}/`);
   }
-  let source = '';
-  for (let i = 0; i < p.length; i++) {
-    const c = p[i];
-    if (c === '*' && p[i + 1] === '*') {
-      // "**/" matches any number of folders, including none.
-      source += p[i + 2] === '/' ? '(?:.*/)?' : '.*';
-      i += p[i + 2] === '/' ? 2 : 1;
-    } else if (c === '*') source += '[^/]*';
-    else if (c === '?') source += '[^/]';
-    else source += c.replace(/[.+^${}()|[\]\\]/g, '\\$&');
-  }
-  const re = new RegExp(`^${source}$`);
-  return (file) => re.test(file);
+  const matches = picomatch(p, { dot: true });
+  return (file) => matches(normalise(file));
 }
 
 function normalise(path: string): string {

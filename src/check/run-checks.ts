@@ -1,12 +1,10 @@
 // Runs every rule over a set of procedure sources and returns the diagnostics, sorted by place.
 import { compareDiagnostics, type Diagnostic, type Severity } from '../parse/diagnostic.ts';
 import { readSource, type ParsedSource } from '../parse/read-source.ts';
-import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
-import { validateFrontMatter } from '../model/validate.ts';
-import { applyRegister } from '../model/apply-register.ts';
 import type { PlantRegister } from '../model/register.ts';
-import { collectFacts, type ProcedureFacts } from '../analysis/procedure-facts.ts';
+import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
+import { readProcedure } from '../read/read-procedure.ts';
 import { toDiagnostic, type FileContext, type FileHistory, type Report, type Rule, type RuleMeta } from './define-rule.ts';
 import { applyWaivers, type WaivedDiagnostic } from './waivers.ts';
 import { allRules } from './rules/index.ts';
@@ -50,16 +48,6 @@ export interface CheckResult {
   diagnostics: Diagnostic[];
   /** The register the procedures were read against, with the problems found in its own files. */
   register?: { register: PlantRegister; diagnostics: Diagnostic[] };
-}
-
-/** Reads one source into the shared model: the same reading the site uses. */
-export function readProcedure(file: string, text: string, register?: PlantRegister): { source: ParsedSource; procedure: Procedure | null; schemaIssues: ReturnType<typeof validateFrontMatter>; facts: ProcedureFacts | null } {
-  const source = readSource(file, text);
-  const readable = source.doc !== null && source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
-  const schemaIssues = readable ? validateFrontMatter(source.data) : [];
-  const procedure = readable ? applyRegister(buildProcedure(file, source.data, source.body, source.bodyText), register) : null;
-  const facts = procedure ? collectFacts(procedure) : null;
-  return { source, procedure, schemaIssues, facts };
 }
 
 export function checkSources(inputs: SourceInput[], options: CheckOptions): CheckResult {
@@ -195,3 +183,6 @@ function runGuarded(rule: Rule, run: () => void, context: FileContext | undefine
     });
   }
 }
+
+/** Kept for callers written before the reading of a procedure had its own module. */
+export { readProcedure } from '../read/read-procedure.ts';

@@ -3,7 +3,7 @@
 import { cpSync, existsSync, readdirSync, renameSync, rmSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import { parseArgs } from 'node:util';
-import { formatCheckFailure, loadManual } from './load-manual.ts';
+import { clearHandOff, formatCheckFailure, handOffManual, loadManual } from '../site-data/manual.ts';
 import { UsageError, useColour, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
 import { indexSite } from './index-site.ts';
@@ -12,6 +12,8 @@ import { manifestFile, readPrivateKey, writeSiteManifest } from './site-manifest
 import { siteConfig } from '../site/astro-config.ts';
 import { offlineReport } from './offline-report.ts';
 import { writeOfflineCopy, type OfflineCopySummary } from './write-offline-copy.ts';
+import { GitError } from '../history/git.ts';
+import { buildProgress } from './progress.ts';
 
 export const buildHelp = `Usage: stepwright build [options] [folder]
 
@@ -60,13 +62,26 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   const started = performance.now();
+  const progress = buildProgress(io.stderr);
   if (positionals.length > 1 || (positionals.length && values.procedures)) throw new UsageError('Give one procedures folder.');
   const folder = positionals[0] ?? proceduresFolder(io, values);
   if (values.config && !existsSync(resolve(io.cwd, values.config))) throw new UsageError(`The configuration file '${values.config}' does not exist.`);
   const config = values.config ? resolve(io.cwd, values.config) : '';
   const env = { ...io.env, STEPWRIGHT_PROCEDURES: folder, STEPWRIGHT_CONFIG: config };
-  const loaded = loadManual({ cwd: io.cwd, env });
-  if (loaded.result.diagnostics.length > 0 || loaded.errors > 0) io.stdout.write(formatCheckFailure(loaded, useColour(io, io.stdout)));
+  // The same check run as `stepwright check` (configuration, waivers, history, call expansion): whatever fails
+  // the check stops the build here, with the same report.
+  progress.phase('checking procedures');
+  let loaded;
+  try {
+    loaded = await loadManual({ cwd: io.cwd, env });
+  } catch (error) {
+    if (!(error instanceof GitError)) throw error;
+    progress.fail();
+    io.stderr.write(`stepwright build: ${error.message}\n`);
+    return 2;
+  }
+  progress.done(`${loaded.inputs.length} checked`);
+  if (loaded.run.diagnostics.length > 0) io.stdout.write(formatCheckFailure(loaded, useColour(io, io.stdout)));
   const outDir = resolve(io.cwd, values.out);
   // A build killed while publishing can leave the output path without a site: put the newest back first.
   const recovered = recoverSite(outDir);
@@ -109,10 +124,19 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // Vite reads DEV, PROD, MODE … from the environment into import.meta.env; a stray DEV=1 in a shell
     // (or a test runner's) must not put development-only parts into the published manual.
     for (const key of ['DEV', 'PROD', 'MODE', 'SSR', 'BASE_URL', 'SITE', 'ASSETS_PREFIX']) delete process.env[key];
+    // The pages take this run instead of checking again (same process, keyed by folder and date).
+    handOffManual(loaded);
+    progress.phase('building pages');
     const { build } = await import('astro');
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
     await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production' }), { sync: false } as Parameters<typeof build>[1]);
-    if (!values['no-index']) await indexSite(work);
+    progress.done(`${loaded.view.procedures.length} procedures`);
+    if (!values['no-index']) {
+      progress.phase('indexing for search');
+      await indexSite(work);
+      progress.done();
+    }
+    progress.phase('writing the offline copy');
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
     const places = loaded.view.procedures.map((p) => ({ slug: p.slug, area: p.area, kind: p.kind }));
@@ -124,12 +148,15 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
       rmSync(work, { recursive: true, force: true });
     }
     publishSite(tmp, outDir);
+    progress.done();
   } catch (error) {
+    progress.fail();
     rmSync(work, { recursive: true, force: true });
     rmSync(tmp, { recursive: true, force: true });
     io.stderr.write(`stepwright build: the site could not be built: ${(error as Error)?.message ?? String(error)}\n${existsSync(outDir) ? `The last good site in ${relative(io.cwd, outDir) || '.'}/ is unchanged.\n` : ''}`);
     return 1;
   } finally {
+    clearHandOff();
     rmSync(cacheDir, { recursive: true, force: true });
   }
   const seconds = (performance.now() - started) / 1000;

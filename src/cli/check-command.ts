@@ -1,27 +1,23 @@
 // `stepwright check [paths…]`: checks procedure files and reports every problem with its place.
-import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { checkSources } from '../check/run-checks.ts';
-import { explainSequence } from '../analysis/soundness/explain.ts';
-import { formatHuman, formatJson, summarize } from './format-diagnostics.ts';
+import { formatHuman, formatJson, summarize } from '../render/format-diagnostics.ts';
 import { formatGithub } from './format-github.ts';
-import { GitError } from '../history/git.ts';
-import { previousFromGit, repoPath } from './repository.ts';
-import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
-import { readProcedureFiles } from './read-procedure-files.ts';
-import { loadConfig } from './load-config.ts';
-import { proceduresFolder } from './project.ts';
-import { loadRegister } from './load-register.ts';
-import { commandCache } from './command-cache.ts';
+import { formatSarif } from './format-sarif.ts';
+import { GitError, pathInRepository, runCheckRun } from '../engine/check-run.ts';
+import { UsageError, useColour, type CliIo } from './io.ts';
+import { packageVersion } from './version.ts';
 
 export const checkHelp = `Usage: stepwright check [options] [paths…]
 
 Checks procedure files (markdown with YAML front-matter) and reports every problem with
 file:line:column, severity, rule id, message and a hint. Paths may be files or folders
-(default: the procedures folder, see --procedures). Folders are searched for *.md files.
+(default: the procedures folder, see --procedures), globs such as 'procedures/**/pump-*.md', or '-' for one procedure on
+standard input. Folders and globs are searched for *.md files; markdown there that is not a
+procedure (no front-matter and no procedure keys, e.g. a README) is skipped with an info line.
 
 Options:
-  --format <human|json|github>  output format (default: human); github prints workflow annotations
+  --format <human|json|github|sarif>  output format (default: human); github prints workflow
+                          annotations, sarif a SARIF 2.1.0 log for code-scanning views
   --quiet                 print errors only
   --explain               also print each file's step graph, the proof method, the states explored,
                           its loops and exits, and how each decision splits the signal space
@@ -50,36 +46,35 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     io.stdout.write(checkHelp);
     return 0;
   }
-  if (values.format !== 'human' && values.format !== 'json' && values.format !== 'github') throw new UsageError(`Unknown format '${values.format}'; use human, json or github.`);
-  const paths = positionals.length ? [...positionals, ...(values.procedures ? [values.procedures] : [])] : [proceduresFolder(io, values)];
-  const inputs = readProcedureFiles(paths, io.cwd);
-  const configured = loadConfig(io, values.config);
-  let history: Awaited<ReturnType<typeof previousFromGit>> = {};
+  const format = values.format;
+  if (format !== 'human' && format !== 'json' && format !== 'github' && format !== 'sarif') throw new UsageError(`Unknown format '${format}'; use human, json, github or sarif.`);
+  let run;
   try {
-    if (!values['no-history']) history = await previousFromGit(inputs, io, values.base, paths[0]);
+    run = await runCheckRun({
+      cwd: io.cwd, env: io.env, now: io.now, stdin: io.stdin, paths: positionals, procedures: values.procedures, config: values.config,
+      history: values['no-history'] ? false : { base: values.base },
+    });
   } catch (error) {
     if (!(error instanceof GitError)) throw error;
     io.stderr.write(`stepwright check: ${error.message}\n`);
     return 2;
   }
-  const register = loadRegister(io.cwd, configured.file?.file, configured.config.register);
-  const checked = checkSources(inputs, {
-    today: todayOf(io), previous: history.previous, severity: configured.policy, register,
-    certificationIntervalMonths: configured.config.certificationIntervalMonths, cache: commandCache(io, configured.file?.text),
-  });
-  const result = { ...checked, diagnostics: [...configured.diagnostics, ...checked.diagnostics] };
-  const shown = values.quiet ? result.diagnostics.filter((d) => d.severity === 'error') : result.diagnostics;
-  if (values.format === 'json') io.stdout.write(formatJson(shown));
-  else if (values.format === 'github') io.stdout.write(formatGithub(shown, (file) => (history.repo ? repoPath(history.repo, resolve(io.cwd, file)) : file)));
-  else {
-    const texts = new Map(inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
-    if (configured.file) texts.set(configured.file.file, configured.file.text);
-    for (const r of register?.sources ?? []) texts.set(r.file, r.source.text);
+  const all = run.diagnostics;
+  const shown = values.quiet ? all.filter((d) => d.severity === 'error') : all;
+  const pathOf = (file: string) => pathInRepository(run, io.cwd, file);
+  if (format === 'json') io.stdout.write(formatJson(shown));
+  else if (format === 'github') io.stdout.write(formatGithub(shown, pathOf));
+  else if (format === 'sarif') {
+    const { rules } = await import('../check/rules/index.ts');
+    const summaries = new Map<string, string>(Object.values(rules).map((r) => [r.meta.id, r.meta.summary]));
+    io.stdout.write(formatSarif(shown, { version: packageVersion(), pathOf, describe: (id) => summaries.get(id) }));
+  } else {
     if (values.explain) {
-      for (const f of result.files) if (f.facts) io.stdout.write(`== ${f.file}\n${explainSequence(f.facts).join('\n')}\n\n`);
+      const { explainSequence } = await import('../analysis/soundness/explain.ts');
+      for (const f of run.result.files) if (f.facts) io.stdout.write(`== ${f.file}\n${explainSequence(f.facts).join('\n')}\n\n`);
     }
-    io.stdout.write(formatHuman(shown, texts, useColour(io, io.stdout)));
-    io.stdout.write(summarize(result.diagnostics, inputs.length));
+    io.stdout.write(formatHuman(shown, run.texts, useColour(io, io.stdout)));
+    io.stdout.write(summarize(all, run.inputs.length));
   }
-  return result.diagnostics.some((d) => d.severity === 'error') ? 1 : 0;
+  return run.errors > 0 ? 1 : 0;
 }

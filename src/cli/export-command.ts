@@ -7,9 +7,9 @@ import { inlineCalls } from '../analysis/inline-calls.ts';
 import { checkSources } from '../check/run-checks.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { mermaidFlowchart } from '../render/mermaid-flowchart.ts';
-import { formatHuman } from './format-diagnostics.ts';
+import { formatHuman } from '../render/format-diagnostics.ts';
 import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
-import { readProcedureFiles } from './read-procedure-files.ts';
+import { readProcedureFiles } from '../engine/find-procedure-files.ts';
 
 export const exportHelp = `Usage: stepwright export ID [--format json|mermaid] [--inline] [--force] [paths…]
 

@@ -9,6 +9,8 @@ export interface CliIo {
   stderr: OutputStream;
   cwd: string;
   env: Record<string, string | undefined>;
+  /** Standard input, read whole (for the path '-'); tests pass their own. */
+  stdin?: () => Promise<string>;
   /** The clock; tests fix it. */
   now?: () => Date;
 }
@@ -26,6 +28,4 @@ export function useColour(io: CliIo, stream: OutputStream): boolean {
 }
 
 /** Thrown for bad command lines; main turns it into a message and exit code 2. */
-export class UsageError extends Error {
-  override name = 'UsageError';
-}
+export { UsageError } from '../engine/usage-error.ts';

@@ -1,31 +1,25 @@
 // argv → command → exit code. Commands never throw to the user: failures become a message and exit 2.
-import { runBuild } from './build-command.ts';
-import { runCheck } from './check-command.ts';
-import { runDev } from './dev-command.ts';
-import { runExport } from './export-command.ts';
-import { runInit } from './init-command.ts';
-import { runKeygen } from './keygen-command.ts';
-import { runNew } from './new-command.ts';
-import { runReview } from './review-command.ts';
-import { runSchema } from './schema-command.ts';
-import { runServe } from './serve-command.ts';
-import { runVerify } from './verify-command.ts';
+// Each command's module is imported only when that command runs, so `--version` and `--help` start fast
+// and load none of the checker, the units, the language model or the site stack.
+import { closest, distance } from 'fastest-levenshtein';
 import { UsageError, type CliIo } from './io.ts';
+import { packageVersion } from './version.ts';
 
-type Command = { summary: string; run: (argv: string[], io: CliIo) => Promise<number> };
+type Runner = (argv: string[], io: CliIo) => Promise<number>;
+type Command = { summary: string; load: () => Promise<Runner> };
 
 export const commands: Record<string, Command> = {
-  build: { summary: 'check the procedures and build the operator manual site', run: runBuild },
-  check: { summary: 'check procedure files and report problems', run: runCheck },
-  dev: { summary: 'live preview of the manual while you write: re-checks and reloads on save', run: runDev },
-  export: { summary: 'print one procedure as model JSON or a mermaid flowchart', run: runExport },
-  keygen: { summary: 'write a key pair for signing the published manual (never overwrites a key)', run: runKeygen },
-  init: { summary: 'set up a plant repository: config, procedures folder, ignore entries, editor settings, CI workflow', run: runInit },
-  new: { summary: 'write a new procedure of a given kind, with TODO placeholders', run: runNew },
-  review: { summary: 'summarise procedure changes against a git base for a pull request', run: runReview },
-  schema: { summary: 'print or write the JSON Schema of the front-matter for editors', run: runSchema },
-  serve: { summary: 'serve the built manual on http://localhost:4321', run: runServe },
-  verify: { summary: 'check that every page of a published manual matches its procedure source', run: runVerify },
+  build: { summary: 'check the procedures and build the operator manual site', load: async () => (await import('./build-command.ts')).runBuild },
+  check: { summary: 'check procedure files and report problems', load: async () => (await import('./check-command.ts')).runCheck },
+  dev: { summary: 'live preview of the manual while you write: re-checks and reloads on save', load: async () => (await import('./dev-command.ts')).runDev },
+  export: { summary: 'print one procedure as model JSON or a mermaid flowchart', load: async () => (await import('./export-command.ts')).runExport },
+  keygen: { summary: 'write a key pair for signing the published manual (never overwrites a key)', load: async () => (await import('./keygen-command.ts')).runKeygen },
+  init: { summary: 'set up a plant repository: config, procedures folder, ignore entries, editor settings, CI workflow', load: async () => (await import('./init-command.ts')).runInit },
+  new: { summary: 'write a new procedure of a given kind, with TODO placeholders', load: async () => (await import('./new-command.ts')).runNew },
+  review: { summary: 'summarise procedure changes against a git base for a pull request', load: async () => (await import('./review-command.ts')).runReview },
+  schema: { summary: 'print or write the JSON Schema of the front-matter for editors', load: async () => (await import('./schema-command.ts')).runSchema },
+  serve: { summary: 'serve the built manual on http://localhost:4321', load: async () => (await import('./serve-command.ts')).runServe },
+  verify: { summary: 'check that every page of a published manual matches its procedure source', load: async () => (await import('./verify-command.ts')).runVerify },
 };
 
 function mainHelp(): string {
@@ -37,30 +31,55 @@ Stepwright writes, checks and publishes operating procedures for process plants.
 Commands:
 ${Object.entries(commands).map(([name, c]) => `  ${name.padEnd(width)}  ${c.summary}`).join('\n')}
 
-Run 'stepwright <command> --help' for a command's options.
+Run 'stepwright help <command>' or 'stepwright <command> --help' for a command's options.
+Run 'stepwright --version' for the version.
 `;
+}
+
+/** The command a mistyped name most likely meant, when it is close enough to be a fair guess. */
+export function suggestCommand(name: string, known: readonly string[] = Object.keys(commands)): string | undefined {
+  if (!name || !known.length) return undefined;
+  const lower = name.toLowerCase();
+  const prefixed = known.filter((k) => k.startsWith(lower));
+  if (prefixed.length === 1) return prefixed[0];
+  const best = closest(lower, [...known]);
+  // At most one edit per three letters (and at least one): 'chek' → check, 'xyz' → nothing.
+  return distance(lower, best) <= Math.max(1, Math.floor(best.length / 3)) ? best : undefined;
+}
+
+function unknownCommand(name: string, io: CliIo, context = ''): number {
+  const guess = suggestCommand(name);
+  io.stderr.write(`stepwright: unknown command '${name}'${context}.${guess ? ` Did you mean '${guess}'?` : ''}\n\n${mainHelp()}`);
+  return 2;
 }
 
 export async function main(argv: string[], io: CliIo): Promise<number> {
   const [name, ...rest] = argv;
-  if (!name || name === '--help' || name === '-h' || name === 'help') {
+  if (!name || name === '--help' || name === '-h') {
     io.stdout.write(mainHelp());
     return name ? 0 : 2;
   }
-  if (name === '--version') {
-    io.stdout.write('stepwright 0.1.0\n');
+  if (name === 'help') {
+    const topic = rest[0];
+    if (!topic) {
+      io.stdout.write(mainHelp());
+      return 0;
+    }
+    if (!commands[topic]) return unknownCommand(topic, io);
+    return main([topic, '--help'], io);
+  }
+  if (name === '--version' || name === '-v' || name === 'version') {
+    io.stdout.write(`stepwright ${packageVersion()}\n`);
     return 0;
   }
-  const command = commands[name];
-  if (!command) {
-    io.stderr.write(`stepwright: unknown command '${name}'.\n\n${mainHelp()}`);
-    return 2;
-  }
+  const command = Object.hasOwn(commands, name) ? commands[name] : undefined;
+  if (!command) return unknownCommand(name, io);
   try {
-    return await command.run(rest, io);
+    const run = await command.load();
+    return await run(rest, io);
   } catch (error) {
     if (error instanceof UsageError || (error as { code?: string }).code?.startsWith?.('ERR_PARSE_ARGS')) {
-      io.stderr.write(`stepwright ${name}: ${(error as Error).message}\nRun 'stepwright ${name} --help' for usage.\n`);
+      io.stderr.write(`stepwright ${name}: ${(error as Error).message}\nRun 'stepwright help ${name}' for usage.\n`);
       return 2;
     }
     io.stderr.write(`stepwright ${name}: internal failure: ${(error as Error)?.message ?? String(error)}\nThis is a fault in Stepwright; please report it with the input that caused it.\n`);

@@ -2,7 +2,7 @@
 // before, and an audit trail of every commit in order (who, when, why), nothing merged away or rewritten.
 import type { Approval, Procedure } from '../model/procedure.ts';
 import { changedContentAreas, type ContentArea } from '../analysis/document-content.ts';
-import { readProcedure } from '../check/run-checks.ts';
+import { readProcedure } from '../read/read-procedure.ts';
 import type { ProcedureHistory, Revision } from './revisions.ts';
 
 export interface RevisionEntry {

@@ -1,5 +1,5 @@
 // Every committed revision of one procedure file (the commits where `revision` changed), plus uncommitted work as the next draft.
-import { readProcedure } from '../check/run-checks.ts';
+import { readProcedure } from '../read/read-procedure.ts';
 import type { Approval, Procedure } from '../model/procedure.ts';
 import type { FileCommit } from './file-log.ts';
 import { fileLogs } from './repository-log.ts';

@@ -2,7 +2,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { estimateCycleTime, formatSeconds } from '../../src/analysis/cycle-time.ts';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 
 const min = 60;
 function procedureOf(steps: string) {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { analyseDecisions } from '../../src/analysis/decisions/analyse-decisions.ts';
 import { neverTrue } from '../../src/analysis/decisions/never-true.ts';
 import { parseCondition } from '../../src/analysis/conditions/parse.ts';

@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { callCycleThrough, callSitesOf, inlineCalls, linkCalls } from '../../src/analysis/inline-calls.ts';
 import { estimateCycleTime } from '../../src/analysis/cycle-time.ts';
 import { compileStepGraph } from '../../src/analysis/step-graph.ts';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { walkSteps } from '../../src/model/walk-steps.ts';
 import type { Procedure } from '../../src/model/procedure.ts';
 
@@ -134,7 +134,7 @@ describe('paths of inlined content', () => {
   it('never collide with the caller: every condition path in the expanded procedure is distinct', async () => {
     const { readFileSync } = await import('node:fs');
     const { join } = await import('node:path');
-    const { readProcedure } = await import('../../src/check/run-checks.ts');
+    const { readProcedure } = await import('../../src/read/read-procedure.ts');
     const { inlineCalls } = await import('../../src/analysis/inline-calls.ts');
     const { collectFacts } = await import('../../src/analysis/procedure-facts.ts');
     const dir = join(import.meta.dirname, '../../procedures/k-210-resin');

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { explainSequence } from '../../src/analysis/soundness/explain.ts';
 
 const text = `---

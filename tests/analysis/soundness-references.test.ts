@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { readProcedure, checkSources } from '../../src/check/run-checks.ts';
+import { checkSources } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { exploreSoundness } from '../../src/analysis/soundness/explicit.ts';
 import { structuralSoundness } from '../../src/analysis/soundness/structural.ts';
 import { summarize, type SoundnessResult } from '../../src/analysis/soundness/verdict.ts';

@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
 import type { CliIo } from '../../src/cli/io.ts';
 import { findProcedureFiles } from '../../src/cli/read-procedure-files.ts';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { readFileSync } from 'node:fs';
 // jsdom ships no type declarations; type the one constructor used here.
 const { JSDOM } = (await import('jsdom' as string)) as { JSDOM: new (html: string, options?: { contentType?: string }) => { window: Window & typeof globalThis } };

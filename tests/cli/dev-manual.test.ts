@@ -3,7 +3,7 @@ import { mkdtempSync, mkdirSync, writeFileSync, utimesSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { procedureStamp, tolerantManualView } from '../../src/cli/dev-manual.ts';
+import { procedureStamp, tolerantManualView } from '../../src/site-data/dev-manual.ts';
 import { checkSources } from '../../src/check/run-checks.ts';
 import { scaffoldProcedure } from '../../src/render/procedure-scaffold.ts';
 

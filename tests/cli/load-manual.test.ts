@@ -2,7 +2,7 @@
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { describe, expect, it } from 'vitest';
-import { buildDate } from '../../src/cli/load-manual.ts';
+import { buildDate } from '../../src/site-data/manual.ts';
 
 const text = `---\nid: X\neffective: 2026-03-01\nreview-by: 2028-01-01\napprovals:\n  - { role: a, name: b, date: 2026-02-20, meaning: c }\n---\n`;
 

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { findConfigFile, proceduresFolder, projectRoot } from '../../src/cli/project.ts';
-import { buildDate } from '../../src/cli/load-manual.ts';
+import { buildDate } from '../../src/site-data/manual.ts';
 import { ada, bram, createTempRepo, procedureText, stepsV1 } from '../history/temp-repo.ts';
 import { runCli } from './run-cli.ts';
 

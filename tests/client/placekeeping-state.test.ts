@@ -1,7 +1,7 @@
 import { readFileSync, readdirSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { placekeepingPlan, type PlanItem } from '../../src/render/placekeeping-plan.ts';
 import { compileFlow, decisionAfter, decisionByKey, markDone, replay, startPlace, undoMark, type Flow, type Mark, type Place } from '../../src/site/client/placekeeping-state.ts';
 

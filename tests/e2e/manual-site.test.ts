@@ -6,7 +6,7 @@ import type { Server } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { AxeBuilder } from '@axe-core/playwright';
-import { loadManual } from '../../src/cli/load-manual.ts';
+import { loadManual } from '../../src/site-data/manual.ts';
 import { startStaticServer } from '../../src/cli/serve-command.ts';
 import { compileStepGraph, type StepGraph } from '../../src/analysis/step-graph.ts';
 import type { ProcedureView } from '../../src/render/manual.ts';
@@ -20,7 +20,7 @@ const haveChromium = existsSync(chromiumPath);
 if (!haveChromium) console.warn(`Skipping the browser tests: ${chromiumPath} is missing. Install it with: apt-get install -y chromium`);
 
 const artifacts = join(process.cwd(), 'test-artifacts');
-const manual = loadManual({ cwd: process.cwd(), env: { ...process.env, STEPWRIGHT_PROCEDURES: 'procedures' } });
+const manual = await loadManual({ cwd: process.cwd(), env: { ...process.env, STEPWRIGHT_PROCEDURES: 'procedures' } });
 const view = manual.view!;
 const procedures = new Map(manual.result.files.filter((f) => f.procedure).map((f) => [f.procedure!.id, f.procedure!]));
 

@@ -1,7 +1,7 @@
 // The redline between two revisions: steps keyed by id, word-level text changes, safety-relevant changes flagged.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import type { Procedure } from '../../src/model/procedure.ts';
 import { redline, stepMarks } from '../../src/history/redline.ts';
 import { categoriesOf, defaultReviewPolicy, parseReviewPolicy, requiredSignOffs } from '../../src/history/approval-policy.ts';

@@ -2,7 +2,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { compileStepGraph, type StepGraph } from '../../src/analysis/step-graph.ts';
 import { walkSteps } from '../../src/model/walk-steps.ts';
 import type { Procedure } from '../../src/model/procedure.ts';

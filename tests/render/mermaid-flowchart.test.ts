@@ -2,7 +2,7 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { escapeLabel, mermaidFlowchart } from '../../src/render/mermaid-flowchart.ts';
 
 let parse: (text: string) => Promise<unknown>;

@@ -1,5 +1,5 @@
 // Builds procedure source text for render tests (front-matter as JSON, which is valid YAML).
-import { readProcedure } from '../../src/check/run-checks.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import type { Procedure } from '../../src/model/procedure.ts';
 
 export function procedureText(front: Record<string, unknown>, body = ''): string {

@@ -1,27 +1,27 @@
 // Reads every procedure's revisions from git once per site build, for the revision, redline and audit pages.
 import { isAbsolute, resolve } from 'node:path';
-import { readProcedure } from '../check/run-checks.ts';
+import { readProcedure } from '../read/read-procedure.ts';
 import { buildHistoryView, type HistoryView, type RevisionEntry } from '../history/history-view.ts';
 import { revisionInForce } from '../history/in-force.ts';
 import { readHistories } from '../history/revisions.ts';
 import { buildProcedureView, type ProcedureView } from '../render/manual.ts';
-import { siteManual } from './load-manual.ts';
-import { openRepository, repoPath } from './repository.ts';
+import { siteManual } from './manual.ts';
+import { openRepository, repoPath } from '../engine/repository.ts';
 
 let cached: { key: string; histories: Promise<Map<string, HistoryView>> } | undefined;
 
 /** Procedure id → its history. Outside a git checkout every history is empty and says why. */
 export function siteHistory(): Promise<Map<string, HistoryView>> {
-  const key = `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}`;
+  const key = `${process.env.STEPWRIGHT_CHECK_RUN ?? ''}\u0000${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}`;
   if (!cached || cached.key !== key) cached = { key, histories: loadHistories() };
   return cached.histories;
 }
 
 async function loadHistories(): Promise<Map<string, HistoryView>> {
-  const { loaded, view } = siteManual();
-  const io = { cwd: process.cwd(), env: process.env };
-  // History comes from the repository that holds the procedures.
-  const repo = await openRepository(io, loaded.root);
+  const { loaded, view } = await siteManual();
+  const io = { cwd: loaded.cwd, env: process.env };
+  // History comes from the repository that holds the procedures (the check run has opened it already).
+  const repo = loaded.run.repo ?? (await openRepository(io, loaded.root));
   const out = new Map<string, HistoryView>();
   const identity = (p: ProcedureView) => ({ id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status });
   if (!repo) {
@@ -48,11 +48,15 @@ async function loadHistories(): Promise<Map<string, HistoryView>> {
 }
 
 /** The same page model as the current procedure page, built from a committed revision's text. */
-export function revisionPageView(entry: RevisionEntry): ProcedureView | undefined {
-  const { loaded } = siteManual();
+export async function revisionPageView(entry: RevisionEntry): Promise<ProcedureView | undefined> {
+  const { loaded } = await siteManual();
+  return revisionView(entry, loaded.root, loaded.today);
+}
+
+function revisionView(entry: RevisionEntry, root: string, today: string): ProcedureView | undefined {
   const read = readProcedure(entry.path, entry.text);
   if (!read.procedure) return undefined;
-  return buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, loaded.root, loaded.today);
+  return buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, root, today);
 }
 
 /** What a procedure's own page and the home page show: the revision in force, and a newer one not yet in force. */
@@ -71,26 +75,26 @@ let inForceCache: { key: string; pages: Promise<Map<string, InForcePage>> } | un
 
 /** Procedure id → what its page shows; read once per build with the histories. */
 export function siteInForce(): Promise<Map<string, InForcePage>> {
-  const key = `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}`;
+  const key = `${process.env.STEPWRIGHT_CHECK_RUN ?? ''}\u0000${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}`;
   if (!inForceCache || inForceCache.key !== key) inForceCache = { key, pages: loadInForce() };
   return inForceCache.pages;
 }
 
 async function loadInForce(): Promise<Map<string, InForcePage>> {
-  const { loaded, view } = siteManual();
+  const { loaded, view } = await siteManual();
   const histories = await siteHistory();
   const out = new Map<string, InForcePage>();
-  for (const p of view.procedures) out.set(p.id, inForcePage(p, histories.get(p.id), loaded.today));
+  for (const p of view.procedures) out.set(p.id, inForcePage(p, histories.get(p.id), loaded.today, loaded.root));
   return out;
 }
 
 /** The in-force decision for one procedure, as page models. */
-export function inForcePage(p: ProcedureView, history: HistoryView | undefined, today: string): InForcePage {
+export function inForcePage(p: ProcedureView, history: HistoryView | undefined, today: string, root = 'procedures'): InForcePage {
   const decision = revisionInForce({ revision: p.revision, status: p.status, effective: p.effective }, history?.revisions ?? [], today);
   const newer = { view: p, url: `${p.url}next/` };
   if (decision.state === 'newest') return { state: 'newest', shown: p };
   if (decision.state === 'none') return { state: 'none', reason: decision.reason, ...(p.status === 'retired' || p.status === 'superseded' ? {} : { newer }) };
-  const earlier = revisionPageView(decision.entry);
+  const earlier = revisionView(decision.entry, root, today);
   if (!earlier) {
     return { state: 'none', newer, reason: `Revision ${decision.entry.revision} is in force, but its committed text cannot be read; ask the procedure owner for the controlled copy. Revision ${p.revision} is ${p.status} and not for use.` };
   }

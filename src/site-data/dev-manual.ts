@@ -3,7 +3,7 @@
 import { statSync } from 'node:fs';
 import type { CheckedFile } from '../check/run-checks.ts';
 import { buildManualView, type ManualView } from '../render/manual.ts';
-import { findProcedureFiles } from './read-procedure-files.ts';
+import { findProcedureFiles } from '../engine/find-procedure-files.ts';
 
 /** Changes whenever a procedure file is added, removed or saved. */
 export function procedureStamp(root: string, cwd: string): string {

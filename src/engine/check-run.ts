@@ -1,0 +1,164 @@
+// The one way to run a check: `check`, `build`, `dev` and `review` all call runCheckRun, so whatever fails
+// `check` stops `build` with the same report. It reads the sources (skipping markdown that is not a
+// procedure), the configuration and the configuration's own problems, the previous revision of each file
+// from git (for the history rules), then runs every rule and the call expansion pass.
+import { execFileSync } from 'node:child_process';
+import { existsSync, statSync } from 'node:fs';
+import { resolve } from 'node:path';
+import type { Diagnostic } from '../parse/diagnostic.ts';
+import { compareDiagnostics } from '../parse/diagnostic.ts';
+import { checkSources, type CheckResult, type SourceInput } from '../check/run-checks.ts';
+import type { PreviousVersion } from '../history/previous-version.ts';
+import { findProcedureFiles, readFoundFiles, stdinName, type FoundFile } from './find-procedure-files.ts';
+import { loadConfig, type CommandConfig } from './load-config.ts';
+import { loadRegister } from './load-register.ts';
+import { commandCache } from './command-cache.ts';
+import { isNotAProcedure, notAProcedureReason } from './not-a-procedure.ts';
+import { previousFromGit, repoPath as repoRelative, type Repository } from './repository.ts';
+import { proceduresFolder } from './project.ts';
+
+export type { SourceInput } from '../check/run-checks.ts';
+
+/** Where the date the review marks are judged by comes from. */
+export type DateSource = 'STEPWRIGHT_TODAY' | 'clock' | 'last commit' | 'procedure dates';
+
+export interface CheckRunRequest {
+  cwd: string;
+  env: Record<string, string | undefined>;
+  /** Files, folders, globs, or '-' for standard input; default: the procedures folder. */
+  paths?: string[];
+  /** --procedures: the procedures folder (else $STEPWRIGHT_PROCEDURES, 'procedures' in the config, procedures/). */
+  procedures?: string;
+  /** An explicit --config file; default: the nearest stepwright.config.yaml up to the top of the repository. */
+  config?: string;
+  /**
+   * What the history rules compare with: the version at a git ref ({ base }, default HEAD), a caller's own
+   * lookup (review compares with a merge base it has already read), or nothing (`--no-history`).
+   */
+  history?: { base?: string } | { previous: (file: string) => PreviousVersion | undefined; repo?: Repository } | false;
+  /** 'clock' (check: today's date) or 'build' (build: reproducible, from the last commit or the sources). */
+  date?: 'clock' | 'build';
+  now?: () => Date;
+  /** Keep per-file results in the cache folder between runs (default true; STEPWRIGHT_CACHE=off turns it off). */
+  cache?: boolean;
+  /** Reads standard input whole, for the path '-'. */
+  stdin?: () => Promise<string>;
+}
+
+export interface SkippedFile {
+  file: string;
+  reason: string;
+}
+
+export interface CheckRun {
+  /** The procedures folder or the paths given, as the user wrote them. */
+  paths: string[];
+  inputs: SourceInput[];
+  /** Markdown found in a folder that is not a procedure (a README): not checked, reported as info. */
+  skipped: SkippedFile[];
+  config: CommandConfig;
+  repo?: Repository;
+  today: string;
+  todaySource: DateSource;
+  /** Every file's result; `diagnostics` also holds the configuration's problems and the skipped-file notes. */
+  result: CheckResult;
+  diagnostics: Diagnostic[];
+  errors: number;
+  /** File → text, for code frames (procedures, the configuration file and the register's files). */
+  texts: Map<string, string>;
+}
+
+/** Thrown when git cannot answer what the user asked (a --base that does not exist); the CLI prints it, exit 2. */
+export { GitError } from '../history/git.ts';
+
+export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
+  // Paths named on the command line, with --procedures too when both are given; else the one procedures folder.
+  const paths = request.paths?.length
+    ? [...request.paths, ...(request.procedures ? [request.procedures] : [])]
+    : [proceduresFolder(request, { procedures: request.procedures, config: request.config })];
+  const found = await findWithStdin(paths, request);
+  const skipped: SkippedFile[] = [];
+  const inputs: SourceInput[] = [];
+  for (const input of readFoundFiles(found)) {
+    const discovered = found.find((f) => f.file === input.file)?.discovered;
+    if (discovered && 'text' in input && isNotAProcedure(input.text)) skipped.push({ file: input.file, reason: notAProcedureReason });
+    else inputs.push(input);
+  }
+  const config = loadConfig({ cwd: request.cwd }, request.config);
+
+  let previous: ((file: string) => PreviousVersion | undefined) | undefined;
+  let repo: Repository | undefined;
+  const history = request.history ?? {};
+  if (history && 'previous' in history) ({ previous, repo } = history);
+  else if (history) ({ previous, repo } = await previousFromGit(inputs.filter((i) => i.file !== stdinName), request, history.base, paths.find((p) => p !== '-')));
+
+  const { today, source: todaySource } = request.date === 'build'
+    ? buildDate(request, inputs, paths[0])
+    : clockDate(request);
+  // The plant register named by the configuration (or found next to it): procedures read their declarations from it.
+  const register = loadRegister(request.cwd, config.file?.file, config.config.register);
+  const checked = checkSources(inputs, {
+    today, previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
+    cache: request.cache === false ? undefined : commandCache(request, config.file?.text),
+  });
+  const skippedNotes = skipped.map((s): Diagnostic => ({
+    file: s.file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'info', rule: 'not-a-procedure',
+    message: `Skipped: ${s.file} is not a procedure (${s.reason}).`,
+    hint: 'Markdown without front-matter in the procedures folder is left alone. To make it a procedure, start it with a "---" line, the procedure keys and a closing "---".',
+  }));
+  const diagnostics = [...config.diagnostics, ...checked.diagnostics, ...skippedNotes].sort(compareDiagnostics);
+  const texts = new Map(inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
+  if (config.file) texts.set(config.file.file, config.file.text);
+  for (const r of register?.sources ?? []) texts.set(r.file, r.source.text);
+  return {
+    paths, inputs, skipped, config, repo, today, todaySource,
+    result: { ...checked, diagnostics },
+    diagnostics,
+    errors: diagnostics.filter((d) => d.severity === 'error').length,
+    texts,
+  };
+}
+
+async function findWithStdin(paths: string[], request: CheckRunRequest): Promise<FoundFile[]> {
+  const named = paths.filter((p) => p !== '-');
+  const found = findProcedureFiles(named, request.cwd);
+  if (named.length < paths.length) {
+    if (!request.stdin) found.push({ file: stdinName, absolute: stdinName, missing: 'standard input cannot be read here' });
+    else found.push({ file: stdinName, absolute: stdinName, text: await request.stdin() });
+  }
+  return found;
+}
+
+function clockDate(request: CheckRunRequest): { today: string; source: DateSource } {
+  const fixed = request.env.STEPWRIGHT_TODAY;
+  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) return { today: fixed, source: 'STEPWRIGHT_TODAY' };
+  return { today: (request.now?.() ?? new Date()).toISOString().slice(0, 10), source: 'clock' };
+}
+
+/** The build date: STEPWRIGHT_TODAY, else the last commit's date, else the newest effective or approval date. */
+export function buildDate(options: { cwd: string; env: Record<string, string | undefined> }, inputs: SourceInput[], folder?: string): { today: string; source: Exclude<DateSource, 'clock'> } {
+  const fixed = options.env.STEPWRIGHT_TODAY;
+  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) {
+    // `stepwright build` hands its own date to the pages and says where it came from.
+    const told = options.env.STEPWRIGHT_TODAY_SOURCE;
+    const source = told === 'last commit' || told === 'procedure dates' ? told : 'STEPWRIGHT_TODAY';
+    return { today: fixed, source };
+  }
+  try {
+    // The repository that holds the procedures, not the one the command was started in.
+    const at = resolve(options.cwd, folder ?? proceduresFolder(options, { config: options.env.STEPWRIGHT_CONFIG || undefined }));
+    const out = execFileSync('git', ['log', '-1', '--format=%cs'], { cwd: existsSync(at) && statSync(at).isDirectory() ? at : options.cwd, encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] }).trim();
+    if (/^\d{4}-\d{2}-\d{2}$/.test(out)) return { today: out, source: 'last commit' };
+  } catch {
+    // Not a git checkout: fall back to the content itself.
+  }
+  // Dates that have happened (effective and approval dates), never planned ones such as review-by.
+  const dates = inputs.flatMap((i) => ('text' in i ? [...i.text.matchAll(/(?<![\w-])(?:effective|date):\s*(\d{4}-\d{2}-\d{2})\b/g)].map((m) => m[1]) : []));
+  return { today: dates.sort().at(-1) ?? '1970-01-01', source: 'procedure dates' };
+}
+
+/** A file's path as git names it, for annotations (GitHub, SARIF). */
+export function pathInRepository(run: Pick<CheckRun, 'repo'>, cwd: string, file: string): string {
+  if (!run.repo || file === stdinName) return file;
+  return repoRelative(run.repo, resolve(cwd, file));
+}

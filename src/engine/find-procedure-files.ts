@@ -1,0 +1,233 @@
+// Finds procedure files under the given paths and reads them; unreadable ones become inputs with an error.
+// Only regular files are read: the type is checked before a file is opened (a FIFO would block, a device
+// never end), links that lead back into a folder already read are reported, and every read is capped.
+// A path may be a file, a folder (searched for *.md), a glob (`procedures/**/pump-*.md`, `{a,b}`, `[u]`)
+// or `-` for one procedure on standard input (handled by the engine). A path or glob that finds nothing is
+// reported, never dropped.
+import { closeSync, fstatSync, lstatSync, openSync, readdirSync, readSync, statSync, constants, type Stats } from 'node:fs';
+import { join, relative, resolve } from 'node:path';
+import picomatch from 'picomatch';
+import { globSync } from 'tinyglobby';
+import type { SourceInput } from '../check/run-checks.ts';
+
+const skipDirs = new Set(['node_modules', 'dist', '.git', '.astro', '.stepwright']);
+
+/** The name a procedure read from standard input goes by in diagnostics. */
+export const stdinName = '<stdin>';
+
+/** True when a path is meant as a glob pattern rather than a file or folder name. */
+export function isGlob(path: string): boolean {
+  return picomatch.scan(path).isGlob;
+}
+
+/** Largest procedure file read, in bytes. The biggest real procedure is well under 100 kB. */
+export const maxProcedureBytes = 1024 * 1024;
+/** Deepest folder nesting followed under a procedures folder. */
+export const maxFolderDepth = 32;
+
+export interface FoundFile {
+  file: string;
+  absolute: string;
+  /** Why the path cannot be read; it is reported instead of being read. */
+  missing?: string;
+  /** Found by searching a folder or a glob (not named on the command line): markdown that is not a procedure may be skipped. */
+  discovered?: boolean;
+  /** The text, for a procedure read from standard input. */
+  text?: string;
+}
+
+export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
+  const out: FoundFile[] = [];
+  const seen = new Set<string>();
+  /** Real paths (device and inode) of folders and files read so far: a second way to the same one is a link. */
+  const visited = new Map<string, string>();
+  // Set while a folder or a glob is searched: what is found there may be skipped when it is no procedure.
+  let discovered = false;
+  const add = (absolute: string, missing?: string) => {
+    if (seen.has(absolute)) return;
+    seen.add(absolute);
+    out.push({ file: displayPath(absolute, cwd), absolute, missing, ...(discovered && !missing ? { discovered: true } : {}) });
+  };
+  const identity = (s: Stats) => `${s.dev}:${s.ino}`;
+  const firstVisit = (s: Stats, absolute: string): string | undefined => {
+    const key = identity(s);
+    const earlier = visited.get(key);
+    if (earlier !== undefined) return earlier;
+    visited.set(key, absolute);
+    return undefined;
+  };
+  const walk = (dir: string, depth: number) => {
+    let entries: string[];
+    try {
+      entries = readdirSync(dir).sort();
+    } catch (error) {
+      add(dir, describeError(error));
+      return;
+    }
+    // Plain entries before links, so that a file or folder is read under its own name and the link is the one reported.
+    const kinds = entries.filter((name) => !name.startsWith('.') && !skipDirs.has(name)).map((name) => {
+      const full = join(dir, name);
+      try {
+        return { name, full, link: lstatSync(full).isSymbolicLink() };
+      } catch {
+        return { name, full, link: true };
+      }
+    });
+    for (const { name, full } of [...kinds.filter((k) => !k.link), ...kinds.filter((k) => k.link)]) {
+      let target: Stats;
+      try {
+        target = statSync(full);
+      } catch (error) {
+        // A dangling link or a link loop (ELOOP): only worth a report when it looks like a procedure.
+        if (name.endsWith('.md')) add(full, describeError(error));
+        else if ((error as NodeJS.ErrnoException).code === 'ELOOP') add(full, describeError(error));
+        continue;
+      }
+      if (target.isDirectory()) {
+        const earlier = firstVisit(target, full);
+        if (earlier !== undefined) {
+          add(full, `it is a link to the folder ${displayPath(earlier, cwd)}, which is already read (a link loop or a second way to the same folder); it was skipped`);
+          continue;
+        }
+        if (depth >= maxFolderDepth) {
+          add(full, `folders nest more than ${maxFolderDepth} levels deep here; deeper folders were not read`);
+          continue;
+        }
+        walk(full, depth + 1);
+      } else if (name.endsWith('.md')) {
+        addFile(full, target);
+      }
+    }
+  };
+  const addFile = (absolute: string, stats: Stats) => {
+    const problem = notRegular(stats);
+    if (problem) return add(absolute, problem);
+    const earlier = firstVisit(stats, absolute);
+    if (earlier !== undefined && earlier !== absolute) return add(absolute, `it is a second name (a link) for ${displayPath(earlier, cwd)}, which is already read; it was skipped`);
+    add(absolute);
+  };
+  for (const p of paths) {
+    const absolute = resolve(cwd, p);
+    let stats: Stats;
+    try {
+      stats = statSync(absolute);
+    } catch (error) {
+      const absent = (error as NodeJS.ErrnoException).code === 'ENOENT';
+      if (absent && isGlob(p)) {
+        const matches = globSync(p.split('\\').join('/'), {
+          cwd, absolute: true, onlyFiles: true, dot: false, expandDirectories: false, followSymbolicLinks: false,
+          ignore: [...skipDirs].map((d) => `**/${d}/**`),
+        }).filter((f) => f.endsWith('.md')).map((f) => resolve(f)).sort();
+        if (!matches.length) add(absolute, `no markdown file matches the pattern ${p}`);
+        discovered = true;
+        for (const m of matches) {
+          try {
+            addFile(m, statSync(m));
+          } catch (e) {
+            add(m, describeError(e));
+          }
+        }
+        discovered = false;
+        continue;
+      }
+      add(absolute, absent ? `no such file or folder: ${p}` : describeError(error));
+      continue;
+    }
+    if (stats.isDirectory()) {
+      discovered = true;
+      if (firstVisit(stats, absolute) === undefined) walk(absolute, 0);
+      discovered = false;
+    } else addFile(absolute, stats);
+  }
+  return out;
+}
+
+export function readProcedureFiles(paths: string[], cwd: string): SourceInput[] {
+  return readFoundFiles(findProcedureFiles(paths, cwd));
+}
+
+export function readFoundFiles(found: FoundFile[]): SourceInput[] {
+  return found.map(({ file, absolute, missing, text: given }) => {
+    if (missing) return { file, error: missing };
+    if (given !== undefined) return { file, text: given };
+    const read = readRegularFile(absolute, maxProcedureBytes);
+    if ('error' in read) return { file, error: read.error };
+    try {
+      const text = new TextDecoder('utf-8', { fatal: true }).decode(read.bytes);
+      return { file, text };
+    } catch {
+      return { file, error: 'it is not valid UTF-8 text' };
+    }
+  });
+}
+
+/**
+ * Reads a file only if it is a regular file, and at most `limit` bytes of it. The type is checked before
+ * opening (opening a FIFO blocks), again on the open descriptor (the path may have been swapped), and the
+ * read stops at the limit whatever size the file claims (files under /proc claim 0).
+ */
+export function readRegularFile(path: string, limit: number): { bytes: Uint8Array } | { error: string } {
+  let before: Stats;
+  try {
+    before = statSync(path);
+  } catch (error) {
+    return { error: describeError(error) };
+  }
+  const problem = notRegular(before);
+  if (problem) return { error: problem };
+  if (before.size > limit) return { error: tooLarge(before.size, limit) };
+  let fd: number;
+  try {
+    fd = openSync(path, constants.O_RDONLY | (constants.O_NONBLOCK ?? 0) | (constants.O_NOCTTY ?? 0));
+  } catch (error) {
+    return { error: describeError(error) };
+  }
+  try {
+    const opened = fstatSync(fd);
+    const again = notRegular(opened);
+    if (again) return { error: again };
+    const buffer = Buffer.alloc(limit + 1);
+    let length = 0;
+    while (length <= limit) {
+      const n = readSync(fd, buffer, length, limit + 1 - length, null);
+      if (n === 0) break;
+      length += n;
+    }
+    if (length > limit) return { error: tooLarge(length, limit) };
+    return { bytes: buffer.subarray(0, length) };
+  } catch (error) {
+    return { error: describeError(error) };
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function notRegular(stats: Stats): string | undefined {
+  if (stats.isFile()) return undefined;
+  if (stats.isDirectory()) return 'it is a folder, not a file';
+  if (stats.isFIFO()) return 'it is a named pipe (FIFO), not a regular file; it was not opened';
+  if (stats.isCharacterDevice() || stats.isBlockDevice()) return 'it is a device, not a regular file; it was not opened';
+  if (stats.isSocket()) return 'it is a socket, not a regular file; it was not opened';
+  return 'it is not a regular file; it was not opened';
+}
+
+function tooLarge(size: number, limit: number): string {
+  return `it holds ${size > limit + 1 ? size : `more than ${limit}`} bytes; the limit for one procedure file is ${limit} bytes (${limit / 1024 / 1024} MB). Split it or shorten the narrative`;
+}
+
+function describeError(error: unknown): string {
+  const e = error as NodeJS.ErrnoException;
+  switch (e?.code) {
+    case 'ELOOP': return 'it is a link that leads back to itself (a link loop)';
+    case 'ENOENT': return 'it is a link to something that does not exist';
+    case 'EACCES':
+    case 'EPERM': return 'permission to read it was denied';
+    case 'ENAMETOOLONG': return 'its path is too long for the file system';
+    default: return e?.message ?? String(error);
+  }
+}
+
+function displayPath(absolute: string, cwd: string): string {
+  const rel = relative(cwd, absolute);
+  return rel && !rel.startsWith('..') ? rel.split('\\').join('/') : absolute;
+}

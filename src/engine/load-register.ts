@@ -1,0 +1,82 @@
+// Finds and reads the plant register: the folder named by `register:` in stepwright.config.yaml (relative to
+// that file), else `register/` next to the configuration or in the working folder. No folder, no register.
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { dirname, join, relative, resolve } from 'node:path';
+import { readYamlSource } from '../parse/read-yaml-source.ts';
+import { buildRegister, type PlantRegister, type RegisterSource } from '../model/register.ts';
+
+export const defaultRegisterFolder = 'register';
+
+export interface RegisterLocation {
+  /** Absolute path of the folder. */
+  absolute: string;
+  /** True when the configuration named it (then a missing folder is an error, not "no register"). */
+  named: boolean;
+}
+
+/** Where the register is, or undefined when the plant has none. */
+export function findRegisterFolder(cwd: string, configPath: string | undefined, named: string | undefined): RegisterLocation | undefined {
+  const base = configPath ? dirname(resolve(cwd, configPath)) : cwd;
+  if (named) return { absolute: resolve(base, named), named: true };
+  for (const candidate of [join(base, defaultRegisterFolder), join(cwd, defaultRegisterFolder)]) {
+    if (isFolder(candidate)) return { absolute: candidate, named: false };
+  }
+  return undefined;
+}
+
+/** Reads every *.yaml / *.yml file under the folder (sorted, recursively) into the register model. */
+export function readRegisterFolder(location: RegisterLocation, cwd: string): PlantRegister {
+  const shown = (absolute: string) => relative(cwd, absolute).replaceAll('\\', '/') || '.';
+  const folder = shown(location.absolute);
+  if (!isFolder(location.absolute)) {
+    const register = buildRegister(folder, []);
+    register.diagnostics.push({
+      file: folder, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'error', rule: 'register-invalid',
+      message: `The register folder '${folder}' named in the configuration does not exist, so nothing was checked against the register.`,
+      hint: "Correct 'register:' in stepwright.config.yaml (a folder relative to that file), or remove the key.",
+    });
+    return register;
+  }
+  const sources: RegisterSource[] = [];
+  const problems: Array<{ file: string; message: string }> = [];
+  const walk = (dir: string) => {
+    for (const name of readdirSync(dir).sort()) {
+      if (name.startsWith('.')) continue;
+      const full = join(dir, name);
+      if (isFolder(full)) walk(full);
+      else if (/\.ya?ml$/i.test(name)) {
+        const file = shown(full);
+        try {
+          const text = new TextDecoder('utf-8', { fatal: true }).decode(readFileSync(full));
+          sources.push({ file, source: readYamlSource(file, text) });
+        } catch (error) {
+          problems.push({ file, message: (error as Error).name === 'TypeError' ? 'it is not valid UTF-8 text' : (error as Error).message });
+        }
+      }
+    }
+  };
+  walk(location.absolute);
+  const register = buildRegister(folder, sources);
+  for (const p of problems) {
+    register.diagnostics.push({
+      file: p.file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'error', rule: 'register-invalid',
+      message: `The register file could not be read: ${p.message}. Its entries were not loaded.`,
+      hint: 'Save the file as UTF-8 text and make sure it can be read.',
+    });
+  }
+  return register;
+}
+
+/** The register for a command: found from the configuration, read, or undefined when the plant has none. */
+export function loadRegister(cwd: string, configPath: string | undefined, named: string | undefined): PlantRegister | undefined {
+  const location = findRegisterFolder(cwd, configPath, named);
+  return location ? readRegisterFolder(location, cwd) : undefined;
+}
+
+function isFolder(path: string): boolean {
+  try {
+    return existsSync(path) && statSync(path).isDirectory();
+  } catch {
+    return false;
+  }
+}

@@ -1,0 +1,60 @@
+// The user's project as a command sees it: which configuration file applies and which folder holds the
+// procedures. Every command takes the procedures folder from here, so the default is decided in one place.
+import { existsSync, readFileSync, statSync } from 'node:fs';
+import { dirname, join, relative, resolve } from 'node:path';
+import { parseDocument } from 'yaml';
+import { configFileName } from '../check/config.ts';
+
+/** The folder name used when nothing else says where the procedures are. */
+export const defaultProceduresFolder = 'procedures';
+
+/**
+ * The configuration file for a command started in `cwd`: stepwright.config.yaml in the working folder or the
+ * nearest folder above it, up to the top of the git repository (a folder holding `.git`) — never beyond it.
+ */
+export function findConfigFile(cwd: string): string | undefined {
+  let here = resolve(cwd);
+  for (;;) {
+    const candidate = join(here, configFileName);
+    if (statSync(candidate, { throwIfNoEntry: false })?.isFile()) return candidate;
+    if (existsSync(join(here, '.git'))) return undefined;
+    const parent = dirname(here);
+    if (parent === here) return undefined;
+    here = parent;
+  }
+}
+
+/** The top of the git repository around `cwd` (the nearest folder holding `.git`), else `cwd` itself. */
+export function projectRoot(cwd: string): string {
+  let here = resolve(cwd);
+  for (;;) {
+    if (existsSync(join(here, '.git'))) return here;
+    const parent = dirname(here);
+    if (parent === here) return resolve(cwd);
+    here = parent;
+  }
+}
+
+/** `procedures:` in a configuration file, as a path relative to the working folder (read leniently: the check reports a bad file). */
+function configuredFolder(configFile: string, cwd: string): string | undefined {
+  try {
+    const value = (parseDocument(readFileSync(configFile, 'utf8')).toJS() as Record<string, unknown> | null)?.procedures;
+    if (typeof value !== 'string' || !value.trim()) return undefined;
+    return relative(cwd, resolve(dirname(configFile), value.trim())) || '.';
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * The procedures folder for a command, as the user names it (relative to the working folder when possible):
+ * the --procedures option, else $STEPWRIGHT_PROCEDURES, else `procedures:` in the configuration file
+ * (relative to that file), else procedures/ in the working folder.
+ */
+export function proceduresFolder(io: { cwd: string; env: Record<string, string | undefined> }, options: { procedures?: string; config?: string } = {}): string {
+  if (options.procedures?.trim()) return options.procedures.trim();
+  const fromEnv = io.env.STEPWRIGHT_PROCEDURES?.trim();
+  if (fromEnv) return fromEnv;
+  const configFile = options.config ? resolve(io.cwd, options.config) : findConfigFile(io.cwd);
+  return (configFile && configuredFolder(configFile, io.cwd)) || defaultProceduresFolder;
+}

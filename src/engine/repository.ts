@@ -1,0 +1,98 @@
+// Opens the git repository that holds the procedures (not the working folder's, not the tool's own) for the
+// commands that read history: check, review and the site's revisions, audit trail and build date.
+import { realpathSync, statSync } from 'node:fs';
+import { basename, dirname, join, relative, resolve, sep } from 'node:path';
+import type { SourceInput } from '../check/run-checks.ts';
+import { GitError, gitIn, type Git } from '../history/git.ts';
+import { previousVersions, type PreviousVersion } from '../history/previous-version.ts';
+
+export interface Repository {
+  /** Runs git in the repository's top folder. */
+  git: Git;
+  root: string;
+  /** The working folder, against which relative file names are read. */
+  cwd: string;
+  shallow: boolean;
+}
+
+/**
+ * The repository around `at` (a file or folder; default the working folder). Pass the procedures folder:
+ * history belongs to the repository that holds the procedures, wherever the command was started.
+ */
+export async function openRepository(io: { cwd: string; env?: Record<string, string | undefined> }, at?: string): Promise<Repository | undefined> {
+  const start = existingFolder(resolve(io.cwd, at ?? '.'));
+  // git runs with the process environment (PATH, HOME, GIT_*), not the CLI's injected variables.
+  let lines: string[];
+  try {
+    // One git process for both answers: this runs before every check.
+    lines = (await gitIn(start)(['rev-parse', '--show-toplevel', '--is-shallow-repository'])).split('\n');
+  } catch {
+    return undefined;
+  }
+  const [root, shallow = 'false'] = lines;
+  if (!root) return undefined;
+  return { git: gitIn(root), root, cwd: io.cwd, shallow: shallow.trim() === 'true' };
+}
+
+/** A file name as the CLI shows it (relative to the working folder, or absolute) → a path relative to the repository root. */
+export function repoPath(repo: Repository, file: string): string {
+  // git names the root by its real path; the working folder may be reached through a symbolic link.
+  return relative(repo.root, realPath(resolve(repo.cwd, file))).split(sep).join('/');
+}
+
+/** The real path of `path`, or of its nearest existing folder with the rest appended (a deleted file). */
+function realPath(path: string): string {
+  try {
+    return realpathSync(path);
+  } catch {
+    const parent = dirname(path);
+    return parent === path ? path : join(realPath(parent), basename(path));
+  }
+}
+
+/** The folder itself, or the nearest existing folder above a file or a missing path (git needs a folder to start in). */
+function existingFolder(path: string): string {
+  let here = path;
+  for (;;) {
+    try {
+      const real = realpathSync(here);
+      // A file: start from its folder.
+      return here === path && !isFolder(real) ? dirname(real) : real;
+    } catch {
+      const parent = dirname(here);
+      if (parent === here) return path;
+      here = parent;
+    }
+  }
+}
+
+function isFolder(path: string): boolean {
+  return statSync(path, { throwIfNoEntry: false })?.isDirectory() === true;
+}
+
+/**
+ * The `previous` function for checkSources: each file at `base` (default HEAD, i.e. the last committed version).
+ * Outside a repository, or before the first commit, there is no history and the history rules stay silent;
+ * a base that cannot be found is an error the user must see.
+ */
+export async function previousFromGit(
+  inputs: SourceInput[],
+  io: { cwd: string; env?: Record<string, string | undefined> },
+  base?: string,
+  /** Where the procedures are (default: the first file read): its repository holds their history. */
+  at?: string,
+): Promise<{ previous?: (file: string) => PreviousVersion | undefined; repo?: Repository }> {
+  const repo = await openRepository(io, at ?? inputs.find((i) => 'text' in i)?.file);
+  if (!repo) return {};
+  const files = inputs.flatMap((i) => ('text' in i ? [{ file: i.file, path: repoPath(repo, resolve(io.cwd, i.file)) }] : []));
+  let found: Map<string, PreviousVersion>;
+  try {
+    found = await previousVersions(repo.git, files, base ?? 'HEAD');
+  } catch (error) {
+    // Before the first commit there is no HEAD and so no history; a missing --base is the user's to fix.
+    if (base === undefined && error instanceof GitError && !error.missingGit) return { repo };
+    throw error;
+  }
+  const byFile = new Map(files.flatMap((f) => (found.has(f.path) ? [[f.file, found.get(f.path)!] as const] : [])));
+  return { previous: (file) => byFile.get(file), repo };
+}

@@ -1,0 +1,27 @@
+// The one front door for reading a procedure: source text → parsed source → model → facts.
+// The checker, the site, the history views and every command read procedures through here.
+import { readSource, type ParsedSource } from '../parse/read-source.ts';
+import { buildProcedure } from '../model/build-procedure.ts';
+import type { Procedure } from '../model/procedure.ts';
+import { validateFrontMatter } from '../model/validate.ts';
+import { applyRegister } from '../model/apply-register.ts';
+import type { PlantRegister } from '../model/register.ts';
+import { collectFacts, type ProcedureFacts } from '../analysis/procedure-facts.ts';
+
+export interface ReadProcedure {
+  source: ParsedSource;
+  /** Null when the front-matter is missing or is not a mapping (the checker says why). */
+  procedure: Procedure | null;
+  schemaIssues: ReturnType<typeof validateFrontMatter>;
+  facts: ProcedureFacts | null;
+}
+
+/** Reads one source; with a plant register, the procedure takes its declarations from the entries it uses. */
+export function readProcedure(file: string, text: string, register?: PlantRegister): ReadProcedure {
+  const source = readSource(file, text);
+  const readable = source.doc !== null && source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
+  const schemaIssues = readable ? validateFrontMatter(source.data) : [];
+  const procedure = readable ? applyRegister(buildProcedure(file, source.data, source.body, source.bodyText), register) : null;
+  const facts = procedure ? collectFacts(procedure) : null;
+  return { source, procedure, schemaIssues, facts };
+}

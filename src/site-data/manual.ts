@@ -1,0 +1,98 @@
+// The data the site's pages are made from: one check run (the same run as `stepwright check`, through the
+// engine) and the manual view built from it. The pages import only from this folder.
+//
+// `stepwright build` runs the check once, then hands the result to the pages in the same process
+// (handOffManual): the pages never check again. Only the dev server without a build (live preview) runs the
+// check itself, again after every save.
+import type { CheckResult, SourceInput } from '../check/run-checks.ts';
+import { runCheckRun, type CheckRun } from '../engine/check-run.ts';
+import { proceduresFolder } from '../engine/project.ts';
+import { buildManualView, type ManualView } from '../render/manual.ts';
+import { formatHuman, summarize } from '../render/format-diagnostics.ts';
+import { procedureStamp, tolerantManualView } from './dev-manual.ts';
+
+export { buildDate } from '../engine/check-run.ts';
+
+export interface LoadedManual {
+  /** The working folder the procedure file names are relative to. */
+  cwd: string;
+  root: string;
+  today: string;
+  /** Where the build date came from, shown in the site footer. */
+  todaySource: 'STEPWRIGHT_TODAY' | 'last commit' | 'procedure dates';
+  inputs: SourceInput[];
+  result: CheckResult;
+  errors: number;
+  /** The whole check run (configuration, skipped files, repository). */
+  run: CheckRun;
+  /** Present when the check found no errors. */
+  view?: ManualView;
+}
+
+export interface LoadOptions {
+  cwd: string;
+  env: Record<string, string | undefined>;
+  /** Read git history for the history rules (default true), as `stepwright check` does. */
+  history?: boolean;
+}
+
+/** The procedures folder of a build (`stepwright build` hands its choice to the pages in $STEPWRIGHT_PROCEDURES and $STEPWRIGHT_CONFIG). */
+export function manualFolder(options: { cwd: string; env: Record<string, string | undefined> }): string {
+  return proceduresFolder(options, { config: options.env.STEPWRIGHT_CONFIG || undefined });
+}
+
+/** Reads and checks the procedures folder for a site build: the engine's check run, dated by the build date. */
+export async function loadManual(options: LoadOptions): Promise<LoadedManual> {
+  const root = manualFolder(options);
+  const run = await runCheckRun({
+    cwd: options.cwd, env: options.env, paths: [root], config: options.env.STEPWRIGHT_CONFIG || undefined,
+    date: 'build', history: options.history === false ? false : {},
+  });
+  const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today }) : undefined;
+  return {
+    cwd: options.cwd, root, today: run.today, todaySource: run.todaySource === 'clock' ? 'STEPWRIGHT_TODAY' : run.todaySource,
+    inputs: run.inputs, result: run.result, errors: run.errors, run, view,
+  };
+}
+
+/** Check output exactly as `stepwright check` prints it, for a failed build. */
+export function formatCheckFailure(loaded: LoadedManual, colour: boolean): string {
+  return formatHuman(loaded.run.diagnostics, loaded.run.texts, colour) + summarize(loaded.run.diagnostics, loaded.inputs.length);
+}
+
+// On globalThis, not in a module variable: the pages run from Astro's own bundle of this module.
+const handOffSlot = Symbol.for('stepwright.site-data.manual');
+type Slot = { key: string; loaded: Promise<LoadedManual> };
+const slots = globalThis as unknown as Record<symbol, Slot | undefined>;
+/** Names the build run whose check the pages take, in this process's environment. */
+export const runIdVariable = 'STEPWRIGHT_CHECK_RUN';
+
+/** Gives the pages of this process the check run the build has already made; they find it by the run id. */
+export function handOffManual(loaded: LoadedManual): void {
+  const id = `${process.pid}-${performance.now().toFixed(3)}`;
+  slots[handOffSlot] = { key: `run:${id}`, loaded: Promise.resolve(loaded) };
+  process.env[runIdVariable] = id;
+}
+
+export function clearHandOff(): void {
+  slots[handOffSlot] = undefined;
+  delete process.env[runIdVariable];
+}
+
+/** The manual for the site's pages: the build's hand-off, else one check run per process (per save in dev). */
+export async function siteManual(): Promise<{ loaded: LoadedManual; view: ManualView }> {
+  // The dev server (live preview) re-reads on every save and shows check errors on the pages instead of failing.
+  const dev = (import.meta as { env?: { DEV?: boolean } }).env?.DEV === true;
+  const stamp = dev ? procedureStamp(manualFolder({ cwd: process.cwd(), env: process.env }), process.cwd()) : '';
+  const handed = process.env[runIdVariable];
+  const key = handed ? `run:${handed}` : `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_CONFIG ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}\u0000${stamp}`;
+  let slot = slots[handOffSlot];
+  if (!slot || slot.key !== key) {
+    slot = { key, loaded: loadManual({ cwd: process.cwd(), env: process.env }) };
+    slots[handOffSlot] = slot;
+  }
+  const loaded = await slot.loaded;
+  if (!loaded.view && dev) loaded.view = tolerantManualView({ files: loaded.result.files, root: loaded.root, today: loaded.today });
+  if (!loaded.view) throw new Error(`The procedures have check errors; the manual was not built.\n\n${formatCheckFailure(loaded, false)}`);
+  return { loaded, view: loaded.view };
+}
