@@ -1,0 +1,74 @@
+// Start-up of whole processes, as a plant runs them: `stepwright --version`, `stepwright --help` and
+// `stepwright check procedures` (the demo manual) against `node -e 0` on the same Node, median of 5 runs.
+// The package as users get it: compiled to lib/ and laid out without src/, so the bin runs the JavaScript.
+// The development checkout (TypeScript sources, stripped by Node at every start) is measured beside it.
+// Figures, not assertions.
+import { spawnSync } from 'node:child_process';
+import { cpSync, existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { record } from './results.ts';
+
+const root = join(import.meta.dirname, '..');
+const node = process.execPath;
+const runs = 5;
+
+function median(values: number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  return sorted[Math.floor(sorted.length / 2)];
+}
+
+/** Wall time (ms) and peak memory (MB, when /usr/bin/time is there) of one process, median of `runs`. */
+function measure(args: string[], cwd = root): { ms: number; mb?: number; status: number | null } {
+  const times: number[] = [];
+  const memory: number[] = [];
+  let status: number | null = 0;
+  const timer = existsSync('/usr/bin/time') ? '/usr/bin/time' : undefined;
+  for (let i = 0; i < runs; i++) {
+    const started = performance.now();
+    const run = timer
+      ? spawnSync(timer, ['-f', '%M', node, ...args], { cwd, encoding: 'utf8', env: { ...process.env, STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1' } })
+      : spawnSync(node, args, { cwd, encoding: 'utf8', env: { ...process.env, STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1' } });
+    times.push(performance.now() - started);
+    status = run.status;
+    const kb = timer ? Number(run.stderr.trim().split('\n').at(-1)) : NaN;
+    if (Number.isFinite(kb)) memory.push(kb / 1024);
+  }
+  return { ms: median(times), ...(memory.length ? { mb: median(memory) } : {}), status };
+}
+
+// The package as installed: bin/, lib/ and package.json, with the dependencies next to it.
+const compile = spawnSync(node, [join(root, 'scripts/compile.mjs')], { cwd: root, encoding: 'utf8' });
+if (compile.status !== 0) {
+  process.stderr.write(`startup bench: compiling failed:\n${compile.stdout}${compile.stderr}`);
+  process.exit(1);
+}
+const installed = mkdtempSync(join(tmpdir(), 'stepwright-startup-'));
+for (const part of ['bin', 'lib', 'package.json']) cpSync(join(root, part), join(installed, part), { recursive: true });
+symlinkSync(join(root, 'node_modules'), join(installed, 'node_modules'), 'dir');
+const packaged = join(installed, 'bin', 'stepwright.mjs');
+const checkout = join(root, 'bin', 'stepwright.mjs');
+
+try {
+  const floor = measure(['-e', '0']);
+  const rows: Array<[string, string, ReturnType<typeof measure>, string?]> = [
+    ['startup/node-floor', 'node -e 0', floor],
+    ['startup/version', 'stepwright --version (package)', measure([packaged, '--version']), '<= 200 ms'],
+    ['startup/help', 'stepwright --help (package)', measure([packaged, '--help'])],
+    ['startup/check-demo', 'stepwright check procedures (package, 13 files)', measure([packaged, 'check', 'procedures']), '<= 1000 ms'],
+    ['startup/version-checkout', 'stepwright --version (checkout, TypeScript sources)', measure([checkout, '--version'])],
+    ['startup/check-demo-checkout', 'stepwright check procedures (checkout)', measure([checkout, 'check', 'procedures'])],
+  ];
+  console.log(`Whole processes, median of ${runs}, on ${node} (${process.version}):\n`);
+  console.log(`${'what'.padEnd(54)} ${'wall'.padStart(9)} ${'x floor'.padStart(8)} ${'peak'.padStart(8)}`);
+  for (const [key, label, m, goal] of rows) {
+    const ratio = m.ms / floor.ms;
+    console.log(`${label.padEnd(54)} ${`${Math.round(m.ms)} ms`.padStart(9)} ${ratio.toFixed(1).padStart(7)}x ${(m.mb ? `${Math.round(m.mb)} MB` : '').padStart(8)}${m.status ? `  (exit ${m.status})` : ''}${goal ? `  goal ${goal}` : ''}`);
+    const limit = goal ? Number(goal.replace(/\D/g, '')) : undefined;
+    record(key, { value: Math.round(m.ms), unit: 'ms', ...(goal ? { goal, met: m.ms <= limit! } : {}), note: `${label}; ${ratio.toFixed(1)}x node -e 0${m.mb ? `; peak ${Math.round(m.mb)} MB` : ''}` });
+    if (m.mb) record(`${key}-memory`, { value: Math.round(m.mb), unit: 'MB', note: `peak resident memory of ${label}` });
+  }
+  console.log('\nGoals are for a quiet 2-core machine; on a busy one compare the ratios to node -e 0.');
+} finally {
+  rmSync(installed, { recursive: true, force: true });
+}
