@@ -88,8 +88,22 @@ export async function runServe(argv: string[], io: CliIo): Promise<number> {
     io.stderr.write(`stepwright serve: no built manual in ${values.dir}/; run 'stepwright build' first.\n`);
     return 1;
   }
-  const { url } = await startStaticServer(dir, port, values.host);
+  let url: string;
+  try {
+    ({ url } = await startStaticServer(dir, port, values.host));
+  } catch (error) {
+    throw listenProblem(error, port, values.host) ?? error;
+  }
   io.stdout.write(`Serving the manual from ${values.dir}/ on ${url} (Ctrl+C stops).\n`);
   await new Promise(() => {});
   return 0;
+}
+
+/** A port or host the server cannot take is the user's to change: a usage error that names the option. */
+export function listenProblem(error: unknown, port: number, host: string): UsageError | undefined {
+  const code = (error as NodeJS.ErrnoException)?.code;
+  if (code === 'EADDRINUSE') return new UsageError(`Port ${port} on ${host} is already in use by another program. Choose another with --port <n> (--port 0 picks a free one), or stop the other program.`);
+  if (code === 'EACCES') return new UsageError(`Port ${port} on ${host} needs administrator rights. Choose a port above 1023 with --port <n>.`);
+  if (code === 'EADDRNOTAVAIL' || code === 'ENOTFOUND') return new UsageError(`Cannot listen on host '${host}': no such address on this machine. Check --host.`);
+  return undefined;
 }
