@@ -88,9 +88,9 @@ export const payloads: string[] = [
   '__proto__',
 ];
 
-/** Text fields of a procedure, each fed one payload per procedure (rotating), so every payload meets many fields. */
-const fields = ['title', 'owner', 'author', 'change', 'approval-role', 'approval-name', 'approval-meaning', 'equipment', 'ppe',
-  'signal-text', 'limit-consequence', 'limit-correction', 'interlock-tag', 'interlock-action', 'hazard', 'hazard-consequence',
+/** Text fields of a procedure (names such as tags follow a strict pattern and are tested apart), each fed one payload per procedure (rotating), so every payload meets many fields. */
+const fields = ['title', 'owner', 'author', 'change', 'approval-role', 'approval-name', 'approval-meaning', 'ppe',
+  'signal-text', 'limit-consequence', 'limit-correction', 'interlock-action', 'hazard', 'hazard-consequence',
   'hazard-avoid', 'step-do', 'step-note', 'step-confirm', 'step-sign-off', 'step-phase', 'param-text', 'second-do', 'mode-text'] as const;
 
 /** Procedure files that pass the check with hostile text in every text field and the whole payload list in the body. */
@@ -108,14 +108,14 @@ export function injectionProcedures(count = Math.ceil(payloads.length / fields.l
       author: p('author'),
       change: p('change'),
       approvals: [{ role: p('approval-role'), name: p('approval-name'), date: '2026-11-01', meaning: p('approval-meaning') }],
-      equipment: ['K-210', p('equipment')],
+      equipment: ['K-210'],
       ppe: [p('ppe')],
       signals: {
         'TI-210': { text: p('signal-text'), unit: 'degC', range: [0, 300] },
         mode: { text: `Kettle mode ${p('mode-text')}`, values: ['auto', 'manual'] },
       },
       limits: { 'TI-210': { low: '15 degC', high: '245 degC', consequence: p('limit-consequence'), correction: p('limit-correction') } },
-      interlocks: [{ tag: `TSHH-210 ${p('interlock-tag')}`, 'trips-when': 'TI-210 >= 255 degC', action: p('interlock-action') }],
+      interlocks: [{ tag: 'TSHH-210', 'trips-when': 'TI-210 >= 255 degC', action: p('interlock-action') }],
       hazards: [{ level: 'warning', hazard: p('hazard'), consequence: p('hazard-consequence'), avoid: p('hazard-avoid'), at: ['heat-up'] }],
       steps: [
         {

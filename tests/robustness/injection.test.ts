@@ -35,15 +35,37 @@ describe('hostile procedure text', () => {
     const result = checkSources(files.map((f) => ({ file: f.name, text: f.text })), { today: '2026-12-01' });
     expect(result.diagnostics.filter((d) => d.severity === 'error')).toEqual([]);
   });
+
+  it('refuses every payload written as an equipment or interlock tag, so none reaches a page as a name', () => {
+    const [first] = files;
+    // A payload made only of the characters a tag may hold (such as `__proto__`) is a harmless name.
+    const refusable = payloads.filter((p) => !/^[A-Za-z0-9 _./-]*$/.test(p));
+    expect(refusable.length).toBeGreaterThan(payloads.length - 5);
+    // One check over all of them at once (each file its own id), as a folder of such files would be checked.
+    const cases = refusable.flatMap((payload, i) => ([
+      ['equipment', first.text.replace(/^equipment:\n  - K-210\n/m, `equipment:\n  - K-210\n  - ${JSON.stringify(payload)}\n`)],
+      ['interlock', first.text.replace(/^  - tag: TSHH-210$/m, `  - tag: ${JSON.stringify(`TSHH-210 ${payload}`)}`)],
+    ] as const).map(([where, text], j) => {
+      expect(text, `${where} tag was placed`).not.toBe(first.text);
+      const id = `U2-TAG-${String(i * 2 + j + 1).padStart(3, '0')}`;
+      return { where, payload, file: `${id.toLowerCase()}.md`, text: text.replace(/^id: .*$/m, `id: ${id}`) };
+    }));
+    const result = checkSources(cases.map((c) => ({ file: c.file, text: c.text })), { today: '2026-12-01' });
+    for (const c of cases) {
+      const rules = result.diagnostics.filter((d) => d.file === c.file && d.severity === 'error').map((d) => d.rule);
+      expect(rules, `${c.where}: ${JSON.stringify(c.payload)}`).toContain('name-format');
+    }
+  }, 120_000);
 });
 
 describe('absurd YAML', () => {
   const bomb = ['---', 'a: &a ["lol","lol","lol","lol","lol","lol","lol","lol","lol"]',
     ...'bcdefghi'.split('').map((k, i) => `${k}: &${k} [${Array(9).fill('*' + 'abcdefghi'[i]).join(',')}]`), '---', ''].join('\n');
   const deep = `---\nid: U2-DEEP-001\nsteps: ${'['.repeat(10_000)}${']'.repeat(10_000)}\n---\n`;
-  const deepBlock = `---\n${Array.from({ length: 10_000 }, (_, i) => `${' '.repeat(i)}a:`).join('\n')} 1\n---\n`;
+  // 1,000 levels of block nesting fit under the file size cap (10,000 would be 50 MB, refused for its size).
+  const deepBlock = `---\n${Array.from({ length: 1_000 }, (_, i) => `${' '.repeat(i)}a:`).join('\n')} 1\n---\n`;
 
-  for (const [name, text] of Object.entries({ 'an alias bomb': bomb, '10,000-deep flow nesting': deep, '10,000-deep block nesting': deepBlock })) {
+  for (const [name, text] of Object.entries({ 'an alias bomb': bomb, '10,000-deep flow nesting': deep, '1,000-deep block nesting': deepBlock })) {
     it(`refuses ${name} through the CLI with one clear diagnostic`, async () => {
       const dir = mkdtempSync(join(tmpdir(), 'stepwright-absurd-'));
       try {
