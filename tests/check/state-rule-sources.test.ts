@@ -1,0 +1,36 @@
+// Each plant-state rule rests on a published source or is marked as common practice, and says so.
+import { describe, expect, it } from 'vitest';
+import { rules } from '../../src/check/rules/index.ts';
+
+describe('plant-state rules cite their source', () => {
+  it('hazard-can-occur', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(ii)-(iii): consequences of deviation, steps to correct or avoid it, precautions
+    expect(rules['hazard-can-occur'].meta.source).toMatch(/1910\.119\(f\)/);
+  });
+  it('latched-trip-holds-output', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(iv) safety systems and their functions; IEC 61131-3 action qualifiers S and R
+    expect(rules['latched-trip-holds-output'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iv\).*IEC 61131-3/);
+  });
+  it('step-need-unmet', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(i) steps for each operating phase; line-ups: common practice
+    expect(rules['step-need-unmet'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(i\).*common practice/);
+  });
+  it('contingency-missing', () => {
+    // Source: DOE-STD-1029-92 contingency actions; HSE HSG48
+    expect(rules['contingency-missing'].meta.source).toMatch(/DOE-STD-1029.*HSG48/);
+  });
+  it('independent-check-by-performer', () => {
+    // Source: DOE-STD-1029-92 verification and sign-off steps; HSE HSG48 checking by a second person
+    expect(rules['independent-check-by-performer'].meta.source).toMatch(/DOE-STD-1029.*HSG48/);
+  });
+  it('state-reference-unknown', () => {
+    // Source: IEC 61131-3 SFC action qualifiers N, S, R, L, D (named in the rule's docs in our own words)
+    expect(rules['state-reference-unknown'].meta.source).toMatch(/IEC 61131-3/);
+    for (const q of [/stored, S;/, /reset, R\)/, /\(N\)/, /\(L\)/, /\(D, or SD/]) expect(rules['state-reference-unknown'].meta.docs).toMatch(q);
+  });
+  it('retry-without-limit and state-not-analysed', () => {
+    // Source: common practice
+    expect(rules['retry-without-limit'].meta.source).toMatch(/common practice/i);
+    expect(rules['state-not-analysed'].meta.source).toMatch(/common practice/i);
+  });
+});
