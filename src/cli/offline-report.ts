@@ -11,7 +11,7 @@ export function offlineReport(summary: OfflineCopySummary): string {
   if (summary.list.areas.length > 0) {
     lines.push(`  Kept on every tablet: the lists, search and styles (${plural(frame.length, 'file')}, ${formatBytes(frame.reduce((n, f) => n + f.bytes, 0))})`
       + ` and the emergency procedures (${plural(always.length, 'file')}, ${formatBytes(always.reduce((n, f) => n + f.bytes, 0))}).`);
-    for (const a of summary.list.areas) lines.push(`  Area ${a.area}: ${plural(a.procedures, 'procedure')}, ${plural(a.files, 'file')}, ${formatBytes(a.bytes)}.`);
+    for (const a of summary.list.areas) lines.push(`  ${a.area}: ${plural(a.procedures, 'procedure')}, ${plural(a.files, 'file')}, ${formatBytes(a.bytes)}.`);
   }
   const u = summary.update;
   if (!u) lines.push('  No earlier build in the output folder: a tablet downloads the whole copy once.');

@@ -54,7 +54,7 @@ describe('writeOfflineCopy', () => {
     const report = offlineReport(summary);
     expect(report).toMatch(/^Offline copy: 3 files, 48 B \(version [0-9a-f]{16}\)\.$/m);
     expect(report).toContain('Update from the previous build: 1 file to download, 21 B (1 changed, 0 new), 1 file to delete.');
-    expect(report).toContain('Area east: 1 procedure, 1 file, 21 B.');
+    expect(report).toContain('  east: 1 procedure, 1 file, 21 B.');
     expect(report).toMatch(/emergency procedures \(1 file, 12 B\)/);
     const fresh = await writeOfflineCopy(after, { now: new Date('2026-12-02T00:00:00Z'), places, previousSite: join(after, 'nowhere') });
     expect(offlineReport(fresh)).toContain('No earlier build in the output folder');

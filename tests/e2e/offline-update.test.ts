@@ -265,11 +265,12 @@ describe('a tablet that keeps chosen areas', () => {
     expect(whole).toBe(listB.files.length);
     await expect.poll(() => page.locator('[data-offline-details]').textContent(), { timeout: 10_000 }).toMatch(/keeps the whole manual/);
 
-    // The choice is made on the tablet: one area.
-    await page.locator('input[name="offline-area"][value="area-east"]').check();
+    // The choice is made on the tablet: one area (areas are named as the manual shows them).
+    const chosen = listB.areas[0].area;
+    await page.locator(`input[name="offline-area"][value="${chosen}"]`).check();
     await page.locator('input[name="offline-mode"][value="areas"]').check();
     await page.getByRole('button', { name: 'Keep this choice' }).click();
-    await expect.poll(async () => (await status(page))?.choice, { timeout: 20_000 }).toEqual({ mode: 'areas', areas: ['area-east'] });
+    await expect.poll(async () => (await status(page))?.choice, { timeout: 20_000 }).toEqual({ mode: 'areas', areas: [chosen] });
     await expect.poll(async () => (await status(page))?.copy?.keptFiles, { timeout: 30_000 }).toBeLessThan(whole / 2);
     // Files outside the choice are deleted from the tablet.
     await expect.poll(() => page.evaluate(async () => {
@@ -280,16 +281,15 @@ describe('a tablet that keeps chosen areas', () => {
 
     // It survives a reload.
     await page.reload();
-    await expect.poll(() => page.locator('input[name="offline-area"][value="area-east"]').isChecked(), { timeout: 10_000 }).toBe(true);
+    await expect.poll(() => page.locator(`input[name="offline-area"][value="${chosen}"]`).isChecked(), { timeout: 10_000 }).toBe(true);
     await expect(page.locator('input[name="offline-mode"][value="areas"]').isChecked()).resolves.toBe(true);
 
     // Pages by area from the list: east is kept, an emergency procedure of another area is kept, a batch procedure
     // of another area is not.
-    const byArea = (area: string, emergency: boolean) => listB.files.find((f) => f.area === area && !!f.always === emergency && /^procedures\/[^/]+\/$/.test(f.url))!.url;
-    const east = byArea('area-east', false);
-    const otherEmergency = byArea('area-south', true);
-    const westBatch = byArea('area-west', false);
-    const westOther = listB.files.filter((f) => f.area === 'area-west' && !f.always && /^procedures\/[^/]+\/$/.test(f.url))[1].url;
+    const procedurePages = listB.files.filter((f) => /^procedures\/[^/]+\/$/.test(f.url));
+    const east = procedurePages.find((f) => f.area === chosen && !f.always)!.url;
+    const otherEmergency = procedurePages.find((f) => f.area !== chosen && f.always)!.url;
+    const [westBatch, westOther] = procedurePages.filter((f) => f.area !== chosen && !f.always).map((f) => f.url);
     // Opened once with a network: kept from then on.
     await page.goto(`${server.url}/${westOther}`);
     await expect.poll(async () => {
