@@ -28,7 +28,9 @@ the changed steps marked. Paths default to the procedures folder (see --procedur
 
 Options:
   --base <ref>                 the branch or commit the change is reviewed against (required)
-  --format <markdown|github>   markdown (default) prints the summary; github prints workflow
+  --format <markdown|github|json>  markdown (default) prints the summary; json the same facts for
+                               tools (files, change, revision and status before/after, sign-offs,
+                               check results); github prints workflow
                                annotations for the check problems of the changed files
   --output <file>              also write the Markdown summary to this file
   --procedures <dir>           the procedures folder (default: $STEPWRIGHT_PROCEDURES, else
@@ -57,7 +59,7 @@ export async function runReview(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   if (!values.base) throw new UsageError("Missing '--base <ref>', e.g. '--base origin/main'.");
-  if (values.format !== 'markdown' && values.format !== 'github') throw new UsageError(`Unknown format '${values.format}'; use markdown or github.`);
+  if (values.format !== 'markdown' && values.format !== 'github' && values.format !== 'json') throw new UsageError(`Unknown format '${values.format}'; use markdown, json or github.`);
 
   const paths = positionals.length ? [...positionals, ...(values.procedures ? [values.procedures] : [])] : [proceduresFolder(io, values)];
   // The repository that holds the procedures, wherever the command was started.
@@ -77,6 +79,7 @@ export async function runReview(argv: string[], io: CliIo): Promise<number> {
     const markdown = renderReviewMarkdown(report.input);
     if (values.output) writeFileSync(resolve(io.cwd, values.output), markdown);
     if (values.format === 'github') io.stdout.write(formatGithub(report.diagnostics, (file) => repoPath(repo, file)));
+    else if (values.format === 'json') io.stdout.write(reviewJson(report.input, report.diagnostics));
     else io.stdout.write(markdown);
     return report.diagnostics.some((d) => d.severity === 'error') ? 1 : 0;
   } catch (error) {
@@ -188,4 +191,25 @@ function loadPolicy(io: CliIo, explicit?: string): { policy: PolicyEntry[]; sour
   const parsed = parseReviewPolicy(value);
   if ('problems' in parsed) return { file: configFile, problems: parsed.problems };
   return { policy: parsed.policy, source: `review policy in ${configFile}` };
+}
+
+/** The review as JSON for tools: the facts of the Markdown summary without the rendered tables and charts. */
+function reviewJson(input: { base: string; baseCommit: string; files: ReviewedFile[]; policySource: string; notices: string[] }, diagnostics: Array<{ severity: string }>): string {
+  const side = (p: Procedure | undefined) => (p ? { id: p.id, revision: p.revision, status: p.status } : null);
+  return `${JSON.stringify({
+    base: input.base,
+    baseCommit: input.baseCommit,
+    policy: input.policySource,
+    notices: input.notices,
+    errors: diagnostics.filter((d) => d.severity === 'error').length,
+    files: input.files.map((f) => ({
+      path: f.path,
+      ...(f.oldPath ? { oldPath: f.oldPath } : {}),
+      change: f.change,
+      before: side(f.before),
+      after: side(f.after),
+      signOffs: f.signOffs.map((s) => ({ role: s.role, reasons: s.reasons, signed: s.signedBy ? { name: s.signedBy.name, date: s.signedBy.date } : null })),
+      diagnostics: f.diagnostics,
+    })),
+  }, null, 2)}\n`;
 }

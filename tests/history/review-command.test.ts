@@ -47,6 +47,18 @@ describe('stepwright review', () => {
     expect(r.stdout).toContain('No step added, removed, moved or changed.');
   });
 
+  it('prints the review as JSON with --format json', async () => {
+    const r = await runCli(['review', '--base', commits.effective2, '--format', 'json'], repo.dir);
+    expect(r.code).toBe(1);
+    const review = JSON.parse(r.stdout);
+    expect(review.baseCommit).toMatch(/^[0-9a-f]{40}$/);
+    expect(review.files).toHaveLength(1);
+    expect(review.files[0]).toMatchObject({ path: file, change: 'modified', before: { revision: 2, status: 'effective' }, after: { revision: 2, status: 'effective' } });
+    expect(review.files[0].signOffs.map((s: { role: string }) => s.role)).toContain('Process safety lead');
+    expect(review.files[0].diagnostics.map((d: { rule: string }) => d.rule)).toContain('effective-edited-in-place');
+    expect(review.errors).toBeGreaterThan(0);
+  });
+
   it('prints workflow annotations with --format github and writes the summary to --output', async () => {
     const r = await runCli(['review', '--base', commits.effective2, '--format', 'github', '--output', 'review.md'], repo.dir);
     expect(r.code).toBe(1);
