@@ -88,7 +88,7 @@ export function procedureText(o: ProcedureOptions): string {
     `revision: ${o.revision}`,
     `status: ${o.status}`,
     ...(o.effective ? [`effective: ${o.effective}`] : []),
-    'review-by: 2027-12-31',
+    'review-by: 2027-01-15',
     'owner: Unit 2 Operations',
     'author: Ada Ferrand',
     ...(o.change ? [`change: ${o.change}`] : []),
