@@ -9,6 +9,7 @@ import { proceduresFolder } from './project.ts';
 import { indexSite } from './index-site.ts';
 import { publishSite, recoverSite } from './publish-site.ts';
 import { manifestFile, readPrivateKey, writeSiteManifest } from './site-manifest.ts';
+import { keepTokensWhole } from '../render/keep-tokens-whole.ts';
 import { siteConfig } from '../site/astro-config.ts';
 import { offlineReport } from './offline-report.ts';
 import { writeOfflineCopy, type OfflineCopySummary } from './write-offline-copy.ts';
@@ -131,6 +132,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
     await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production' }), { sync: false } as Parameters<typeof build>[1]);
     progress.done(`${loaded.view.procedures.length} procedures`);
+    // Tags, ids and dates never break across lines, on every page (before the search index reads the pages).
+    await keepTokensWholeIn(work);
     if (!values['no-index']) {
       progress.phase('indexing for search');
       await indexSite(work);
@@ -197,5 +200,16 @@ function isAlive(pid: number): boolean {
     return true;
   } catch (error) {
     return (error as NodeJS.ErrnoException).code === 'EPERM';
+  }
+}
+
+async function keepTokensWholeIn(dir: string): Promise<void> {
+  const { readdir, readFile, writeFile } = await import('node:fs/promises');
+  for (const entry of await readdir(dir, { recursive: true, withFileTypes: true })) {
+    if (!entry.isFile() || !entry.name.endsWith('.html')) continue;
+    const file = join(entry.parentPath, entry.name);
+    const html = await readFile(file, 'utf8');
+    const kept = keepTokensWhole(html);
+    if (kept !== html) await writeFile(file, kept);
   }
 }

@@ -6,6 +6,8 @@ import { kinds } from '../model/schema.ts';
 import { areaName, type AreaSource } from './area-names.ts';
 import { renderBodyHtml } from './body-html.ts';
 import { conditionInWords } from './condition-words.ts';
+import { emergencyKinds, emergencyLead, type EmergencyLead } from './emergency-lead.ts';
+import { renderChartPrintParts } from './chart-print.ts';
 import { renderChartSvg } from './chart-svg.ts';
 import { hazardRank, signalWordColours } from './signal-words.ts';
 import { numberSteps } from './step-numbers.ts';
@@ -63,9 +65,13 @@ export interface ProcedureView {
   interlocks: Array<{ tag: string; tripsWhen: string; tripsWhenWords?: string; action: string; tagUrl: string }>;
   limits: Array<{ signal: string; text?: string; low?: string; high?: string; unit?: string; consequence?: string; correction?: string }>;
   chartSvg: string;
+  /** The chart cut at transitions into parts that each fit a printed page (empty when it fits one page). */
+  chartPrintParts: string[];
   stepCount: number;
   rows: TableRow[];
   bodyHtml: string;
+  /** Emergency and emergency-shutdown procedures: what to do first, shown before everything else. */
+  lead?: EmergencyLead;
   tags: Array<{ tag: string; url: string }>;
 }
 
@@ -173,6 +179,7 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
   });
   const tagNames = [...new Set([...p.equipment, ...p.interlocks.map((i) => i.tag), ...Object.keys(p.signals)])];
   const steps = file.facts?.steps.length ?? 0;
+  const rows = buildStepTable(p, numbers);
   return {
     id: p.id, slug, url: `/procedures/${slug}/`, file: p.file, area: areaName(areaOf(p.file, root), p.equipment, register), areaId: areaOf(p.file, root),
     title: p.title, kind: String(p.kind), kindLabel: kindLabel(String(p.kind)), revision: p.revision, status: String(p.status),
@@ -183,9 +190,11 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: `/tags/${slugOf(i.tag)}/` })),
     limits,
     chartSvg: renderChartSvg(p, { title: `Sequence chart of ${p.id}, ${steps} steps` }, numbers),
+    chartPrintParts: renderChartPrintParts(p, `Sequence chart of ${p.id}`, numbers).map((part) => part.svg),
     stepCount: steps,
-    rows: buildStepTable(p, numbers),
+    rows,
     bodyHtml: renderBodyHtml(p.body),
+    ...(emergencyKinds.has(String(p.kind)) ? { lead: emergencyLead(p.body, rows) } : {}),
     tags: tagNames.map((t) => ({ tag: t, url: `/tags/${slugOf(t)}/` })),
   };
 }

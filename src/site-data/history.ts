@@ -63,12 +63,14 @@ function revisionView(entry: RevisionEntry, root: string, today: string): Proced
 export interface InForcePage {
   /** `newest`: the file as it reads now is in force; `earlier`: a committed earlier revision is; `none`: nothing is. */
   state: 'newest' | 'earlier' | 'none';
-  /** The page model of the revision in force (absent when none is). */
+  /** The page model of the revision in force; for a superseded or retired procedure, its record under a DO NOT USE banner. */
   shown?: ProcedureView;
   /** The newer revision that is not in force yet, with the URL of its own page. */
   newer?: { view: ProcedureView; url: string };
   /** Why nothing is in force, in plain words. */
   reason?: string;
+  /** The committed revision shown, when it is an earlier one. */
+  entry?: RevisionEntry;
 }
 
 let inForceCache: { key: string; pages: Promise<Map<string, InForcePage>> } | undefined;
@@ -93,11 +95,13 @@ export function inForcePage(p: ProcedureView, history: HistoryView | undefined, 
   const decision = revisionInForce({ revision: p.revision, status: p.status, effective: p.effective }, history?.revisions ?? [], today);
   const newer = { view: p, url: `${p.url}next/` };
   if (decision.state === 'newest') return { state: 'newest', shown: p };
-  if (decision.state === 'none') return { state: 'none', reason: decision.reason, ...(p.status === 'retired' || p.status === 'superseded' ? {} : { newer }) };
+  // A superseded or retired procedure keeps its record page under its DO NOT USE banner.
+  if (decision.state === 'none' && (p.status === 'retired' || p.status === 'superseded')) return { state: 'none', reason: decision.reason, shown: p };
+  if (decision.state === 'none') return { state: 'none', reason: decision.reason, newer };
   const earlier = revisionView(decision.entry, root, today);
   if (!earlier) {
     return { state: 'none', newer, reason: `Revision ${decision.entry.revision} is in force, but its committed text cannot be read; ask the procedure owner for the controlled copy. Revision ${p.revision} is ${p.status} and not for use.` };
   }
   // The page of the revision in force keeps the procedure's own URL and its tag links.
-  return { state: 'earlier', shown: { ...earlier, url: p.url, slug: p.slug, tags: earlier.tags.map((t) => p.tags.find((x) => x.tag === t.tag) ?? t) }, newer };
+  return { state: 'earlier', entry: decision.entry, shown: { ...earlier, url: p.url, slug: p.slug, tags: earlier.tags.map((t) => p.tags.find((x) => x.tag === t.tag) ?? t) }, newer };
 }

@@ -73,7 +73,7 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     const target = tag.uses.find((u) => u.role === 'equipment')!.procedure;
     const page = await open('/');
     expect(await page.locator('h1').innerText()).toBe('Procedures');
-    expect(await page.locator('table.proc-index tbody tr').count()).toBe(view.procedures.length);
+    expect(await page.locator('.proc-item').count()).toBe(view.procedures.length);
     // What the live preview shows during `npm run dev` never reaches the published manual.
     expect(await page.getByText('live preview').count()).toBe(0);
     await page.screenshot({ path: join(artifacts, 'manual-home.png'), fullPage: true });

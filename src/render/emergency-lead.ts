@@ -1,0 +1,81 @@
+// Emergency and emergency-shutdown pages lead with what to do: the conditions that require the procedure, who
+// is responsible, and the immediate actions (the steps up to the first decision or parallel block), before
+// approvals, history and the full chart. The narrative sections used up here are not repeated further down.
+import type { Root, RootContent } from 'mdast';
+import { renderBodyHtml } from './body-html.ts';
+import type { StepRow, TableRow } from './step-table.ts';
+
+export const emergencyKinds: ReadonlySet<string> = new Set(['emergency', 'emergency-shutdown']);
+
+export interface LeadSection {
+  title: string;
+  html: string;
+}
+
+export interface EmergencyLead {
+  /** "Conditions that require …" (or, when there is none, the scope, which says when the procedure applies). */
+  conditions?: LeadSection;
+  /** "Responsibility": who starts it, who carries it out, who takes command. */
+  responsibility?: LeadSection;
+  /** The first steps in order, up to the first decision or parallel block (at most `maxActions`). */
+  actions: StepRow[];
+  /** Steps after the immediate actions, to say how many more follow in the table. */
+  remaining: number;
+  /** The narrative without the sections shown in the lead. */
+  restHtml: string;
+}
+
+interface Section {
+  title: string;
+  nodes: RootContent[];
+}
+
+function textOf(node: RootContent): string {
+  if ('value' in node && typeof node.value === 'string') return node.value;
+  if ('children' in node) return (node.children as RootContent[]).map(textOf).join('');
+  return '';
+}
+
+/** Splits the body at its level-2 headings; text before the first heading is a section without a title. */
+function sectionsOf(body: Root): Section[] {
+  const out: Section[] = [{ title: '', nodes: [] }];
+  for (const node of body.children) {
+    if (node.type === 'heading' && node.depth <= 2) out.push({ title: textOf(node).trim(), nodes: [node] });
+    else out[out.length - 1].nodes.push(node);
+  }
+  return out.filter((s) => s.nodes.length > 0);
+}
+
+const conditionsHeading = /\b(conditions?|triggers?|when to (start|use)|initiat)/i;
+const responsibilityHeading = /\b(responsib|who )/i;
+const scopeHeading = /\bscope\b/i;
+
+export function emergencyLead(body: Root, rows: TableRow[], maxActions = 6): EmergencyLead {
+  const sections = sectionsOf(body);
+  const pick = (pattern: RegExp) => sections.find((s) => s.title && pattern.test(s.title));
+  const conditions = pick(conditionsHeading) ?? pick(scopeHeading);
+  const responsibility = pick(responsibilityHeading);
+  const used = new Set([conditions, responsibility].filter(Boolean));
+  const render = (s: Section | undefined): LeadSection | undefined => s && {
+    title: s.title,
+    // The heading itself becomes the lead block's own heading.
+    html: renderBodyHtml({ type: 'root', children: s.nodes.filter((n) => n.type !== 'heading' || n !== s.nodes[0]) }, 2),
+  };
+  const actions: StepRow[] = [];
+  let total = 0;
+  let open = true;
+  for (const row of rows) {
+    if (row.kind === 'step') total++;
+    if (!open) continue;
+    if (row.kind === 'decision' || row.kind === 'parallel-start' || row.kind === 'jump') { open = false; continue; }
+    if (row.kind === 'step') {
+      if (actions.length < maxActions) actions.push(row);
+      else open = false;
+    }
+  }
+  const rest = sections.filter((s) => !used.has(s)).flatMap((s) => s.nodes);
+  return {
+    conditions: render(conditions), responsibility: render(responsibility), actions, remaining: total - actions.length,
+    restHtml: renderBodyHtml({ type: 'root', children: rest }),
+  };
+}

@@ -1,0 +1,27 @@
+import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { keepTokensWhole } from '../../src/render/keep-tokens-whole.ts';
+
+describe('keepTokensWhole', () => {
+  it('wraps tags, document ids and dates in the body text only', () => {
+    const html = '<html><head><title>U2-K210-ESD-001</title><meta content="2026-04-06"></head><body><p data-x="AI-210">Check AI-210 on 2026-04-06, see U2-K210-ESD-001.</p><svg><text>TI-210</text></svg><script>const a = "XV-2107";</script></body></html>';
+    const out = keepTokensWhole(html);
+    expect(out).toContain('<title>U2-K210-ESD-001</title>');
+    expect(out).toContain('<p data-x="AI-210">Check <span class="nb">AI-210</span> on <span class="nb">2026-04-06</span>, see <span class="nb">U2-K210-ESD-001</span>.</p>');
+    expect(out).toContain('<svg><text>TI-210</text></svg>');
+    expect(out).toContain('const a = "XV-2107";');
+  });
+  it('copies a whole chart, nested symbols included, without touching its text', () => {
+    const svg = '<svg class="c"><text>TI-210</text><g><svg class="alert-symbol"><path d="M1 2"/></svg></g><text>FV-211</text><path/></svg>';
+    expect(keepTokensWhole(`<body><p>K-210</p>${svg}<p>P-211</p></body>`)).toBe(`<body><p><span class="nb">K-210</span></p>${svg}<p><span class="nb">P-211</span></p></body>`);
+  });
+  it('leaves words with hyphens and lower-case ids alone', () => {
+    expect(keepTokensWhole('<body>heat-up and agitator-on, ARC-U and K-210A</body>')).toBe('<body>heat-up and agitator-on, ARC-U and <span class="nb">K-210A</span></body>');
+  });
+  it('changes nothing but the added spans (property)', () => {
+    fc.assert(fc.property(fc.array(fc.constantFrom('K-210', ' ', 'a-b', '<b>', '</b>', '2026-01-02', 'x', '<i title="P-1">', '-', '<br/>', '<svg><text>XV-1</text></svg>', '<svg><svg>Q-1</svg>T-2</svg>'), { maxLength: 30 }), (parts) => {
+      const html = `<body>${parts.join('')}</body>`;
+      expect(keepTokensWhole(html).replace(/<span class="nb">|<\/span>/g, '')).toBe(html);
+    }));
+  });
+});
