@@ -161,7 +161,7 @@ describe('with JavaScript off', () => {
     expect(words.length).toBeGreaterThan(3);
     await expect(page.locator('tr[data-step]').count()).resolves.toBeGreaterThan(10);
     await expect(page.locator('tr[data-step]').first().isVisible()).resolves.toBe(true);
-    await expect(page.locator('#sequence svg').isVisible()).resolves.toBe(true);
+    await expect(page.locator('#sequence .chart-scroll > svg').isVisible()).resolves.toBe(true);
     await expect(page.locator('[data-theme-toggle]').isVisible()).resolves.toBe(false);
     await expect(page.locator('.pk').count()).resolves.toBe(0);
     await page.screenshot({ path: join(artifactsDir, 'floor-procedure-800x1280-no-js.png') });
