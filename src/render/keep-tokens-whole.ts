@@ -6,11 +6,11 @@
 const token = /\d{4}-\d{2}-\d{2}(?:[T ]\d{2}:\d{2}(?::\d{2})?)?|(?<![\w-])[A-Z][A-Z0-9]*(?:-[A-Z0-9]+)+(?![\w-])/g;
 
 /** Segments that are not text: whole elements whose content is not flowing text, comments, and single tags. */
-const skip = /(<(script|style|title|textarea|template|noscript)\b[\s\S]*?<\/\2\s*>|<!--[\s\S]*?-->|<[^>]*>)/gi;
+const skip = /(<(script|style|title|textarea|template|noscript)\b[\s\S]*?<\/\2\s*>|<!--[\s\S]*?-->|<(?:[^>"']|"[^"]*"|'[^']*')*>)/gi;
 
 /** The end of the <svg> element opening at `from` (SVG may nest: a symbol drawn inside a chart). */
 function svgEnd(html: string, from: number): number {
-  const tags = /<(\/?)svg\b[^>]*?(\/?)>/gi;
+  const tags = /<(\/?)svg\b(?:[^>"']|"[^"]*"|'[^']*')*?(\/?)>/gi;
   tags.lastIndex = from;
   let depth = 0;
   for (let m = tags.exec(html); m; m = tags.exec(html)) {

@@ -127,11 +127,11 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
       if ((await page.locator('article').getAttribute('data-revision')) !== String(p.revision)) await page.goto(`${base}${p.url}next/`);
       const graph = compileStepGraph(procedures.get(p.id)!);
       const stepIds = graph.places.filter((x) => x.kind === 'step').map((x) => x.step!.id);
-      const nodes = await page.locator('#sequence a.sfc-step').evaluateAll((els) => els.map((e) => e.getAttribute('data-step')));
+      const nodes = await page.locator('#sequence .chart-scroll a.sfc-step').evaluateAll((els) => els.map((e) => e.getAttribute('data-step')));
       expect(nodes.sort(), p.id).toEqual([...stepIds].sort());
-      expect(await page.locator('#sequence .sfc-bar').count(), p.id).toBe(drawnTransitions(graph));
+      expect(await page.locator('#sequence .chart-scroll .sfc-bar').count(), p.id).toBe(drawnTransitions(graph));
       // Every step link has a row to land on.
-      const missing = await page.locator('#sequence a.sfc-step').evaluateAll((els) => els.map((e) => e.getAttribute('href')!).filter((h) => !document.querySelector(`tr${h}`)));
+      const missing = await page.locator('#sequence .chart-scroll a.sfc-step').evaluateAll((els) => els.map((e) => e.getAttribute('href')!).filter((h) => !document.querySelector(`tr${h}`)));
       expect(missing, p.id).toEqual([]);
     }
     await page.close();
@@ -140,10 +140,10 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
   it('lands every step link of the chart on its table row', async () => {
     const p: ProcedureView = view.procedures.reduce((a, b) => (b.stepCount > a.stepCount ? b : a));
     const page = await open(p.url);
-    const ids = await page.locator('#sequence a.sfc-step').evaluateAll((els) => els.map((e) => e.getAttribute('data-step')!));
+    const ids = await page.locator('#sequence .chart-scroll a.sfc-step').evaluateAll((els) => els.map((e) => e.getAttribute('data-step')!));
     expect(ids.length).toBe(p.stepCount);
     for (const id of ids) {
-      await page.locator(`#sequence a.sfc-step[data-step="${id}"]`).click();
+      await page.locator(`#sequence .chart-scroll a.sfc-step[data-step="${id}"]`).click();
       await page.waitForFunction((want) => location.hash === `#step-${want}`, id);
       const row = page.locator(`tr#step-${id}`);
       expect(await row.evaluate((el) => el.matches(':target'))).toBe(true);

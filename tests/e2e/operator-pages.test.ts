@@ -3,7 +3,7 @@
 // charts, print (page count, blank pages, "continued" marks, light header), search excerpts, area names, safety
 // alert symbols, chart and table numbering, redline with context. Screenshots go to test-artifacts/.
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
@@ -54,6 +54,8 @@ function buildFixtureRepo(): TempRepo {
 
 beforeAll(async () => {
   repo = buildFixtureRepo();
+  // The plant's repository has the package installed: the build's server chunks resolve their imports there.
+  symlinkSync(resolve('node_modules'), join(repo.dir, 'node_modules'), 'dir');
   fixtureOut = mkdtempSync(join(tmpdir(), 'stepwright-pages-fixture-'));
   const bin = resolve('bin/stepwright.mjs');
   const env = { ...process.env, NO_COLOR: '1' };
@@ -249,7 +251,7 @@ describe('the demo manual', () => {
       expect(problems, path).toEqual([]);
       if (path.includes('batch-001/') && !path.includes('audit')) {
         // The batch chart (844 px drawn) fits the 766 px column by scaling, so no transition label is cut.
-        const chart = await page.locator('.chart-scroll').evaluate((el) => ({ box: el.clientWidth, svg: el.querySelector('svg')!.getBoundingClientRect().width }));
+        const chart = await page.locator('#sequence .chart-scroll').evaluate((el) => ({ box: el.clientWidth, svg: el.querySelector('svg')!.getBoundingClientRect().width }));
         expect(chart.svg).toBeLessThanOrEqual(chart.box);
         await shot(page, 'batch-800x1280');
         await shot(await open(demo, path, desk), 'batch-1280x900');

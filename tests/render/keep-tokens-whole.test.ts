@@ -15,6 +15,10 @@ describe('keepTokensWhole', () => {
     const svg = '<svg class="c"><text>TI-210</text><g><svg class="alert-symbol"><path d="M1 2"/></svg></g><text>FV-211</text><path/></svg>';
     expect(keepTokensWhole(`<body><p>K-210</p>${svg}<p>P-211</p></body>`)).toBe(`<body><p><span class="nb">K-210</span></p>${svg}<p><span class="nb">P-211</span></p></body>`);
   });
+  it('never touches an attribute value, even one holding a ">" (a condition in a data attribute)', () => {
+    const html = '<body><div hidden data-plan="{&quot;until&quot;:&quot;TI-210 >= 250 degC&quot;, &quot;d&quot;: &quot;2026-01-02&quot;}">K-210</div><p title=\'a > XV-1\'>XV-2</p></body>';
+    expect(keepTokensWhole(html)).toBe('<body><div hidden data-plan="{&quot;until&quot;:&quot;TI-210 >= 250 degC&quot;, &quot;d&quot;: &quot;2026-01-02&quot;}"><span class="nb">K-210</span></div><p title=\'a > XV-1\'><span class="nb">XV-2</span></p></body>');
+  });
   it('leaves words with hyphens and lower-case ids alone', () => {
     expect(keepTokensWhole('<body>heat-up and agitator-on, ARC-U and K-210A</body>')).toBe('<body>heat-up and agitator-on, ARC-U and <span class="nb">K-210A</span></body>');
   });
