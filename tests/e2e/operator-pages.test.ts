@@ -58,7 +58,7 @@ beforeAll(async () => {
   symlinkSync(resolve('node_modules'), join(repo.dir, 'node_modules'), 'dir');
   fixtureOut = mkdtempSync(join(tmpdir(), 'stepwright-pages-fixture-'));
   const bin = resolve('bin/stepwright.mjs');
-  const env = { ...process.env, NO_COLOR: '1' };
+  const env: NodeJS.ProcessEnv = { ...process.env, NO_COLOR: '1' };
   for (const key of Object.keys(env)) if (/^(NODE_ENV|DEV|PROD|MODE|SSR|BASE_URL|TEST|VITEST.*)$/.test(key)) delete env[key];
   const [demoDir] = await Promise.all([builtSite()]);
   const run = spawnSync(process.execPath, [bin, 'build', '--out', join(fixtureOut, 'site')], { cwd: repo.dir, encoding: 'utf8', env, timeout: 8 * 60_000 });
@@ -333,8 +333,8 @@ describe('the demo manual', () => {
 
   it('numbers every step and decision the same in the chart and the table', async () => {
     const page = await open(demo, '/procedures/u2-k210-batch-001/', desk);
-    const chart = await page.locator('.chart-scroll a.sfc-step').evaluateAll((els) => els.map((e) => [e.getAttribute('data-step'), e.querySelector('text')!.textContent!.split(/\s+/)[0]]));
-    const table = await page.locator('tr.step-row').evaluateAll((els) => els.map((e) => [e.getAttribute('data-step'), e.querySelector('td.num')!.textContent!.trim().split(/\s+/)[0]]));
+    const chart = await page.locator('.chart-scroll a.sfc-step').evaluateAll((els) => els.map((e) => [e.getAttribute('data-step'), e.querySelector('text')!.textContent!.split(/\s+/)[0]] as const));
+    const table = await page.locator('tr.step-row').evaluateAll((els) => els.map((e) => [e.getAttribute('data-step'), e.querySelector('td.num')!.textContent!.trim().split(/\s+/)[0]] as const));
     expect(new Map(chart)).toEqual(new Map(table));
     const decisions = await page.locator('tr.decision-row').evaluateAll((els) => els.map((e) => e.getAttribute('data-decision')));
     const branches = await page.locator('.chart-scroll text.sfc-branch').allTextContents();
