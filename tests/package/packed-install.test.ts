@@ -1,0 +1,120 @@
+// The package as a plant gets it: packed with `npm pack`, installed from the tarball into a new git repository
+// of the plant's own, and run there with the installed bin on the plant's Node (>= 22.12; here the project's
+// Node 24). Every procedure gets a page and the audit trail lists that repository's commits, not the tool's.
+import { execFileSync, spawn, spawnSync, type SpawnSyncReturns } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { delimiter, dirname, join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+
+const tool = join(import.meta.dirname, '..', '..');
+const work = mkdtempSync(join(tmpdir(), 'stepwright-package-'));
+const plant = join(work, 'plant');
+// The plant's Node and npm: the project's Node 24 first on the PATH; without what the test runner adds.
+const env: NodeJS.ProcessEnv = { ...process.env, PATH: [dirname(process.execPath), join(tool, 'node_modules', '.bin'), process.env.PATH].join(delimiter), NO_COLOR: '1' };
+for (const key of Object.keys(env)) if (/^(NODE_ENV|DEV|PROD|MODE|SSR|BASE_URL|TEST|VITEST.*|npm_.*|INIT_CWD|STEPWRIGHT_.*)$/.test(key)) delete env[key];
+const author = { GIT_AUTHOR_NAME: 'Plant Engineer', GIT_AUTHOR_EMAIL: 'engineer@alder-reach.example', GIT_COMMITTER_NAME: 'Plant Engineer', GIT_COMMITTER_EMAIL: 'engineer@alder-reach.example' };
+
+function run(command: string, args: string[], cwd: string, timeout = 240_000): SpawnSyncReturns<string> {
+  return spawnSync(command, args, { cwd, env, encoding: 'utf8', timeout });
+}
+function ok(result: SpawnSyncReturns<string>): string {
+  if (result.status !== 0) throw new Error(`exit ${result.status}:\n${result.stdout}\n${result.stderr}`);
+  return result.stdout;
+}
+const git = (args: string[], date: string) => execFileSync('git', args, { cwd: plant, env: { ...env, ...author, GIT_AUTHOR_DATE: `${date}T09:00:00Z`, GIT_COMMITTER_DATE: `${date}T09:00:00Z` }, encoding: 'utf8' });
+const stepwright = (args: string[]) => run(join(plant, 'node_modules', '.bin', 'stepwright'), args, plant);
+
+const unloading = readFileSync(join(tool, 'procedures', 'unloading', 'u2-unl-xyl-001.md'), 'utf8');
+const nitrogen = readFileSync(join(tool, 'procedures', 'utilities', 'u2-n2-su-001.md'), 'utf8');
+
+beforeAll(() => {
+  // The tarball, made the way a release is made (prepack compiles the TypeScript into lib/).
+  ok(run('npm', ['pack', '--pack-destination', work], tool, 300_000));
+  const tarball = join(work, readdirSync(work).find((f) => f.endsWith('.tgz'))!);
+
+  mkdirSync(join(plant, 'procedures', 'utilities'), { recursive: true });
+  execFileSync('git', ['init', '-q', '-b', 'main'], { cwd: plant, env });
+  writeFileSync(join(plant, 'package.json'), `${JSON.stringify({ name: 'alder-reach-unit-2-procedures', private: true }, null, 2)}\n`);
+  // The unloading procedure committed at two revisions; the nitrogen procedure once. Not yet here: a README.md
+  // beside them, which the check still takes for a procedure without front-matter (an error); add it to this
+  // repository once markdown that is not a procedure is skipped with an info line.
+  writeFileSync(join(plant, 'procedures', 'u2-unl-xyl-001.md'), unloading.replace(/^revision: \d+$/m, 'revision: 5').replace('Unloading xylene', 'Unloading of xylene'));
+  git(['add', '-A'], '2026-03-01');
+  git(['commit', '-q', '-m', 'Unloading procedure, revision 5'], '2026-03-01');
+  writeFileSync(join(plant, 'procedures', 'u2-unl-xyl-001.md'), unloading);
+  writeFileSync(join(plant, 'procedures', 'utilities', 'u2-n2-su-001.md'), nitrogen);
+  git(['add', '-A'], '2026-04-01');
+  git(['commit', '-q', '-m', 'Unloading procedure, revision 6; nitrogen start-up'], '2026-04-01');
+
+  ok(run('npm', ['install', '--save-dev', '--prefer-offline', '--no-audit', '--no-fund', tarball], plant, 300_000));
+}, 600_000);
+
+afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+// Whole processes on a shared machine: each step gets room.
+describe('the packed package in a plant repository', { timeout: 300_000 }, () => {
+  it('ships compiled JavaScript and the site, but no TypeScript sources, tests, bench or fixtures', () => {
+    const installed = join(plant, 'node_modules', 'stepwright');
+    const files = readdirSync(installed, { recursive: true }).map(String);
+    expect(files.some((f) => f.startsWith('lib/cli/') && f.endsWith('.js'))).toBe(true);
+    expect(files.some((f) => f.startsWith('lib/site/pages/') && f.endsWith('.astro'))).toBe(true);
+    expect(files.filter((f) => /^(src|tests|bench)\//.test(f) || f.endsWith('.ts'))).toEqual([]);
+    const manifest = JSON.parse(readFileSync(join(installed, 'package.json'), 'utf8'));
+    expect(manifest.engines.node).toBe('>=22.12.0');
+    expect(Object.keys(manifest.dependencies)).not.toContain('tsx');
+  });
+
+  it('init adds config, ignore entries, editor settings and a workflow, and leaves the procedures alone', () => {
+    const out = ok(stepwright(['init']));
+    expect(out).toContain('stepwright.config.yaml');
+    expect(out).toMatch(/Left as they are[\s\S]*procedures\/ \(already holds procedures/);
+    expect(existsSync(join(plant, '.github', 'workflows', 'procedures.yml'))).toBe(true);
+    expect(readFileSync(join(plant, 'procedures', 'u2-unl-xyl-001.md'), 'utf8')).toBe(unloading);
+  });
+
+  it('check and review --base work on the plant repository', () => {
+    const check = stepwright(['check']);
+    expect(check.stdout).toMatch(/0 errors/);
+    expect(check.status).toBe(0);
+    const review = stepwright(['review', '--base', 'HEAD~1']);
+    expect(review.stderr).toBe('');
+    expect(review.stdout).toContain('U2-UNL-XYL-001');
+    expect(review.stdout).toMatch(/5\D+6/);
+  });
+
+  it('build writes a page for every procedure and an audit trail from this repository; verify and serve work', async () => {
+    const build = stepwright(['build']);
+    expect(build.stderr).toBe('');
+    expect(build.status).toBe(0);
+    for (const slug of ['u2-unl-xyl-001', 'u2-n2-su-001']) expect(existsSync(join(plant, 'dist', 'procedures', slug, 'index.html'))).toBe(true);
+    const audit = readFileSync(join(plant, 'dist', 'procedures', 'u2-unl-xyl-001', 'audit', 'index.html'), 'utf8');
+    const commits = execFileSync('git', ['log', '--format=%h', '--', 'procedures/u2-unl-xyl-001.md'], { cwd: plant, encoding: 'utf8' }).trim().split('\n');
+    expect(commits).toHaveLength(2);
+    for (const commit of commits) expect(audit).toContain(commit);
+    expect(audit).not.toMatch(/uncommitted/i);
+    const verify = stepwright(['verify', 'dist']);
+    expect(verify.stdout).toContain('0 changed, 0 added, 0 missing');
+    expect(verify.stdout).toContain('All 2 procedure pages match their sources.');
+    expect(verify.status).toBe(0);
+
+    const server = spawn(join(plant, 'node_modules', '.bin', 'stepwright'), ['serve', '--port', '0', '--host', '127.0.0.1'], { cwd: plant, env });
+    try {
+      const url = await new Promise<string>((resolve, reject) => {
+        let seen = '';
+        server.stdout.on('data', (chunk) => {
+          seen += chunk;
+          const m = /on (http:\/\/\S+?)\/? \(/.exec(seen);
+          if (m) resolve(m[1]);
+        });
+        server.on('exit', (code) => reject(new Error(`serve exited ${code}: ${seen}`)));
+      });
+      for (const path of ['/', '/procedures/u2-unl-xyl-001/', '/procedures/u2-n2-su-001/', '/procedures/u2-unl-xyl-001/audit/']) {
+        const response = await fetch(`${url}${path}`);
+        expect(response.status, path).toBe(200);
+      }
+    } finally {
+      server.kill('SIGTERM');
+    }
+  });
+});
