@@ -6,15 +6,28 @@ import { readProcedureFiles } from '../src/cli/read-procedure-files.ts';
 import { kinds } from '../src/model/schema.ts';
 import { walkBlocks } from '../src/model/walk-steps.ts';
 import { unitDimension } from '../src/analysis/units.ts';
+import { loadRegister } from '../src/cli/load-register.ts';
 
 const root = join(import.meta.dirname, '..');
-const result = checkSources(readProcedureFiles(['procedures'], root), { today: '2026-12-01' });
+// The demo plant keeps its signals, trips and relief devices in the register folder next to procedures/.
+const register = loadRegister(root, undefined, undefined);
+const result = checkSources(readProcedureFiles(['procedures'], root), { today: '2026-12-01', register });
 const procedures = result.files.flatMap((f) => (f.procedure ? [f.procedure] : []));
 
 describe('demo manual', () => {
   it('checks with zero errors', () => {
     const errors = result.diagnostics.filter((d) => d.severity === 'error').map((d) => `${d.file}:${d.line} ${d.rule} ${d.message}`);
     expect(errors).toEqual([]);
+  });
+
+  it('reads the plant register, with no register problem and every K-210 trip described once', () => {
+    expect(register).toBeDefined();
+    expect(register!.diagnostics).toEqual([]);
+    const esd = register!.safetyFunctions.get('ESD-210');
+    expect(esd?.latches).toBe(true);
+    // Every trip that starts the K-210 emergency shutdown shows the same description in every procedure.
+    const descriptions = new Set(procedures.flatMap((p) => p.interlocks.filter((i) => ['TSHH-210', 'PSHH-210', 'HS-2190'].includes(i.tag)).map((i) => i.action.replace(/^.*?, which /, ''))));
+    expect(descriptions.size).toBe(1);
   });
 
   it('has at least eight procedures and one of each kind', () => {

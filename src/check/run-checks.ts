@@ -89,7 +89,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       register: options.register, certificationIntervalMonths: options.certificationIntervalMonths ?? 12,
       // The previous version is read only when a rule asks for it: a file found in the cache needs no second parse.
       get history() {
-        if (history === null) history = previous ? readPrevious(input.file, previous) : undefined;
+        if (history === null) history = previous ? readPrevious(input.file, previous, options.register) : undefined;
         return history;
       },
       report: (report) => emit(context, current, report),
@@ -156,8 +156,9 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   };
 }
 
-function readPrevious(file: string, previous: { text: string; commit: string }): FileHistory {
-  const { source, procedure } = readProcedure(file, previous.text);
+function readPrevious(file: string, previous: { text: string; commit: string }, register?: PlantRegister): FileHistory {
+  // Read against the same register, so that moving a declaration into the register is not a change of content.
+  const { source, procedure } = readProcedure(file, previous.text, register);
   return { commit: previous.commit, text: previous.text, source, procedure };
 }
 

@@ -4,6 +4,8 @@ import { parseArgs } from 'node:util';
 import { closest } from 'fastest-levenshtein';
 import { estimateCycleTime } from '../analysis/cycle-time.ts';
 import { inlineCalls } from '../analysis/inline-calls.ts';
+import { loadConfig } from './load-config.ts';
+import { loadRegister } from './load-register.ts';
 import { checkSources } from '../check/run-checks.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { mermaidFlowchart } from '../render/mermaid-flowchart.ts';
@@ -52,7 +54,8 @@ export async function runExport(argv: string[], io: CliIo): Promise<number> {
   if (values.format !== 'json' && values.format !== 'mermaid') throw new UsageError(`Unknown format '${values.format}'; use json or mermaid.`);
 
   const inputs = readProcedureFiles(paths.length ? paths : [proceduresFolder(io)], io.cwd);
-  const result = checkSources(inputs, { today: todayOf(io) });
+  const configured = loadConfig(io);
+  const result = checkSources(inputs, { today: todayOf(io), register: loadRegister(io.cwd, configured.file?.file, configured.config.register) });
   const byId = new Map<string, Procedure>();
   for (const f of result.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f.procedure);
   const found = result.files.find((f) => f.procedure?.id === id);

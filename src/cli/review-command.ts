@@ -17,6 +17,11 @@ import { todayOf, UsageError, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { openRepository, repoPath, type Repository } from './repository.ts';
 import { findConfigFile, proceduresFolder } from './project.ts';
+import { findRegisterFolder, readRegisterFolder } from './load-register.ts';
+import { readYamlSource } from '../parse/read-yaml-source.ts';
+import { buildRegister, type PlantRegister } from '../model/register.ts';
+import { registerImpact } from '../history/register-impact.ts';
+import { relative } from 'node:path';
 
 export const reviewHelp = `Usage: stepwright review --base <ref> [options] [paths…]
 
@@ -108,6 +113,11 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
   const changes = [...tracked, ...untracked].filter((c) => c.path.endsWith('.md')).sort((a, b) => a.path.localeCompare(b.path));
 
   const inputs = readProcedureFiles(paths, io.cwd);
+  // The register now and at the base: a changed entry reaches every procedure that uses it.
+  const configPath = findConfigFile(io.cwd);
+  const location = findRegisterFolder(io.cwd, configPath, registerKey(configPath));
+  const register = location ? readRegisterFolder(location, io.cwd) : undefined;
+  const baseRegister = location ? await registerAt(repo, baseCommit, location.absolute, io.cwd) : undefined;
   const inputByPath = new Map(inputs.map((i) => [repoPath(repo, resolve(io.cwd, i.file)), i]));
   const oldTexts = new Map<string, string>();
   const existing = changes.filter((c) => c.status !== 'A');
@@ -119,6 +129,7 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
 
   const result = checkSources(inputs, {
     today: todayOf(io),
+    register,
     previous: (file) => {
       const text = oldTexts.get(repoPath(repo, resolve(io.cwd, file)));
       return text === undefined ? undefined : { text, commit: describeBase(base, baseCommit) };
@@ -151,8 +162,24 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
       diagnostics: diagnosticsOf.get(c.path) ?? [],
     });
   }
+  const registerChanges = register || baseRegister
+    ? registerImpact(
+      baseRegister, register,
+      result.files.flatMap((f) => {
+        if (!f.procedure) return [];
+        const old = oldTexts.get(repoPath(repo, resolve(io.cwd, f.file)));
+        const atBase = old === undefined ? undefined : readProcedure(f.file, old, baseRegister).procedure ?? undefined;
+        return [{ now: f.procedure, ...(atBase ? { atBase } : {}) }];
+      }),
+      (p) => {
+        const old = oldTexts.get(repoPath(repo, resolve(io.cwd, p.file)));
+        if (old === undefined) return changes.some((c) => c.status === 'A' && c.path === repoPath(repo, resolve(io.cwd, p.file)));
+        return readProcedure(p.file, old).procedure?.revision !== p.revision;
+      },
+    )
+    : [];
   return {
-    input: { base, baseCommit, files, policySource: policy.source, notices },
+    input: { base, baseCommit, files, policySource: policy.source, notices, registerChanges },
     diagnostics: files.flatMap((f) => f.diagnostics),
   };
 }
@@ -212,4 +239,27 @@ function reviewJson(input: { base: string; baseCommit: string; files: ReviewedFi
       diagnostics: f.diagnostics,
     })),
   }, null, 2)}\n`;
+}
+
+function registerKey(configPath: string | undefined): string | undefined {
+  if (!configPath) return undefined;
+  try {
+    const data = parseYaml(readFileSync(configPath, 'utf8')) as Record<string, unknown> | null;
+    return typeof data?.register === 'string' ? data.register : undefined;
+  } catch {
+    return undefined;
+  }
+}
+
+/** The register as it was at a commit: every YAML file under the folder, read the same way as today's. */
+async function registerAt(repo: Repository, commit: string, absolute: string, cwd: string): Promise<PlantRegister> {
+  const folder = repoPath(repo, absolute);
+  const names = (await repo.git(['ls-tree', '-r', '-z', '--name-only', commit, '--', folder])).split('\0').filter((n) => /\.ya?ml$/i.test(n));
+  const shown = await showFiles(repo.git, names.map((n) => `${commit}:${n}`));
+  const sources = names.flatMap((n) => {
+    const text = shown.get(`${commit}:${n}`);
+    const file = relative(cwd, join(repo.root, n)).replaceAll('\\', '/');
+    return text === undefined ? [] : [{ file, source: readYamlSource(file, text) }];
+  });
+  return buildRegister(relative(cwd, absolute) || '.', sources);
 }

@@ -6,6 +6,7 @@ import { mermaidFlowchart } from '../render/mermaid-flowchart.ts';
 import { stepMarks, type FieldChange, type ItemChange, type Redline, type StepRow, type WordPart } from './redline.ts';
 import type { RequiredSignOff } from './approval-policy.ts';
 import { describeBase } from './previous-version.ts';
+import type { RegisterEntryChange } from './register-impact.ts';
 
 export interface ReviewedFile {
   /** Path now (or before, when deleted), relative to the repository root. */
@@ -26,12 +27,15 @@ export interface ReviewInput {
   /** Where the approval policy came from, e.g. "default policy (docs/review.md)". */
   policySource: string;
   notices: string[];
+  /** Entries of the plant register that changed, with every procedure that uses each. */
+  registerChanges?: RegisterEntryChange[];
 }
 
 export function renderReviewMarkdown(input: ReviewInput): string {
   const out: string[] = [];
   out.push(`## Stepwright review against ${describeBase(input.base, input.baseCommit).replace(/^(\S+)/, '`$1`')}`, '');
   for (const n of input.notices) out.push(`> [!WARNING]`, `> ${n}`, '');
+  out.push(...registerSection(input.registerChanges ?? []));
   if (!input.files.length) {
     out.push('No procedure changed.', '');
     return `${out.join('\n')}\n`;
@@ -207,6 +211,31 @@ function arrow(before: unknown, after: unknown): string {
   return before === after ? show(after) : `${show(before)} → ${show(after)}`;
 }
 
-function plural(n: number, word: string): string {
-  return `${n} ${word}${n === 1 ? '' : 's'}`;
+function plural(n: number, word: string, many = `${word}s`): string {
+  return `${n} ${n === 1 ? word : many}`;
+}
+
+/** The register changes first: a changed trip or limit reaches every procedure that uses it, changed or not. */
+function registerSection(changes: RegisterEntryChange[]): string[] {
+  if (!changes.length) return [];
+  const out = ['### Plant register changes', ''];
+  const stale = changes.flatMap((c) => c.procedures.filter((p) => !p.revisionChanged));
+  out.push(
+    `${plural(changes.length, 'register entry', 'register entries')} changed; ${plural(new Set(changes.flatMap((c) => c.procedures.map((p) => p.id))).size, 'procedure')} use them` +
+      (stale.length ? `, ${plural(new Set(stale.map((p) => p.id)).size, 'procedure')} without a new revision.` : '.'),
+    '',
+    '| Register entry | Change | What changed | Used by |',
+    '| --- | --- | --- | --- |',
+  );
+  for (const c of changes) {
+    const users = c.procedures.length
+      ? c.procedures.map((p) => (p.revisionChanged ? inline(p.id) : `**${inline(p.id)}** (revision not changed)`)).join('<br>')
+      : 'no procedure';
+    out.push(row([`${inline(c.id)} (${c.section})`, c.change, c.details.length ? c.details.map(inline).join('<br>') : '—', users]));
+  }
+  if (stale.length) {
+    out.push('', 'Procedures in **bold** use a changed entry but their revision did not change: review each against the new register entry and raise its revision, or say in the pull request why it is not affected.');
+  }
+  out.push('');
+  return out;
 }

@@ -104,7 +104,7 @@ export function tripOf(fn: RegisterSafetyFunction, register: PlantRegister, path
     tag: fn.id,
     tripsWhen: { value: fn.tripsWhen?.value ?? '', path },
     action: describeSafetyFunction(fn, register),
-    latches: fn.latches === true,
+    latches: fn.latches ?? (fn.starts ? register.safetyFunctions.get(fn.starts)?.latches : undefined) ?? false,
     holds: heldOutputs(fn, register, path),
     path,
   };
