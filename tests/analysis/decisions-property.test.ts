@@ -3,7 +3,8 @@ import { describe, expect, it } from 'vitest';
 import { parseCondition } from '../../src/analysis/conditions/parse.ts';
 import type { Condition } from '../../src/analysis/conditions/ast.ts';
 import { evaluateCondition, type KnownValue } from '../../src/analysis/evaluate-condition.ts';
-import { SignalSpace } from '../../src/analysis/decisions/signal-space.ts';
+import { SignalSpace, type Region } from '../../src/analysis/decisions/signal-space.ts';
+import { contains } from '../../src/analysis/decisions/interval-set.ts';
 import { toBase } from '../../src/analysis/units.ts';
 
 // Two signals: a level in percent over [0, 20] and a lab result. Thresholds are whole numbers, so every
@@ -64,6 +65,26 @@ describe('signal-space reasoning agrees with evaluating every distinct value', (
         }
       }),
       { numRuns: 1500 },
+    );
+  });
+
+  it('compacting a region keeps exactly the same values in no more boxes', () => {
+    const inRegion = (region: Region, p: Map<string, KnownValue>) => region.some((box) => [...box].every(([name, set]) => {
+      const v = p.get(name)!;
+      return set.kind === 'number' ? v.kind === 'number' && contains(set.set, v.base) : v.kind === 'word' && set.set.includes(v.value);
+    }));
+    fc.assert(
+      fc.property(fc.array(condition, { minLength: 1, maxLength: 4 }), (texts) => {
+        const conditions = texts.map(parse);
+        const space = new SignalSpace(signals, conditions, { useRanges: true });
+        const region = conditions.map((c) => space.regionOf(c)).reduce((x, y) => space.or(x, y));
+        const compact = space.compact(region);
+        expect(compact.length).toBeLessThanOrEqual(region.length);
+        // Two signals: one box per distinct set of lab results at the most (2^3 subsets, or none named).
+        expect(compact.length).toBeLessThanOrEqual(8);
+        for (const p of points) expect(inRegion(compact, p)).toBe(inRegion(region, p));
+      }),
+      { numRuns: 500 },
     );
   });
 });

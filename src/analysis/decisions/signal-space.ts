@@ -3,7 +3,7 @@
 // one value set per signal, so "can both be true?" and "is anything left over?" are exact set questions.
 import type { CompareOp, Condition, Literal } from '../conditions/ast.ts';
 import { formatNumber, fromBase, toBase, unitDimension } from '../units.ts';
-import { contains, everything, interval, intersect, isEmpty, subtract, equals, type IntervalSet } from './interval-set.ts';
+import { contains, everything, interval, intersect, isEmpty, subtract, equals, union, type IntervalSet } from './interval-set.ts';
 
 /** What a condition may know about a signal; the model's Signal fits. */
 export interface SignalInfo {
@@ -214,20 +214,67 @@ export class SignalSpace {
   }
 
   and(a: Region, b: Region): Region {
-    const out: Region = [];
+    let out: Region = [];
     for (const x of a) {
       for (const y of b) {
         const m = this.meetBoxes(x, y);
         if (m) out.push(m);
-        if (out.length > maxBoxes) throw new NotAnalysable('too many cases');
+        if (out.length > maxBoxes) out = this.withinLimit(out);
       }
     }
     return out;
   }
 
   or(a: Region, b: Region): Region {
-    if (a.length + b.length > maxBoxes) throw new NotAnalysable('too many cases');
-    return [...a, ...b];
+    const out = [...a, ...b];
+    return out.length > maxBoxes ? this.withinLimit(out) : out;
+  }
+
+  /** A region over the case limit, compacted; still over it, the question is not analysable. */
+  private withinLimit(region: Region): Region {
+    const compact = this.compact(region);
+    if (compact.length > maxBoxes) throw new NotAnalysable('too many cases');
+    return compact;
+  }
+
+  /**
+   * The same values in fewer boxes: boxes that agree on every signal but one become one box holding the union
+   * on that signal (exact: {x in A, rest R} or {x in B, rest R} is {x in A or B, rest R}); repeated until nothing merges.
+   */
+  compact(region: Region): Region {
+    let boxes = region;
+    for (let changed = true; changed && boxes.length > 1;) {
+      changed = false;
+      const names = [...new Set(boxes.flatMap((b) => [...b.keys()]))].sort();
+      for (const name of names) {
+        const groups = new Map<string, Box[]>();
+        for (const box of boxes) {
+          const key = [...box].filter(([n]) => n !== name).sort(([x], [y]) => (x < y ? -1 : x > y ? 1 : 0)).map(([n, set]) => `${n}=${setKey(set)}`).join('|');
+          const group = groups.get(key);
+          if (group) group.push(box);
+          else groups.set(key, [box]);
+        }
+        if (groups.size === boxes.length) continue;
+        changed = true;
+        boxes = [...groups.values()].map((group) => (group.length === 1 ? group[0] : this.mergeOn(name, group)));
+      }
+    }
+    return boxes;
+  }
+
+  private mergeOn(name: string, group: Box[]): Box {
+    const out: Box = new Map(group[0]);
+    let merged: ValueSet | undefined;
+    for (const box of group) {
+      const set = box.get(name);
+      if (!set) { merged = undefined; out.delete(name); return out; }
+      merged = !merged ? set
+        : merged.kind === 'number' && set.kind === 'number' ? { kind: 'number', set: union(merged.set, set.set) }
+        : merged.kind === 'enum' && set.kind === 'enum' ? { kind: 'enum', set: [...new Set([...merged.set, ...set.set])] }
+        : (() => { throw new NotAnalysable('mixed kinds'); })();
+    }
+    out.set(name, merged!);
+    return out;
   }
 
   /**
@@ -272,7 +319,7 @@ export class SignalSpace {
             const piece = new Map(inside);
             piece.set(name, outside);
             next.push(piece);
-            if (next.length > maxBoxes) throw new NotAnalysable('too many cases');
+            if (next.length > maxBoxes) next.splice(0, next.length, ...this.withinLimit(next));
           }
           const met = this.meet(mine, set);
           if (!met) break;
@@ -357,4 +404,10 @@ export function pickNumber(set: IntervalSet, unit?: string): number {
     if (contains(set, base)) return base;
   }
   return (i.lo + i.hi) / 2;
+}
+
+/** A canonical text of a value set, so equal sets group together. */
+function setKey(set: ValueSet): string {
+  if (set.kind === 'enum') return `e:${[...set.set].sort().join('\u0001')}`;
+  return `n:${set.set.map((i) => `${i.loOpen ? '(' : '['}${i.lo},${i.hi}${i.hiOpen ? ')' : ']'}`).join(';')}`;
 }
