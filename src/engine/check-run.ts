@@ -9,6 +9,7 @@ import type { Diagnostic } from '../parse/diagnostic.ts';
 import { compareDiagnostics } from '../parse/diagnostic.ts';
 import { checkSources, type CheckResult, type SourceInput } from '../check/run-checks.ts';
 import type { PreviousVersion } from '../history/previous-version.ts';
+import type { PlantRegister } from '../model/register.ts';
 import { findProcedureFiles, readFoundFiles, stdinName, type FoundFile } from './find-procedure-files.ts';
 import { loadConfig, type CommandConfig } from './load-config.ts';
 import { loadRegister } from './load-register.ts';
@@ -66,6 +67,8 @@ export interface CheckRun {
   errors: number;
   /** File → text, for code frames (procedures, the configuration file and the register's files). */
   texts: Map<string, string>;
+  /** The plant register the procedures were checked against, when there is one. */
+  register?: PlantRegister;
 }
 
 /** Thrown when git cannot answer what the user asked (a --base that does not exist); the CLI prints it, exit 2. */
@@ -111,7 +114,7 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   if (config.file) texts.set(config.file.file, config.file.text);
   for (const r of register?.sources ?? []) texts.set(r.file, r.source.text);
   return {
-    paths, inputs, skipped, config, repo, today, todaySource,
+    paths, inputs, skipped, config, repo, today, todaySource, register,
     result: { ...checked, diagnostics },
     diagnostics,
     errors: diagnostics.filter((d) => d.severity === 'error').length,

@@ -48,7 +48,7 @@ export async function loadManual(options: LoadOptions): Promise<LoadedManual> {
     cwd: options.cwd, env: options.env, paths: [root], config: options.env.STEPWRIGHT_CONFIG || undefined,
     date: 'build', history: options.history === false ? false : {},
   });
-  const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today }) : undefined;
+  const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today, register: run.register }) : undefined;
   return {
     cwd: options.cwd, root, today: run.today, todaySource: run.todaySource === 'clock' ? 'STEPWRIGHT_TODAY' : run.todaySource,
     inputs: run.inputs, result: run.result, errors: run.errors, run, view,

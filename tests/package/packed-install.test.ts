@@ -36,9 +36,9 @@ beforeAll(() => {
   mkdirSync(join(plant, 'procedures', 'utilities'), { recursive: true });
   execFileSync('git', ['init', '-q', '-b', 'main'], { cwd: plant, env });
   writeFileSync(join(plant, 'package.json'), `${JSON.stringify({ name: 'alder-reach-unit-2-procedures', private: true }, null, 2)}\n`);
-  // The unloading procedure committed at two revisions; the nitrogen procedure once. Not yet here: a README.md
-  // beside them, which the check still takes for a procedure without front-matter (an error); add it to this
-  // repository once markdown that is not a procedure is skipped with an info line.
+  // The unloading procedure committed at two revisions; the nitrogen procedure once; a README.md beside them,
+  // which is not a procedure and must be skipped with an info line, never an error.
+  writeFileSync(join(plant, 'procedures', 'README.md'), '# Unit 2 procedures\n\nOne file per procedure; see the site for the manual.\n');
   writeFileSync(join(plant, 'procedures', 'u2-unl-xyl-001.md'), unloading.replace(/^revision: \d+$/m, 'revision: 5').replace('Unloading xylene', 'Unloading of xylene'));
   git(['add', '-A'], '2026-03-01');
   git(['commit', '-q', '-m', 'Unloading procedure, revision 5'], '2026-03-01');
@@ -76,6 +76,7 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
   it('check and review --base work on the plant repository', () => {
     const check = stepwright(['check']);
     expect(check.stdout).toMatch(/0 errors/);
+    expect(check.stdout).toMatch(/README\.md.*not-a-procedure|not-a-procedure.*README\.md/);
     expect(check.status).toBe(0);
     const review = stepwright(['review', '--base', 'HEAD~1']);
     expect(review.stderr).toBe('');
