@@ -126,7 +126,7 @@ export function injectionProcedures(count = Math.ceil(payloads.length / fields.l
         {
           choose: [
             { when: 'mode == auto', steps: [{ step: 'hold', do: 'Hold the temperature', until: 'elapsed >= 10 min' }] },
-            { when: 'mode == manual', goto: 'heat-up' },
+            { when: 'mode == manual', goto: 'heat-up', repeat: { expected: 1, max: 3 } },
           ],
         },
       ],
