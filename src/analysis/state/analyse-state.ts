@@ -187,8 +187,13 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
   };
   const overlay = (box: Box, steps: Step[]): Box => {
     const out = new Map(box);
+    // Two steps active together that hold one signal at different values: either can be what the plant shows.
+    const held = new Set<string>();
     for (const step of steps) {
-      for (const a of activeOnlyActions(step)) assignWord(out, a.signal, a.value, a.lasts !== 'step');
+      for (const a of activeOnlyActions(step)) {
+        assignWord(out, a.signal, a.value, a.lasts !== 'step' || held.has(a.signal));
+        held.add(a.signal);
+      }
     }
     return out;
   };
