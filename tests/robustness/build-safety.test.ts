@@ -70,7 +70,7 @@ describe('building the manual', () => {
     const bad = await runCli(['verify', join(work, 'site'), '--procedures', changed], work);
     expect(bad.code).toBe(1);
     expect(bad.stdout.split('\n').filter((l) => l.includes('does not match'))).toEqual([
-      expect.stringMatching(/procedures\/u2-h220-sd-001\/index\.html: does not match its source .*h-220-hot-oil\/u2-h220-sd-001\.md/),
+      expect.stringMatching(/procedures\/u2-h220-sd-001\/(next\/)?index\.html: does not match its source .*h-220-hot-oil\/u2-h220-sd-001\.md/),
     ]);
   });
 
