@@ -45,16 +45,16 @@ describe('placekeeping on the batch procedure', () => {
     await expect(cardTitle(page)).resolves.toBe('Step 1');
     await next(page).click();
     await next(page).click();
-    // Step 3 is the parallel charge block: each branch keeps its own place.
+    // Step 3 is the parallel block (agitator; dust-control): each branch keeps its own place.
     const branches = page.locator('.pk-branches button');
-    await expect(branches.count()).resolves.toBe(3);
-    await expect(branches.first().textContent()).resolves.toMatch(/^Branch 3A \(solvent\): step 3A\.1$/);
+    await expect(branches.count()).resolves.toBe(2);
+    await expect(branches.first().textContent()).resolves.toMatch(/^Branch 3A \(agitator\): step 3A\.1$/);
   });
 
   it('keeps the hazards of the current step in view', async () => {
     await expect(cardTitle(page)).resolves.toBe('Step 3A.1');
     const dockHazard = page.locator('.pk-dock .pk-hazard').first();
-    await expect(dockHazard.textContent()).resolves.toMatch(/^WARNING Xylene vapour/);
+    await expect(dockHazard.textContent()).resolves.toMatch(/^(WARNING|CAUTION|DANGER|NOTICE)\s*Agitator M-210 running with the impeller uncovered/);
     await page.mouse.wheel(0, 3000);
     await expect(dockHazard.isVisible()).resolves.toBe(true);
     const box = await dockHazard.boundingBox();
@@ -63,20 +63,20 @@ describe('placekeeping on the batch procedure', () => {
   });
 
   it('tracks parallel branches separately and survives a reload', async () => {
-    await page.locator('.pk-branches button', { hasText: 'Branch 3C' }).click();
-    await expect(cardTitle(page)).resolves.toBe('Step 3C.1');
+    await page.locator('.pk-branches button', { hasText: 'Branch 3B' }).click();
+    await expect(cardTitle(page)).resolves.toBe('Step 3B.1');
     await next(page).click();
-    await expect(cardTitle(page)).resolves.toBe('Step 3C.2');
+    await expect(cardTitle(page)).resolves.toBe('Step 3B.2');
     await page.reload();
-    await expect(cardTitle(page)).resolves.toBe('Step 3C.2');
+    await expect(cardTitle(page)).resolves.toBe('Step 3B.2');
     const labels = await page.locator('.pk-branches button').allTextContents();
-    expect(labels).toEqual(['Branch 3A (solvent): step 3A.1', 'Branch 3B (glycol): step 3B.1', 'Branch 3C (anhydride): step 3C.2']);
+    expect(labels).toEqual(['Branch 3A (agitator): step 3A.1', 'Branch 3B (dust-control): step 3B.2']);
     await expect(page.locator('.pk-progress').textContent()).resolves.toMatch(/^3 of \d+ steps marked/);
   });
 
   it('joins after every branch ends and lets the operator pick a decision branch', async () => {
-    await next(page).click(); // 3C.2 done: branch C waits
-    for (const branch of ['Branch 3A', 'Branch 3B']) {
+    await next(page).click(); // 3B.2 done: branch B waits
+    for (const branch of ['Branch 3A']) {
       await page.locator('.pk-branches button', { hasText: branch }).click();
       await next(page).click();
     }
@@ -109,7 +109,7 @@ describe('placekeeping on the batch procedure', () => {
     await expect(page.locator('tr[aria-current="step"]').count()).resolves.toBe(0);
     await page.reload();
     await expect(page.locator('.pk-start').isVisible()).resolves.toBe(true);
-    const stored = await page.evaluate((key) => localStorage.getItem(key), `stepwright:placekeeping:${id}:rev4`);
+    const stored = await page.evaluate((key) => localStorage.getItem(key), `stepwright:placekeeping:${id}:rev6`);
     expect(stored).toBeNull();
   });
 });

@@ -1,4 +1,5 @@
 // Printed copies: identity, page n of m and "uncontrolled when printed" on every page; no controls; JS off too.
+import { readFileSync } from 'node:fs';
 import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
@@ -11,6 +12,11 @@ let browser: Browser;
 let server: SiteServer;
 let batchUrl: string;
 const id = 'U2-K210-BATCH-001';
+// The revision in force and its effective date, as the demo source states them.
+const source = readFileSync(join(import.meta.dirname, '../../procedures/k-210-resin/u2-k210-batch-001.md'), 'utf8');
+const revision = source.match(/^revision: (\d+)$/m)![1];
+const effective = source.match(/^effective: (\d{4}-\d\d-\d\d)$/m)![1];
+const identity = `U2-K210-BATCH-001 · Revision ${revision} · Effective ${effective}`;
 
 beforeAll(async () => {
   site = await builtSite();
@@ -69,7 +75,7 @@ describe('printing a procedure', () => {
     const stamp = page.locator('.print-head [data-print-stamp]');
     await expect(stamp.isVisible()).resolves.toBe(true);
     await expect(stamp.textContent()).resolves.toBe(`Uncontrolled when printed — printed ${today}`);
-    await expect(page.locator('.print-head').textContent()).resolves.toMatch(/U2-K210-BATCH-001.*Revision 4.*Effective 2026-04-20/s);
+    await expect(page.locator('.print-head').textContent()).resolves.toMatch(new RegExp(`U2-K210-BATCH-001.*Revision ${revision}.*Effective ${effective}`, 's'));
     for (const chrome of ['.site-nav', '.floor-bar', '.skip-link']) {
       await expect(page.locator(chrome).first().isVisible()).resolves.toBe(false);
     }
@@ -81,7 +87,7 @@ describe('printing a procedure', () => {
   it('puts id, revision, effective date, page n of m and the dated line in the page margins', async () => {
     const page = await open(true);
     const boxes = await marginBoxes(page);
-    expect(boxes['bottom-left']).toContain('"U2-K210-BATCH-001 · Revision 4 · Effective 2026-04-20"');
+    expect(boxes['bottom-left']).toContain(`"${identity}"`);
     expect(boxes['bottom-right']).toContain('"Page " counter(page) " of " counter(pages)');
     expect(boxes['bottom-center']?.at(-1)).toMatch(/^"Uncontrolled when printed — printed \d{4}-\d\d-\d\d"$/);
     // Chromium supports margin boxes, so the fixed-footer fallback stays off.
@@ -92,7 +98,7 @@ describe('printing a procedure', () => {
     const pages = await pdfPages(pdf);
     expect(pages.length).toBeGreaterThan(1);
     pages.forEach((text, i) => {
-      expect(text).toContain('U2-K210-BATCH-001 · Revision 4 · Effective 2026-04-20');
+      expect(text).toContain(identity);
       expect(text).toContain(`Page ${i + 1} of ${pages.length}`);
       expect(text).toMatch(/Uncontrolled when printed — printed \d{4}-\d\d-\d\d/);
       expect(text).not.toContain('Skip to content');
