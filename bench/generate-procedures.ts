@@ -75,7 +75,7 @@ export function generateProcedure(index: number, size = 40): GeneratedProcedure 
         // A lab check that loops back to an earlier step of this sequence until it passes.
         const back = pick(items.filter((i) => 'step' in i)).step;
         items.push(step(false));
-        items.push({ choose: [{ when: 'lab-result == fail', goto: back }, { when: 'lab-result == pass', steps: [step()] }] });
+        items.push({ choose: [{ when: 'lab-result == fail', goto: back, repeat: { expected: 1, max: 3 } }, { when: 'lab-result == pass', steps: [step()] }] });
       } else if (r < 0.35) {
         const level = 10 + Math.floor(next() * 60);
         items.push(step(false));
@@ -108,7 +108,7 @@ export function nestedProcedure(depth: number): GeneratedProcedure {
   const level = (d: number): unknown[] => {
     const here = [
       { step: `level-${d}-check`, do: `Check level ${d}.` },
-      { choose: [{ when: 'lab-result == fail', goto: `level-${d}-check` }, { when: 'lab-result == pass' }] },
+      { choose: [{ when: 'lab-result == fail', goto: `level-${d}-check`, repeat: { expected: 1, max: 3 } }, { when: 'lab-result == pass' }] },
     ];
     if (d === depth) return here;
     return [...here, { parallel: { inner: level(d + 1), side: [{ step: `level-${d}-side`, do: `Watch level ${d}.`, confirm: 'Watched' }] } }];

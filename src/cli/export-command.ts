@@ -53,9 +53,10 @@ export async function runExport(argv: string[], io: CliIo): Promise<number> {
   if (!id) throw new UsageError('Give the id of the procedure to export, e.g. stepwright export U2-K210-INERT-001.');
   if (values.format !== 'json' && values.format !== 'mermaid') throw new UsageError(`Unknown format '${values.format}'; use json or mermaid.`);
 
-  const inputs = readProcedureFiles(paths.length ? paths : [proceduresFolder(io)], io.cwd);
+  const folders = paths.length ? paths : [proceduresFolder(io)];
+  const inputs = readProcedureFiles(folders, io.cwd);
   const configured = loadConfig(io);
-  const result = checkSources(inputs, { today: todayOf(io), register: loadRegister(io.cwd, configured.file?.file, configured.config.register) });
+  const result = checkSources(inputs, { today: todayOf(io), register: loadRegister(io.cwd, configured.file?.file, configured.config.register, folders[0]) });
   const byId = new Map<string, Procedure>();
   for (const f of result.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f.procedure);
   const found = result.files.find((f) => f.procedure?.id === id);

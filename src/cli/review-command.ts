@@ -115,7 +115,7 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
   const inputs = readProcedureFiles(paths, io.cwd);
   // The register now and at the base: a changed entry reaches every procedure that uses it.
   const configPath = findConfigFile(io.cwd);
-  const location = findRegisterFolder(io.cwd, configPath, registerKey(configPath));
+  const location = findRegisterFolder(io.cwd, configPath, registerKey(configPath), paths[0]);
   const register = location ? readRegisterFolder(location, io.cwd) : undefined;
   const baseRegister = location ? await registerAt(repo, baseCommit, location.absolute, io.cwd) : undefined;
   const inputByPath = new Map(inputs.map((i) => [repoPath(repo, resolve(io.cwd, i.file)), i]));

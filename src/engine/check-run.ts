@@ -99,7 +99,7 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     ? buildDate(request, inputs, paths[0])
     : clockDate(request);
   // The plant register named by the configuration (or found next to it): procedures read their declarations from it.
-  const register = loadRegister(request.cwd, config.file?.file, config.config.register);
+  const register = loadRegister(request.cwd, config.file?.file, config.config.register, paths.find((p) => p !== '-'));
   const checked = checkSources(inputs, {
     today, previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
     cache: request.cache === false ? undefined : commandCache(request, config.file?.text),
