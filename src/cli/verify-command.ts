@@ -6,6 +6,7 @@ import { integrityMeta, sourceDigest, sourceKey } from '../render/source-integri
 import { proceduresFolder } from './project.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
+import { isNotAProcedure } from '../engine/not-a-procedure.ts';
 import { describeSite, recoverSite } from './publish-site.ts';
 import { checkSiteManifest, manifestFile, publicKeyFile, readPublicKey, signatureFile } from './site-manifest.ts';
 
@@ -117,9 +118,12 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
   }
   const sources = new Map<string, string>();
   const unreadable: string[] = [];
+  let skipped = 0;
   for (const input of readProcedureFiles([folder], io.cwd)) {
     const key = sourceKey(relative(resolve(io.cwd, folder), resolve(io.cwd, input.file)), '');
-    if ('text' in input) sources.set(key, sourceDigest(input.text));
+    // Markdown that is not a procedure (a README, notes) has no page, exactly as check and build skip it.
+    if ('text' in input && isNotAProcedure(input.text)) skipped++;
+    else if ('text' in input) sources.set(key, sourceDigest(input.text));
     else unreadable.push(key);
   }
   const result = compareStamps(pages, sources);
@@ -128,6 +132,7 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
   for (const o of result.orphaned) io.stdout.write(`${show(o.page)}: its source ${join(folder, o.source)} is not in ${folder}\n`);
   for (const s of result.unpublished) io.stdout.write(`${join(folder, s)}: has no page in ${positionals[0]}${unreadable.includes(s) ? ' (the file could not be read)' : ''}\n`);
   const problems = result.changed.length + result.orphaned.length + result.unpublished.length;
+  if (skipped) io.stdout.write(`${skipped} markdown file${skipped === 1 ? '' : 's'} in ${folder} ${skipped === 1 ? 'is' : 'are'} not a procedure and need${skipped === 1 ? 's' : ''} no page.\n`);
   io.stdout.write(problems === 0
     ? `All ${result.matching.length} procedure pages match their sources.\n`
     : `${problems} mismatch${problems === 1 ? '' : 'es'}: ${result.changed.length} changed, ${result.orphaned.length} without source, ${result.unpublished.length} without page; ${result.matching.length} pages match.\n`);

@@ -97,6 +97,7 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
     const verify = stepwright(['verify', 'dist']);
     expect(verify.stdout).toContain('0 changed, 0 added, 0 missing');
     expect(verify.stdout).toContain('All 2 procedure pages match their sources.');
+    expect(verify.stdout).toContain('1 markdown file in procedures is not a procedure and needs no page.');
     expect(verify.status).toBe(0);
 
     const server = spawn(join(plant, 'node_modules', '.bin', 'stepwright'), ['serve', '--port', '0', '--host', '127.0.0.1'], { cwd: plant, env });
