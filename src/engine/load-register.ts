@@ -1,5 +1,5 @@
 // Finds and reads the plant register: the folder named by `register:` in stepwright.config.yaml (relative to
-// that file), else `register/` next to the configuration or at the top of the procedures' repository. No folder, no register.
+// that file), else `register/` next to the configuration or in the working folder. No folder, no register.
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { dirname, isAbsolute, join, relative, resolve } from 'node:path';
 import { readYamlSource } from '../parse/read-yaml-source.ts';
@@ -15,33 +15,20 @@ export interface RegisterLocation {
 }
 
 /**
- * Where the register is, or undefined when the plant has none. Without a configuration it is the `register/`
- * folder at the top of the repository that holds the procedures (`procedures`, when given); the working folder
- * counts only when the procedures sit inside it, so a register never applies to another plant's procedures.
+ * Where the register is, or undefined when the plant has none: `register:` in the configuration, else
+ * `register/` next to the configuration, else `register/` in the working folder — the last only when the
+ * procedures (`procedures`, when given) sit inside that folder, so a register never applies to another
+ * plant's procedures checked from here.
  */
 export function findRegisterFolder(cwd: string, configPath: string | undefined, named: string | undefined, procedures?: string): RegisterLocation | undefined {
   const base = configPath ? dirname(resolve(cwd, configPath)) : cwd;
   if (named) return { absolute: resolve(base, named), named: true };
   const candidates = configPath ? [join(base, defaultRegisterFolder)] : [];
-  if (procedures === undefined) candidates.push(join(cwd, defaultRegisterFolder));
-  else {
-    const folder = resolve(cwd, procedures);
-    const top = repositoryTop(folder);
-    if (top) candidates.push(join(top, defaultRegisterFolder));
-    if (isInside(folder, cwd)) candidates.push(join(cwd, defaultRegisterFolder));
-  }
+  if (procedures === undefined || isInside(resolve(cwd, procedures), cwd)) candidates.push(join(cwd, defaultRegisterFolder));
   for (const candidate of candidates) {
     if (isFolder(candidate)) return { absolute: candidate, named: false };
   }
   return undefined;
-}
-
-/** The nearest folder at or above `from` that holds a `.git` entry (a repository's top), if any. */
-function repositoryTop(from: string): string | undefined {
-  for (let dir = from; ; dir = dirname(dir)) {
-    if (existsSync(join(dir, '.git'))) return dir;
-    if (dirname(dir) === dir) return undefined;
-  }
 }
 
 function isInside(path: string, folder: string): boolean {
