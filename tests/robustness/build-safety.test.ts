@@ -78,7 +78,8 @@ describe('building the manual', () => {
     // A different folder (one more procedure), so a build that got as far as the swap would show.
     const more = join(work, 'more');
     cpSync(procedures, more, { recursive: true });
-    cpSync(join(repo, 'procedures/k-210-resin/u2-k210-inert-001.md'), join(more, 'u2-k210-inert-001.md'));
+    // A procedure that stands alone (the K-210 ones read their plant data from the register, not copied here).
+    cpSync(join(repo, 'procedures/unloading/u2-unl-xyl-001.md'), join(more, 'u2-unl-xyl-001.md'));
     const site = join(work, 'site');
     const run = startBuild(more, site);
     let exited = false;
