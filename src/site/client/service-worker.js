@@ -241,7 +241,10 @@ async function storedHashes() {
 
 // ---- Checking and updating ---------------------------------------------------------------------------------
 
-/** Reads the publication record (one small file); a second call within two seconds shares the answer. */
+/**
+ * Reads the publication record (one small file). Calls while it is being read share the answer; a call after it
+ * arrived reads it again, so a publication that appears between two pages is never missed.
+ */
 function check() {
   if (!checking) {
     checking = (async () => {
@@ -262,7 +265,7 @@ function check() {
         throw error;
       }
     })();
-    const done = () => setTimeout(() => { checking = null; }, 2000);
+    const done = () => { checking = null; };
     checking.then(done, done);
   }
   return checking;
