@@ -49,3 +49,16 @@ export function temporaryProceduresInForce(procedures: Procedure[], today: strin
   }
   return out;
 }
+
+/**
+ * Whether a procedure may be used on `today`, and if not, why not (in words for a message): superseded or retired,
+ * not yet approved and effective, effective only from a later date, or a temporary procedure past its end date.
+ */
+export function notInForce(p: Pick<Procedure, 'status' | 'effective' | 'kind' | 'expires'>, today: string): string | undefined {
+  const status = String(p.status);
+  if (status === 'superseded' || status === 'retired') return status;
+  if (status !== 'effective' && status !== 'approved') return `'${status}', not yet in force`;
+  if (isDate(p.effective) && p.effective > today) return `in force only from ${p.effective}`;
+  if (p.kind === 'temporary' && p.expires && p.expires < today) return `a temporary procedure that expired on ${p.expires}`;
+  return undefined;
+}

@@ -10,6 +10,9 @@ import callExpansionProblem from './call-expansion-problem.ts';
 import callRetiredProcedure from './call-retired-procedure.ts';
 import callRevisionMismatch from './call-revision-mismatch.ts';
 import callUnknownProcedure from './call-unknown-procedure.ts';
+import requiresCycle from './requires-cycle.ts';
+import requiresNotInForce from './requires-not-in-force.ts';
+import requiresUnknownProcedure from './requires-unknown-procedure.ts';
 import cautionForSeriousInjury from './caution-for-serious-injury.ts';
 import cautionHoldsAction from './caution-holds-action.ts';
 import conditionSyntax from './condition-syntax.ts';
@@ -107,6 +110,9 @@ export const rules = {
   'call-retired-procedure': callRetiredProcedure,
   'call-revision-mismatch': callRevisionMismatch,
   'call-unknown-procedure': callUnknownProcedure,
+  'requires-unknown-procedure': requiresUnknownProcedure,
+  'requires-not-in-force': requiresNotInForce,
+  'requires-cycle': requiresCycle,
   'caution-for-serious-injury': cautionForSeriousInjury,
   'caution-holds-action': cautionHoldsAction,
   'condition-syntax': conditionSyntax,

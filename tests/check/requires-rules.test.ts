@@ -1,0 +1,83 @@
+// The `requires` rules: unknown, not in force, and circles of required procedures.
+import { describe, expect, it } from 'vitest';
+import { checkSources } from '../../src/check/run-checks.ts';
+import { rules } from '../../src/check/rules/index.ts';
+
+const today = '2026-12-01';
+
+function procedure(id: string, status: string, requires: string[], extra = ''): { file: string; text: string } {
+  return {
+    file: `${id}.md`,
+    text: `---
+id: ${id}
+title: Procedure ${id}
+kind: normal
+revision: 1
+status: ${status}
+effective: 2026-03-01
+${extra}${requires.length ? `requires: [${requires.join(', ')}]\n` : ''}steps:
+  - step: check
+    do: Check that XV-1 is closed
+    confirm: XV-1 shows closed
+---
+`,
+  };
+}
+
+const of = (ruleId: string, files: Array<{ file: string; text: string }>) =>
+  checkSources(files, { today }).diagnostics.filter((d) => d.rule === ruleId);
+
+describe('requires', () => {
+  it('cites its sources', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1) clear instructions; (f)(3) procedures reflect current practice
+    expect(rules['requires-unknown-procedure'].meta.source).toMatch(/1910\.119\(f\)\(1\)/);
+    expect(rules['requires-not-in-force'].meta.source).toMatch(/1910\.119\(f\)\(3\)/);
+    // Source: common practice (prerequisites are completed first, so they are ordered without circles)
+    expect(rules['requires-cycle'].meta.source).toMatch(/common practice/i);
+  });
+
+  it('an unknown id suggests the near one', () => {
+    const found = of('requires-unknown-procedure', [procedure('U2-A-001', 'effective', ['U2-B-01']), procedure('U2-B-001', 'effective', [])]);
+    expect(found).toHaveLength(1);
+    expect(found[0].hint).toContain("'U2-B-001'");
+    expect(found[0].line).toBe(8);
+  });
+
+  it('a retired requirement is an error even from a draft; a draft requirement only warns a draft', () => {
+    const files = [
+      procedure('U2-A-001', 'draft', ['U2-R-001', 'U2-D-001']),
+      procedure('U2-B-001', 'effective', ['U2-D-001']),
+      procedure('U2-R-001', 'retired', []),
+      procedure('U2-D-001', 'draft', []),
+    ];
+    const found = of('requires-not-in-force', files).map((d) => `${d.file} ${d.severity} ${d.message}`);
+    expect(found.sort()).toEqual([
+      "U2-A-001.md error U2-A-001 requires 'U2-R-001', which is retired.",
+      "U2-A-001.md warning U2-A-001 requires 'U2-D-001', which is 'draft', not yet in force.",
+      "U2-B-001.md error U2-B-001 requires 'U2-D-001', which is 'draft', not yet in force.",
+    ].sort());
+  });
+
+  it('an effective date after today and an expired temporary procedure are not in force', () => {
+    const later = procedure('U2-L-001', 'effective', []);
+    later.text = later.text.replace('effective: 2026-03-01', 'effective: 2027-01-10');
+    const temporary = procedure('U2-T-001', 'effective', [], 'expires: 2026-11-30\n');
+    temporary.text = temporary.text.replace('kind: normal', 'kind: temporary');
+    const found = of('requires-not-in-force', [procedure('U2-A-001', 'effective', ['U2-L-001', 'U2-T-001']), later, temporary]);
+    expect(found.map((d) => d.message).sort()).toEqual([
+      "U2-A-001 requires 'U2-L-001', which is in force only from 2027-01-10.",
+      "U2-A-001 requires 'U2-T-001', which is a temporary procedure that expired on 2026-11-30.",
+    ]);
+  });
+
+  it('a circle is reported at each requirement that closes it, with the chain', () => {
+    const found = of('requires-cycle', [
+      procedure('U2-A-001', 'effective', ['U2-B-001']),
+      procedure('U2-B-001', 'effective', ['U2-C-001']),
+      procedure('U2-C-001', 'effective', ['U2-A-001']),
+      procedure('U2-D-001', 'effective', ['U2-A-001']),
+    ]);
+    expect(found.map((d) => d.file).sort()).toEqual(['U2-A-001.md', 'U2-B-001.md', 'U2-C-001.md']);
+    expect(found.find((d) => d.file === 'U2-A-001.md')!.trace).toEqual(['U2-A-001', 'U2-B-001', 'U2-C-001', 'U2-A-001']);
+  });
+});
