@@ -5,6 +5,7 @@ import { closest } from 'fastest-levenshtein';
 import picomatch from 'picomatch';
 import type { Diagnostic, Severity } from '../parse/diagnostic.ts';
 import type { SeverityPolicy } from './run-checks.ts';
+import { parseBase } from '../model/site-base.ts';
 
 export const configFileName = 'stepwright.config.yaml';
 
@@ -20,6 +21,8 @@ const configSchema = z.strictObject({
   register: z.string().min(1).optional(),
   // Read by the commands (src/cli/project.ts): the procedures folder, relative to this file.
   procedures: z.string().min(1).optional(),
+  // Read by build, dev and serve (src/engine/project.ts): the path the manual is served under, e.g. /manual/.
+  base: z.string().optional(),
   'document-control': z.strictObject({
     'certification-interval-months': z.number().int().min(1).max(120).optional(),
   }).optional(),
@@ -76,7 +79,7 @@ export function parseConfig(file: string, text: string, knownRules: readonly str
       const what = issue.code === 'unrecognized_keys'
         ? `Unknown key '${issue.keys[0]}' in the configuration.`
         : `${path.length ? `'${path.join('.')}'` : 'The configuration'}: ${issue.message.replace(/^Invalid input: /, '')}.`;
-      at(range[0], range[1], what, "The configuration holds 'procedures' (a folder), 'rules' ({rule-id: error|warning|info|off}), 'overrides' ([{files, rules}]), 'register' (a folder) and 'document-control' ({certification-interval-months}).");
+      at(range[0], range[1], what, "The configuration holds 'procedures' (a folder), 'base' (the path the manual is served under), 'rules' ({rule-id: error|warning|info|off}), 'overrides' ([{files, rules}]), 'register' (a folder) and 'document-control' ({certification-interval-months}).");
     }
     return { config: emptyConfig, diagnostics };
   }
@@ -94,6 +97,13 @@ export function parseConfig(file: string, text: string, knownRules: readonly str
       at(range[0], range[1], `'${id}' is not a Stepwright rule.`, `Did you mean '${closest(id, [...knownRules])}'?`);
     }
   };
+  if (parsed.data.base !== undefined) {
+    const base = parseBase(parsed.data.base);
+    if ('problem' in base) {
+      const range = rangeOf(doc, ['base'], false);
+      at(range[0], range[1], `'base': ${base.problem}`, "Write the path the manual is served under, such as 'base: /manual/', or leave 'base' out to serve it at the site's root.");
+    }
+  }
   checkIds(config.rules, ['rules']);
   config.overrides.forEach((o, i) => checkIds(o.rules, ['overrides', i, 'rules']));
   return { config, diagnostics };

@@ -6,6 +6,8 @@ import { parseArgs } from 'node:util';
 import { clearHandOff, formatCheckFailure, handOffManual, loadManual } from '../site-data/manual.ts';
 import { UsageError, useColour, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
+import { siteBase } from '../engine/project.ts';
+import { linksOutsideBase, type SiteBase } from '../render/site-url.ts';
 import { indexSite } from './index-site.ts';
 import { publishSite, recoverSite } from './publish-site.ts';
 import { manifestFile, readPrivateKey, writeSiteManifest } from './site-manifest.ts';
@@ -29,6 +31,9 @@ Options:
                         else 'procedures' in the config file, else procedures/)
   --config <file>       the configuration (default: the nearest stepwright.config.yaml from this
                         folder up to the top of the git repository)
+  --base <path>         the path the manual is served under, such as /manual/ (default: 'base' in the
+                        config file, else the site's root); every link, the search and the offline copy
+                        stay under it
   --no-index            skip the search index
   --sign-key <f>        sign the site's manifest with this ed25519 private key (from 'stepwright keygen';
                         default: $STEPWRIGHT_SIGNING_KEY). Every build writes ${manifestFile},
@@ -54,7 +59,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     options: {
       out: { type: 'string', default: 'dist' }, 'no-index': { type: 'boolean', default: false }, 'sign-key': { type: 'string' },
       help: { type: 'boolean', short: 'h' },
-      procedures: { type: 'string' }, config: { type: 'string' },
+      procedures: { type: 'string' }, config: { type: 'string' }, base: { type: 'string' },
     },
     strict: true,
   });
@@ -68,13 +73,14 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   const folder = positionals[0] ?? proceduresFolder(io, values);
   if (values.config && !existsSync(resolve(io.cwd, values.config))) throw new UsageError(`The configuration file '${values.config}' does not exist.`);
   const config = values.config ? resolve(io.cwd, values.config) : '';
+  const base = siteBase(io, values);
   const env = { ...io.env, STEPWRIGHT_PROCEDURES: folder, STEPWRIGHT_CONFIG: config };
   // The same check run as `stepwright check` (configuration, waivers, history, call expansion): whatever fails
   // the check stops the build here, with the same report.
   progress.phase('checking procedures');
   let loaded;
   try {
-    loaded = await loadManual({ cwd: io.cwd, env });
+    loaded = await loadManual({ cwd: io.cwd, env, base });
   } catch (error) {
     if (!(error instanceof GitError)) throw error;
     progress.fail();
@@ -130,10 +136,15 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     progress.phase('building pages');
     const { build } = await import('astro');
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
-    await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production' }), { sync: false } as Parameters<typeof build>[1]);
+    await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base }), { sync: false } as Parameters<typeof build>[1]);
     progress.done(`${loaded.view.procedures.length} procedures`);
     // Tags, ids and dates never break across lines, on every page (before the search index reads the pages).
     await keepTokensWholeIn(work);
+    // Under a sub-path, a link that leaves it is a broken page on the plant's server: the build stops.
+    const leaving = await linksLeavingBase(work, base);
+    if (leaving.length) {
+      throw new Error(`pages link outside the base ${base}:\n${leaving.slice(0, 20).map((l) => `  ${l}`).join('\n')}${leaving.length > 20 ? `\n  … and ${leaving.length - 20} more` : ''}\n`);
+    }
     if (!values['no-index']) {
       progress.phase('indexing for search');
       await indexSite(work);
@@ -201,6 +212,19 @@ function isAlive(pid: number): boolean {
   } catch (error) {
     return (error as NodeJS.ErrnoException).code === 'EPERM';
   }
+}
+
+/** "page: link" for every root-absolute link in the built pages that leaves the base. */
+export async function linksLeavingBase(dir: string, base: SiteBase): Promise<string[]> {
+  if (base === '/') return [];
+  const { readdir, readFile } = await import('node:fs/promises');
+  const out: string[] = [];
+  for (const entry of await readdir(dir, { recursive: true, withFileTypes: true })) {
+    if (!entry.isFile() || !entry.name.endsWith('.html')) continue;
+    const file = join(entry.parentPath, entry.name);
+    for (const link of linksOutsideBase(await readFile(file, 'utf8'), base)) out.push(`${relative(dir, file).split(sep).join('/')}: ${link}`);
+  }
+  return out.sort();
 }
 
 async function keepTokensWholeIn(dir: string): Promise<void> {

@@ -6,6 +6,7 @@ import { parseArgs } from 'node:util';
 import { siteConfig } from '../site/astro-config.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
+import { siteBase } from '../engine/project.ts';
 
 export const devHelp = `Usage: stepwright dev [options] [folder]
 
@@ -18,6 +19,8 @@ Options:
   --host <host>         address to listen on (default: localhost)
   --procedures <dir>    the procedures folder, same as the folder argument (default: $STEPWRIGHT_PROCEDURES,
                         else 'procedures' in the config file, else procedures/)
+  --base <path>         serve the pages under this path, such as /manual/ (default: 'base' in the
+                        config file, else the root)
   --config <file>       the configuration (default: the nearest stepwright.config.yaml from this
                         folder up to the top of the git repository)
   -h, --help            show this help
@@ -28,7 +31,7 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
     args: argv,
     allowPositionals: true,
     options: { port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' }, help: { type: 'boolean', short: 'h' },
-      procedures: { type: 'string' }, config: { type: 'string' },
+      procedures: { type: 'string' }, config: { type: 'string' }, base: { type: 'string' },
     },
     strict: true,
   });
@@ -41,6 +44,7 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
   if (positionals.length > 1 || (positionals.length && values.procedures)) throw new UsageError('Give one procedures folder.');
   const folder = positionals[0] ?? proceduresFolder(io, values);
   if (values.config && !existsSync(resolve(io.cwd, values.config))) throw new UsageError(`The configuration file '${values.config}' does not exist.`);
+  const base = siteBase(io, values);
   // The pages read the procedures folder and the configuration from the environment.
   process.env.STEPWRIGHT_PROCEDURES = folder;
   process.env.STEPWRIGHT_CONFIG = values.config ? resolve(io.cwd, values.config) : '';
@@ -51,11 +55,12 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
     cacheDir: join(io.cwd, '.stepwright', 'dev-cache'),
     procedures: resolve(io.cwd, folder),
     mode: 'development',
+    base,
     logLevel: 'warn',
   });
   const server = await dev({ ...config, server: { port, host: values.host } });
   const host = server.address.address.includes(':') ? `[${server.address.address}]` : server.address.address;
-  io.stdout.write(`Live preview of ${folder}/ on http://${values.host === 'localhost' ? 'localhost' : host}:${server.address.port}/ (Ctrl+C stops it).\n`);
+  io.stdout.write(`Live preview of ${folder}/ on http://${values.host === 'localhost' ? 'localhost' : host}:${server.address.port}${base} (Ctrl+C stops it).\n`);
   await new Promise<void>((done) => {
     const stop = () => {
       process.off('SIGINT', stop);

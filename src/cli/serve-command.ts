@@ -5,6 +5,7 @@ import { extname, join, normalize, resolve, sep } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { parseArgs } from 'node:util';
 import { UsageError, type CliIo } from './io.ts';
+import { siteBase } from '../engine/project.ts';
 
 export const serveHelp = `Usage: stepwright serve [options]
 
@@ -14,6 +15,9 @@ Options:
   --dir <dir>     the site folder (default: dist)
   --port <n>      port (default: 4321; 0 picks a free one)
   --host <host>   address to listen on (default: localhost)
+  --base <path>   serve the manual under this path, as it was built with (default: 'base' in the
+                  config file, else the root)
+  --config <file> the configuration (default: the nearest stepwright.config.yaml)
   -h, --help      show this help
 `;
 
@@ -25,11 +29,21 @@ const types: Record<string, string> = {
 };
 const compressible = /^(text\/|application\/(json|manifest\+json)|image\/svg)/;
 
-export async function startStaticServer(dir: string, port: number, host = 'localhost'): Promise<{ server: Server; url: string }> {
+export async function startStaticServer(dir: string, port: number, host = 'localhost', base = '/'): Promise<{ server: Server; url: string }> {
   const root = resolve(dir);
   const server = createServer(async (req, res) => {
     try {
-      const path = decodeURIComponent(new URL(req.url ?? '/', 'http://x').pathname);
+      const requested = new URL(req.url ?? '/', 'http://x').pathname;
+      // Under a base (e.g. /manual/) the folder is served there; the bare base and the root lead to it.
+      if (base !== '/' && !requested.startsWith(base)) {
+        if (requested === '/' || `${requested}/` === base) {
+          res.writeHead(301, { location: base }).end();
+          return;
+        }
+        res.writeHead(404, { 'content-type': 'text/plain; charset=utf-8' }).end(`Not found: the manual is served under ${base}`);
+        return;
+      }
+      const path = decodeURIComponent(`/${requested.slice(base.length)}`);
       let file = normalize(join(root, path));
       if (file !== root && !file.startsWith(root + sep)) {
         res.writeHead(403).end('Forbidden');
@@ -38,7 +52,7 @@ export async function startStaticServer(dir: string, port: number, host = 'local
       let info = await stat(file).catch(() => null);
       if (info?.isDirectory()) {
         if (!path.endsWith('/')) {
-          res.writeHead(301, { location: `${path}/` }).end();
+          res.writeHead(301, { location: `${requested}/` }).end();
           return;
         }
         file = join(file, 'index.html');
@@ -68,13 +82,16 @@ export async function startStaticServer(dir: string, port: number, host = 'local
   });
   const address = server.address();
   const actual = typeof address === 'object' && address ? address.port : port;
-  return { server, url: `http://${host}:${actual}/` };
+  return { server, url: `http://${host}:${actual}${base}` };
 }
 
 export async function runServe(argv: string[], io: CliIo): Promise<number> {
   const { values } = parseArgs({
     args: argv,
-    options: { dir: { type: 'string', default: 'dist' }, port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' }, help: { type: 'boolean', short: 'h' } },
+    options: {
+      dir: { type: 'string', default: 'dist' }, port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' },
+      base: { type: 'string' }, config: { type: 'string' }, help: { type: 'boolean', short: 'h' },
+    },
     strict: true,
   });
   if (values.help) {
@@ -84,13 +101,14 @@ export async function runServe(argv: string[], io: CliIo): Promise<number> {
   const port = Number(values.port);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError(`'${values.port}' is not a port number.`);
   const dir = resolve(io.cwd, values.dir);
+  const base = siteBase(io, values);
   if (!(await stat(join(dir, 'index.html')).catch(() => null))) {
     io.stderr.write(`stepwright serve: no built manual in ${values.dir}/; run 'stepwright build' first.\n`);
     return 1;
   }
   let url: string;
   try {
-    ({ url } = await startStaticServer(dir, port, values.host));
+    ({ url } = await startStaticServer(dir, port, values.host, base));
   } catch (error) {
     throw listenProblem(error, port, values.host) ?? error;
   }

@@ -4,6 +4,8 @@ import { existsSync, readFileSync, statSync } from 'node:fs';
 import { dirname, join, relative, resolve } from 'node:path';
 import { parseDocument } from 'yaml';
 import { configFileName } from '../check/config.ts';
+import { parseBase, type SiteBase } from '../model/site-base.ts';
+import { UsageError } from './usage-error.ts';
 
 /** The folder name used when nothing else says where the procedures are. */
 export const defaultProceduresFolder = 'procedures';
@@ -35,10 +37,19 @@ export function projectRoot(cwd: string): string {
   }
 }
 
+/** A top-level value of a configuration file, read leniently (the check reports a bad file). */
+function configuredValue(configFile: string, key: string): unknown {
+  try {
+    return (parseDocument(readFileSync(configFile, 'utf8')).toJS() as Record<string, unknown> | null)?.[key];
+  } catch {
+    return undefined;
+  }
+}
+
 /** `procedures:` in a configuration file, as a path relative to the working folder (read leniently: the check reports a bad file). */
 function configuredFolder(configFile: string, cwd: string): string | undefined {
   try {
-    const value = (parseDocument(readFileSync(configFile, 'utf8')).toJS() as Record<string, unknown> | null)?.procedures;
+    const value = configuredValue(configFile, 'procedures');
     if (typeof value !== 'string' || !value.trim()) return undefined;
     return relative(cwd, resolve(dirname(configFile), value.trim())) || '.';
   } catch {
@@ -57,4 +68,24 @@ export function proceduresFolder(io: { cwd: string; env: Record<string, string |
   if (fromEnv) return fromEnv;
   const configFile = options.config ? resolve(io.cwd, options.config) : findConfigFile(io.cwd);
   return (configFile && configuredFolder(configFile, io.cwd)) || defaultProceduresFolder;
+}
+
+/**
+ * The path the manual is served under, as written: the --base option, else `base:` in the configuration file,
+ * else "" (the site's root). The commands parse it with model/site-base.ts and refuse a bad one.
+ */
+export function siteBaseSetting(io: { cwd: string }, options: { base?: string; config?: string } = {}): string {
+  if (options.base !== undefined) return options.base;
+  const configFile = options.config ? resolve(io.cwd, options.config) : findConfigFile(io.cwd);
+  const value = configFile ? configuredValue(configFile, 'base') : undefined;
+  return typeof value === 'string' ? value : '';
+}
+
+/** The path the manual is served under, in its one form ("/" or e.g. "/manual/"); a bad one is a usage error. */
+export function siteBase(io: { cwd: string }, options: { base?: string; config?: string } = {}): SiteBase {
+  const parsed = parseBase(siteBaseSetting(io, options));
+  if ('problem' in parsed) {
+    throw new UsageError(options.base !== undefined ? `--base: ${parsed.problem}` : `'base' in the configuration file: ${parsed.problem}`);
+  }
+  return parsed.base;
 }

@@ -64,9 +64,10 @@ const tookEffect = new Set(['effective', 'superseded', 'retired']);
 
 export function buildHistoryView(
   history: ProcedureHistory,
-  identity: { id: string; slug: string; currentRevision: number; currentStatus?: string },
+  identity: { id: string; slug: string; currentRevision: number; currentStatus?: string; url?: string },
 ): HistoryView {
-  const base = `/procedures/${identity.slug}`;
+  // Under the procedure's own page, which carries the manual's base (see render/site-url.ts).
+  const base = (identity.url ?? `/procedures/${identity.slug}/`).replace(/\/$/, '');
   // A revision number that appears twice (it went down and up again) keeps its last occurrence for its URL.
   const byNumber = new Map<number, Revision>();
   for (const r of history.revisions) if (r.revision !== null) byNumber.set(r.revision, r);

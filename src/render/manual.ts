@@ -13,6 +13,7 @@ import { hazardRank, signalWordColours } from './signal-words.ts';
 import { numberSteps } from './step-numbers.ts';
 import { buildStepTable, type TableRow } from './step-table.ts';
 import { tagUsesIn, type TagRole, type TagUse } from './where-used.ts';
+import { pagePath, rootBase, siteUrl, type SiteBase } from './site-url.ts';
 
 export interface ManualInput {
   files: CheckedFile[];
@@ -22,6 +23,8 @@ export interface ManualInput {
   today: string;
   /** The plant register, when there is one: area names come from it. */
   register?: AreaSource;
+  /** Where the manual is served ("/" or e.g. "/manual/"); every URL in the view starts with it. */
+  base?: SiteBase;
 }
 
 export interface Banner {
@@ -153,7 +156,7 @@ function splitQuantity(text: string | undefined): { value?: string; unit?: strin
   return m ? { value: m[1], unit: m[2] || undefined } : { value: text };
 }
 
-export function buildProcedureView(file: CheckedFile & { procedure: Procedure }, root: string, today: string, register?: AreaSource): ProcedureView {
+export function buildProcedureView(file: CheckedFile & { procedure: Procedure }, root: string, today: string, register?: AreaSource, base: SiteBase = rootBase): ProcedureView {
   const p = file.procedure;
   const numbers = numberSteps(p.steps);
   const slug = slugOf(p.id);
@@ -181,13 +184,13 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
   const steps = file.facts?.steps.length ?? 0;
   const rows = buildStepTable(p, numbers);
   return {
-    id: p.id, slug, url: `/procedures/${slug}/`, file: p.file, area: areaName(areaOf(p.file, root), p.equipment, register), areaId: areaOf(p.file, root),
+    id: p.id, slug, url: siteUrl(base, pagePath.procedure(slug)), file: p.file, area: areaName(areaOf(p.file, root), p.equipment, register), areaId: areaOf(p.file, root),
     title: p.title, kind: String(p.kind), kindLabel: kindLabel(String(p.kind)), revision: p.revision, status: String(p.status),
     current: p.status !== 'superseded' && p.status !== 'retired',
     effective: p.effective, reviewBy: p.reviewBy, review: reviewMark(p, today), owner: p.owner, author: p.author, change: p.change,
     approvals: p.approvals.map(({ role, name, date, meaning }) => ({ role, name, date, meaning })),
     equipment: p.equipment, ppe: p.ppe, banner: statusBanner(p, today), hazards,
-    interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: `/tags/${slugOf(i.tag)}/` })),
+    interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: siteUrl(base, pagePath.tag(slugOf(i.tag))) })),
     limits,
     chartSvg: renderChartSvg(p, { title: `Sequence chart of ${p.id}, ${steps} steps` }, numbers),
     chartPrintParts: renderChartPrintParts(p, `Sequence chart of ${p.id}`, numbers).map((part) => part.svg),
@@ -195,13 +198,13 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     rows,
     bodyHtml: renderBodyHtml(p.body),
     ...(emergencyKinds.has(String(p.kind)) ? { lead: emergencyLead(p.body, rows) } : {}),
-    tags: tagNames.map((t) => ({ tag: t, url: `/tags/${slugOf(t)}/` })),
+    tags: tagNames.map((t) => ({ tag: t, url: siteUrl(base, pagePath.tag(slugOf(t))) })),
   };
 }
 
 export function buildManualView(input: ManualInput): ManualView {
   const readable = input.files.filter((f): f is CheckedFile & { procedure: Procedure } => f.procedure !== null && f.facts !== null);
-  const procedures = readable.map((f) => buildProcedureView(f, input.root, input.today, input.register)).sort((a, b) => a.id.localeCompare(b.id));
+  const procedures = readable.map((f) => buildProcedureView(f, input.root, input.today, input.register, input.base ?? rootBase)).sort((a, b) => a.id.localeCompare(b.id));
   const byId = new Map(procedures.map((p) => [p.id, p]));
 
   const areaIds = [...new Set(procedures.map((p) => p.areaId))].sort((a, b) => nameOf(a).localeCompare(nameOf(b)) || a.localeCompare(b));
@@ -231,7 +234,7 @@ export function buildManualView(input: ManualInput): ManualView {
         let slug = slugOf(tag);
         for (let n = 2; usedSlugs.has(slug); n++) slug = `${slugOf(tag)}-${n}`;
         usedSlugs.add(slug);
-        entry = { tag, slug, url: `/tags/${slug}/`, roles: [], uses: [] };
+        entry = { tag, slug, url: siteUrl(input.base ?? rootBase, pagePath.tag(slug)), roles: [], uses: [] };
         tagMap.set(tag, entry);
       }
       for (const use of list) {
@@ -247,7 +250,7 @@ export function buildManualView(input: ManualInput): ManualView {
     t.uses.sort((a, b) => roleOrder.indexOf(a.role) - roleOrder.indexOf(b.role) || a.procedureId.localeCompare(b.procedureId));
   }
   // Each procedure links its tags to the page that really exists (slugs may carry a suffix).
-  for (const p of procedures) p.tags = p.tags.map(({ tag }) => ({ tag, url: tagMap.get(tag)?.url ?? `/tags/${slugOf(tag)}/` }));
+  for (const p of procedures) p.tags = p.tags.map(({ tag }) => ({ tag, url: tagMap.get(tag)?.url ?? siteUrl(input.base ?? rootBase, pagePath.tag(slugOf(tag))) }));
   for (const p of procedures) for (const i of p.interlocks) i.tagUrl = tagMap.get(i.tag)?.url ?? i.tagUrl;
   return { today: input.today, procedures, areas, tags };
 }

@@ -5,6 +5,7 @@ import type { Root } from 'mdast';
 import type { RuleCategory } from '../check/define-rule.ts';
 import { rules } from '../check/rules/index.ts';
 import { renderBodyHtml } from './body-html.ts';
+import { pagePath, rootBase, siteUrl, type SiteBase } from './site-url.ts';
 
 export interface RuleReference {
   id: string;
@@ -33,11 +34,11 @@ const categoryTitles: Record<RuleCategory, string> = {
 
 const parser = unified().use(remarkParse);
 
-export function ruleReferences(): RuleReference[] {
+export function ruleReferences(base: SiteBase = rootBase): RuleReference[] {
   return Object.entries(rules)
     .map(([id, rule]) => ({
       id,
-      url: `/rules/${id}/`,
+      url: siteUrl(base, pagePath.rule(id)),
       summary: rule.meta.summary,
       category: rule.meta.category,
       defaultSeverity: rule.meta.defaultSeverity,
@@ -49,8 +50,8 @@ export function ruleReferences(): RuleReference[] {
     .sort((a, b) => a.id.localeCompare(b.id));
 }
 
-export function rulesByCategory(): Array<{ category: RuleCategory; title: string; rules: RuleReference[] }> {
-  const all = ruleReferences();
+export function rulesByCategory(base: SiteBase = rootBase): Array<{ category: RuleCategory; title: string; rules: RuleReference[] }> {
+  const all = ruleReferences(base);
   return (Object.keys(categoryTitles) as RuleCategory[])
     .map((category) => ({ category, title: categoryTitles[category], rules: all.filter((r) => r.category === category) }))
     .filter((g) => g.rules.length > 0);

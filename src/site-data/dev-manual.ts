@@ -18,7 +18,7 @@ export function procedureStamp(root: string, cwd: string): string {
 }
 
 /** Every readable procedure; when one of them cannot be drawn, the ones without errors. */
-export function tolerantManualView(input: { files: CheckedFile[]; root: string; today: string }): ManualView {
+export function tolerantManualView(input: { files: CheckedFile[]; root: string; today: string; base?: string }): ManualView {
   try {
     return buildManualView(input);
   } catch {

@@ -23,7 +23,7 @@ async function loadHistories(): Promise<Map<string, HistoryView>> {
   // History comes from the repository that holds the procedures (the check run has opened it already).
   const repo = loaded.run.repo ?? (await openRepository(io, loaded.root));
   const out = new Map<string, HistoryView>();
-  const identity = (p: ProcedureView) => ({ id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status });
+  const identity = (p: ProcedureView) => ({ id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status, url: p.url });
   if (!repo) {
     for (const p of view.procedures) {
       out.set(p.id, buildHistoryView({ path: p.file, revisions: [], shallow: false, notice: 'This manual was built outside a git checkout, so no earlier revisions are available.' }, identity(p)));
@@ -50,13 +50,13 @@ async function loadHistories(): Promise<Map<string, HistoryView>> {
 /** The same page model as the current procedure page, built from a committed revision's text. */
 export async function revisionPageView(entry: RevisionEntry): Promise<ProcedureView | undefined> {
   const { loaded } = await siteManual();
-  return revisionView(entry, loaded.root, loaded.today);
+  return revisionView(entry, loaded.root, loaded.today, loaded.base);
 }
 
-function revisionView(entry: RevisionEntry, root: string, today: string): ProcedureView | undefined {
+function revisionView(entry: RevisionEntry, root: string, today: string, base: string): ProcedureView | undefined {
   const read = readProcedure(entry.path, entry.text);
   if (!read.procedure) return undefined;
-  return buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, root, today);
+  return buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, root, today, undefined, base);
 }
 
 /** What a procedure's own page and the home page show: the revision in force, and a newer one not yet in force. */
@@ -86,19 +86,19 @@ async function loadInForce(): Promise<Map<string, InForcePage>> {
   const { loaded, view } = await siteManual();
   const histories = await siteHistory();
   const out = new Map<string, InForcePage>();
-  for (const p of view.procedures) out.set(p.id, inForcePage(p, histories.get(p.id), loaded.today, loaded.root));
+  for (const p of view.procedures) out.set(p.id, inForcePage(p, histories.get(p.id), loaded.today, loaded.root, loaded.base));
   return out;
 }
 
 /** The in-force decision for one procedure, as page models. */
-export function inForcePage(p: ProcedureView, history: HistoryView | undefined, today: string, root = 'procedures'): InForcePage {
+export function inForcePage(p: ProcedureView, history: HistoryView | undefined, today: string, root = 'procedures', base = '/'): InForcePage {
   const decision = revisionInForce({ revision: p.revision, status: p.status, effective: p.effective }, history?.revisions ?? [], today);
   const newer = { view: p, url: `${p.url}next/` };
   if (decision.state === 'newest') return { state: 'newest', shown: p };
   // A superseded or retired procedure keeps its record page under its DO NOT USE banner.
   if (decision.state === 'none' && (p.status === 'retired' || p.status === 'superseded')) return { state: 'none', reason: decision.reason, shown: p };
   if (decision.state === 'none') return { state: 'none', reason: decision.reason, newer };
-  const earlier = revisionView(decision.entry, root, today);
+  const earlier = revisionView(decision.entry, root, today, base);
   if (!earlier) {
     return { state: 'none', newer, reason: `Revision ${decision.entry.revision} is in force, but its committed text cannot be read; ask the procedure owner for the controlled copy. Revision ${p.revision} is ${p.status} and not for use.` };
   }

@@ -9,6 +9,7 @@ import { runCheckRun, type CheckRun } from '../engine/check-run.ts';
 import { proceduresFolder } from '../engine/project.ts';
 import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from '../render/format-diagnostics.ts';
+import { normalizeBase, rootBase, type SiteBase } from '../render/site-url.ts';
 import { procedureStamp, tolerantManualView } from './dev-manual.ts';
 
 export { buildDate } from '../engine/check-run.ts';
@@ -25,6 +26,8 @@ export interface LoadedManual {
   errors: number;
   /** The whole check run (configuration, skipped files, repository). */
   run: CheckRun;
+  /** Where the manual is served ("/" or e.g. "/manual/"); the view's URLs start with it. */
+  base: SiteBase;
   /** Present when the check found no errors. */
   view?: ManualView;
 }
@@ -34,6 +37,8 @@ export interface LoadOptions {
   env: Record<string, string | undefined>;
   /** Read git history for the history rules (default true), as `stepwright check` does. */
   history?: boolean;
+  /** Where the manual is served (default "/"). */
+  base?: SiteBase;
 }
 
 /** The procedures folder of a build (`stepwright build` hands its choice to the pages in $STEPWRIGHT_PROCEDURES and $STEPWRIGHT_CONFIG). */
@@ -48,10 +53,11 @@ export async function loadManual(options: LoadOptions): Promise<LoadedManual> {
     cwd: options.cwd, env: options.env, paths: [root], config: options.env.STEPWRIGHT_CONFIG || undefined,
     date: 'build', history: options.history === false ? false : {},
   });
-  const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today, register: run.register }) : undefined;
+  const base = options.base ?? rootBase;
+  const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today, register: run.register, base }) : undefined;
   return {
     cwd: options.cwd, root, today: run.today, todaySource: run.todaySource === 'clock' ? 'STEPWRIGHT_TODAY' : run.todaySource,
-    inputs: run.inputs, result: run.result, errors: run.errors, run, view,
+    inputs: run.inputs, result: run.result, errors: run.errors, run, base, view,
   };
 }
 
@@ -82,17 +88,21 @@ export function clearHandOff(): void {
 /** The manual for the site's pages: the build's hand-off, else one check run per process (per save in dev). */
 export async function siteManual(): Promise<{ loaded: LoadedManual; view: ManualView }> {
   // The dev server (live preview) re-reads on every save and shows check errors on the pages instead of failing.
-  const dev = (import.meta as { env?: { DEV?: boolean } }).env?.DEV === true;
+  const env = (import.meta as { env?: { DEV?: boolean; BASE_URL?: string } }).env;
+  const dev = env?.DEV === true;
+  // The base Astro builds the pages with (the same as src/site/lib/url.ts uses for the pages' own links).
+  const base = normalizeBase(env?.BASE_URL);
   const stamp = dev ? procedureStamp(manualFolder({ cwd: process.cwd(), env: process.env }), process.cwd()) : '';
   const handed = process.env[runIdVariable];
-  const key = handed ? `run:${handed}` : `${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_CONFIG ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}\u0000${stamp}`;
+  const key = handed ? `run:${handed}` : `${base}\u0000${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_CONFIG ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}\u0000${stamp}`;
   let slot = slots[handOffSlot];
   if (!slot || slot.key !== key) {
-    slot = { key, loaded: loadManual({ cwd: process.cwd(), env: process.env }) };
+    slot = { key, loaded: loadManual({ cwd: process.cwd(), env: process.env, base }) };
     slots[handOffSlot] = slot;
   }
   const loaded = await slot.loaded;
-  if (!loaded.view && dev) loaded.view = tolerantManualView({ files: loaded.result.files, root: loaded.root, today: loaded.today });
+  if (loaded.base !== base) throw new Error(`The build handed the pages a manual for the base ${loaded.base}, but the pages are built for ${base}.`);
+  if (!loaded.view && dev) loaded.view = tolerantManualView({ files: loaded.result.files, root: loaded.root, today: loaded.today, base });
   if (!loaded.view) throw new Error(`The procedures have check errors; the manual was not built.\n\n${formatCheckFailure(loaded, false)}`);
   return { loaded, view: loaded.view };
 }

@@ -17,6 +17,8 @@ export interface SiteConfigOptions {
   /** The user's procedures folder (absolute); the live preview reloads when a file in it changes. */
   procedures: string;
   mode: 'production' | 'development';
+  /** The path the manual is served under: "/" or e.g. "/manual/" (model/site-base.ts). */
+  base?: string;
   logLevel?: AstroInlineConfig['logLevel'];
 }
 
@@ -28,6 +30,8 @@ export function siteConfig(options: SiteConfigOptions): AstroInlineConfig {
     // The site has no static files of its own; the service worker and offline list are written after the build.
     publicDir: join(siteFolder, 'public'),
     outDir: options.outDir,
+    // Every page link goes through lib/url.ts, which reads this base back from import.meta.env.BASE_URL.
+    base: options.base ?? '/',
     cacheDir: options.cacheDir,
     mode: options.mode,
     logLevel: options.logLevel ?? 'error',
