@@ -6,6 +6,8 @@ import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, 
 import { tmpdir } from 'node:os';
 import { delimiter, dirname, join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { ChildProcessWithoutNullStreams } from 'node:child_process';
+import { launchChromium } from '../e2e/floor-fixture.ts';
 
 const tool = join(import.meta.dirname, '..', '..');
 const work = mkdtempSync(join(tmpdir(), 'stepwright-package-'));
@@ -102,15 +104,7 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
 
     const server = spawn(join(plant, 'node_modules', '.bin', 'stepwright'), ['serve', '--port', '0', '--host', '127.0.0.1'], { cwd: plant, env });
     try {
-      const url = await new Promise<string>((resolve, reject) => {
-        let seen = '';
-        server.stdout.on('data', (chunk) => {
-          seen += chunk;
-          const m = /on (http:\/\/\S+?)\/? \(/.exec(seen);
-          if (m) resolve(m[1]);
-        });
-        server.on('exit', (code) => reject(new Error(`serve exited ${code}: ${seen}`)));
-      });
+      const url = (await servedAt(server)).replace(/\/$/, '');
       for (const path of ['/', '/procedures/u2-unl-xyl-001/', '/procedures/u2-n2-su-001/', '/procedures/u2-unl-xyl-001/audit/']) {
         const response = await fetch(`${url}${path}`);
         expect(response.status, path).toBe(200);
@@ -119,4 +113,76 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
       server.kill('SIGTERM');
     }
   });
+
+  it('a build under /manual/ works in Chromium there: home, a procedure, search, and the offline copy after a reload', async () => {
+    const build = stepwright(['build', '--base', '/manual/', '--out', 'dist-manual']);
+    expect(build.stderr).toBe('');
+    expect(build.status).toBe(0);
+    // No page links outside /manual/ (the build refuses such a site; checked here on its own terms too).
+    const site = join(plant, 'dist-manual');
+    const pages = readdirSync(site, { recursive: true }).map(String).filter((f) => f.endsWith('.html'));
+    expect(pages.length).toBeGreaterThan(5);
+    for (const page of pages) {
+      const html = readFileSync(join(site, page), 'utf8');
+      expect([...html.matchAll(/\b(?:href|src|action)="(\/(?!manual\/)[^"]*)"/g)].map((m) => m[1]), page).toEqual([]);
+    }
+
+    const server = spawn(join(plant, 'node_modules', '.bin', 'stepwright'), ['serve', '--dir', 'dist-manual', '--base', 'manual', '--port', '0', '--host', '127.0.0.1'], { cwd: plant, env });
+    const browser = await launchChromium();
+    try {
+      const url = await servedAt(server);
+      expect(new URL(url).pathname).toBe('/manual/');
+      const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+      const page = await context.newPage();
+      await page.goto(url);
+      await expect(page.locator('h1').textContent()).resolves.toBe('Procedures');
+
+      // The offline copy: the service worker's scope is the base, and the copy is saved from there.
+      await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 30_000 });
+      const worker = await page.evaluate(async () => ({ scope: (await navigator.serviceWorker.ready).scope, script: navigator.serviceWorker.controller!.scriptURL }));
+      expect(new URL(worker.scope).pathname).toBe('/manual/');
+      expect(new URL(worker.script).pathname).toBe('/manual/sw.js');
+      await expect.poll(() => page.locator('[data-offline-status]').textContent(), { timeout: 60_000 }).toMatch(/^Offline copy: manual of \d{4}-\d\d-\d\d, saved/);
+
+      // A procedure, from the home page's own link.
+      await page.locator('a[href$="/procedures/u2-n2-su-001/"]').first().click();
+      await page.waitForURL(/\/manual\/procedures\/u2-n2-su-001\/$/);
+      await expect(page.locator('h1').textContent()).resolves.toContain('U2-N2-SU-001');
+      for (const href of await page.locator('a[href^="/"]').evaluateAll((as) => as.map((a) => a.getAttribute('href')!))) expect(href.startsWith('/manual/'), href).toBe(true);
+
+      // Search finds a procedure and links to it under the base.
+      await page.locator('nav a', { hasText: 'Search' }).click();
+      await page.waitForURL(/\/manual\/search\/$/);
+      await page.locator('#search-input').fill('xylene');
+      const results = page.locator('#search-results a');
+      await expect.poll(() => results.count(), { timeout: 20_000 }).toBeGreaterThan(0);
+      const found = await results.evaluateAll((as) => as.map((a) => new URL((a as HTMLAnchorElement).href).pathname));
+      expect(found).toContain('/manual/procedures/u2-unl-xyl-001/');
+
+      // The server gone and the browser offline, the procedure still opens and reloads from the offline copy.
+      server.kill('SIGTERM');
+      await context.setOffline(true);
+      await page.goto(new URL('/manual/procedures/u2-unl-xyl-001/', url).href);
+      await expect(page.locator('h1').textContent()).resolves.toContain('U2-UNL-XYL-001');
+      await page.reload();
+      await expect(page.locator('h1').textContent()).resolves.toContain('U2-UNL-XYL-001');
+      await context.close();
+    } finally {
+      await browser.close();
+      server.kill('SIGTERM');
+    }
+  });
 });
+
+/** The URL `stepwright serve` says it serves on. */
+function servedAt(server: ChildProcessWithoutNullStreams): Promise<string> {
+  return new Promise<string>((resolve, reject) => {
+    let seen = '';
+    server.stdout.on('data', (chunk) => {
+      seen += chunk;
+      const m = /on (http:\/\/\S+) \(/.exec(seen);
+      if (m) resolve(m[1]);
+    });
+    server.on('exit', (code) => reject(new Error(`serve exited ${code}: ${seen}`)));
+  });
+}
