@@ -37,6 +37,8 @@ export interface StepwrightConfig {
   register?: string;
   /** Longest time between two certifications of a procedure in use, in months (OSHA 1910.119(f)(3): 12). */
   certificationIntervalMonths?: number;
+  /** `review-policy` as written, for `stepwright review` (history/approval-policy.ts reads and checks it). */
+  reviewPolicy?: unknown;
 }
 
 export interface LoadedConfig {
@@ -89,6 +91,7 @@ export function parseConfig(file: string, text: string, knownRules: readonly str
     overrides: (parsed.data.overrides ?? []).map((o) => ({ files: Array.isArray(o.files) ? o.files : [o.files], rules: o.rules })),
     ...(parsed.data.register ? { register: parsed.data.register } : {}),
     ...(parsed.data['document-control']?.['certification-interval-months'] ? { certificationIntervalMonths: parsed.data['document-control']['certification-interval-months'] } : {}),
+    ...(parsed.data['review-policy'] !== undefined ? { reviewPolicy: parsed.data['review-policy'] } : {}),
   };
   const checkIds = (rules: Record<string, Level>, path: Array<string | number>) => {
     for (const id of Object.keys(rules)) {

@@ -1,9 +1,8 @@
 // `stepwright review --base <ref>`: a Markdown summary of the procedure changes since a base, for a pull request.
-import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { parse as parseYaml } from 'yaml';
-import { checkSources } from '../check/run-checks.ts';
+import { runCheckRun, type CheckRun } from '../engine/check-run.ts';
 import { readProcedure } from '../read/read-procedure.ts';
 import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
@@ -13,11 +12,10 @@ import { changedPaths, describeBase, resolveCommit, type ChangedPath } from '../
 import { redline } from '../history/redline.ts';
 import { renderReviewMarkdown, type ReviewedFile } from '../history/review-summary.ts';
 import { formatGithub } from './format-github.ts';
-import { todayOf, UsageError, type CliIo } from './io.ts';
-import { readProcedureFiles } from './read-procedure-files.ts';
+import { UsageError, type CliIo } from './io.ts';
 import { openRepository, repoPath, type Repository } from './repository.ts';
-import { findConfigFile, proceduresFolder } from './project.ts';
-import { findRegisterFolder, readRegisterFolder } from './load-register.ts';
+import { proceduresFolder } from './project.ts';
+import { findRegisterFolder } from './load-register.ts';
 import { readYamlSource } from '../parse/read-yaml-source.ts';
 import { buildRegister, type PlantRegister } from '../model/register.ts';
 import { registerImpact } from '../history/register-impact.ts';
@@ -47,8 +45,6 @@ Options:
 Exit codes: 0 no errors in the changed files, 1 errors found, 2 usage, git or internal failure.
 `;
 
-const configFile = 'stepwright.config.yaml';
-
 export async function runReview(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
@@ -73,14 +69,13 @@ export async function runReview(argv: string[], io: CliIo): Promise<number> {
     io.stderr.write(`stepwright review: ${paths[0]} is not inside a git repository; review compares against a git base.\n`);
     return 2;
   }
-  const policy = loadPolicy(io, values.config);
-  if ('problems' in policy) {
-    io.stderr.write(`stepwright review: ${policy.file} has a bad 'review-policy':\n${policy.problems.map((p) => `  ${p}`).join('\n')}\n`);
-    return 2;
-  }
 
   try {
-    const report = await buildReview(repo, io, values.base, paths, policy);
+    const report = await buildReview(repo, io, values.base, { paths: positionals, procedures: values.procedures, config: values.config }, paths);
+    if ('problems' in report) {
+      io.stderr.write(`stepwright review: ${report.file} has a bad 'review-policy':\n${report.problems.map((p) => `  ${p}`).join('\n')}\n`);
+      return 2;
+    }
     const markdown = renderReviewMarkdown(report.input);
     if (values.output) writeFileSync(resolve(io.cwd, values.output), markdown);
     if (values.format === 'github') io.stdout.write(formatGithub(report.diagnostics, (file) => repoPath(repo, file)));
@@ -94,7 +89,14 @@ export async function runReview(argv: string[], io: CliIo): Promise<number> {
   }
 }
 
-async function buildReview(repo: Repository, io: CliIo, base: string, paths: string[], policy: { policy: PolicyEntry[]; source: string }) {
+/** What the user named: the same request as `stepwright check` gets. */
+interface ReviewRequest {
+  paths: string[];
+  procedures?: string;
+  config?: string;
+}
+
+async function buildReview(repo: Repository, io: CliIo, base: string, request: ReviewRequest, paths: string[]) {
   const notices: string[] = [];
   const baseTip = await resolveCommit(repo.git, base);
   let baseCommit = baseTip;
@@ -112,13 +114,6 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
     .split('\0').filter(Boolean).map((path): ChangedPath => ({ status: 'A', path }));
   const changes = [...tracked, ...untracked].filter((c) => c.path.endsWith('.md')).sort((a, b) => a.path.localeCompare(b.path));
 
-  const inputs = readProcedureFiles(paths, io.cwd);
-  // The register now and at the base: a changed entry reaches every procedure that uses it.
-  const configPath = findConfigFile(io.cwd);
-  const location = findRegisterFolder(io.cwd, configPath, registerKey(configPath), paths[0]);
-  const register = location ? readRegisterFolder(location, io.cwd) : undefined;
-  const baseRegister = location ? await registerAt(repo, baseCommit, location.absolute, io.cwd) : undefined;
-  const inputByPath = new Map(inputs.map((i) => [repoPath(repo, resolve(io.cwd, i.file)), i]));
   const oldTexts = new Map<string, string>();
   const existing = changes.filter((c) => c.status !== 'A');
   const shown = await showFiles(repo.git, existing.map((c) => `${baseCommit}:${c.oldPath ?? c.path}`));
@@ -127,14 +122,30 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
     if (text !== undefined) oldTexts.set(c.path, text);
   }
 
-  const result = checkSources(inputs, {
-    today: todayOf(io),
-    register,
-    previous: (file) => {
-      const text = oldTexts.get(repoPath(repo, resolve(io.cwd, file)));
-      return text === undefined ? undefined : { text, commit: describeBase(base, baseCommit) };
+  // The same check run as `stepwright check` (configuration, register, waivers, cache), with the history
+  // rules judging each file against the base instead of the last commit.
+  const run = await runCheckRun({
+    cwd: io.cwd, env: io.env, now: io.now, paths: request.paths, procedures: request.procedures, config: request.config, date: 'clock',
+    history: {
+      repo,
+      previous: (file) => {
+        const text = oldTexts.get(repoPath(repo, resolve(io.cwd, file)));
+        return text === undefined ? undefined : { text, commit: describeBase(base, baseCommit) };
+      },
     },
   });
+  // The review policy comes from the configuration the check run has read (one read, one parse).
+  const policy = reviewPolicyOf(run);
+  if ('problems' in policy) return policy;
+  const { inputs, result, register } = run;
+  // The register at the base: a changed entry reaches every procedure that uses it.
+  const location = findRegisterFolder(io.cwd, run.config.file?.file, run.config.config.register, paths[0]);
+  const baseRegister = location ? await registerAt(repo, baseCommit, location.absolute, io.cwd) : undefined;
+  const inputByPath = new Map(inputs.map((i) => [repoPath(repo, resolve(io.cwd, i.file)), i]));
+  const configErrors = run.config.diagnostics.filter((d) => d.severity === 'error');
+  if (configErrors.length) {
+    notices.push(`The configuration ${run.config.file?.file ?? ''} has ${configErrors.length} error${configErrors.length === 1 ? '' : 's'}, so its rule settings were not applied: ${configErrors.map((d) => `line ${d.line}: ${d.message}`).join(' ')} Run 'stepwright check' for details.`);
+  }
   const diagnosticsOf = new Map(result.files.map((f) => [repoPath(repo, resolve(io.cwd, f.file)), f.diagnostics]));
 
   const files: ReviewedFile[] = [];
@@ -180,7 +191,7 @@ async function buildReview(repo: Repository, io: CliIo, base: string, paths: str
     : [];
   return {
     input: { base, baseCommit, files, policySource: policy.source, notices, registerChanges },
-    diagnostics: files.flatMap((f) => f.diagnostics),
+    diagnostics: [...configErrors, ...files.flatMap((f) => f.diagnostics)],
   };
 }
 
@@ -202,22 +213,14 @@ function readIfThere(file: string): string | undefined {
   }
 }
 
-function loadPolicy(io: CliIo, explicit?: string): { policy: PolicyEntry[]; source: string } | { problems: string[]; file: string } {
-  const file = explicit ? resolve(io.cwd, explicit) : findConfigFile(io.cwd);
-  if (explicit && !existsSync(file!)) throw new UsageError(`The configuration file '${explicit}' does not exist.`);
-  const fallback = { policy: defaultReviewPolicy, source: 'default review policy (docs/review.md)' };
-  if (!file) return fallback;
-  let config: unknown;
-  try {
-    config = parseYaml(readFileSync(file, 'utf8'));
-  } catch (error) {
-    return { file: configFile, problems: [(error as Error).message.split('\n')[0]] };
-  }
-  const value = config && typeof config === 'object' ? (config as Record<string, unknown>)['review-policy'] : undefined;
-  if (value === undefined) return fallback;
+/** The review policy in the configuration the check run read, else the default one. */
+function reviewPolicyOf(run: CheckRun): { policy: PolicyEntry[]; source: string } | { problems: string[]; file: string } {
+  const file = run.config.file?.file ?? 'stepwright.config.yaml';
+  const value = run.config.config.reviewPolicy;
+  if (value === undefined) return { policy: defaultReviewPolicy, source: 'default review policy (docs/review.md)' };
   const parsed = parseReviewPolicy(value);
-  if ('problems' in parsed) return { file: configFile, problems: parsed.problems };
-  return { policy: parsed.policy, source: `review policy in ${configFile}` };
+  if ('problems' in parsed) return { file, problems: parsed.problems };
+  return { policy: parsed.policy, source: `review policy in ${file}` };
 }
 
 /** The review as JSON for tools: the facts of the Markdown summary without the rendered tables and charts. */
@@ -239,16 +242,6 @@ function reviewJson(input: { base: string; baseCommit: string; files: ReviewedFi
       diagnostics: f.diagnostics,
     })),
   }, null, 2)}\n`;
-}
-
-function registerKey(configPath: string | undefined): string | undefined {
-  if (!configPath) return undefined;
-  try {
-    const data = parseYaml(readFileSync(configPath, 'utf8')) as Record<string, unknown> | null;
-    return typeof data?.register === 'string' ? data.register : undefined;
-  } catch {
-    return undefined;
-  }
 }
 
 /** The register as it was at a commit: every YAML file under the folder, read the same way as today's. */

@@ -97,6 +97,27 @@ describe('stepwright review', () => {
     }
   });
 
+  it('checks through the same run as check: the configuration\'s rule settings apply, and its errors fail the review', async () => {
+    const config = join(repo.dir, 'stepwright.config.yaml');
+    try {
+      const plain = await runCli(['review', '--base', commits.effective2, '--format', 'json'], repo.dir);
+      const rulesOf = (out: string) => (JSON.parse(out).files as Array<{ diagnostics: Array<{ rule: string }> }>).flatMap((f) => f.diagnostics.map((d) => d.rule));
+      expect(rulesOf(plain.stdout)).toContain('effective-edited-in-place');
+      writeFileSync(config, 'rules:\n  effective-edited-in-place: off\n');
+      const off = await runCli(['review', '--base', commits.effective2, '--format', 'json'], repo.dir);
+      expect(rulesOf(off.stdout)).not.toContain('effective-edited-in-place');
+      // `stepwright check` fails on this configuration; so does the review, and it says why.
+      writeFileSync(config, 'rules:\n  no-such-rule: off\n');
+      const check = await runCli(['check', 'procedures'], repo.dir);
+      expect(check.code).toBe(1);
+      const bad = await runCli(['review', '--base', commits.effective1], repo.dir);
+      expect(bad.code).toBe(1);
+      expect(bad.stdout).toMatch(/The configuration stepwright\.config\.yaml has 1 error[\s\S]*'no-such-rule' is not a Stepwright rule/);
+    } finally {
+      rmSync(config, { force: true });
+    }
+  });
+
   it('includes new files not yet committed, and deleted ones with advice to retire instead', async () => {
     const added = join(repo.dir, 'procedures/u2-test-002.md');
     const committed = readFileSync(join(repo.dir, file), 'utf8');
