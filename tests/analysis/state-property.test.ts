@@ -35,8 +35,21 @@ const item: fc.Arbitrary<Item[]> = fc.oneof(
   fc.tuple(step, step, guard).map(([first, check, when]) => [first, { ...check, until: undefined, confirm: undefined },
     { choose: [{ when, goto: first.step, repeat: { expected: 1, max: 2 } }, { otherwise: true, steps: [{ step: `s${counter++}`, do: 'Go on', confirm: 'Done' }] }] }]),
 );
-const procedure = fc.tuple(fc.array(item, { minLength: 1, maxLength: 4 }), fc.array(guard, { maxLength: 2 }))
-  .map(([items, lineUp]) => ({ steps: buildSequence(items.flat().map(clean), ['steps']), lineUp }));
+// A time limit or if-not that jumps (goto) from one step of the main sequence to another, forward or back.
+const jump = fc.option(fc.tuple(fc.nat(), fc.nat(), fc.constantFrom('time-limit', 'if-not')), { nil: undefined });
+const procedure = fc.tuple(fc.array(item, { minLength: 1, maxLength: 4 }), fc.array(guard, { maxLength: 2 }), jump)
+  .map(([items, lineUp, j]) => {
+    const flat = items.flat().map(clean);
+    const top = flat.filter((i) => typeof i.step === 'string');
+    if (j && top.length) {
+      const [from, to, kind] = j;
+      const target = top[to % top.length].step;
+      Object.assign(top[from % top.length], kind === 'time-limit'
+        ? { 'time-limit': { max: '1 min', then: 'Stop', goto: target } }
+        : { 'if-not': { do: 'Stop', goto: target } });
+    }
+    return { steps: buildSequence(flat, ['steps']), lineUp };
+  });
 
 function clean(i: Item): Item {
   return Object.fromEntries(Object.entries(i).filter(([, v]) => v !== undefined));
@@ -74,6 +87,18 @@ function execute(graph: StepGraph, lineUp: string[]): Map<string, Set<string>> {
     let views: Valuation[] = [{ ...v }];
     for (const [signal, values] of held) views = views.flatMap((w) => [...values].map((value) => ({ ...w, [signal]: value })));
     for (const m of marking) if (place.get(m)!.step) for (const view of views) seen.set(m, (seen.get(m) ?? new Set()).add(key(view)));
+    if (marking.includes(graph.end)) seen.set(graph.end, (seen.get(graph.end) ?? new Set()).add(key(v)));
+    // A step whose time limit runs out (or whose result does not come) may jump, whatever the plant shows.
+    for (const m of marking) {
+      const s = place.get(m)!.step;
+      for (const g of [s?.timeLimit?.goto, s?.ifNot?.goto]) {
+        const target = g && graph.placeOfStep.get(g.value);
+        if (!target) continue;
+        const next = { ...v };
+        for (const a of storedActions(place.get(target)!.step!)) next[a.signal] = a.value;
+        queue.push({ marking: [...marking.filter((x) => x !== m), target], v: next });
+      }
+    }
     for (const t of graph.transitions) {
       if (!t.from.every((f) => marking.includes(f))) continue;
       const ok = t.guard.every((g) => (g.kind === 'until' || g.kind === 'when' ? holds(g.text, v) : g.kind === 'otherwise' ? !whens(t).some((w) => holds(w, v)) : true));
@@ -115,6 +140,8 @@ describe('plant state along every path', () => {
         const got = [...pointsOf((analysis.views.get(p.id) ?? []) as never)].sort();
         expect(got, `values at ${p.id}`).toEqual(expected);
       }
+      const ends = [...analysis.endViews.values()].flat();
+      expect([...pointsOf(ends as never)].sort(), 'values at the end').toEqual([...(concrete.get(graph.end) ?? [])].sort());
     }), { numRuns: 300 });
   });
 

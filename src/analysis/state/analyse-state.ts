@@ -26,6 +26,15 @@ export interface StateAnalysis {
   space: SignalSpace;
   /** Step place id → the values that can hold while the step is active. */
   views: Map<string, StateView[]>;
+  /**
+   * The values when the procedure has ended, by the contingency that was taken first on the way ('' for none):
+   * the step id whose time limit or if-not jumped.
+   */
+  endViews: Map<string, StateView[]>;
+  /** The values before the first step (from the line-up, and any trip in force at the start). */
+  start: Box[];
+  /** Contingency jumps (time-limit and if-not goto) the analysis followed, by the step they leave. */
+  contingencies: Array<{ step: string; target: string; kind: 'time-limit' | 'if-not' }>;
   /** False when part of the procedure could not be analysed; `gaps` says what. */
   complete: boolean;
   gaps: string[];
@@ -43,6 +52,8 @@ interface Node {
   box: Box;
   parent: number;
   entered: string[];
+  /** The step whose contingency jump was taken first on the way here, or ''. */
+  via: string;
 }
 
 export function analyseState(input: StateInput, extraConditions: string[] = [], budget = defaultBudget): StateAnalysis {
@@ -224,6 +235,32 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
   const placeIndex = new Map(graph.places.map((p, i) => [p.id, i]));
   const stepOf = graph.places.map((p) => (p.kind === 'step' ? p.step : undefined));
   const transitions = graph.transitions.map((t) => ({ t, from: t.from.map((p) => placeIndex.get(p)!), to: t.to.map((p) => placeIndex.get(p)!) }));
+  // A step's time limit or if-not may jump (goto): the step is left without its transition's condition holding.
+  const contingencies: StateAnalysis['contingencies'] = [];
+  const contingencyOf = new Map<Transition, string>();
+  graph.places.forEach((p, i) => {
+    const step = p.kind === 'step' ? p.step : undefined;
+    if (!step) return;
+    const seen = new Set<string>();
+    for (const [kind, g] of [['time-limit', step.timeLimit?.goto], ['if-not', step.ifNot?.goto]] as const) {
+      if (!g || seen.has(g.value)) continue;
+      seen.add(g.value);
+      const target = graph.placeOfStep.get(g.value);
+      if (target === undefined) continue; // an unknown step is reported by its own rule
+      const tp = graph.places[placeIndex.get(target)!];
+      if (tp.scope.join('/') !== p.scope.join('/')) {
+        gaps.push(`the ${kind} jump of step '${step.id}' to '${g.value}' leaves or enters a parallel branch, so the plant state after it was not followed`);
+        continue;
+      }
+      const t: Transition = {
+        id: `${kind}:${step.id}`, from: [p.id], to: [target], guard: [], kind: 'jump', missing: false, fromStep: step.id,
+        jump: { target: g.value, path: g.path, resolved: true },
+      };
+      contingencyOf.set(t, step.id);
+      contingencies.push({ step: step.id, target: g.value, kind });
+      transitions.push({ t, from: [i], to: [placeIndex.get(target)!] });
+    }
+  });
   const byFirstInput = new Map<number, typeof transitions>();
   for (const tr of transitions) if (tr.from.length) byFirstInput.set(tr.from[0], [...(byFirstInput.get(tr.from[0]) ?? []), tr]);
 
@@ -248,22 +285,32 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
   const index = new Map<string, number>();
   const views = new Map<string, StateView[]>();
   const viewKeys = new Map<string, Set<string>>();
+  const endViews = new Map<string, StateView[]>();
+  const endKeys = new Set<string>();
+  const endPlace = placeIndex.get(graph.end)!;
   let exceeded = false;
-  const add = (marking: number[], box: Box, parent: number, entered: string[]) => {
-    const key = `${marking.join(',')}|${boxKey(names, box)}`;
+  const add = (marking: number[], box: Box, parent: number, entered: string[], via: string) => {
+    const key = `${marking.join(',')}|${boxKey(names, box)}|${via}`;
     if (index.has(key)) return;
     if (nodes.length >= budget) {
       exceeded = true;
       return;
     }
     index.set(key, nodes.length);
-    nodes.push({ marking, box, parent, entered });
+    nodes.push({ marking, box, parent, entered, via });
   };
   const start = placeIndex.get(graph.start)!;
-  for (const b of initial) add([start], b, -1, []);
+  for (const b of initial) add([start], b, -1, [], '');
 
   for (let n = 0; n < nodes.length; n++) {
-    const { marking, box } = nodes[n];
+    const { marking, box, via } = nodes[n];
+    if (marking.includes(endPlace)) {
+      const key = `${via}|${boxKey(names, box)}`;
+      if (!endKeys.has(key)) {
+        endKeys.add(key);
+        endViews.set(via, [...(endViews.get(via) ?? []), { box, node: n }]);
+      }
+    }
     const active = marking.map((p) => stepOf[p]).filter((s): s is Step => s !== undefined);
     if (active.length) {
       const seen = overlay(box, active);
@@ -283,10 +330,12 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
       const rest = marking.filter((p) => !from.includes(p));
       const next = [...new Set([...rest, ...to])].sort((a, b) => a - b);
       const entered = to.map((p) => stepOf[p]).filter((s): s is Step => s !== undefined);
+      const jumpFrom = contingencyOf.get(t);
       for (const b of guardFilter(t, [box])) {
         let after = b;
         for (const s of entered) after = enter(after, s);
-        add(next, after, n, entered.map((s) => s.id));
+        const ids = entered.map((s) => (jumpFrom ? `${s.id} (jump from ${jumpFrom}: ${t.id.split(':')[0]})` : s.id));
+        add(next, after, n, ids, via || jumpFrom || '');
       }
     }
   }
@@ -295,6 +344,9 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
   return {
     space,
     views,
+    endViews,
+    start: initial,
+    contingencies,
     complete: gaps.length === 0,
     gaps,
     pathTo(node: number) {

@@ -11,6 +11,8 @@ import callRetiredProcedure from './call-retired-procedure.ts';
 import callRevisionMismatch from './call-revision-mismatch.ts';
 import callUnknownProcedure from './call-unknown-procedure.ts';
 import requiresCycle from './requires-cycle.ts';
+import timeLimitBelowExpected from './time-limit-below-expected.ts';
+import contingencyGotoUnsafe from './contingency-goto-unsafe.ts';
 import requiresNotInForce from './requires-not-in-force.ts';
 import requiresUnknownProcedure from './requires-unknown-procedure.ts';
 import cautionForSeriousInjury from './caution-for-serious-injury.ts';
@@ -113,6 +115,8 @@ export const rules = {
   'requires-unknown-procedure': requiresUnknownProcedure,
   'requires-not-in-force': requiresNotInForce,
   'requires-cycle': requiresCycle,
+  'time-limit-below-expected': timeLimitBelowExpected,
+  'contingency-goto-unsafe': contingencyGotoUnsafe,
   'caution-for-serious-injury': cautionForSeriousInjury,
   'caution-holds-action': cautionHoldsAction,
   'condition-syntax': conditionSyntax,
