@@ -11,7 +11,10 @@ export type QuantityProblem =
   | { kind: 'bad-quantity'; message: string; hint: string };
 
 export interface QuantitySite {
-  role: 'setpoint' | 'limit-low' | 'limit-high';
+  /** `param`: a step parameter that names a signal, or that the register gives to a signal (its `params`). */
+  role: 'setpoint' | 'param' | 'limit-low' | 'limit-high';
+  /** For a parameter: its name as written (the signal may be another name). */
+  param?: string;
   signal: string;
   text: string;
   path: PathKey[];
@@ -25,7 +28,7 @@ export interface QuantitySite {
 
 export function collectQuantities(procedure: Procedure, steps: StepPlace[]): QuantitySite[] {
   const sites: QuantitySite[] = [];
-  const add = (role: QuantitySite['role'], signal: string, text: string, path: PathKey[], step?: string, fromRegister?: string) => {
+  const add = (role: QuantitySite['role'], signal: string, text: string, path: PathKey[], step?: string, fromRegister?: string, param?: string) => {
     const problems: QuantityProblem[] = [];
     const declared = procedure.signals[signal];
     if (!declared) {
@@ -58,9 +61,16 @@ export function collectQuantities(procedure: Procedure, steps: StepPlace[]): Qua
         });
       }
     }
-    sites.push({ role, signal, text, path, step, quantity, problems, ...(fromRegister ? { fromRegister } : {}) });
+    sites.push({ role, signal, text, path, step, quantity, problems, ...(fromRegister ? { fromRegister } : {}), ...(param ? { param } : {}) });
   };
-  for (const { step } of steps) for (const s of step.set) add('setpoint', s.signal, s.quantity, s.path, step.id);
+  for (const { step } of steps) {
+    for (const s of step.set) add('setpoint', s.signal, s.quantity, s.path, step.id);
+    // A parameter is a setpoint in other words when it names a signal (or the register gives its name to one).
+    for (const p of step.params) {
+      const signal = procedure.signals[p.name] ? p.name : procedure.paramSignals?.[p.name];
+      if (signal && typeof p.value !== 'boolean') add('param', signal, String(p.value), p.path, step.id, undefined, p.name);
+    }
+  }
   for (const limit of procedure.limits) {
     if (limit.low) add('limit-low', limit.signal, limit.low.value, limit.low.path, undefined, limit.from?.id);
     if (limit.high) add('limit-high', limit.signal, limit.high.value, limit.high.path, undefined, limit.from?.id);

@@ -81,8 +81,19 @@ export function applyRegister(procedure: Procedure, register: PlantRegister | un
   for (const u of procedure.uses) use(u.value, u.path, true);
   // Register signals the procedure names without declaring them are read from the register.
   const steps = walkSteps(procedure.steps);
+  const paramSignals: Record<string, string> = {};
+  const byParam = new Map<string, string>();
+  for (const signal of register.signals.values()) for (const name of signal.params) if (!byParam.has(name)) byParam.set(name, signal.id);
   for (const { step } of steps) {
     for (const s of step.set) if (register.signals.has(s.signal)) use(s.signal, s.path, false);
+    for (const param of step.params) {
+      if (register.signals.has(param.name)) use(param.name, param.path, false);
+      const target = byParam.get(param.name);
+      if (target && !procedure.signals[param.name]) {
+        paramSignals[param.name] = target;
+        use(target, param.path, false);
+      }
+    }
     if (step.until) bringNamesIn(step.until.value, step.until.path);
   }
   for (const block of walkBlocks(procedure.steps)) {
@@ -94,7 +105,7 @@ export function applyRegister(procedure: Procedure, register: PlantRegister | un
   for (const i of procedure.interlocks) if (register.entries.has(i.tag)) use(i.tag, i.path, false);
   procedure.equipment.forEach((tag, i) => use(tag, ['equipment', i], false));
 
-  return { ...procedure, signals, limits, interlocks, registerUses: uses };
+  return { ...procedure, signals, limits, interlocks, registerUses: uses, ...(Object.keys(paramSignals).length ? { paramSignals } : {}) };
 }
 
 /** A register safety function as the interlock a procedure shows: its trip and one description of what it does. */

@@ -221,6 +221,8 @@ export interface Procedure {
   modifies: Located<string>[];
   /** Filled when the procedure was read against a plant register: every entry it uses. */
   registerUses?: RegisterUse[];
+  /** Step parameter names that set a register signal (the register signal's `params`), by parameter name. */
+  paramSignals?: Record<string, string>;
   body: Root;
   bodyText: string;
   /** The front-matter as plain data, for diffs and exports. */

@@ -37,6 +37,8 @@ export const registerSignalSchema = z.strictObject({
   equipment: z.string().optional().describe('Tag of the equipment the signal measures.'),
   limits: registerLimitsSchema.optional().describe('Operating limits of the signal, with consequence and correction.'),
   alarms: registerAlarmsSchema.optional().describe('Alarm levels, where the plant has them.'),
+  params: z.array(z.string().regex(/^[a-z][a-z0-9-]*$/, 'must be a lower-case parameter name such as hot-oil-supply')).optional()
+    .describe('Names of step parameters (`params` in a procedure) that set this signal, e.g. [hot-oil-supply]; such a parameter is checked against the signal\'s unit, limits and trips.'),
 });
 
 export const registerBypassSchema = z.strictObject({

@@ -45,6 +45,8 @@ export interface RegisterSignal extends RegisterPlace {
     path: PathKey[];
   };
   alarms?: { low?: RegisterQuantity; high?: RegisterQuantity };
+  /** Step parameter names that set this signal. */
+  params: string[];
 }
 
 export interface RegisterSafetyFunction extends RegisterPlace {
@@ -183,6 +185,7 @@ function buildEntry(section: RegisterSection, id: string, d: Data, file: string,
           path: [...path, 'limits'],
         },
         alarms: alarms && { low: quantity(alarms.low, [...path, 'alarms', 'low']), high: quantity(alarms.high, [...path, 'alarms', 'high']) },
+        params: texts(d.params),
       };
     }
     case 'safety-functions': {

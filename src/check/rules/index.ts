@@ -52,6 +52,13 @@ import registerDuplicateEntry from './register-duplicate-entry.ts';
 import registerUnknownEntry from './register-unknown-entry.ts';
 import registerEntryUnused from './register-entry-unused.ts';
 import registerConflict from './register-conflict.ts';
+import registerEntryInvalid from './register-entry-invalid.ts';
+import limitBeyondTrip from './limit-beyond-trip.ts';
+import limitBeyondRelief from './limit-beyond-relief.ts';
+import limitOutsideRange from './limit-outside-range.ts';
+import setpointWithoutLimits from './setpoint-without-limits.ts';
+import paramOutsideLimits from './param-outside-limits.ts';
+import interlockInconsistent from './interlock-inconsistent.ts';
 import reviewDateMissing from './review-date-missing.ts';
 import reviewIntervalTooLong from './review-interval-too-long.ts';
 import temporaryWithoutEnd from './temporary-without-end.ts';
@@ -154,6 +161,13 @@ export const rules = {
   'register-unknown-entry': registerUnknownEntry,
   'register-entry-unused': registerEntryUnused,
   'register-conflict': registerConflict,
+  'register-entry-invalid': registerEntryInvalid,
+  'limit-beyond-trip': limitBeyondTrip,
+  'limit-beyond-relief': limitBeyondRelief,
+  'limit-outside-range': limitOutsideRange,
+  'setpoint-without-limits': setpointWithoutLimits,
+  'param-outside-limits': paramOutsideLimits,
+  'interlock-inconsistent': interlockInconsistent,
   'review-date-missing': reviewDateMissing,
   'review-interval-too-long': reviewIntervalTooLong,
   'temporary-without-end': temporaryWithoutEnd,

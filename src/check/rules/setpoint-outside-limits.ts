@@ -1,4 +1,5 @@
 // Reports a setpoint outside the operating limits of its signal, after converting units.
+import { limitBounds } from '../limit-bounds.ts';
 import { toBase, formatQuantity, convert, pressureConversionNote } from '../../analysis/units.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -16,16 +17,7 @@ converted exactly before they are compared.`,
   },
   (ctx) => {
     if (!ctx.facts) return;
-    type Bound = { base: number; text: string; unit: string; path: readonly (string | number)[] };
-    const bounds = new Map<string, { low?: Bound; high?: Bound }>();
-    for (const site of ctx.facts.quantities) {
-      if (site.role === 'setpoint' || !site.quantity || site.problems.length) continue;
-      const base = toBase(site.quantity.value, site.quantity.unit);
-      if (base === null) continue;
-      const entry = bounds.get(site.signal) ?? {};
-      entry[site.role === 'limit-low' ? 'low' : 'high'] = { base, text: site.text, unit: site.quantity.unit, path: site.path };
-      bounds.set(site.signal, entry);
-    }
+    const bounds = limitBounds(ctx.facts);
     for (const site of ctx.facts.quantities) {
       if (site.role !== 'setpoint' || !site.quantity || site.problems.length) continue;
       const limit = bounds.get(site.signal);

@@ -1,0 +1,24 @@
+// The operating limits of each signal in one procedure (its own and the register's), in SI base units.
+import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
+import { toBase } from '../analysis/units.ts';
+import type { PathKey } from '../parse/read-source.ts';
+
+export interface Bound {
+  base: number;
+  text: string;
+  unit: string;
+  path: readonly PathKey[];
+}
+
+export function limitBounds(facts: ProcedureFacts): Map<string, { low?: Bound; high?: Bound }> {
+  const bounds = new Map<string, { low?: Bound; high?: Bound }>();
+  for (const site of facts.quantities) {
+    if ((site.role !== 'limit-low' && site.role !== 'limit-high') || !site.quantity || site.problems.length) continue;
+    const base = toBase(site.quantity.value, site.quantity.unit);
+    if (base === null) continue;
+    const entry = bounds.get(site.signal) ?? {};
+    entry[site.role === 'limit-low' ? 'low' : 'high'] = { base, text: site.text, unit: site.quantity.unit, path: site.path };
+    bounds.set(site.signal, entry);
+  }
+  return bounds;
+}
