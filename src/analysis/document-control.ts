@@ -34,13 +34,15 @@ export interface TemporaryInForce {
 
 /**
  * For each procedure id, the temporary procedures in force that modify it: approved or effective, kind temporary,
- * and not past their end date on `today`. The site shows them on the modified procedure's page.
+ * in force on `today` (effective date reached) and not past their end date. The site shows them on the modified procedure's page.
  */
 export function temporaryProceduresInForce(procedures: Procedure[], today: string): Map<string, TemporaryInForce[]> {
   const out = new Map<string, TemporaryInForce[]>();
   for (const p of procedures) {
     if (p.kind !== 'temporary' || !['approved', 'effective'].includes(String(p.status))) continue;
     if (p.expires && p.expires < today) continue;
+    // Approved but not yet effective: not in force before its effective date.
+    if (isDate(p.effective) && p.effective > today) continue;
     for (const target of p.modifies) {
       const list = out.get(target.value) ?? [];
       list.push({ id: p.id, title: p.title, file: p.file, ...(p.expires ? { expires: p.expires } : {}) });

@@ -16,10 +16,9 @@ import { UsageError, type CliIo } from './io.ts';
 import { openRepository, repoPath, type Repository } from './repository.ts';
 import { proceduresFolder } from './project.ts';
 import { findRegisterFolder } from './load-register.ts';
-import { readYamlSource } from '../parse/read-yaml-source.ts';
-import { buildRegister, type PlantRegister } from '../model/register.ts';
 import { registerImpact } from '../history/register-impact.ts';
-import { relative } from 'node:path';
+import { registerAt } from '../history/register-history.ts';
+import { registerPlace } from '../engine/register-place.ts';
 
 export const reviewHelp = `Usage: stepwright review --base <ref> [options] [paths…]
 
@@ -140,7 +139,7 @@ async function buildReview(repo: Repository, io: CliIo, base: string, request: R
   const { inputs, result, register } = run;
   // The register at the base: a changed entry reaches every procedure that uses it.
   const location = findRegisterFolder(io.cwd, run.config.file?.file, run.config.config.register, paths[0]);
-  const baseRegister = location ? await registerAt(repo, baseCommit, location.absolute, io.cwd) : undefined;
+  const baseRegister = location ? await registerAt(registerPlace(repo, location.absolute, io.cwd), baseCommit) : undefined;
   const inputByPath = new Map(inputs.map((i) => [repoPath(repo, resolve(io.cwd, i.file)), i]));
   const configErrors = run.config.diagnostics.filter((d) => d.severity === 'error');
   if (configErrors.length) {
@@ -242,17 +241,4 @@ function reviewJson(input: { base: string; baseCommit: string; files: ReviewedFi
       diagnostics: f.diagnostics,
     })),
   }, null, 2)}\n`;
-}
-
-/** The register as it was at a commit: every YAML file under the folder, read the same way as today's. */
-async function registerAt(repo: Repository, commit: string, absolute: string, cwd: string): Promise<PlantRegister> {
-  const folder = repoPath(repo, absolute);
-  const names = (await repo.git(['ls-tree', '-r', '-z', '--name-only', commit, '--', folder])).split('\0').filter((n) => /\.ya?ml$/i.test(n));
-  const shown = await showFiles(repo.git, names.map((n) => `${commit}:${n}`));
-  const sources = names.flatMap((n) => {
-    const text = shown.get(`${commit}:${n}`);
-    const file = relative(cwd, join(repo.root, n)).replaceAll('\\', '/');
-    return text === undefined ? [] : [{ file, source: readYamlSource(file, text) }];
-  });
-  return buildRegister(relative(cwd, absolute) || '.', sources);
 }

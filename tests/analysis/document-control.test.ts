@@ -52,4 +52,13 @@ describe('document control', () => {
     expect(inForce.get('U2-B-001')).toHaveLength(1);
     expect(temporaryProceduresInForce([temp], '2027-01-16').size).toBe(0);
   });
+
+  it('does not count a temporary procedure before its effective date', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(i)(C) (temporary operations): a procedure applies only while in force.
+    const text = base('expires: 2027-01-15\nmodifies: [U2-A-001]', 'temporary').replace('status: effective', 'status: approved').replace('effective: 2026-03-10', 'effective: 2026-12-20');
+    const temp = readProcedure('t.md', text).procedure!;
+    expect(temp.effective).toBe('2026-12-20');
+    expect(temporaryProceduresInForce([temp], '2026-12-19').size).toBe(0);
+    expect(temporaryProceduresInForce([temp], '2026-12-20').get('U2-A-001')).toHaveLength(1);
+  });
 });

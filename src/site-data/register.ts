@@ -1,0 +1,49 @@
+// The register pages' data: the plant register the check read, one page model per entry with where it is used,
+// and each entry's history from git (read once per site build).
+import { resolve } from 'node:path';
+import { registerPlace } from '../engine/register-place.ts';
+import { openRepository } from '../engine/repository.ts';
+import { registerHistory, type RegisterEntryRevision } from '../history/register-history.ts';
+import { buildRegisterView, type RegisterView } from '../render/register-view.ts';
+import { siteManual } from './manual.ts';
+
+export interface SiteRegister {
+  view: RegisterView;
+  /** Entry id → its revisions, newest first. */
+  history: Map<string, RegisterEntryRevision[]>;
+  /** Said on every register page when the history could not be read (no git, folder outside the repository). */
+  historyNotice?: string;
+  /** Number of commits that changed the register. */
+  commits: number;
+  uncommitted: boolean;
+}
+
+let cached: { key: string; data: Promise<SiteRegister | undefined> } | undefined;
+
+/** The plant register for the site, or undefined when the plant has none. */
+export function siteRegister(): Promise<SiteRegister | undefined> {
+  const key = `${process.env.STEPWRIGHT_CHECK_RUN ?? ''}\u0000${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}`;
+  if (!cached || cached.key !== key) cached = { key, data: load() };
+  return cached.data;
+}
+
+async function load(): Promise<SiteRegister | undefined> {
+  const { loaded, view: manual } = await siteManual();
+  const register = loaded.run.register;
+  if (!register) return undefined;
+  const view = buildRegisterView(register, loaded.result.files, manual);
+  const absolute = resolve(loaded.cwd, register.folder);
+  const repo = loaded.run.repo ?? (await openRepository({ cwd: loaded.cwd, env: process.env }, absolute));
+  if (!repo) {
+    return { view, history: new Map(), commits: 0, uncommitted: false, historyNotice: 'This manual was built outside a git checkout, so the register\'s earlier versions are not available.' };
+  }
+  const place = registerPlace(repo, absolute, loaded.cwd);
+  if (place.folder === '..' || place.folder.startsWith('../')) {
+    return { view, history: new Map(), commits: 0, uncommitted: false, historyNotice: `The register folder is outside the git repository at ${repo.root}, so its earlier versions are not available.` };
+  }
+  const history = await registerHistory(place, register);
+  return {
+    view, history: history.byEntry, commits: history.commits, uncommitted: history.uncommitted,
+    ...(repo.shallow ? { historyNotice: 'This manual was built from a shallow clone: register changes older than the clone are not shown.' } : {}),
+  };
+}
