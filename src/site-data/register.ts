@@ -5,6 +5,7 @@ import { registerPlace } from '../engine/register-place.ts';
 import { openRepository } from '../engine/repository.ts';
 import { registerHistory, type RegisterEntryRevision } from '../history/register-history.ts';
 import { buildRegisterView, type RegisterView } from '../render/register-view.ts';
+import { siteUrl } from '../render/site-url.ts';
 import { siteManual } from './manual.ts';
 
 export interface SiteRegister {
@@ -31,7 +32,7 @@ async function load(): Promise<SiteRegister | undefined> {
   const { loaded, view: manual } = await siteManual();
   const register = loaded.run.register;
   if (!register) return undefined;
-  const view = buildRegisterView(register, loaded.result.files, manual);
+  const view = buildRegisterView(register, loaded.result.files, manual, { href: (path) => siteUrl(loaded.base, path) });
   const absolute = resolve(loaded.cwd, register.folder);
   const repo = loaded.run.repo ?? (await openRepository({ cwd: loaded.cwd, env: process.env }, absolute));
   if (!repo) {
