@@ -1,9 +1,9 @@
 // `stepwright dev [folder]`: the live preview. Serves the manual from the procedures as they are on disk;
 // a saved procedure reloads the open pages, and check findings show on the pages instead of stopping them.
-import { existsSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { existsSync, mkdirSync, readlinkSync, rmSync, symlinkSync } from 'node:fs';
+import { basename, dirname, join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { siteConfig } from '../site/astro-config.ts';
+import { siteConfig, siteFolder } from '../site/astro-config.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
@@ -21,6 +21,8 @@ Options:
                         else 'procedures' in the config file, else procedures/)
   --base <path>         serve the pages under this path, such as /manual/ (default: 'base' in the
                         config file, else the root)
+  --cache-dir <dir>     where the preview keeps its working files (default: .stepwright/dev); nothing
+                        is written into the installed package
   --config <file>       the configuration (default: the nearest stepwright.config.yaml from this
                         folder up to the top of the git repository)
   -h, --help            show this help
@@ -31,7 +33,7 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
     args: argv,
     allowPositionals: true,
     options: { port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' }, help: { type: 'boolean', short: 'h' },
-      procedures: { type: 'string' }, config: { type: 'string' }, base: { type: 'string' },
+      procedures: { type: 'string' }, config: { type: 'string' }, base: { type: 'string' }, 'cache-dir': { type: 'string' },
     },
     strict: true,
   });
@@ -50,9 +52,15 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
   process.env.STEPWRIGHT_CONFIG = values.config ? resolve(io.cwd, values.config) : '';
   process.env.ASTRO_TELEMETRY_DISABLED = '1';
   const { dev } = await import('astro');
+  // Astro's project root is a folder of the user's: its `.astro/` (types, data store, lock file) and the
+  // caches go there, never into the site folder inside the installed package.
+  const root = resolve(io.cwd, values['cache-dir'] ?? join('.stepwright', 'dev'));
+  const code = linkSiteCode(root);
   const config = siteConfig({
-    outDir: join(io.cwd, '.stepwright', 'dev-out'),
-    cacheDir: join(io.cwd, '.stepwright', 'dev-cache'),
+    root,
+    srcDir: join(code, basename(siteFolder)),
+    outDir: join(root, 'out'),
+    cacheDir: join(root, 'cache'),
     procedures: resolve(io.cwd, folder),
     mode: 'development',
     base,
@@ -61,6 +69,9 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
   const server = await dev({ ...config, server: { port, host: values.host } });
   const host = server.address.address.includes(':') ? `[${server.address.address}]` : server.address.address;
   io.stdout.write(`Live preview of ${folder}/ on http://${values.host === 'localhost' ? 'localhost' : host}:${server.address.port}${base} (Ctrl+C stops it).\n`);
+  // Vite ends the process on SIGTERM with exit code 143 before the server has stopped; a stop asked for is a
+  // clean stop here, the same as Ctrl+C: the server closes, then the command returns 0.
+  process.removeAllListeners('SIGTERM');
   await new Promise<void>((done) => {
     const stop = () => {
       process.off('SIGINT', stop);
@@ -71,4 +82,25 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
     process.on('SIGTERM', stop);
   });
   return 0;
+}
+
+/**
+ * A link in the preview's root to the package's code (the folder holding the site and the modules its pages
+ * import), so Astro finds its pages inside its own root and writes `.astro/` there, not into the package.
+ */
+function linkSiteCode(root: string): string {
+  mkdirSync(root, { recursive: true });
+  const link = join(root, 'code');
+  const target = dirname(siteFolder.replace(/[\\/]+$/, ''));
+  let current: string | undefined;
+  try {
+    current = readlinkSync(link);
+  } catch {
+    current = undefined;
+  }
+  if (current !== target) {
+    rmSync(link, { force: true, recursive: false });
+    symlinkSync(target, link, 'junction');
+  }
+  return link;
 }

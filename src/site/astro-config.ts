@@ -1,7 +1,8 @@
 // The operator manual's Astro project is this folder: pages, components, layouts, styles and browser code
 // ship inside the package. The procedures, the output and the caches are the user's; no config file is read
 // from the user's folder (nor their tsconfig, .env or public/), so a plant repository needs nothing but procedures.
-import { join } from 'node:path';
+import { createRequire } from 'node:module';
+import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AstroInlineConfig } from 'astro';
 import { watchProcedures } from './watch-procedures.ts';
@@ -20,13 +21,33 @@ export interface SiteConfigOptions {
   /** The path the manual is served under: "/" or e.g. "/manual/" (model/site-base.ts). */
   base?: string;
   logLevel?: AstroInlineConfig['logLevel'];
+  /**
+   * Astro's project root, where its dev server writes `.astro/` (types, data store, lock file). Default: the
+   * site folder, fine for a build (it writes nothing there). The live preview puts it in the user's cache
+   * folder, so an installed, read-only package works.
+   */
+  root?: string;
+  /** The site folder as Astro sees it (default: the site folder); the preview uses a link to it under `root`. */
+  srcDir?: string;
+}
+
+/** Folders the live preview may serve files from: the site's code, the user's folder and the installed packages. */
+function servedFolders(root: string): string[] {
+  const folders = [root, dirname(siteFolder), process.cwd()];
+  try {
+    // The node_modules folder that holds Astro (and the browser code the pages import).
+    folders.push(dirname(dirname(createRequire(import.meta.url).resolve('astro/package.json'))));
+  } catch {
+    // Astro not resolvable from here: the dev server would not start anyway.
+  }
+  return folders;
 }
 
 export function siteConfig(options: SiteConfigOptions): AstroInlineConfig {
   return {
     configFile: false,
-    root: siteFolder,
-    srcDir: siteFolder,
+    root: options.root ?? siteFolder,
+    srcDir: options.srcDir ?? siteFolder,
     // The site has no static files of its own; the service worker and offline list are written after the build.
     publicDir: join(siteFolder, 'public'),
     outDir: options.outDir,
@@ -41,6 +62,12 @@ export function siteConfig(options: SiteConfigOptions): AstroInlineConfig {
     devToolbar: { enabled: false },
     // Procedure pages are generated from the procedures folder, never from markdown files in the site.
     markdown: {},
-    vite: { cacheDir: join(options.cacheDir, 'vite'), plugins: [watchProcedures(options.procedures)] },
+    vite: {
+      cacheDir: join(options.cacheDir, 'vite'),
+      plugins: [watchProcedures(options.procedures)],
+      // Under a root of the user's, the site is reached through a link: modules keep the linked paths so
+      // Astro sees them inside its root.
+      ...(options.root ? { server: { fs: { allow: servedFolders(options.root) } }, resolve: { preserveSymlinks: true } } : {}),
+    },
   };
 }

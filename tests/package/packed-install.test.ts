@@ -172,6 +172,37 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
       server.kill('SIGTERM');
     }
   });
+
+  it('dev previews the plant\'s procedures, shows a saved edit, stops cleanly, and writes nothing into the installed package', async () => {
+    const installed = join(plant, 'node_modules', 'stepwright');
+    const before = readdirSync(installed, { recursive: true }).map(String).sort();
+    const file = join(plant, 'procedures', 'utilities', 'u2-n2-su-001.md');
+    const committed = readFileSync(file, 'utf8');
+    const dev = spawn(join(plant, 'node_modules', '.bin', 'stepwright'), ['dev', '--port', '0', '--host', '127.0.0.1'], { cwd: plant, env });
+    let stderr = '';
+    dev.stderr.on('data', (chunk) => { stderr += chunk; });
+    try {
+      const url = await servedAt(dev);
+      const home = await fetch(url);
+      expect(home.status).toBe(200);
+      expect(await home.text()).toContain('U2-UNL-XYL-001');
+      const pageUrl = new URL('procedures/u2-n2-su-001/', url).href;
+      expect(await (await fetch(pageUrl)).text()).not.toContain('as edited in the preview');
+      // An edit saved while the preview runs shows on the next request.
+      writeFileSync(file, committed.replace(/^title: (.*)$/m, 'title: $1 as edited in the preview'));
+      await expect.poll(async () => (await fetch(pageUrl)).text(), { timeout: 60_000, interval: 1000 }).toContain('as edited in the preview');
+      const exited = new Promise<number | null>((resolve) => dev.on('exit', (code) => resolve(code)));
+      dev.kill('SIGTERM');
+      expect(await exited).toBe(0);
+      expect(stderr).not.toMatch(/error/i);
+    } finally {
+      dev.kill('SIGKILL');
+      writeFileSync(file, committed);
+    }
+    // Astro's own files (.astro/, caches) went into the plant's .stepwright/, not into the package.
+    expect(readdirSync(installed, { recursive: true }).map(String).sort()).toEqual(before);
+    expect(existsSync(join(plant, '.stepwright', 'dev', '.astro'))).toBe(true);
+  });
 });
 
 /** The URL `stepwright serve` says it serves on. */
