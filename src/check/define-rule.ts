@@ -88,10 +88,23 @@ export interface ManualRule {
   check(context: ManualContext): void;
 }
 
-export type Rule = FileRule | ManualRule;
+/**
+ * A check the engine makes itself, across procedures (call expansion, src/check/call-expansion.ts). The rule
+ * entry carries its id, docs, examples and fixtures like any rule; the engine reports under that id.
+ */
+export interface EnginePass {
+  meta: RuleMeta;
+  scope: 'engine';
+}
+
+export type Rule = FileRule | ManualRule | EnginePass;
 
 export function defineFileRule(meta: RuleMeta, check: (context: FileContext) => void): FileRule {
   return { meta, scope: 'file', check };
+}
+
+export function defineEnginePass(meta: RuleMeta): EnginePass {
+  return { meta, scope: 'engine' };
 }
 
 export function defineManualRule(meta: RuleMeta, check: (context: ManualContext) => void): ManualRule {

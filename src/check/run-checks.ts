@@ -5,7 +5,8 @@ import type { Procedure } from '../model/procedure.ts';
 import type { PlantRegister } from '../model/register.ts';
 import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
 import { readProcedure } from '../read/read-procedure.ts';
-import { toDiagnostic, type FileContext, type FileHistory, type Report, type Rule, type RuleMeta } from './define-rule.ts';
+import { toDiagnostic, type FileContext, type FileHistory, type FileRule, type Report, type Rule, type RuleMeta } from './define-rule.ts';
+import { expandCalls, expansionCategories, type RawFinding } from './call-expansion.ts';
 import { applyWaivers, type WaivedDiagnostic } from './waivers.ts';
 import { allRules } from './rules/index.ts';
 import { cacheKey, type ResultCache } from './result-cache.ts';
@@ -55,6 +56,8 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   const files: CheckedFile[] = [];
   const contexts: FileContext[] = [];
   const sink = new Map<FileContext, Diagnostic[]>();
+  // What the rules that call expansion compares with reported on each file alone (files the rules ran on).
+  const ownFindings = new Map<FileContext, RawFinding[]>();
 
   const emit = (context: FileContext, meta: RuleMeta, report: Report) => {
     const chosen = options.severity?.(meta.id, context.file);
@@ -92,7 +95,10 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
         if (history === null) history = previous ? readPrevious(input.file, previous, options.register) : undefined;
         return history;
       },
-      report: (report) => emit(context, current, report),
+      report: (report) => {
+        if (expansionCategories.has(current.category)) ownFindings.get(context)?.push({ rule: current, report });
+        emit(context, current, report);
+      },
     };
     sink.set(context, []);
     contexts.push(context);
@@ -104,6 +110,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       sink.get(context)!.push(...known);
       continue;
     }
+    ownFindings.set(context, []);
     for (const rule of rules) {
       if (rule.scope !== 'file') continue;
       current = rule.meta;
@@ -120,6 +127,25 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     const source = register?.sources.find((s) => s.file === file)?.source ?? readSource(file, '');
     registerDiagnostics.push({ ...toDiagnostic(meta, chosen ?? report.severity ?? meta.defaultSeverity, source, report), file });
   };
+  // The engine's own passes: call expansion checks each caller with its calls expanded.
+  for (const pass of rules) {
+    if (pass.scope !== 'engine') continue;
+    try {
+      expandCalls({
+        files: contexts, rules: rules.filter((r): r is FileRule => r.scope === 'file'), ownFindings,
+        report: (ctx, report) => emit(ctx, pass.meta, report),
+      });
+    } catch (error) {
+      if (contexts[0]) {
+        emit(contexts[0], pass.meta, {
+          severity: 'error',
+          message: `The check '${pass.meta.id}' could not finish (${(error as Error)?.message ?? String(error)}); calls were not checked together with their callers.`,
+          hint: 'This is a fault in Stepwright, not in the procedures; other rules still ran. Please report it with the files.',
+        });
+      }
+    }
+  }
+
   for (const rule of rules) {
     if (rule.scope !== 'manual') continue;
     const inRegister = reportInRegister(rule.meta);

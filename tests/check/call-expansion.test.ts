@@ -1,0 +1,120 @@
+// Call expansion as an engine pass: a caller is checked once more with its calls expanded; findings are told
+// apart by rule and place (the path with call-site prefixes removed), and the call step to report at is found
+// from the path, whatever the underlying rule's message says.
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
+import { openResultCache } from '../../src/check/result-cache.ts';
+import { placeOf } from '../../src/check/call-expansion.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
+
+const today = '2026-12-01';
+const signal = '  PI-1: { text: Line pressure (absolute), unit: kPa, range: [0, 600] }';
+
+function callee(id: string, setpoint: number): string {
+  return `---
+id: ${id}
+title: Pressurise the line to ${setpoint} kPa
+kind: normal
+revision: 1
+status: draft
+signals:
+${signal}
+limits:
+  PI-1: { low: 50 kPa, high: 400 kPa, consequence: Above 400 kPa the relief valve lifts, correction: Close XV-1 }
+steps:
+  - step: pressurise
+    do: Pressurise the line with nitrogen
+    set: { PI-1: ${setpoint} kPa }
+    until: PI-1 >= ${setpoint - 5} kPa
+---
+`;
+}
+
+// The caller limits PI-1 to 150 kPa: U2-T-LOW stays inside it, U2-T-HIGH (second call) goes beyond.
+const caller = `---
+id: U2-T-CALLER
+title: Flush the line, which is rated for 150 kPa
+kind: normal
+revision: 0
+status: draft
+signals:
+${signal}
+limits:
+  PI-1: { low: 50 kPa, high: 150 kPa, consequence: Above 150 kPa the hose can burst, correction: Vent the line }
+steps:
+  - step: first
+    do: Pressurise gently
+    call: U2-T-LOW
+  - step: second
+    do: Pressurise for the leak test
+    call: U2-T-HIGH
+---
+`;
+
+const inputs: SourceInput[] = [
+  { file: 'p/caller.md', text: caller },
+  { file: 'p/low.md', text: callee('U2-T-LOW', 120) },
+  { file: 'p/high.md', text: callee('U2-T-HIGH', 200) },
+];
+const lineOf = (text: string, needle: string) => text.split('\n').findIndex((l) => l.includes(needle)) + 1;
+
+describe('call expansion pass', () => {
+  it('reports a problem of the combination at the call step it comes through, found from the path', () => {
+    const found = checkSources(inputs, { today }).diagnostics.filter((d) => d.rule === 'call-expansion-problem');
+    expect(found.length).toBeGreaterThan(0);
+    // All at the second call (U2-T-HIGH), none at the first, though the first call site comes first.
+    for (const d of found) {
+      expect(d.file).toBe('p/caller.md');
+      expect(d.line).toBe(lineOf(caller, 'call: U2-T-HIGH'));
+      expect(d.message).toMatch(/^With 'U2-T-HIGH' run by step 'second': /);
+      expect(d.trace?.[0]).toMatch(/^rule [a-z-]+$/);
+    }
+    // Each callee alone is inside its own limits: nothing of the pass in their files.
+    expect(checkSources(inputs.slice(1), { today }).diagnostics.filter((d) => d.rule === 'call-expansion-problem')).toEqual([]);
+  });
+
+  it('does not report again what the called procedure reports on its own', () => {
+    // The callee alone breaks its own 400 kPa limit: its own file says so; the caller gets only the combination.
+    const own = callee('U2-T-HIGH', 450);
+    const files: SourceInput[] = [inputs[0], inputs[1], { file: 'p/high.md', text: own }];
+    const result = checkSources(files, { today });
+    const inCallee = result.diagnostics.filter((d) => d.file === 'p/high.md' && d.severity === 'error').map((d) => d.rule);
+    expect(inCallee.length).toBeGreaterThan(0);
+    const pass = result.diagnostics.filter((d) => d.rule === 'call-expansion-problem');
+    // The callee's own finding (same rule, same place in its file) is not repeated at the call; the caller's
+    // 150 kPa limit, which the callee cannot know, still is.
+    for (const rule of inCallee) {
+      const ownFinding = result.diagnostics.find((d) => d.file === 'p/high.md' && d.rule === rule)!;
+      expect(pass.some((d) => d.message.endsWith(ownFinding.message))).toBe(false);
+    }
+    expect(pass.some((d) => /150/.test(d.message))).toBe(true);
+  });
+
+  it('gives the same findings when the files come from the result cache (the pass reruns what it needs)', () => {
+    const store = openResultCache(mkdtempSync(join(tmpdir(), 'stepwright-expansion-cache-')));
+    const cache = { store, salt: 'test' };
+    const first = checkSources(inputs, { today, cache }).diagnostics;
+    const second = checkSources(inputs, { today, cache }).diagnostics;
+    expect(store.stats.hits).toBeGreaterThanOrEqual(3);
+    expect(second).toEqual(first);
+    expect(second.some((d) => d.rule === 'call-expansion-problem')).toBe(true);
+  });
+
+  it('places a path of expanded content in the file that holds it, call after call', () => {
+    const procedures = new Map(inputs.map((i) => {
+      const p = readProcedure(i.file, 'text' in i ? i.text : '').procedure!;
+      return [p.id, p] as const;
+    }));
+    const lookup = (id: string) => procedures.get(id);
+    const c = procedures.get('U2-T-CALLER')!;
+    const inCallee = placeOf(c, ['steps', 1, 'call', 'steps', 0, 'set', 'PI-1'], lookup);
+    expect(inCallee).toMatchObject({ procedure: 'U2-T-HIGH', path: ['steps', 0, 'set', 'PI-1'] });
+    expect(inCallee.site?.step.id).toBe('second');
+    // The call value itself, and the caller's own content, stay in the caller.
+    expect(placeOf(c, ['steps', 1, 'call'], lookup)).toEqual({ procedure: 'U2-T-CALLER', path: ['steps', 1, 'call'] });
+    expect(placeOf(c, ['limits', 'PI-1', 'high'], lookup)).toEqual({ procedure: 'U2-T-CALLER', path: ['limits', 'PI-1', 'high'] });
+  });
+});
