@@ -11,10 +11,22 @@ export const registerAreaSchema = z.strictObject({
   description: z.string().optional().describe('What the area holds and where it is.'),
 });
 
+export const registerHazardSchema = z.strictObject({
+  level: z.enum(['danger', 'warning', 'caution', 'notice']).describe('Signal word of the hazard: danger, warning, caution or notice.'),
+  hazard: text.describe('What the hazard is, e.g. "Hot oil in the jacket at up to 280 degC".'),
+  consequence: z.string().optional().describe('What happens if it is not avoided.'),
+  avoid: z.string().optional().describe('How to avoid it.'),
+  when: z.string().optional().describe('When the hazard is present, as a condition (e.g. "XV-2105 == open and TI-210 > 200 degC"); every procedure that handles the item is checked against it.'),
+});
+
+const registerHazards = z.array(registerHazardSchema).optional()
+  .describe('Hazards of the item that every procedure handling it must state (or, with `when`, must never let happen).');
+
 export const registerEquipmentSchema = z.strictObject({
   text: text.describe('What the item is, in plant words, e.g. "Resin kettle".'),
   type: z.string().optional().describe('Kind of item, e.g. vessel, pump, valve, heater, tank, agitator.'),
   area: z.string().optional().describe('Id of the area (under `areas`) the item stands in.'),
+  hazards: registerHazards,
 });
 
 export const registerLimitsSchema = z.strictObject({
@@ -76,6 +88,7 @@ export const registerChemicalSchema = z.strictObject({
   'exposure-limits': z.array(text).optional().describe('Occupational exposure limits with their basis, as text.'),
   'first-aid': z.string().optional().describe('First aid after contact or exposure.'),
   sds: z.string().optional().describe('Where the safety data sheet is kept (a document number, path or address).'),
+  hazards: registerHazards,
 });
 
 export const registerFileSchema = z.strictObject({

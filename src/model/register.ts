@@ -16,12 +16,24 @@ export interface RegisterArea extends RegisterPlace {
   description?: string;
 }
 
+/** A hazard the register states about an item, for every procedure that handles it. */
+export interface RegisterHazard {
+  level: 'danger' | 'warning' | 'caution' | 'notice';
+  hazard: string;
+  consequence?: string;
+  avoid?: string;
+  /** When the hazard is present, as a condition. */
+  when?: RegisterQuantity;
+  path: PathKey[];
+}
+
 export interface RegisterEquipment extends RegisterPlace {
   section: 'equipment';
   id: string;
   text: string;
   type?: string;
   area?: string;
+  hazards: RegisterHazard[];
 }
 
 export interface RegisterQuantity {
@@ -84,6 +96,7 @@ export interface RegisterChemical extends RegisterPlace {
   exposureLimits: string[];
   firstAid?: string;
   sds?: string;
+  hazards: RegisterHazard[];
 }
 
 export type RegisterEntry =
@@ -169,7 +182,7 @@ function buildEntry(section: RegisterSection, id: string, d: Data, file: string,
     case 'areas':
       return { section, id, name: asText(d.name) ?? id, description: asText(d.description), file, path };
     case 'equipment':
-      return { section, id, text: asText(d.text) ?? id, type: asText(d.type), area: asText(d.area), file, path };
+      return { section, id, text: asText(d.text) ?? id, type: asText(d.type), area: asText(d.area), hazards: hazardsOf(d.hazards, [...path, 'hazards']), file, path };
     case 'signals': {
       const range = Array.isArray(d.range) && d.range.length === 2 && d.range.every((n) => typeof n === 'number') ? (d.range as [number, number]) : undefined;
       const values = Array.isArray(d.values) ? (d.values.filter((x) => ['string', 'number', 'boolean'].includes(typeof x)) as RegisterSignal['values']) : undefined;
@@ -206,9 +219,26 @@ function buildEntry(section: RegisterSection, id: string, d: Data, file: string,
     case 'chemicals':
       return {
         section, id, name: asText(d.name) ?? id, hazardStatements: texts(d['hazard-statements']), exposureLimits: texts(d['exposure-limits']),
-        firstAid: asText(d['first-aid']), sds: asText(d.sds), file, path,
+        firstAid: asText(d['first-aid']), sds: asText(d.sds), hazards: hazardsOf(d.hazards, [...path, 'hazards']), file, path,
       };
   }
+}
+
+const hazardLevels = new Set(['danger', 'warning', 'caution', 'notice']);
+
+/** The well-formed hazards of an entry (a malformed one is reported by the shape check and left out here). */
+function hazardsOf(value: unknown, path: PathKey[]): RegisterHazard[] {
+  if (!Array.isArray(value)) return [];
+  return value.flatMap((h, i) => {
+    const d = asRecord(h);
+    const level = asText(d.level);
+    const hazard = asText(d.hazard);
+    if (!level || !hazardLevels.has(level) || !hazard) return [];
+    return [{
+      level: level as RegisterHazard['level'], hazard, consequence: asText(d.consequence), avoid: asText(d.avoid),
+      when: quantity(d.when, [...path, i, 'when']), path: [...path, i],
+    }];
+  });
 }
 
 /**

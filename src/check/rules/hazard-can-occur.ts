@@ -36,6 +36,20 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
     },
   },
   (ctx) => {
+    // A register hazard whose condition cannot be read is checked nowhere: say so where it is written.
+    for (const entry of ctx.register ? [...ctx.register.equipment.values(), ...ctx.register.chemicals.values()] : []) {
+      for (const h of entry.hazards) {
+        if (!h.when) continue;
+        const parsed = parseCondition(h.when.value);
+        if (parsed.ok) continue;
+        ctx.reportInRegister(entry.file, {
+          path: h.when.path,
+          severity: 'warning',
+          message: `The condition of ${entry.id}'s hazard '${h.hazard}' cannot be read (${parsed.error.message}), so no procedure is checked against it.`,
+          hint: parsed.error.hint,
+        });
+      }
+    }
     const byId = new Map<string, FileContext>();
     for (const f of ctx.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f);
     const withCondition = ctx.files.flatMap((f) => (f.procedure ? f.procedure.hazards.filter((h) => h.when?.value.trim()).map((h) => ({ file: f, hazard: h })) : []));
@@ -51,13 +65,18 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
         // In an emergency, damage to equipment is accepted to protect people: another procedure's NOTICE does not apply.
         .filter((w) => !(emergencyKinds.has(procedure.kind) && w.hazard.level === 'notice'))
         .map((w) => ({ hazard: w.hazard, from: w.file.procedure!.id }));
-      const all = [...own, ...foreign];
+      // Hazards the plant register states, with a condition, about the equipment and chemicals the procedure handles.
+      const fromRegister = registerHazardsOf(procedure)
+        .filter((r) => !ownTexts.has(r.hazard.when!.value) && declaredIn(r.hazard, expanded))
+        .filter((r) => !(emergencyKinds.has(procedure.kind) && r.hazard.level === 'notice'));
+      const all = [...own, ...foreign, ...fromRegister];
       if (!all.length) continue;
-      const graph = expanded === procedure && !foreign.length ? file.facts.graph : compileStepGraph(expanded);
-      const analysis = expanded === procedure && !foreign.length
+      const shared = expanded === procedure && !foreign.length && !fromRegister.length;
+      const graph = shared ? file.facts.graph : compileStepGraph(expanded);
+      const analysis = shared
         ? file.facts.state
         : analyseState(stateInputOf(expanded, graph), all.map((h) => h.hazard.when!.value));
-      if (!analysis.complete && !(expanded === procedure && !foreign.length)) {
+      if (!analysis.complete && !shared) {
         ctx.report(file, {
           path: ['steps'],
           part: 'key',
@@ -87,6 +106,33 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
     }
   },
 );
+
+/** Conditional hazards of register entries (equipment, chemicals) the procedure handles, once per condition. */
+function registerHazardsOf(procedure: Procedure): Array<{ hazard: Hazard; from: string }> {
+  const out: Array<{ hazard: Hazard; from: string }> = [];
+  const seen = new Set<string>();
+  for (const use of procedure.registerUses ?? []) {
+    const entry = use.entry;
+    if (!entry || (entry.section !== 'equipment' && entry.section !== 'chemicals')) continue;
+    for (const h of entry.hazards) {
+      if (!h.when?.value.trim() || seen.has(h.when.value)) continue;
+      seen.add(h.when.value);
+      out.push({
+        hazard: { level: h.level, hazard: h.hazard, consequence: h.consequence, avoid: h.avoid, at: [], when: { value: h.when.value, path: use.path }, path: use.path },
+        from: `the plant register for ${entry.id}`,
+      });
+    }
+  }
+  return out;
+}
+
+/** A register hazard applies when the procedure declares (or reads from the register) every signal it names. */
+function declaredIn(hazard: Hazard, here: Procedure): boolean {
+  const parsed = parseCondition(hazard.when!.value);
+  if (!parsed.ok) return false;
+  const names = [...new Set(namesIn(parsed.condition).map((n) => n.name))].filter((n) => n !== 'elapsed' && n !== 'done');
+  return names.length > 0 && names.every((n) => here.signals[n] !== undefined);
+}
 
 /** A hazard of another procedure applies when every signal its condition names is declared here alike. */
 function appliesTo(hazard: Hazard, owner: Procedure, here: Procedure): boolean {

@@ -1,0 +1,33 @@
+// Hazard statement codes and the least signal word a procedure's hazard needs for them.
+import { describe, expect, it } from 'vitest';
+import { hazardStatements } from '../../src/analysis/ghs-hazards.ts';
+import { rules } from '../../src/check/rules/index.ts';
+
+const least = (code: string) => hazardStatements(code).map((s) => s.least);
+
+describe('GHS hazard statements', () => {
+  it('grades harm that can kill or seriously injure as WARNING at least', () => {
+    // Source: GHS (UN), Annex 3: H226 flammable liquid and vapour; H304 may be fatal if swallowed and enters airways;
+    // H318 causes serious eye damage; H334 may cause allergy or asthma symptoms or breathing difficulties if inhaled
+    // Source: ANSI Z535.6: WARNING could result in death or serious injury; CAUTION in minor or moderate injury
+    for (const code of ['H226', 'H304', 'H314', 'H318', 'H330', 'H334', 'H350']) expect(least(code), code).toEqual(['warning']);
+  });
+
+  it('grades harmful and irritant codes as CAUTION, and environmental codes as NOTICE', () => {
+    // Source: GHS (UN), Annex 3: H302 harmful if swallowed; H315 causes skin irritation; H335 may cause respiratory irritation; H410 very toxic to aquatic life
+    for (const code of ['H302', 'H315', 'H317', 'H319', 'H335']) expect(least(code), code).toEqual(['caution']);
+    expect(least('H410')).toEqual(['notice']);
+  });
+
+  it('reads combined codes and sub-categories, and gives nothing for an unknown code', () => {
+    // Source: GHS (UN), Annex 3, combined statements such as H301+H311; CLP sub-categories such as H360FD
+    expect(hazardStatements('H301+H311').map((s) => s.code)).toEqual(['H301', 'H311']);
+    expect(least('H360FD')).toEqual(['warning']);
+    expect(hazardStatements('H999')).toEqual([]);
+  });
+
+  it('the register hazard rule cites its sources', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(iii), safety and health considerations of the chemicals used
+    expect(rules['register-hazard-not-stated'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iii\).*GHS/);
+  });
+});
