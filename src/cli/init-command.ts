@@ -93,6 +93,8 @@ function configText(folder: string): string {
   return `# Stepwright settings for this repository (see the stepwright docs/format.md and docs/review.md).
 # The folder that holds the procedures, relative to this file.
 procedures: ${folder}
+# The path the manual is served under, when not the site's root (e.g. an intranet folder):
+#   base: /manual/
 # Rule severities: error, warning, info or off. Example:
 #   rules:
 #     placeholder-text: error
