@@ -4,6 +4,7 @@
 import type { ChooseBlock, HazardLevel, ParallelBlock, Procedure, SequenceItem, Step } from '../model/procedure.ts';
 import { numberSteps, type StepNumbers } from './step-numbers.ts';
 import { textWidth, wrapText } from './text-metrics.ts';
+import { performerMarker, verifyMarker } from './step-roles.ts';
 
 export const chartFont = { size: 14, line: 18, small: 12 } as const;
 const boxTextMax = 200;
@@ -77,6 +78,8 @@ export function layoutChart(procedure: Pick<Procedure, 'steps' | 'hazards'>, num
     // NOTICE is about property damage and never carries the safety alert symbol (ANSI Z535.4).
     // The safety alert symbol is drawn in front of DANGER, WARNING and CAUTION (ANSI Z535.4); NOTICE gets a square.
     if (hazard) markers.push(`${hazard === 'notice' ? '■' : '⚠'} ${hazard.toUpperCase()}`);
+    if (step.performer) markers.push(...wrapText(performerMarker(step.performer), boxTextMax, chartFont.small));
+    if (step.verify) markers.push(...wrapText(verifyMarker(step.verify), boxTextMax, chartFont.small));
     if (step.signOff) markers.push(...wrapText(`◆ SIGN-OFF: ${step.signOff}`, boxTextMax, chartFont.small));
     const textW = Math.max(
       textWidth(header, chartFont.size) + 2,

@@ -76,6 +76,10 @@ export interface ProcedureView {
   /** Emergency and emergency-shutdown procedures: what to do first, shown before everything else. */
   lead?: EmergencyLead;
   tags: Array<{ tag: string; url: string }>;
+  /** The line-up: plant states required at the start, each in plant words where the signals have texts. */
+  lineUp: Array<{ condition: string; words?: string }>;
+  /** Procedures that must be complete before this one starts (a URL when the manual has the procedure). */
+  requires: Array<{ id: string; url?: string; title?: string }>;
 }
 
 export interface TagView {
@@ -199,7 +203,13 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     bodyHtml: renderBodyHtml(p.body),
     ...(emergencyKinds.has(String(p.kind)) ? { lead: emergencyLead(p.body, rows) } : {}),
     tags: tagNames.map((t) => ({ tag: t, url: siteUrl(base, pagePath.tag(slugOf(t))) })),
+    lineUp: p.lineUp.map((l) => ({ condition: l.value, ...withWords(conditionInWords(l.value, p.signals)) })),
+    requires: p.requires.map((r) => ({ id: r.value })),
   };
+}
+
+function withWords(words: string | undefined): { words?: string } {
+  return words ? { words } : {};
 }
 
 export function buildManualView(input: ManualInput): ManualView {
@@ -250,6 +260,7 @@ export function buildManualView(input: ManualInput): ManualView {
     t.uses.sort((a, b) => roleOrder.indexOf(a.role) - roleOrder.indexOf(b.role) || a.procedureId.localeCompare(b.procedureId));
   }
   // Each procedure links its tags to the page that really exists (slugs may carry a suffix).
+  for (const p of procedures) p.requires = p.requires.map(({ id }) => (byId.has(id) ? { id, url: byId.get(id)!.url, title: byId.get(id)!.title } : { id }));
   for (const p of procedures) p.tags = p.tags.map(({ tag }) => ({ tag, url: tagMap.get(tag)?.url ?? siteUrl(input.base ?? rootBase, pagePath.tag(slugOf(tag))) }));
   for (const p of procedures) for (const i of p.interlocks) i.tagUrl = tagMap.get(i.tag)?.url ?? i.tagUrl;
   return { today: input.today, procedures, areas, tags };

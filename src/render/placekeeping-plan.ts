@@ -31,6 +31,11 @@ export interface PlacekeepingPlan {
   /** Step id → the hierarchical number the chart and table print (3A.1 …). */
   numbers: Record<string, string>;
   hazards: PlanHazard[];
+  /**
+   * Step id → where its contingency (`if-not`) sends the operator, when it names a step in the same branch
+   * (placekeeping offers that jump; a response without a jump is read from the table).
+   */
+  ifNot: Record<string, string>;
 }
 
 export function placekeepingPlan(procedure: Procedure): PlacekeepingPlan {
@@ -47,7 +52,28 @@ export function placekeepingPlan(procedure: Procedure): PlacekeepingPlan {
       ...(h.avoid ? { avoid: h.avoid } : {}),
       at: h.at.map((a) => a.value),
     })),
+    ifNot: contingencyJumps(procedure),
   };
+}
+
+/** Contingency jumps that stay within the step's own branch (the branch placekeeping keeps the place of). */
+function contingencyJumps(procedure: Procedure): Record<string, string> {
+  const scope = new Map<string, string>();
+  const gotos: Array<[string, string]> = [];
+  const visit = (items: SequenceItem[], path: string) => {
+    for (const item of items) {
+      if (item.kind === 'step') {
+        scope.set(item.id, path);
+        if (item.ifNot?.goto) gotos.push([item.id, item.ifNot.goto.value]);
+      } else if (item.kind === 'parallel') {
+        for (const b of item.branches) visit(b.items, `${path}/${item.path.join('.')}:${b.name}`);
+      } else {
+        for (const b of item.branches) if (b.items) visit(b.items, path);
+      }
+    }
+  };
+  visit(procedure.steps, '');
+  return Object.fromEntries(gotos.filter(([from, to]) => scope.has(to) && scope.get(to) === scope.get(from)));
 }
 
 function planSequence(items: SequenceItem[], numbers: StepNumbers): PlanItem[] {

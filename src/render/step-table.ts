@@ -4,6 +4,7 @@ import type { Hazard, HazardLevel, Procedure, SequenceItem, Step } from '../mode
 import { honouredWaivers } from '../check/waivers.ts';
 import { conditionInWords } from './condition-words.ts';
 import { hazardRank } from './signal-words.ts';
+import { verifyLabel } from './step-roles.ts';
 import { numberSteps, type StepNumbers } from './step-numbers.ts';
 
 export interface StepRow {
@@ -27,7 +28,18 @@ export interface StepRow {
   hazard?: HazardLevel;
   /** Rules set aside at this step, each with its written reason (the same waivers the checker honours). */
   waivers: Array<{ rule: string; reason: string }>;
+  /** The role that does the step. */
+  performer?: string;
+  /** Who checks it, and how (independent verification, peer check, second-person sign-off). */
+  verify?: { kind: string; label: string; role: string };
+  /** The longest the step may take, and what to do when it is exceeded. */
+  timeLimit?: { max: string; then: string; goto?: StepTarget };
+  /** What to do when the expected result does not come (the contingency). */
+  ifNot?: { actions: string[]; goto?: StepTarget };
 }
+
+/** A step a contingency or time limit sends the operator to. */
+export interface StepTarget { id: string; number?: string }
 
 export interface HazardRow {
   kind: 'hazard';
@@ -96,7 +108,12 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
     signOff: step.signOff, note: step.note, loopFrom: [],
     hazard: hazardsAt.get(step.id)?.[0]?.level,
     waivers: honouredWaivers(step).map((w) => ({ rule: w.rule, reason: w.reason })),
+    ...(step.performer ? { performer: step.performer } : {}),
+    ...(step.verify ? { verify: { kind: step.verify.kind, label: verifyLabel(step.verify.kind), role: step.verify.role } } : {}),
+    ...(step.timeLimit ? { timeLimit: { max: formatDuration(step.timeLimit.max.value), then: step.timeLimit.then, ...(step.timeLimit.goto ? { goto: target(step.timeLimit.goto.value) } : {}) } } : {}),
+    ...(step.ifNot ? { ifNot: { actions: step.ifNot.actions, ...(step.ifNot.goto ? { goto: target(step.ifNot.goto.value) } : {}) } } : {}),
   });
+  const target = (id: string): StepTarget => ({ id, number: numbers.ofStep.get(id) });
 
   /** `next` names where the flow goes after this sequence ends: a step number, or a phrase. */
   const visit = (items: SequenceItem[], next: { number?: string; id?: string; text: string }) => {

@@ -189,3 +189,49 @@ describe('placekeeping over every demo procedure', () => {
     }), { numRuns: 200 });
   });
 });
+
+describe('contingencies in placekeeping', () => {
+  const file = 'procedures/k-210-resin/u2-k210-esd-001.md';
+  const procedure = readProcedure(file, readFileSync(file, 'utf8')).procedure!;
+  const plan = placekeepingPlan(procedure);
+  const flow = compileFlow(plan);
+
+  it('offers the jump of a contingency that names a step in the same branch, and only those', () => {
+    // Every if-not with a goto in this procedure stays in the main sequence.
+    const expected = Object.fromEntries(procedure.steps.flatMap((s) => (s.kind === 'step' && s.ifNot?.goto ? [[s.id, s.ifNot.goto.value]] : [])));
+    expect(Object.keys(expected).length).toBeGreaterThan(0);
+    expect(plan.ifNot).toEqual(expected);
+  });
+
+  it('moves the place to the contingency target, and a reload gives the same place', () => {
+    const [from, to] = Object.entries(plan.ifNot)[0];
+    let place = startPlace(flow);
+    for (let guard = 0; guard < 20; guard++) {
+      const tok = place.tokens.find((t) => t.at.k === 'step')!;
+      if ((tok.at as { id: string }).id === from) break;
+      place = markDone(flow, place, { step: (tok.at as { id: string }).id, path: tok.path })!;
+    }
+    expect(markDone(flow, place, { step: 'write-log', path: '', ifNot: true })).toBeUndefined();
+    const jumped = markDone(flow, place, { step: from, path: '', ifNot: true })!;
+    expect(jumped.tokens.map((t) => t.at)).toEqual([{ k: 'step', id: to }]);
+    expect(jumped.done[from]).toBe(1);
+    expect(replay(flow, jumped.marks)).toEqual(jumped);
+  });
+
+  it('refuses a contingency jump at a step without one', () => {
+    const place = startPlace(flow);
+    const tok = place.tokens[0];
+    const id = (tok.at as { id: string }).id;
+    expect(plan.ifNot[id]).toBeUndefined();
+    expect(markDone(flow, place, { step: id, path: tok.path, ifNot: true })).toBeUndefined();
+  });
+});
+
+describe('contingency jumps across parallel branches', () => {
+  it('are left to the table (placekeeping keeps one place per branch)', () => {
+    const text = readFileSync('procedures/k-210-resin/u2-k210-batch-001.md', 'utf8');
+    const procedure = readProcedure('x.md', text).procedure!;
+    const plan = placekeepingPlan(procedure);
+    for (const [from, to] of Object.entries(plan.ifNot)) expect(plan.numbers[from].replace(/\.\d+$/, '')).toBe(plan.numbers[to].replace(/\.\d+$/, ''));
+  });
+});

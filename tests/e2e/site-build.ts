@@ -6,7 +6,7 @@ import { existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, wri
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
-const inputs = ['procedures', 'src', 'package-lock.json', 'tests/e2e/site-build.ts'];
+const inputs = ['procedures', 'register', 'src', 'package-lock.json', 'tests/e2e/site-build.ts'];
 
 function hashTree(hash: ReturnType<typeof createHash>, path: string): void {
   if (!existsSync(path)) return;

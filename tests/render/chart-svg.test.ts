@@ -246,3 +246,24 @@ describe('hazard marks in the chart', () => {
     expect(new Map(stepNumbers)).toEqual(new Map(tableNumbers));
   });
 });
+
+describe('chart: who does and who checks a step', () => {
+  it('marks the performer and the verification in the step box, inside the box', () => {
+    // Source: DOE-STD-1029 (performer and verification shown with the step); labels are our own.
+    const p = readTestProcedure({
+      steps: [
+        { step: 'close', do: 'Close XV-1', until: 'done', performer: 'Board operator', verify: { kind: 'second-person', role: 'Shift supervisor' } },
+        { step: 'open', do: 'Open XV-2', until: 'done' },
+      ],
+    });
+    const layout = layoutChart(p);
+    const close = layout.shapes.find((s): s is Extract<Shape, { type: 'step' }> => s.type === 'step' && s.id === 'close')!;
+    const open = layout.shapes.find((s): s is Extract<Shape, { type: 'step' }> => s.type === 'step' && s.id === 'open')!;
+    // Long markers wrap inside the box.
+    expect(close.markers.join(' ')).toBe('BY: Board operator SECOND-PERSON SIGN-OFF: Shift supervisor');
+    expect(open.markers).toEqual([]);
+    expect(close.rect.h).toBeGreaterThan(open.rect.h);
+    const svg = renderChartSvg(p, { title: 'x' });
+    for (const m of close.markers) expect(svg).toContain(`>${m}</text>`);
+  });
+});

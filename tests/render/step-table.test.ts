@@ -95,3 +95,28 @@ describe('step waivers in the step table', () => {
     expect(rowOf('prime').waivers.map((w) => w.rule)).not.toContain('yaml-syntax');
   });
 });
+
+describe('step table: contingency, time limit, performer and verification', () => {
+  const withRoles = readTestProcedure({
+    steps: [
+      { step: 'close', do: 'Close XV-1', until: 'done', performer: 'Board operator', 'time-limit': { max: '1..2 min', then: 'Treat XV-1 as failed open', goto: 'report' }, 'if-not': { do: ['Close HV-1 by hand', 'Tell the supervisor'], goto: 'report' } },
+      { step: 'check', do: 'Check XV-1 closed', until: 'done', verify: { kind: 'independent', role: 'Second operator' } },
+      { step: 'report', do: 'Report', until: 'done', verify: { kind: 'peer-check', role: 'Field operator' } },
+    ],
+  });
+  const table = buildStepTable(withRoles).filter((r): r is Extract<TableRow, { kind: 'step' }> => r.kind === 'step');
+  const row = (id: string) => table.find((r) => r.id === id)!;
+
+  it('carries the contingency with its jump numbered as the table numbers steps', () => {
+    expect(row('close').ifNot).toEqual({ actions: ['Close HV-1 by hand', 'Tell the supervisor'], goto: { id: 'report', number: row('report').number } });
+    expect(row('close').timeLimit).toEqual({ max: '1–2 min', then: 'Treat XV-1 as failed open', goto: { id: 'report', number: '3' } });
+    expect(row('check').ifNot).toBeUndefined();
+  });
+
+  it('names the performer and the kind of verification in words', () => {
+    // Source: DOE-STD-1029 / HSE HSG48 (independent verification, peer check, second-person sign-off as kinds of check).
+    expect(row('close').performer).toBe('Board operator');
+    expect(row('check').verify).toEqual({ kind: 'independent', label: 'Independent verification', role: 'Second operator' });
+    expect(row('report').verify?.label).toBe('Peer check');
+  });
+});

@@ -18,9 +18,11 @@ export interface Flow {
   blocks: Map<string, { then: Next; branches: string[] }>;
   /** Step ids in reading order (the table's order). */
   order: string[];
+  /** Step id → the step its contingency sends the operator to (same branch). */
+  ifNot: Map<string, string>;
 }
 
-export function compileFlow(plan: Pick<PlacekeepingPlan, 'items'>): Flow {
+export function compileFlow(plan: Pick<PlacekeepingPlan, 'items'> & Partial<Pick<PlacekeepingPlan, 'ifNot'>>): Flow {
   const after = new Map<string, Next>();
   const blocks = new Map<string, { then: Next; branches: string[] }>();
   const order: string[] = [];
@@ -58,7 +60,8 @@ export function compileFlow(plan: Pick<PlacekeepingPlan, 'items'>): Flow {
     return next;
   };
   const first = sequence(plan.items, { k: 'end' });
-  return { first, after, blocks, order };
+  const ifNot = new Map(Object.entries(plan.ifNot ?? {}).filter(([from, to]) => order.includes(from) && order.includes(to)));
+  return { first, after, blocks, order, ifNot };
 }
 
 /** One place the operator is at; `path` names the parallel branch ("" outside any, "/key:name" nested). */
@@ -71,6 +74,8 @@ export interface Token {
 export interface Mark {
   step: string;
   pick?: number;
+  /** The expected result did not come: the operator follows the step's contingency to its jump target. */
+  ifNot?: boolean;
   path: string;
   /** When the mark was made (ms since epoch), shown to the operator only. */
   at?: number;
@@ -115,9 +120,12 @@ export function markDone(flow: Flow, place: Place, mark: Mark): Place | undefine
     (t.at.k === 'step' && t.at.id === mark.step) || (t.at.k === 'choose' && t.at.key === mark.step));
   if (index < 0) return undefined;
   const token = place.tokens[index];
-  let next: Next | undefined = token.at.k === 'choose' ? decisionByKey(flow, token.at.key) : flow.after.get(mark.step);
+  if (mark.ifNot && (token.at.k !== 'step' || !flow.ifNot.has(mark.step))) return undefined;
+  let next: Next | undefined = mark.ifNot ? { k: 'step', id: flow.ifNot.get(mark.step)! } : token.at.k === 'choose' ? decisionByKey(flow, token.at.key) : flow.after.get(mark.step);
   if (!next) return undefined;
-  if (next.k === 'choose') {
+  if (mark.ifNot) {
+    if (mark.pick !== undefined) return undefined;
+  } else if (next.k === 'choose') {
     const option = mark.pick === undefined ? undefined : next.options[mark.pick];
     if (!option) return undefined;
     next = option.to;

@@ -6,7 +6,7 @@ import { alertSymbolSvg } from '../../render/signal-words.ts';
 import { compileFlow, decisionAfter, decisionByKey, markDone, replay, stepsReachedBy, undoMark, type Mark, type Next, type Place, type Token } from './placekeeping-state.ts';
 
 type Mode = 'step' | 'table';
-interface Saved { on: boolean; mode: Mode; marks: Mark[]; view?: string }
+interface Saved { on: boolean; mode: Mode; marks: Mark[]; view?: string; /** Line-up items ticked on this device. */ lineUp?: string[] }
 
 const levelWords: Record<string, string> = { danger: 'DANGER', warning: 'WARNING', caution: 'CAUTION', notice: 'NOTICE' };
 const levelRank = ['danger', 'warning', 'caution', 'notice'];
@@ -74,12 +74,22 @@ export function setUpPlacekeeping(root: Document = document): void {
   const save = () => { try { localStorage.setItem(key, JSON.stringify(saved)); } catch { /* private mode */ } };
   const update = (next: Partial<Saved>) => { saved = { ...saved, ...next }; save(); render(); };
 
+  // The line-up checklist at the top of the page: ticks kept with the placekeeping marks, on this device only.
+  const lineUpChecks = [...root.querySelectorAll<HTMLInputElement>('input[data-line-up-check]')];
+  const lineUpStatus = root.querySelector<HTMLElement>('[data-line-up-status]');
+  for (const box of lineUpChecks) {
+    box.checked = (saved.lineUp ?? []).includes(box.dataset.lineUpCheck!);
+    box.addEventListener('change', () => update({ lineUp: lineUpChecks.filter((b) => b.checked).map((b) => b.dataset.lineUpCheck!) }));
+  }
+  const openLineUp = () => lineUpChecks.filter((b) => !b.checked);
+
   start.addEventListener('click', () => update({ on: true }));
   for (const b of [oneStep, fullTable]) b.addEventListener('click', () => update({ mode: b.dataset.mode as Mode }));
   reset.addEventListener('click', () => {
     if (!confirm('Clear all placekeeping marks for this procedure on this device?')) return;
     try { localStorage.removeItem(key); } catch { /* private mode */ }
     saved = { on: false, mode: saved.mode, marks: [] };
+    for (const box of lineUpChecks) box.checked = false;
     place = replay(flow, []);
     render();
   });
@@ -113,6 +123,11 @@ export function setUpPlacekeeping(root: Document = document): void {
   }
 
   function render(): void {
+    if (lineUpStatus && lineUpChecks.length) {
+      lineUpStatus.hidden = false;
+      lineUpStatus.textContent = `${lineUpChecks.length - openLineUp().length} of ${lineUpChecks.length} confirmed on this device. `
+        + 'Ticks here help you keep your place; they are not a record and do not replace the line-up sheet or a permit.';
+    }
     panel.dataset.on = String(saved.on);
     start.hidden = saved.on;
     body.hidden = !saved.on;
@@ -219,9 +234,29 @@ export function setUpPlacekeeping(root: Document = document): void {
     if (tok.at.k !== 'step') { heading.textContent = 'Decision'; return; }
     const id = tok.at.id;
     heading.textContent = `Step ${numberOf(id)}`;
+    if (place.marks.length === 0 && lineUpChecks.length) card.append(lineUpReminder());
     for (const h of hazardsAt(id)) card.append(hazardBox(h, false));
     const row = rowOf(id);
     if (row) card.append(describeRow(row));
+  }
+
+  /** Before the first mark: how much of the line-up is confirmed, and what is still open. */
+  function lineUpReminder(): HTMLElement {
+    const open = openLineUp();
+    const box = el('div', { class: `pk-line-up${open.length ? ' pk-line-up-open' : ''}`, role: 'note', 'data-pk-line-up': String(open.length) });
+    if (!open.length) {
+      box.append(el('p', {}, `Line-up: all ${lineUpChecks.length} items confirmed.`));
+      return box;
+    }
+    const p = el('p');
+    p.append(el('strong', {}, `Line-up: ${open.length} of ${lineUpChecks.length} items not confirmed yet.`), root.createTextNode(' Do not start until each is confirmed. '));
+    const link = el('a', { href: '#line-up' }, 'Go to the line-up checklist');
+    p.append(link);
+    box.append(p);
+    const list = el('ul');
+    for (const b of open) list.append(el('li', {}, b.closest('label')?.textContent?.replace(/\s+/g, ' ').trim() ?? ''));
+    box.append(list);
+    return box;
   }
 
   /** The table row as a list of "column heading: cell" pairs, so the one-step view says what the table says. */
@@ -276,6 +311,13 @@ export function setUpPlacekeeping(root: Document = document): void {
       b.addEventListener('click', () => act({ step: stepId, path: tok.path }));
       dockNav.append(b);
     }
+    // The step's contingency sends the operator elsewhere when the expected result does not come.
+    const contingency = stepId ? flow.ifNot.get(stepId) : undefined;
+    if (stepId && contingency) {
+      const b = el('button', { type: 'button', class: 'pk-if-not', 'data-pk-if-not': stepId }, `Not as expected: response done, go to step ${numberOf(contingency)}`);
+      b.addEventListener('click', () => act({ step: stepId, ifNot: true, path: tok.path }));
+      dockNav.append(b);
+    }
   }
 
   render();
@@ -284,7 +326,10 @@ export function setUpPlacekeeping(root: Document = document): void {
 function load(key: string): Saved {
   try {
     const data = JSON.parse(localStorage.getItem(key) ?? 'null') as Partial<Saved> | null;
-    if (data && Array.isArray(data.marks)) return { on: data.on === true, mode: data.mode === 'table' ? 'table' : 'step', marks: data.marks, view: data.view };
+    if (data && Array.isArray(data.marks)) {
+      const lineUp = Array.isArray(data.lineUp) ? data.lineUp.filter((k): k is string => typeof k === 'string') : [];
+      return { on: data.on === true, mode: data.mode === 'table' ? 'table' : 'step', marks: data.marks, view: data.view, lineUp };
+    }
   } catch { /* unreadable: start afresh */ }
   return { on: false, mode: 'step', marks: [] };
 }
