@@ -5,7 +5,7 @@ import { dirname, join, relative, sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { configFileName } from '../check/config.ts';
 import { UsageError, type CliIo } from './io.ts';
-import { packagedDemo, packagedSchema, packageRoot } from './package-files.ts';
+import { packagedDemo, packagedDemoRegister, packagedSchema, packageRoot } from './package-files.ts';
 import { defaultProceduresFolder, projectRoot } from './project.ts';
 
 export const initHelp = `Usage: stepwright init [options]
@@ -18,7 +18,7 @@ Never overwrites a file: whatever exists already is left as it is and named in t
 
 Options:
   --procedures <dir>   the procedures folder to create (default: procedures)
-  --demo               copy the whole demo manual (Alder Reach Chemicals, Unit 2) instead of one example
+  --demo               copy the whole demo manual (Alder Reach Chemicals, Unit 2) and its plant register instead of one example
   -h, --help           show this help
 
 Exit codes: 0 done (also when everything existed), 2 usage failure.
@@ -61,6 +61,8 @@ export async function runInit(argv: string[], io: CliIo): Promise<number> {
   const procedures = join(root, folder);
   if (values.demo) {
     copyTree(packagedDemo, procedures, written, skipped, show);
+    // The demo procedures read their plant data from the demo register, found next to the configuration.
+    if (existsSync(packagedDemoRegister)) copyTree(packagedDemoRegister, join(root, 'register'), written, skipped, show);
   } else if (existsSync(procedures) && readdirSync(procedures).some((n) => n.endsWith('.md') || statSync(join(procedures, n)).isDirectory())) {
     skipped.push(`${show(procedures)}/ (already holds procedures; no example added)`);
   } else {

@@ -9,6 +9,8 @@ export const packageRoot = fileURLToPath(new URL('../../', import.meta.url));
 export const packagedSchema = fileURLToPath(new URL('../../schema/procedure.schema.json', import.meta.url));
 /** The demo manual of the fictional Alder Reach Chemicals, Unit 2 (copied by `stepwright init --demo`). */
 export const packagedDemo = fileURLToPath(new URL('../../procedures/', import.meta.url));
+/** The demo plant register its procedures read their signals, limits and trips from (copied with the demo). */
+export const packagedDemoRegister = fileURLToPath(new URL('../../register/', import.meta.url));
 
 /**
  * How a file in `fromFolder` names the schema: a relative path when the schema lies in the same tree

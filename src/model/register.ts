@@ -263,7 +263,7 @@ export function describeSafetyFunction(fn: RegisterSafetyFunction, register?: Pl
   list('opens', fn.opens);
   list('stops', fn.stops);
   if (fn.keepsRunning.length) parts.push(`keeps ${joinAnd(fn.keepsRunning)} running`);
-  if (fn.action) parts.push(fn.action.replace(/\.$/, ''));
+  if (fn.action) parts.push(parts.length ? lowerFirst(fn.action.replace(/\.$/, '')) : fn.action.replace(/\.$/, ''));
   if (fn.latches === true) parts.push('stays tripped until reset');
   const sentence = parts.join('; ');
   return sentence ? `${sentence[0].toUpperCase()}${sentence.slice(1)}.` : 'No action given.';

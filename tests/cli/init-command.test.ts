@@ -49,5 +49,9 @@ describe('stepwright init', () => {
     const files = readdirSync(join(dir, 'procedures'), { recursive: true }).filter((f) => String(f).endsWith('.md'));
     const demo = readdirSync(join(import.meta.dirname, '../../procedures'), { recursive: true }).filter((f) => String(f).endsWith('.md'));
     expect(files.sort()).toEqual(demo.sort());
+    // The demo procedures read their signals and trips from the demo register, copied next to the configuration.
+    expect(readdirSync(join(dir, 'register')).sort()).toEqual(readdirSync(join(import.meta.dirname, '../../register')).sort());
+    const check = await runCli(['check'], dir);
+    expect(check.stdout).toMatch(/ 0 errors/);
   });
 });

@@ -9,8 +9,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCli } from '../cli/run-cli.ts';
 import { build, repo, startBuild } from './run-build.ts';
 
-// Small demo procedures that call no other procedure, so they stand alone in a folder.
-const sample = ['t-230-blending/u2-t230-cip-001.md', 'h-220-hot-oil/u2-h220-sd-001.md', 'utilities/u2-n2-su-001.md'];
+// Small demo procedures that call no other procedure and declare their own signals and trips (the others read
+// theirs from the plant register), so they stand alone in a folder.
+const sample = ['t-230-blending/u2-t230-cip-001.md', 'utilities/u2-n2-su-001.md', 't-230-blending/u2-t230-tmp-001.md'];
 
 /** Path → SHA-256 of every file under a folder (and, with mtimes, its modification time too). */
 function snapshot(dir: string, withTimes = false): Record<string, string> {
@@ -70,7 +71,7 @@ describe('building the manual', () => {
     const bad = await runCli(['verify', join(work, 'site'), '--procedures', changed], work);
     expect(bad.code).toBe(1);
     expect(bad.stdout.split('\n').filter((l) => l.includes('does not match'))).toEqual([
-      expect.stringMatching(/procedures\/u2-h220-sd-001\/(next\/)?index\.html: does not match its source .*h-220-hot-oil\/u2-h220-sd-001\.md/),
+      expect.stringMatching(/procedures\/u2-n2-su-001\/(next\/)?index\.html: does not match its source .*utilities\/u2-n2-su-001\.md/),
     ]);
   });
 
