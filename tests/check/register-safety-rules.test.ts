@@ -31,3 +31,10 @@ describe('GHS hazard statements', () => {
     expect(rules['register-hazard-not-stated'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iii\).*GHS/);
   });
 });
+
+describe('trip tests', () => {
+  it('the trip-test rule cites its sources', () => {
+    // Source: OSHA 29 CFR 1910.119(j)(4) inspection and testing; IEC 61511-1 clause 16.3 proof testing (from memory)
+    expect(rules['trip-test-incomplete'].meta.source).toMatch(/1910\.119\(j\)\(4\).*IEC 61511-1.*from memory/);
+  });
+});
