@@ -71,4 +71,16 @@ describe('register entries that cannot be used', () => {
       "Step 'hold' sets parameter 'receiver-temperature' (TI-290) to 190 degC, above its high operating limit 120 degC.",
     ]);
   });
+
+  it('checks a setpoint against a register trip on its signal that the procedure does not name', () => {
+    const fixed = registerText.replace('high: 120 C', 'high: 160 degC').replace('starts: ESD-29', 'stops: [P-290]');
+    const register = buildRegister('register', [{ file: 'register/plant.yaml', source: readYamlSource('register/plant.yaml', fixed) }]);
+    const text = procedure('FX-T290-001', '150 degC').replace('uses: [TSHH-290]\n', '').replace("params: { receiver-temperature: 190 degC }", "params: { receiver-temperature: 90 degC }");
+    const result = checkSources([{ file: 'a.md', text }], { today: '2026-12-01', register });
+    const found = result.diagnostics.filter((d) => d.rule === 'setpoint-at-trip');
+    expect(found.map((d) => d.message)).toEqual([
+      "Step 'warm' sets TI-290 to 150 degC, where TSHH-290 of the plant register acts (TI-290 >= 150 degC); the procedure does not name TSHH-290.",
+    ]);
+    expect(found[0].related?.[0]).toMatchObject({ file: 'register/plant.yaml', line: 9 });
+  });
 });

@@ -61,6 +61,7 @@ import limitOutsideRange from './limit-outside-range.ts';
 import setpointWithoutLimits from './setpoint-without-limits.ts';
 import paramOutsideLimits from './param-outside-limits.ts';
 import interlockInconsistent from './interlock-inconsistent.ts';
+import registerLimitIncomplete from './register-limit-incomplete.ts';
 import reviewDateMissing from './review-date-missing.ts';
 import reviewIntervalTooLong from './review-interval-too-long.ts';
 import temporaryWithoutEnd from './temporary-without-end.ts';
@@ -172,6 +173,7 @@ export const rules = {
   'setpoint-without-limits': setpointWithoutLimits,
   'param-outside-limits': paramOutsideLimits,
   'interlock-inconsistent': interlockInconsistent,
+  'register-limit-incomplete': registerLimitIncomplete,
   'review-date-missing': reviewDateMissing,
   'review-interval-too-long': reviewIntervalTooLong,
   'temporary-without-end': temporaryWithoutEnd,

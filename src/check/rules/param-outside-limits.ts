@@ -3,6 +3,7 @@ import { evaluateCondition } from '../../analysis/evaluate-condition.ts';
 import { convert, formatQuantity, pressureConversionNote, toBase } from '../../analysis/units.ts';
 import { defineFileRule } from '../define-rule.ts';
 import { limitBounds } from '../limit-bounds.ts';
+import { unnamedRegisterTrips } from '../register-trips.ts';
 
 export default defineFileRule(
   {
@@ -15,7 +16,8 @@ export default defineFileRule(
 deliver). A parameter is a setpoint in other words when its name is a signal (\`params: { TI-220: 270 degC }\`),
 or when the plant register gives its name to a signal (\`params: [hot-oil-supply]\` under the signal). Such a
 parameter is converted into the signal's unit and checked like a setpoint: within the operating limits, and not
-at a value where a trip acts. Its unit must be of the signal's kind (\`unit-mismatch\`, \`unknown-unit\`).
+at a value where a trip acts (a trip or relief device of the register on that signal counts even when the
+procedure does not name it). Its unit must be of the signal's kind (\`unit-mismatch\`, \`unknown-unit\`).
 Parameters that name no signal stay free text.`,
     examples: {
       bad: "signals:\n  TI-220: { unit: degC, limits: { high: 290 degC }, params: [hot-oil-supply] }   # register\nparams: { hot-oil-supply: 300 degC }",
@@ -53,6 +55,15 @@ Parameters that name no signal stay free text.`,
           message: `Step '${site.step}' sets ${what} to ${site.text}${shown}, where interlock ${trip.owner} trips (${trip.text}).`,
           hint: 'Keep parameters clear of interlock trips with a margin.',
           related: [{ path: trip.path, message: `trip condition of ${trip.owner}` }],
+        });
+      }
+      for (const trip of unnamedRegisterTrips(ctx.register, ctx.procedure, site.signal)) {
+        if (evaluateCondition(trip.condition, known) !== true) continue;
+        ctx.report({
+          path: site.path,
+          message: `Step '${site.step}' sets ${what} to ${site.text}${shown}, where ${trip.tag} of the plant register acts (${trip.text}); the procedure does not name ${trip.tag}.`,
+          hint: `Keep parameters clear of trips with a margin, and list ${trip.tag} under 'uses'.`,
+          related: [trip.related],
         });
       }
     }
