@@ -1,6 +1,7 @@
 // Quantities with units: parsing, dimensions and exact conversions, on a private mathjs instance.
-import { all, create, type Unit } from 'mathjs';
+import type { MathJsInstance, Unit } from 'mathjs';
 import { closest, distance } from 'fastest-levenshtein';
+import { loadMathjs } from './load-mathjs.ts';
 
 /** A problem with a unit or quantity, as plain data for diagnostics. */
 export interface UnitError {
@@ -13,35 +14,45 @@ export type ParsedQuantity = { ok: true; value: number; unit: string } | UnitErr
 /** A duration in seconds; a single value has `min === max`. */
 export type ParsedDuration = { ok: true; min: number; max: number } | UnitError;
 
-const math = create(all, {});
+// The library instance is made on first use: commands and files that convert no unit never load it.
+let mathInstance: MathJsInstance | undefined;
+function mathjs(): MathJsInstance {
+  mathInstance ??= defineUnits(loadMathjs());
+  return mathInstance;
+}
 
-// mathjs rounds mmHg to 133.322 Pa and makes torr an alias of it; NIST SP 811 keeps them apart, so redefine both.
-math.createUnit('mmHg', { definition: '133.322387415 Pa' }, { override: true });
-math.createUnit('Torr', { definition: `${101325 / 760} Pa`, aliases: ['torr'] }, { override: true });
-// mathjs derives psi from a rounded pound-force; use the exact definition (lb × standard gravity / in²).
 const psiInPa = (0.45359237 * 9.80665) / 0.0254 ** 2;
-math.createUnit('psi', { definition: `${psiInPa} Pa` }, { override: true });
-// Conventional inch of mercury, NIST SP 811 Appendix B.8: 3.386 389 E+03 Pa.
-math.createUnit('inHg', { definition: '3386.389 Pa' }, { override: true });
-// US liquid gallon, exactly 231 in³ = 3.785411784 L (NIST SP 811 B.8), named as such; and the petroleum barrel of
-// 42 US gallons = 0.158987294928 m³ (SP 811 B.8), never the 31-gallon beer barrel.
-math.createUnit('USgal', { definition: '3.785411784 L' }, { override: true });
-math.createUnit('bbl', { definition: '0.158987294928 m^3' }, { override: true });
-math.createUnit('gpm', { definition: '3.785411784 L/min' }, { override: true });
-// The day (NIST SP 811 Table 6: d = 86 400 s); the library spells it only in full.
-math.createUnit('d', { definition: '86400 s' }, { override: true });
-// Revolutions per minute, for agitator and pump speeds.
-math.createUnit('rpm', { definition: `${1 / 60} Hz` }, { override: true });
 // Gauge pressures: the pressure above the standard atmosphere (101.325 kPa, NIST SP 811 B.8), kept as an offset the
 // way degC keeps 273.15 K, so a gauge value converts to absolute and a difference converts without the offset.
 export const standardAtmospherePa = 101325;
 const gaugeUnits: Array<[string, number]> = [['kPag', 1000], ['MPag', 1e6], ['barg', 1e5], ['mbarg', 100], ['psig', psiInPa]];
-for (const [name, pa] of gaugeUnits) math.createUnit(name, { definition: `${pa} Pa`, offset: standardAtmospherePa / pa }, { override: true });
 const absoluteUnits: Array<[string, number]> = [['kPaa', 1000], ['MPaa', 1e6], ['bara', 1e5], ['mbara', 100], ['psia', psiInPa]];
-for (const [name, pa] of absoluteUnits) math.createUnit(name, { definition: `${pa} Pa` }, { override: true });
-// Ratios the plant writes as units; mathjs has none of them.
-math.createUnit('percent', { definition: '0.01' });
-math.createUnit('ppm', { definition: '1e-6' });
+
+function defineUnits(math: MathJsInstance): MathJsInstance {
+  // mathjs rounds mmHg to 133.322 Pa and makes torr an alias of it; NIST SP 811 keeps them apart, so redefine both.
+  math.createUnit('mmHg', { definition: '133.322387415 Pa' }, { override: true });
+  math.createUnit('Torr', { definition: `${101325 / 760} Pa`, aliases: ['torr'] }, { override: true });
+  // mathjs derives psi from a rounded pound-force; use the exact definition (lb × standard gravity / in²).
+  math.createUnit('psi', { definition: `${psiInPa} Pa` }, { override: true });
+  // Conventional inch of mercury, NIST SP 811 Appendix B.8: 3.386 389 E+03 Pa.
+  math.createUnit('inHg', { definition: '3386.389 Pa' }, { override: true });
+  // US liquid gallon, exactly 231 in³ = 3.785411784 L (NIST SP 811 B.8), named as such; and the petroleum barrel of
+  // 42 US gallons = 0.158987294928 m³ (SP 811 B.8), never the 31-gallon beer barrel.
+  math.createUnit('USgal', { definition: '3.785411784 L' }, { override: true });
+  math.createUnit('bbl', { definition: '0.158987294928 m^3' }, { override: true });
+  math.createUnit('gpm', { definition: '3.785411784 L/min' }, { override: true });
+  // The day (NIST SP 811 Table 6: d = 86 400 s); the library spells it only in full.
+  math.createUnit('d', { definition: '86400 s' }, { override: true });
+  // Revolutions per minute, for agitator and pump speeds.
+  math.createUnit('rpm', { definition: `${1 / 60} Hz` }, { override: true });
+  // Gauge pressures (see gaugeUnits above): an offset of one standard atmosphere.
+  for (const [name, pa] of gaugeUnits) math.createUnit(name, { definition: `${pa} Pa`, offset: standardAtmospherePa / pa }, { override: true });
+  for (const [name, pa] of absoluteUnits) math.createUnit(name, { definition: `${pa} Pa` }, { override: true });
+  // Ratios the plant writes as units; mathjs has none of them.
+  math.createUnit('percent', { definition: '0.01' });
+  math.createUnit('ppm', { definition: '1e-6' });
+  return math;
+}
 
 /**
  * The documented units (docs/format.md, "Units"), and nothing else: a unit the library happens to read (C is the
@@ -173,7 +184,7 @@ function readUnit(unit: string): UnitFacts | UnitError {
   }
   let parsed: Unit;
   try {
-    parsed = math.unit(normalizeUnit(trimmed));
+    parsed = mathjs().unit(normalizeUnit(trimmed));
   } catch {
     return unitError(`'${trimmed}' is not a known unit.`, suggestUnit(trimmed));
   }
@@ -200,7 +211,7 @@ export function isKnownUnit(unit: string): boolean {
 export function isUnitWord(word: string): boolean {
   if (isKnownUnit(word)) return true;
   try {
-    return math.unit(normalizeUnit(word)).value === null;
+    return mathjs().unit(normalizeUnit(word)).value === null;
   } catch {
     return false;
   }

@@ -22,6 +22,14 @@ export function readProcedure(file: string, text: string, register?: PlantRegist
   const readable = source.doc !== null && source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
   const schemaIssues = readable ? validateFrontMatter(source.data) : [];
   const procedure = readable ? applyRegister(buildProcedure(file, source.data, source.body, source.bodyText), register) : null;
-  const facts = procedure ? collectFacts(procedure) : null;
-  return { source, procedure, schemaIssues, facts };
+  // The facts (conditions resolved, units converted, the step graph) are worked out when first asked for: a
+  // reader that only needs the model, such as the placing of waived diagnostics, does not pay for them.
+  let facts: ProcedureFacts | null | undefined;
+  return {
+    source, procedure, schemaIssues,
+    get facts() {
+      if (facts === undefined) facts = procedure ? collectFacts(procedure) : null;
+      return facts;
+    },
+  };
 }

@@ -1,5 +1,17 @@
 // Asks the English model (compromise) for the part-of-speech tags of one word in a short context, memoised.
-import nlp from 'compromise';
+// The model is loaded on first use (half a second): a run that reads no prose (every file found in the result
+// cache) never loads it. It is the package's single-file build, the same version and code as its module entry.
+import { createRequire } from 'node:module';
+
+type Nlp = ((text: string) => { document: Array<Array<{ tags: Set<string> }>> }) & {
+  world(): { model: { one: { lexicon: Record<string, string | string[]> } } };
+};
+
+let model: Nlp | undefined;
+function nlp(): Nlp {
+  model ??= createRequire(import.meta.url)('compromise') as Nlp;
+  return model;
+}
 
 const memo = new Map<string, Set<string>>();
 
@@ -9,8 +21,7 @@ export function tagsAt(phrase: string, index: number): Set<string> {
   let tags = memo.get(key);
   if (!tags) {
     // Reading the tagged document directly costs half of what .terms().json() does.
-    const doc = nlp(phrase) as unknown as { document: Array<Array<{ tags: Set<string> }>> };
-    const terms = doc.document.flat();
+    const terms = nlp()(phrase).document.flat();
     tags = new Set(terms[index]?.tags ?? []);
     if (memo.size > 50_000) memo.clear();
     memo.set(key, tags);
@@ -18,10 +29,11 @@ export function tagsAt(phrase: string, index: number): Set<string> {
   return tags;
 }
 
-const lexicon = (nlp as unknown as { world(): { model: { one: { lexicon: Record<string, string | string[]> } } } }).world().model.one.lexicon;
+let lexicon: Record<string, string | string[]> | undefined;
 
 /** The tag the model's own word list gives a word, without parsing (undefined for words it derives by rule). */
 export function lexiconTag(word: string): string | undefined {
+  lexicon ??= nlp().world().model.one.lexicon;
   const tag = lexicon[word.toLowerCase()];
   return Array.isArray(tag) ? tag[0] : tag;
 }
