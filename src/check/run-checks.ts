@@ -10,6 +10,7 @@ import { expandCalls, expansionCategories, type RawFinding } from './call-expans
 import { applyWaivers, type WaivedDiagnostic } from './waivers.ts';
 import { allRules } from './rules/index.ts';
 import { cacheKey, type ResultCache } from './result-cache.ts';
+import { isFileSummary, summarise, type FileSummary } from './file-summary.ts';
 
 export type SourceInput = { file: string; text: string } | { file: string; error: string };
 
@@ -54,8 +55,9 @@ export interface CheckResult {
 export function checkSources(inputs: SourceInput[], options: CheckOptions): CheckResult {
   const rules = options.rules ?? allRules;
   const files: CheckedFile[] = [];
-  const contexts: FileContext[] = [];
+  const contexts: LazyFileContext[] = [];
   const sink = new Map<FileContext, Diagnostic[]>();
+  const store = options.cache?.store;
   // What the rules that call expansion compares with reported on each file alone (files the rules ran on).
   const ownFindings = new Map<FileContext, RawFinding[]>();
 
@@ -72,42 +74,27 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     ? cacheKey([options.cache.salt, ruleIds, String(options.certificationIntervalMonths ?? 12), options.register?.folder,
       ...(options.register?.sources ?? []).flatMap((s) => [s.file, s.source.text])])
     : '';
+  // Each file's key is taken before anything is read: a file found in the cache is parsed only when a cross-file
+  // rule, a waiver or a caller asks for its model.
+  const keys: string[] = [];
   for (const input of inputs) {
-    // An unreadable file still gets a context, so that its one diagnostic goes through the rules like any other.
-    let readError = 'error' in input ? input.error : undefined;
-    let read: ReturnType<typeof readProcedure>;
-    try {
-      read = 'text' in input ? readProcedure(input.file, input.text, options.register) : unreadable(input.file);
-    } catch (error) {
-      // Whatever a file holds, the check goes on and the file gets a diagnostic: never a crash of the whole run.
-      readError = `reading it failed inside Stepwright (${firstLineOf(error)}); this is a fault in Stepwright, please report it with the file`;
-      read = unreadable(input.file);
-    }
-    const { source, procedure, schemaIssues, facts } = read;
-    let current: RuleMeta = rules[0]?.meta;
-    const previous = readError === undefined ? options.previous?.(input.file) : undefined;
-    let history: FileHistory | undefined | null = null;
-    const context: FileContext = {
-      file: input.file, source, procedure, schemaIssues, facts, today: options.today, readError,
-      register: options.register, certificationIntervalMonths: options.certificationIntervalMonths ?? 12,
-      // The previous version is read only when a rule asks for it: a file found in the cache needs no second parse.
-      get history() {
-        if (history === null) history = previous ? readPrevious(input.file, previous, options.register) : undefined;
-        return history;
-      },
-      report: (report) => {
-        if (expansionCategories.has(current.category)) ownFindings.get(context)?.push({ rule: current, report });
-        emit(context, current, report);
-      },
-    };
-    sink.set(context, []);
-    contexts.push(context);
-    const key = options.cache && 'text' in input
+    const previous = 'text' in input ? options.previous?.(input.file) : undefined;
+    const key = store && 'text' in input
       ? cacheKey([shared, input.file, input.text, options.today, previous?.commit, previous?.text])
       : undefined;
-    const known = key ? options.cache!.store.get<Diagnostic[]>(key) : undefined;
-    if (Array.isArray(known)) {
-      sink.get(context)!.push(...known);
+    if (key) keys.push(key);
+    const known = key ? cachedFile(store!, key) : undefined;
+    let current: RuleMeta = rules[0]?.meta;
+    // A file the rules will read is read in full at once, so that a fault while reading it is reported as one.
+    const context = lazyFileContext(input, previous, options, (report) => {
+      if (expansionCategories.has(current.category)) ownFindings.get(context)?.push({ rule: current, report });
+      emit(context, current, report);
+    }, !known);
+    sink.set(context, []);
+    contexts.push(context);
+    if (known) {
+      context.summary = known.summary;
+      sink.get(context)!.push(...known.diagnostics);
       continue;
     }
     ownFindings.set(context, []);
@@ -116,18 +103,54 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       current = rule.meta;
       runGuarded(rule, () => rule.check(context), context, emit);
     }
-    if (key) options.cache!.store.set(key, sink.get(context));
+    context.summary = summarise(context.procedure);
+    if (key) store!.set(key, { diagnostics: sink.get(context)!, summary: context.summary } satisfies CachedFile);
   }
 
   const registerDiagnostics: Diagnostic[] = [];
   const register = options.register;
-  const reportInRegister = (meta: RuleMeta) => (file: string, report: Report) => {
-    const chosen = options.severity?.(meta.id, file);
-    if (chosen === 'off') return;
-    const source = register?.sources.find((s) => s.file === file)?.source ?? readSource(file, '');
-    registerDiagnostics.push({ ...toDiagnostic(meta, chosen ?? report.severity ?? meta.defaultSeverity, source, report), file });
+  // The cross-file rules and the engine's passes read every file; their findings are kept under the keys of all
+  // files together, so a run in which no file, register, configuration or date changed reads no file at all.
+  const manualKey = store && keys.length === inputs.length ? cacheKey([shared, 'manual', options.today, ...keys]) : undefined;
+  const knownManual = manualKey ? cachedManual(store!, manualKey, contexts) : undefined;
+  if (knownManual) {
+    for (const { file, diagnostic } of knownManual.files) sink.get(contexts.find((c) => c.file === file)!)!.push(diagnostic);
+    registerDiagnostics.push(...knownManual.register);
+  } else {
+    const before = new Map(contexts.map((c) => [c, sink.get(c)!.length]));
+    runEnginePasses(rules, contexts, ownFindings, emit);
+    runManualRules(rules, contexts, options, emit, registerDiagnostics);
+    if (manualKey) {
+      const found: CachedManual = {
+        files: contexts.flatMap((c) => sink.get(c)!.slice(before.get(c)).map((diagnostic) => ({ file: c.file, diagnostic }))),
+        register: registerDiagnostics,
+      };
+      store!.set(manualKey, found);
+    }
+  }
+
+  for (const context of contexts) {
+    const found = sink.get(context)!.sort(compareDiagnostics);
+    // Waivers are looked up only where there is something to waive and the file has waivers at all.
+    const { kept, waived } = found.length && context.summary?.waivers !== false
+      ? applyWaivers(context.procedure, context.source, found)
+      : { kept: found, waived: [] };
+    files.push(checkedFile(context, kept, waived));
+  }
+  files.sort((a, b) => a.file.localeCompare(b.file));
+  registerDiagnostics.sort(compareDiagnostics);
+  return {
+    files,
+    diagnostics: [...files.flatMap((f) => f.diagnostics), ...registerDiagnostics].sort(compareDiagnostics),
+    ...(register ? { register: { register, diagnostics: registerDiagnostics } } : {}),
   };
-  // The engine's own passes: call expansion checks each caller with its calls expanded.
+}
+
+/** The engine's own passes: call expansion checks each caller with its calls expanded. */
+function runEnginePasses(
+  rules: Rule[], contexts: FileContext[], ownFindings: Map<FileContext, RawFinding[]>,
+  emit: (c: FileContext, m: RuleMeta, r: Report) => void,
+): void {
   for (const pass of rules) {
     if (pass.scope !== 'engine') continue;
     try {
@@ -145,7 +168,19 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       }
     }
   }
+}
 
+function runManualRules(
+  rules: Rule[], contexts: FileContext[], options: CheckOptions,
+  emit: (c: FileContext, m: RuleMeta, r: Report) => void, registerDiagnostics: Diagnostic[],
+): void {
+  const register = options.register;
+  const reportInRegister = (meta: RuleMeta) => (file: string, report: Report) => {
+    const chosen = options.severity?.(meta.id, file);
+    if (chosen === 'off') return;
+    const source = register?.sources.find((s) => s.file === file)?.source ?? readSource(file, '');
+    registerDiagnostics.push({ ...toDiagnostic(meta, chosen ?? report.severity ?? meta.defaultSeverity, source, report), file });
+  };
   for (const rule of rules) {
     if (rule.scope !== 'manual') continue;
     const inRegister = reportInRegister(rule.meta);
@@ -165,21 +200,93 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       else if (register?.sources[0]) inRegister(register.sources[0].file, report);
     }
   }
+}
 
-  for (const context of contexts) {
-    const { kept, waived } = applyWaivers(context.procedure, context.source, sink.get(context)!.sort(compareDiagnostics));
-    files.push({
-      file: context.file, source: context.source, procedure: context.procedure, facts: context.facts,
-      diagnostics: kept, waived,
-    });
-  }
-  files.sort((a, b) => a.file.localeCompare(b.file));
-  registerDiagnostics.sort(compareDiagnostics);
-  return {
-    files,
-    diagnostics: [...files.flatMap((f) => f.diagnostics), ...registerDiagnostics].sort(compareDiagnostics),
-    ...(register ? { register: { register, diagnostics: registerDiagnostics } } : {}),
+/** A file's context whose source, model and facts are read on first use (and once). */
+interface LazyFileContext extends FileContext {
+  summary?: FileSummary;
+}
+
+function lazyFileContext(
+  input: SourceInput, previous: { text: string; commit: string } | undefined, options: CheckOptions, report: (r: Report) => void, full: boolean,
+): LazyFileContext {
+  let read: (ReturnType<typeof readProcedure> & { readError?: string }) | undefined;
+  const reading = () => {
+    if (read) return read;
+    if ('error' in input) return (read = { ...unreadable(input.file), readError: input.error });
+    try {
+      read = readProcedure(input.file, input.text, options.register);
+      if (full) void read.facts;
+    } catch (error) {
+      // Whatever a file holds, the check goes on and the file gets a diagnostic: never a crash of the whole run.
+      read = { ...unreadable(input.file), readError: `reading it failed inside Stepwright (${firstLineOf(error)}); this is a fault in Stepwright, please report it with the file` };
+    }
+    return read;
   };
+  let history: FileHistory | undefined | null = null;
+  return {
+    file: input.file, today: options.today, register: options.register,
+    certificationIntervalMonths: options.certificationIntervalMonths ?? 12,
+    get source() { return reading().source; },
+    get procedure() { return reading().procedure; },
+    get schemaIssues() { return reading().schemaIssues; },
+    get facts() { return reading().facts; },
+    get readError() { return reading().readError; },
+    // The previous version is read only when a rule asks for it; an unchanged file's previous version is the file.
+    get history() {
+      if (history === null) {
+        const current = reading();
+        history = !previous || current.readError !== undefined
+          ? undefined
+          : previous.text === ('text' in input ? input.text : undefined)
+            ? { commit: previous.commit, text: previous.text, source: current.source, procedure: current.procedure }
+            : readPrevious(input.file, previous, options.register);
+      }
+      return history;
+    },
+    report,
+  };
+}
+
+function checkedFile(context: LazyFileContext, diagnostics: Diagnostic[], waived: WaivedDiagnostic[]): CheckedFile {
+  return {
+    file: context.file, diagnostics, waived,
+    get source() { return context.source; },
+    get procedure() { return context.procedure; },
+    get facts() { return context.facts; },
+  };
+}
+
+interface CachedFile {
+  diagnostics: Diagnostic[];
+  summary: FileSummary;
+}
+
+interface CachedManual {
+  files: Array<{ file: string; diagnostic: Diagnostic }>;
+  register: Diagnostic[];
+}
+
+/** A cached file entry, only when it has the shape this version writes (anything else is read afresh). */
+function cachedFile(store: ResultCache, key: string): CachedFile | undefined {
+  const value = store.get<Partial<CachedFile>>(key);
+  if (!value || !Array.isArray(value.diagnostics) || !value.diagnostics.every(isDiagnostic) || !isFileSummary(value.summary)) return undefined;
+  return value as CachedFile;
+}
+
+function cachedManual(store: ResultCache, key: string, contexts: FileContext[]): CachedManual | undefined {
+  const value = store.get<Partial<CachedManual>>(key);
+  const names = new Set(contexts.map((c) => c.file));
+  if (!value || !Array.isArray(value.files) || !Array.isArray(value.register) || !value.register.every(isDiagnostic)) return undefined;
+  if (!value.files.every((f) => f && typeof f === 'object' && names.has(f.file) && isDiagnostic(f.diagnostic) && f.diagnostic.file === f.file)) return undefined;
+  return value as CachedManual;
+}
+
+function isDiagnostic(value: unknown): value is Diagnostic {
+  if (!value || typeof value !== 'object') return false;
+  const d = value as Record<string, unknown>;
+  return typeof d.file === 'string' && typeof d.line === 'number' && typeof d.column === 'number'
+    && typeof d.rule === 'string' && typeof d.message === 'string' && ['error', 'warning', 'info'].includes(d.severity as string);
 }
 
 function readPrevious(file: string, previous: { text: string; commit: string }, register?: PlantRegister): FileHistory {
