@@ -1,5 +1,5 @@
 // Links between shared operations and the procedures that call them, both ways, for the procedure pages.
-import { callSitesOf, linkCalls } from '../analysis/inline-calls.ts';
+import { callSitesOf, linkCalls, type CallSite } from '../analysis/inline-calls.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { numberSteps } from './step-numbers.ts';
 
@@ -24,8 +24,19 @@ export interface CallLinksView {
   calledBy: CallLink[];
 }
 
-export function buildCallLinksView(procedure: Procedure, all: Procedure[], urlOf: (id: string) => string | undefined): CallLinksView {
-  const byId = new Map(all.map((p) => [p.id, p]));
+/** Procedures by id and the call sites that call each one: worked out once for a whole manual. */
+export interface CallIndex {
+  byId: Map<string, Procedure>;
+  callers: Map<string, CallSite[]>;
+}
+
+export function indexCalls(all: Procedure[]): CallIndex {
+  return { byId: new Map(all.map((p) => [p.id, p])), callers: linkCalls(all).callers };
+}
+
+/** The call links of one procedure; give an index (indexCalls) when making many pages of one manual. */
+export function buildCallLinksView(procedure: Procedure, all: Procedure[] | CallIndex, urlOf: (id: string) => string | undefined): CallLinksView {
+  const { byId, callers } = Array.isArray(all) ? indexCalls(all) : all;
   const numbers = numberSteps(procedure.steps);
   const calls = callSitesOf(procedure).map((site): CallLink => {
     const callee = byId.get(site.callee);
@@ -35,7 +46,7 @@ export function buildCallLinksView(procedure: Procedure, all: Procedure[], urlOf
       url: callee ? urlOf(site.callee) : undefined,
     };
   });
-  const calledBy = (linkCalls(all).callers.get(procedure.id) ?? []).map((site): CallLink => {
+  const calledBy = (callers.get(procedure.id) ?? []).map((site): CallLink => {
     const caller = byId.get(site.caller);
     return {
       stepId: site.step.id, stepNumber: caller ? numberSteps(caller.steps).ofStep.get(site.step.id) : undefined,

@@ -32,7 +32,7 @@ async function loadHistories(): Promise<Map<string, HistoryView>> {
   }
   // A committed text the check has already read (usually the last commit's) is not read again.
   const checked = new Map(loaded.result.files.flatMap((f) => (f.source ? [[f.source.text, f.procedure] as const] : [])));
-  const read = (path: string, text: string) => (checked.has(text) ? checked.get(text)! : readProcedure(path, text).procedure);
+  const read = (path: string, text: string) => (checked.has(text) ? checked.get(text)! : readCommitted(path, text).procedure);
   const texts = new Map(loaded.inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
   const all = view.procedures.map((p) => ({ p, path: repoPath(repo, resolve(io.cwd, p.file)), workingText: texts.get(p.file) }));
   // A procedures folder outside the repository has no history in it; git is not asked about it.
@@ -53,10 +53,33 @@ export async function revisionPageView(entry: RevisionEntry): Promise<ProcedureV
   return revisionView(entry, loaded.root, loaded.today, loaded.base);
 }
 
+// Committed texts are read once per build, whichever page asks (the history, the procedure page of an earlier
+// revision in force, its newer revision's page, the revision pages): keyed by the content, never by position.
+const committedReads = new Map<string, ReturnType<typeof readProcedure>>();
+const committedViews = new Map<string, ProcedureView | undefined>();
+const maxRemembered = 20_000;
+
+function readCommitted(path: string, text: string): ReturnType<typeof readProcedure> {
+  const key = `${path}\u0000${text}`;
+  let read = committedReads.get(key);
+  if (!read) {
+    read = readProcedure(path, text);
+    if (committedReads.size >= maxRemembered) committedReads.clear();
+    committedReads.set(key, read);
+  }
+  return read;
+}
+
 function revisionView(entry: RevisionEntry, root: string, today: string, base: string): ProcedureView | undefined {
-  const read = readProcedure(entry.path, entry.text);
-  if (!read.procedure) return undefined;
-  return buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, root, today, undefined, base);
+  const key = `${root}\u0000${today}\u0000${base}\u0000${entry.path}\u0000${entry.text}`;
+  if (committedViews.has(key)) return committedViews.get(key);
+  const read = readCommitted(entry.path, entry.text);
+  const view = read.procedure
+    ? buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, root, today, undefined, base)
+    : undefined;
+  if (committedViews.size >= maxRemembered) committedViews.clear();
+  committedViews.set(key, view);
+  return view;
 }
 
 /** What a procedure's own page and the home page show: the revision in force, and a newer one not yet in force. */
