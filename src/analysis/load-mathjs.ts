@@ -4,16 +4,15 @@
 // instance with the default configuration: only this module loads it, so the instance is ours to extend
 // (units.ts adds units). When the file is missing, a private instance is made from the package entry instead:
 // same results, slower start.
-import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import type { MathJsInstance } from 'mathjs';
+import { dependencyRequire } from './load-dependency.ts';
 
 type MathjsPackage = Pick<typeof import('mathjs'), 'all' | 'create'>;
 
 export function loadMathjs(): MathJsInstance {
-  const require = createRequire(import.meta.url);
   // The package's `require` entry is lib/cjs/index.js; the single-file build sits in lib/browser/.
-  const entry = require.resolve('mathjs');
+  const { require, entry } = dependencyRequire('mathjs');
   try {
     const bundle = require(join(dirname(entry), '..', 'browser', 'math.js')) as Partial<MathJsInstance>;
     if (typeof bundle.unit === 'function' && typeof bundle.createUnit === 'function') return bundle as MathJsInstance;

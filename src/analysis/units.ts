@@ -14,11 +14,14 @@ export type ParsedQuantity = { ok: true; value: number; unit: string } | UnitErr
 /** A duration in seconds; a single value has `min === max`. */
 export type ParsedDuration = { ok: true; min: number; max: number } | UnitError;
 
-// The library instance is made on first use: commands and files that convert no unit never load it.
-let mathInstance: MathJsInstance | undefined;
+// The library instance is made on first use: commands and files that convert no unit never load it. It is kept
+// once per process (on globalThis): the site's pages run a bundled copy of this module next to the command's
+// own, and both must use the one instance that has the units below, defined once.
+const instanceSlot = Symbol.for('stepwright.units.mathjs');
 function mathjs(): MathJsInstance {
-  mathInstance ??= defineUnits(loadMathjs());
-  return mathInstance;
+  const slots = globalThis as unknown as Record<symbol, MathJsInstance | undefined>;
+  slots[instanceSlot] ??= defineUnits(loadMathjs());
+  return slots[instanceSlot];
 }
 
 const psiInPa = (0.45359237 * 9.80665) / 0.0254 ** 2;
@@ -183,8 +186,10 @@ function readUnit(unit: string): UnitFacts | UnitError {
     return unitError(`'${trimmed}' is not a unit Stepwright knows.`, suggestUnit(trimmed));
   }
   let parsed: Unit;
+  // Loaded outside the try: a library that cannot be loaded is a fault to report, not an unknown unit.
+  const math = mathjs();
   try {
-    parsed = mathjs().unit(normalizeUnit(trimmed));
+    parsed = math.unit(normalizeUnit(trimmed));
   } catch {
     return unitError(`'${trimmed}' is not a known unit.`, suggestUnit(trimmed));
   }
@@ -210,8 +215,9 @@ export function isKnownUnit(unit: string): boolean {
 /** Whether a word in running text reads as some unit (lenient: prose is not held to the documented list). */
 export function isUnitWord(word: string): boolean {
   if (isKnownUnit(word)) return true;
+  const math = mathjs();
   try {
-    return mathjs().unit(normalizeUnit(word)).value === null;
+    return math.unit(normalizeUnit(word)).value === null;
   } catch {
     return false;
   }

@@ -1,7 +1,7 @@
 // Asks the English model (compromise) for the part-of-speech tags of one word in a short context, memoised.
 // The model is loaded on first use (half a second): a run that reads no prose (every file found in the result
 // cache) never loads it. It is the package's single-file build, the same version and code as its module entry.
-import { createRequire } from 'node:module';
+import { dependencyRequire } from '../load-dependency.ts';
 
 type Nlp = ((text: string) => { document: Array<Array<{ tags: Set<string> }>> }) & {
   world(): { model: { one: { lexicon: Record<string, string | string[]> } } };
@@ -9,7 +9,10 @@ type Nlp = ((text: string) => { document: Array<Array<{ tags: Set<string> }>> })
 
 let model: Nlp | undefined;
 function nlp(): Nlp {
-  model ??= createRequire(import.meta.url)('compromise') as Nlp;
+  if (!model) {
+    const { require, entry } = dependencyRequire('compromise');
+    model = require(entry) as Nlp;
+  }
   return model;
 }
 
