@@ -21,9 +21,13 @@ const rows: Array<{ what: string; size: string; time: RegExp; ratio?: RegExp }> 
   { what: 'Full build peak memory vs bare Astro build', size: '2,000', time: /^site\/2000\/full-build-peak-memory$/, ratio: /^site\/2000\/peak-memory-ratio$/ },
   { what: 'Rebuild after one changed procedure vs full build', size: '2,000', time: /^site\/2000\/rebuild-one-change$/, ratio: /^site\/2000\/rebuild-ratio$/ },
   { what: 'Rebuild after one changed procedure vs full build', size: '500', time: /^site\/500\/rebuild-one-change$/, ratio: /^site\/500\/rebuild-ratio$/ },
+  { what: 'check, cold, whole process', size: '1,001', time: /^check\/\d+\/cold$/ },
   { what: 'check, cold, vs read + front-matter parse with positions', size: '1,001', time: /^check\/\d+\/cold$/, ratio: /^check\/\d+\/cold-ratio$/ },
   { what: 'check, cold, CPU time vs the same floor', size: '1,001', time: /^check\/\d+\/cold$/, ratio: /^check\/\d+\/cold-cpu-ratio$/ },
   { what: 'check, warm cache, vs the same floor', size: '1,001', time: /^check\/\d+\/warm$/, ratio: /^check\/\d+\/warm-ratio$/ },
+  { what: '`stepwright --version` (installed package)', size: '—', time: /^startup\/version$/ },
+  { what: '`stepwright check` of the demo manual, cold (installed package)', size: '13', time: /^startup\/check-demo$/ },
+  { what: '`stepwright check` of the demo manual, warm cache (installed package)', size: '13', time: /^startup\/check-demo-warm$/ },
   { what: 'Sequence analysis, 12 parallel branches x 10 steps', size: '1', time: /^soundness\/12-branches$/ },
 ];
 
@@ -33,17 +37,20 @@ export function benchTable(results: Results): string {
   const lines = [
     `Measured ${results.date.slice(0, 16).replace('T', ' ')} UTC${results.quick ? ' (quick sizes)' : ''} on ${results.machine.cpus} cores (${results.machine.cpu ?? 'unknown CPU'}), Node ${results.machine.node}, ` +
       `load average ${(results.machine.loadAtStart ?? results.machine.loadAverage).join(' ')} at the start and ${results.machine.loadAverage.join(' ')} at the end. ` +
-      'The machine is shared: read the ratios (both sides measured in the same run), not the seconds. A row without figures was not measured in that run.',
+      'The machine is shared: read the ratios (both sides measured in the same run), not the seconds. A row without figures was not measured. ' +
+      'The last column gives when each figure was measured (UTC) and the 1-minute load average when its benchmark started.',
     '',
-    '| What | Procedures | Time or size | Ratio | Goal | Met |',
-    '| --- | ---: | ---: | ---: | --- | --- |',
+    '| What | Procedures | Time or size | Ratio | Goal | Met | Measured (load) |',
+    '| --- | ---: | ---: | ---: | --- | --- | --- |',
   ];
   for (const row of rows) {
     const time = find(results.figures, row.time);
     const ratio = row.ratio ? find(results.figures, row.ratio) : undefined;
     const goalOf = ratio?.[1] ?? time?.[1];
     const size = time?.[0].match(/^check\/(\d+)\//)?.[1];
-    lines.push(`| ${row.what} | ${size ? Number(size).toLocaleString('en-GB') : row.size} | ${time ? `${time[1].value} ${time[1].unit}` : '—'} | ${ratio ? `${ratio[1].value}${ratio[1].unit}` : '—'} | ${goalOf?.goal ? `${goalOf.goal}${goalOf.unit}` : '—'} | ${goalOf?.met === undefined ? '—' : goalOf.met ? 'yes' : '**no**'} |`);
+    const measured = (ratio?.[1] ?? time?.[1])?.measured;
+    const when = measured ? `${measured.at.slice(0, 16).replace('T', ' ')} (${measured.loadAtStart[0]})` : '—';
+    lines.push(`| ${row.what} | ${size ? Number(size).toLocaleString('en-GB') : row.size} | ${time ? `${time[1].value} ${time[1].unit}` : '—'} | ${ratio ? `${ratio[1].value}${ratio[1].unit}` : '—'} | ${goalOf?.goal ? `${goalOf.goal}${/\d$/.test(goalOf.goal) ? (goalOf.unit === 'x' ? 'x' : ` ${goalOf.unit}`) : ''}` : '—'} | ${goalOf?.met === undefined ? '—' : goalOf.met ? 'yes' : '**no**'} | ${when} |`);
   }
   return lines.join('\n');
 }

@@ -19,7 +19,7 @@ function median(values: number[]): number {
 }
 
 /** Wall time (ms) and peak memory (MB, when /usr/bin/time is there) of one process, median of `runs`. */
-function measure(args: string[], cwd = root): { ms: number; mb?: number; status: number | null } {
+function measure(args: string[], cwd = root, extraEnv: Record<string, string> = {}): { ms: number; mb?: number; status: number | null } {
   const times: number[] = [];
   const memory: number[] = [];
   let status: number | null = 0;
@@ -27,8 +27,8 @@ function measure(args: string[], cwd = root): { ms: number; mb?: number; status:
   for (let i = 0; i < runs; i++) {
     const started = performance.now();
     const run = timer
-      ? spawnSync(timer, ['-f', '%M', node, ...args], { cwd, encoding: 'utf8', env: { ...process.env, STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1' } })
-      : spawnSync(node, args, { cwd, encoding: 'utf8', env: { ...process.env, STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1' } });
+      ? spawnSync(timer, ['-f', '%M', node, ...args], { cwd, encoding: 'utf8', env: { ...process.env, STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1', ...extraEnv } })
+      : spawnSync(node, args, { cwd, encoding: 'utf8', env: { ...process.env, STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1', ...extraEnv } });
     times.push(performance.now() - started);
     status = run.status;
     const kb = timer ? Number(run.stderr.trim().split('\n').at(-1)) : NaN;
@@ -47,6 +47,7 @@ const installed = mkdtempSync(join(tmpdir(), 'stepwright-startup-'));
 for (const part of ['bin', 'lib', 'package.json']) cpSync(join(root, part), join(installed, part), { recursive: true });
 symlinkSync(join(root, 'node_modules'), join(installed, 'node_modules'), 'dir');
 const packaged = join(installed, 'bin', 'stepwright.mjs');
+const warmCache = join(installed, 'result-cache');
 const checkout = join(root, 'bin', 'stepwright.mjs');
 
 try {
@@ -55,9 +56,11 @@ try {
     ['startup/node-floor', 'node -e 0', floor],
     ['startup/version', 'stepwright --version (package)', measure([packaged, '--version']), '<= 200 ms'],
     ['startup/help', 'stepwright --help (package)', measure([packaged, '--help'])],
-    ['startup/check-demo', 'stepwright check procedures (package, 13 files)', measure([packaged, 'check', 'procedures']), '<= 1000 ms'],
+    // Cold: no result cache at all. Warm: the cache the run before left (nothing changed since).
+    ['startup/check-demo', 'stepwright check procedures (package, 13 files, cold)', measure([packaged, 'check', 'procedures'], root, { STEPWRIGHT_CACHE: 'off' }), '<= 1000 ms'],
+    ['startup/check-demo-warm', 'stepwright check procedures (package, warm cache)', (measure([packaged, 'check', 'procedures'], root, { STEPWRIGHT_CACHE: warmCache }), measure([packaged, 'check', 'procedures'], root, { STEPWRIGHT_CACHE: warmCache })), '<= 1000 ms'],
     ['startup/version-checkout', 'stepwright --version (checkout, TypeScript sources)', measure([checkout, '--version'])],
-    ['startup/check-demo-checkout', 'stepwright check procedures (checkout)', measure([checkout, 'check', 'procedures'])],
+    ['startup/check-demo-checkout', 'stepwright check procedures (checkout, cold)', measure([checkout, 'check', 'procedures'], root, { STEPWRIGHT_CACHE: 'off' })],
   ];
   console.log(`Whole processes, median of ${runs}, on ${node} (${process.version}):\n`);
   console.log(`${'what'.padEnd(54)} ${'wall'.padStart(9)} ${'x floor'.padStart(8)} ${'peak'.padStart(8)}`);

@@ -11,9 +11,10 @@ const results = {
   machine: { cpus: 2, cpu: 'Test CPU', node: 'v24.0.0', loadAtStart: [3.5, 2, 1], loadAverage: [4, 3, 2] },
   figures: {
     'site/500/full-build': { value: 40, unit: 's' },
-    'site/500/ratio': { value: 2.5, unit: 'x', goal: '<= 1.3', met: false },
+    'site/500/ratio': { value: 2.5, unit: 'x', goal: '<= 1.3', met: false, measured: { at: '2026-12-02T15:40:00.000Z', loadAtStart: [0.8, 1, 1], loadAtEnd: [1.9, 1, 1] } },
     'check/1001/cold': { value: 1.5, unit: 's', goal: '< 2', met: true },
     'check/1001/cold-ratio': { value: 1.8, unit: 'x', goal: '<= 2', met: true },
+    'startup/version': { value: 240, unit: 'ms', goal: '<= 200 ms', met: false },
   },
 };
 
@@ -21,10 +22,14 @@ describe('bench table', () => {
   it('shows each figure with its ratio, goal and whether it was met, and the load of the run', () => {
     const table = benchTable(results);
     expect(table).toContain('load average 3.5 2 1 at the start and 4 3 2 at the end');
-    expect(table).toContain('| Full build vs bare Astro build of the same pages | 500 | 40 s | 2.5x | <= 1.3x | **no** |');
-    expect(table).toContain('| check, cold, vs read + front-matter parse with positions | 1,001 | 1.5 s | 1.8x | <= 2x | yes |');
+    // Each row says when its figure was measured and how busy the machine was then.
+    expect(table).toContain('| Full build vs bare Astro build of the same pages | 500 | 40 s | 2.5x | <= 1.3x | **no** | 2026-12-02 15:40 (0.8) |');
+    expect(table).toContain('| check, cold, vs read + front-matter parse with positions | 1,001 | 1.5 s | 1.8x | <= 2x | yes | — |');
+    expect(table).toContain('| check, cold, whole process | 1,001 | 1.5 s | — | < 2 s | yes | — |');
+    // A goal not met shows as not met; a goal that names its unit is not given it twice.
+    expect(table).toContain('| `stepwright --version` (installed package) | — | 240 ms | — | <= 200 ms | **no** | — |');
     // A figure the run did not measure is shown as missing, not as met.
-    expect(table).toMatch(/\| Rebuild after one changed procedure vs full build \| 2,000 \| — \| — \| — \| — \|/);
+    expect(table).toMatch(/\| Rebuild after one changed procedure vs full build \| 2,000 \| — \| — \| — \| — \| — \|/);
   });
 
   it('replaces only the text between the markers, and adds them once when missing', () => {
