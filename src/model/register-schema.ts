@@ -26,6 +26,7 @@ export const registerEquipmentSchema = z.strictObject({
   text: text.describe('What the item is, in plant words, e.g. "Resin kettle".'),
   type: z.string().optional().describe('Kind of item, e.g. vessel, pump, valve, heater, tank, agitator.'),
   area: z.string().optional().describe('Id of the area (under `areas`) the item stands in.'),
+  feeds: tagList.optional().describe('Equipment this item delivers into, e.g. a charge valve or pump feeding a vessel: [K-210].'),
   hazards: registerHazards,
 });
 

@@ -33,6 +33,8 @@ export interface RegisterEquipment extends RegisterPlace {
   text: string;
   type?: string;
   area?: string;
+  /** Equipment the item delivers into (a charge valve or pump feeding a vessel). */
+  feeds: string[];
   hazards: RegisterHazard[];
 }
 
@@ -182,7 +184,7 @@ function buildEntry(section: RegisterSection, id: string, d: Data, file: string,
     case 'areas':
       return { section, id, name: asText(d.name) ?? id, description: asText(d.description), file, path };
     case 'equipment':
-      return { section, id, text: asText(d.text) ?? id, type: asText(d.type), area: asText(d.area), hazards: hazardsOf(d.hazards, [...path, 'hazards']), file, path };
+      return { section, id, text: asText(d.text) ?? id, type: asText(d.type), area: asText(d.area), feeds: texts(d.feeds), hazards: hazardsOf(d.hazards, [...path, 'hazards']), file, path };
     case 'signals': {
       const range = Array.isArray(d.range) && d.range.length === 2 && d.range.every((n) => typeof n === 'number') ? (d.range as [number, number]) : undefined;
       const values = Array.isArray(d.values) ? (d.values.filter((x) => ['string', 'number', 'boolean'].includes(typeof x)) as RegisterSignal['values']) : undefined;

@@ -38,3 +38,10 @@ describe('trip tests', () => {
     expect(rules['trip-test-incomplete'].meta.source).toMatch(/1910\.119\(j\)\(4\).*IEC 61511-1.*from memory/);
   });
 });
+
+describe('high-level trips', () => {
+  it('the high-level trip rule cites its sources', () => {
+    // Source: ISA-5.1 (first letter L = level); overfill protection isolates the feed: common practice (HSE HSG176, from memory)
+    expect(rules['high-level-trip-misses-feed'].meta.source).toMatch(/ISA-5\.1.*common practice.*from memory/);
+  });
+});
