@@ -1,6 +1,6 @@
 // `stepwright dev [folder]`: the live preview. Serves the manual from the procedures as they are on disk;
 // a saved procedure reloads the open pages, and check findings show on the pages instead of stopping them.
-import { existsSync, mkdirSync, readlinkSync, rmSync, symlinkSync } from 'node:fs';
+import { existsSync, lstatSync, mkdirSync, readlinkSync, symlinkSync, unlinkSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { siteConfig, siteFolder } from '../site/astro-config.ts';
@@ -92,14 +92,13 @@ function linkSiteCode(root: string): string {
   mkdirSync(root, { recursive: true });
   const link = join(root, 'code');
   const target = dirname(siteFolder.replace(/[\\/]+$/, ''));
-  let current: string | undefined;
-  try {
-    current = readlinkSync(link);
-  } catch {
-    current = undefined;
+  const existing = lstatSync(link, { throwIfNoEntry: false });
+  if (existing && !existing.isSymbolicLink()) {
+    // Never remove something of the user's: a folder chosen with --cache-dir may hold a real 'code'.
+    throw new UsageError(`${link} exists and is not the preview's link to its pages; choose another folder with --cache-dir.`);
   }
-  if (current !== target) {
-    rmSync(link, { force: true, recursive: false });
+  if (!existing || readlinkSync(link) !== target) {
+    if (existing) unlinkSync(link);
     symlinkSync(target, link, 'junction');
   }
   return link;
