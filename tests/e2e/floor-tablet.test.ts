@@ -11,7 +11,10 @@ let site: string;
 let browser: Browser;
 let server: SiteServer;
 const batch = '/procedures/u2-k210-batch-001/';
-const pages = { home: '/', procedure: batch, tags: '/tags/', search: '/search/' };
+const pages = {
+  home: '/', procedure: batch, tags: '/tags/', search: '/search/', offline: '/offline/',
+  register: '/register/', 'register entry': '/register/tshh-210/', 'register chemical': '/register/xylene/',
+};
 const viewports = [{ width: 1280, height: 800 }, { width: 800, height: 1280 }];
 const measured: string[] = [];
 
