@@ -6,6 +6,7 @@ import { buildRegister, type PlantRegister } from '../model/register.ts';
 import { showFiles, type Git } from './git.ts';
 import { registerImpact } from './register-impact.ts';
 import { repositoryLog } from './repository-log.ts';
+import type { HistoryView } from './history-view.ts';
 
 export interface RegisterAt {
   git: Git;
@@ -40,7 +41,10 @@ export async function registerAt(place: RegisterAt, commit: string): Promise<Pla
 export interface RegisterEntryRevision {
   /** Full commit hash; `undefined` for changes in the working copy that are not committed yet. */
   commit?: string;
+  /** YYYY-MM-DD of the commit. */
   date?: string;
+  /** The commit's full author date (ISO 8601), to compare with other commits. */
+  when?: string;
   author?: string;
   subject: string;
   change: 'added' | 'removed' | 'changed';
@@ -72,7 +76,7 @@ export async function registerHistory(place: RegisterAt, now: PlantRegister | un
     const after = await registerAt(place, c.commit);
     for (const change of registerImpact(before, after, [], () => false)) {
       add(change.id, {
-        commit: c.commit, date: c.date.slice(0, 10), author: c.author, subject: c.subject, change: change.change, details: change.details,
+        commit: c.commit, date: c.date.slice(0, 10), when: c.date, author: c.author, subject: c.subject, change: change.change, details: change.details,
         ...(place.shallow && !c.hasParents && before === undefined ? { firstInClone: true } : {}),
       });
     }
@@ -86,4 +90,16 @@ export async function registerHistory(place: RegisterAt, now: PlantRegister | un
     }
   }
   return { byEntry, commits: log.length, uncommitted };
+}
+
+/**
+ * Whether a procedure has had a new revision since a register change: its newest committed revision was
+ * introduced in the same commit or later; for an uncommitted change, the working copy carries a newer revision.
+ */
+export function revisedSince(history: Pick<HistoryView, 'revisions' | 'draft'> | undefined, change: Pick<RegisterEntryRevision, 'commit' | 'when'>): boolean {
+  if (!history) return false;
+  const latest = history.revisions.at(-1);
+  if (!change.commit) return Boolean(history.draft && history.draft.revision !== null && (latest === undefined || history.draft.revision > latest.revision));
+  if (!latest || !change.when) return false;
+  return latest.introduced.commit === change.commit || Date.parse(latest.introduced.date) >= Date.parse(change.when);
 }

@@ -3,10 +3,11 @@
 import { resolve } from 'node:path';
 import { registerPlace } from '../engine/register-place.ts';
 import { openRepository } from '../engine/repository.ts';
-import { registerHistory, type RegisterEntryRevision } from '../history/register-history.ts';
+import { registerHistory, revisedSince, type RegisterEntryRevision } from '../history/register-history.ts';
 import { buildRegisterView, type RegisterView } from '../render/register-view.ts';
 import { siteUrl } from '../render/site-url.ts';
 import { siteManual } from './manual.ts';
+import { siteHistory } from './history.ts';
 
 export interface SiteRegister {
   view: RegisterView;
@@ -17,6 +18,11 @@ export interface SiteRegister {
   /** Number of commits that changed the register. */
   commits: number;
   uncommitted: boolean;
+  /**
+   * Entry id → for its newest change, each procedure that uses it and whether that procedure has had a new
+   * revision since (committed in the same commit or later; for an uncommitted change, a new revision in the working copy).
+   */
+  impact: Map<string, Array<{ id: string; revised: boolean }>>;
 }
 
 let cached: { key: string; data: Promise<SiteRegister | undefined> } | undefined;
@@ -36,15 +42,23 @@ async function load(): Promise<SiteRegister | undefined> {
   const absolute = resolve(loaded.cwd, register.folder);
   const repo = loaded.run.repo ?? (await openRepository({ cwd: loaded.cwd, env: process.env }, absolute));
   if (!repo) {
-    return { view, history: new Map(), commits: 0, uncommitted: false, historyNotice: 'This manual was built outside a git checkout, so the register\'s earlier versions are not available.' };
+    return { view, history: new Map(), commits: 0, uncommitted: false, impact: new Map(), historyNotice: 'This manual was built outside a git checkout, so the register\'s earlier versions are not available.' };
   }
   const place = registerPlace(repo, absolute, loaded.cwd);
   if (place.folder === '..' || place.folder.startsWith('../')) {
-    return { view, history: new Map(), commits: 0, uncommitted: false, historyNotice: `The register folder is outside the git repository at ${repo.root}, so its earlier versions are not available.` };
+    return { view, history: new Map(), commits: 0, uncommitted: false, impact: new Map(), historyNotice: `The register folder is outside the git repository at ${repo.root}, so its earlier versions are not available.` };
   }
   const history = await registerHistory(place, register);
+  const procedureHistories = await siteHistory();
+  const impact = new Map<string, Array<{ id: string; revised: boolean }>>();
+  for (const entry of view.entries) {
+    const newest = history.byEntry.get(entry.id)?.[0];
+    if (!newest || newest.change === 'added') continue;
+    impact.set(entry.id, entry.usedBy.map((u) => ({ id: u.procedure.id, revised: revisedSince(procedureHistories.get(u.procedure.id), newest) })));
+  }
   return {
-    view, history: history.byEntry, commits: history.commits, uncommitted: history.uncommitted,
+    view, history: history.byEntry, commits: history.commits, uncommitted: history.uncommitted, impact,
     ...(repo.shallow ? { historyNotice: 'This manual was built from a shallow clone: register changes older than the clone are not shown.' } : {}),
   };
 }
+

@@ -9,7 +9,7 @@ import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
 import { loadRegister } from '../../src/engine/load-register.ts';
 import { buildManualView } from '../../src/render/manual.ts';
 import { buildRegisterView } from '../../src/render/register-view.ts';
-import { registerHistory } from '../../src/history/register-history.ts';
+import { registerHistory, revisedSince } from '../../src/history/register-history.ts';
 import { registerPlace } from '../../src/engine/register-place.ts';
 import { openRepository } from '../../src/engine/repository.ts';
 import { createTempRepo, ada, bram, type TempRepo } from '../history/temp-repo.ts';
@@ -102,5 +102,28 @@ describe('register history from git', () => {
     const psv = working.byEntry.get('PSV-210')!;
     expect(psv[0].commit).toBeUndefined();
     expect(psv[0].details).toEqual(['set-pressure: 250 kPag → 240 kPag']);
+  });
+});
+
+describe('change impact on the register pages', () => {
+  const revision = (n: number, commit: string, date: string) => ({ revision: n, introduced: { commit, date, author: 'A', subject: 's' } });
+  const history = (revisions: Array<ReturnType<typeof revision>>, draft?: { revision: number | null; status: string }) =>
+    ({ revisions, ...(draft ? { draft } : {}) }) as unknown as Parameters<typeof revisedSince>[0];
+
+  it('counts a procedure as revised when its newest revision came with the change or after it', () => {
+    const change = { commit: 'c2', when: '2026-12-01T10:00:00+00:00' };
+    expect(revisedSince(history([revision(1, 'c1', '2026-11-01T10:00:00+00:00'), revision(2, 'c2', '2026-12-01T10:00:00+00:00')]), change)).toBe(true);
+    expect(revisedSince(history([revision(1, 'c1', '2026-11-01T10:00:00+00:00'), revision(2, 'c3', '2026-12-02T08:00:00+01:00')]), change)).toBe(true);
+    expect(revisedSince(history([revision(1, 'c1', '2026-11-01T10:00:00+00:00')]), change)).toBe(false);
+    // Dates compare as instants, offsets included: 10:30+01:00 is 09:30 UTC, before the change.
+    expect(revisedSince(history([revision(1, 'c0', '2026-12-01T10:30:00+01:00')]), change)).toBe(false);
+    expect(revisedSince(undefined, change)).toBe(false);
+  });
+
+  it('for an uncommitted change, counts only a newer revision in the working copy', () => {
+    const change = { commit: undefined, when: undefined };
+    expect(revisedSince(history([revision(3, 'c1', '2026-11-01T10:00:00+00:00')], { revision: 4, status: 'draft' }), change)).toBe(true);
+    expect(revisedSince(history([revision(3, 'c1', '2026-11-01T10:00:00+00:00')], { revision: 3, status: 'effective' }), change)).toBe(false);
+    expect(revisedSince(history([revision(3, 'c1', '2026-11-01T10:00:00+00:00')]), change)).toBe(false);
   });
 });
