@@ -45,3 +45,16 @@ describe('high-level trips', () => {
     expect(rules['high-level-trip-misses-feed'].meta.source).toMatch(/ISA-5\.1.*common practice.*from memory/);
   });
 });
+
+describe('protective equipment for chemicals', () => {
+  it('cites its sources', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(iii)(B) PPE among the precautions; GHS (UN) Annex 4, SDS section 8
+    expect(rules['ppe-missing-for-chemical'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iii\)\(B\).*GHS.*Annex 4/);
+  });
+  it('asks goggles for serious eye damage and a respirator for a respiratory sensitiser', () => {
+    // Source: GHS (UN) Annex 3, precautionary statement P280 (wear eye protection/face protection) for H318, P284 (wear respiratory protection) for H334 (from memory)
+    const docs = rules['ppe-missing-for-chemical'].meta.docs;
+    expect(docs).toMatch(/H318 \(serious eye damage\) \| goggles or a face shield/);
+    expect(docs).toMatch(/H334 \(respiratory sensitiser\) \| respiratory protection/);
+  });
+});
