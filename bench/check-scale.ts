@@ -1,8 +1,9 @@
 // `stepwright check` of 1,001 procedures (the demo procedures copied 77 times, ids renamed per copy) as whole
 // processes, against the floor of reading the same files and parsing their front-matter with positions
 // (bench/floor-read.ts); interleaved, median of three. Cold (no cache) and warm (cache from the run before).
+// The copies sit next to a copy of the demo's plant register, as a plant keeps them, so the manual checks clean.
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { basename, join } from 'node:path';
 import { quick, record } from './results.ts';
@@ -19,10 +20,10 @@ function demoFiles(dir: string): string[] {
 }
 
 /** Wall time, and CPU time (user + system) from /usr/bin/time: on a busy shared machine CPU time is the steadier figure. */
-function run(args: string[], env: Record<string, string> = {}): { seconds: number; cpu?: number; peakMb?: number; out: string } {
+function run(args: string[], env: Record<string, string> = {}, cwd = repo): { seconds: number; cpu?: number; peakMb?: number; out: string } {
   const argv = timeBinary ? [timeBinary, '-f', 'peak-kb=%M cpu=%U+%S', process.execPath, ...args] : [process.execPath, ...args];
   const started = performance.now();
-  const r = spawnSync(argv[0], argv.slice(1), { cwd: repo, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ...env }, maxBuffer: 256 * 1024 * 1024 });
+  const r = spawnSync(argv[0], argv.slice(1), { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', STEPWRIGHT_TODAY: '2026-12-01', ...env }, maxBuffer: 256 * 1024 * 1024 });
   const seconds = (performance.now() - started) / 1000;
   if (r.status !== 0 && r.status !== 1) throw new Error(`${args.join(' ')} failed (exit ${r.status}): ${r.stderr.slice(-2000)}`);
   const peak = /peak-kb=(\d+)/.exec(r.stderr)?.[1];
@@ -39,19 +40,23 @@ try {
     for (const file of demo) writeFileSync(join(work, 'procedures', `copy-${c}`, basename(file)), readFileSync(file, 'utf8').replaceAll('U2-', `U2C${c}-`));
   }
   const count = demo.length * copies;
+  // The register is found as a plant keeps it: register/ in the working folder that holds the procedures.
+  cpSync(join(repo, 'register'), join(work, 'register'), { recursive: true });
   const cache = join(work, 'cache');
   const floor: number[] = [];
   const cold: number[] = [];
   const warm: number[] = [];
   const cpu = { floor: [] as number[], cold: [] as number[], warm: [] as number[] };
   let peak = { floor: 0, cold: 0, warm: 0 };
-  const check = ['bin/stepwright.mjs', 'check', join(work, 'procedures'), '--no-history', '--quiet'];
+  const check = [join(repo, 'bin', 'stepwright.mjs'), 'check', 'procedures', '--no-history', '--quiet'];
+  const first = run(check, { STEPWRIGHT_CACHE: 'off' }, work);
+  console.log(`  (the copies check with: ${first.out.trim().split('\n').at(-1)})`);
   for (let i = 0; i < 3; i++) {
     const f = run([join(import.meta.dirname, 'floor-read.ts'), join(work, 'procedures')]);
-    const c = run(check, { STEPWRIGHT_CACHE: 'off' });
+    const c = run(check, { STEPWRIGHT_CACHE: 'off' }, work);
     rmSync(cache, { recursive: true, force: true });
-    run(check, { STEPWRIGHT_CACHE: cache });
-    const w = run(check, { STEPWRIGHT_CACHE: cache });
+    run(check, { STEPWRIGHT_CACHE: cache }, work);
+    const w = run(check, { STEPWRIGHT_CACHE: cache }, work);
     cpu.floor.push(f.cpu ?? Number.NaN);
     cpu.cold.push(c.cpu ?? Number.NaN);
     cpu.warm.push(w.cpu ?? Number.NaN);

@@ -3,11 +3,19 @@ import { parseCondition } from './conditions/parse.ts';
 import type { Condition } from './conditions/ast.ts';
 import { parseQuantity, toBase } from './units.ts';
 
+const keys = new Map<string, string | null>();
+
 /** A canonical key of a condition: same key, same meaning (quantities compared in SI base units). */
 export function conditionKey(text: string): string | null {
-  const parsed = parseCondition(text);
-  if (!parsed.ok) return null;
-  return keyOf(parsed.condition);
+  // Rules compare the same few conditions across many procedures: each text is read once.
+  let key = keys.get(text);
+  if (key === undefined) {
+    const parsed = parseCondition(text);
+    key = parsed.ok ? keyOf(parsed.condition) : null;
+    if (keys.size >= 20_000) keys.clear();
+    keys.set(text, key);
+  }
+  return key;
 }
 
 function keyOf(c: Condition): string {

@@ -53,6 +53,10 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
     const byId = new Map<string, FileContext>();
     for (const f of ctx.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f);
     const withCondition = ctx.files.flatMap((f) => (f.procedure ? f.procedure.hazards.filter((h) => h.when?.value.trim()).map((h) => ({ file: f, hazard: h })) : []));
+    // Other procedures' hazards, grouped by their condition and by how their owner declares the signals it names:
+    // whether a hazard applies to a procedure depends on nothing else, so each group is judged once per procedure
+    // instead of every hazard of the manual being judged for every procedure.
+    const groups = foreignGroups(withCondition);
     for (const file of ctx.files) {
       const procedure = file.procedure;
       if (!procedure || !file.facts) continue;
@@ -60,11 +64,19 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
       const expanded = hasCalls ? inlineCalls(procedure, (id) => byId.get(id)?.procedure ?? undefined).procedure : procedure;
       const own = expanded.hazards.filter((h) => h.when?.value.trim()).map((h) => ({ hazard: h, from: undefined as string | undefined }));
       const ownTexts = new Set(own.map((h) => h.hazard.when!.value));
-      const foreign = withCondition
-        .filter((w) => w.file !== file && w.file.procedure && !ownTexts.has(w.hazard.when!.value) && appliesTo(w.hazard, w.file.procedure, expanded))
-        // In an emergency, damage to equipment is accepted to protect people: another procedure's NOTICE does not apply.
-        .filter((w) => !(emergencyKinds.has(procedure.kind) && w.hazard.level === 'notice'))
-        .map((w) => ({ hazard: w.hazard, from: w.file.procedure!.id }));
+      // Of several hazards with one condition, the first in file order is the one reported (as before, when all of
+      // them were analysed and the later ones' findings dropped as repeats).
+      const firstOfText = new Map<string, { hazard: Hazard; from: string; order: number }>();
+      for (const group of groups) {
+        if (ownTexts.has(group.text) || group.signature !== signatureIn(group.names, expanded)) continue;
+        const w = group.members.find((m) => m.file !== file
+          // In an emergency, damage to equipment is accepted to protect people: another procedure's NOTICE does not apply.
+          && !(emergencyKinds.has(procedure.kind) && m.hazard.level === 'notice'));
+        if (!w) continue;
+        const known = firstOfText.get(group.text);
+        if (!known || known.order > w.order) firstOfText.set(group.text, { hazard: w.hazard, from: w.file.procedure!.id, order: w.order });
+      }
+      const foreign = [...firstOfText.values()].sort((a, b) => a.order - b.order).map(({ hazard, from }) => ({ hazard, from }));
       // Hazards the plant register states, with a condition, about the equipment and chemicals the procedure handles.
       const fromRegister = registerHazardsOf(procedure)
         .filter((r) => !ownTexts.has(r.hazard.when!.value) && declaredIn(r.hazard, expanded))
@@ -134,18 +146,58 @@ function declaredIn(hazard: Hazard, here: Procedure): boolean {
   return names.length > 0 && names.every((n) => here.signals[n] !== undefined);
 }
 
-/** A hazard of another procedure applies when every signal its condition names is declared here alike. */
-function appliesTo(hazard: Hazard, owner: Procedure, here: Procedure): boolean {
-  const parsed = parseCondition(hazard.when!.value);
-  if (!parsed.ok) return false;
-  const names = [...new Set(namesIn(parsed.condition).map((n) => n.name))].filter((n) => n !== 'elapsed' && n !== 'done');
-  return names.length > 0 && names.every((n) => alike(owner.signals[n], here.signals[n]));
+interface ForeignGroup {
+  text: string;
+  /** The signals the condition names (besides elapsed and done). */
+  names: string[];
+  /** How the owner declares those signals (see signatureIn). */
+  signature: string;
+  /** The hazards of the group, with their place in file order. */
+  members: Array<{ file: FileContext; hazard: Hazard; order: number }>;
 }
 
-function alike(a: Signal | undefined, b: Signal | undefined): boolean {
-  if (!a || !b) return false;
-  if (a.unit || b.unit) return !!a.unit && !!b.unit && unitDimension(a.unit) === unitDimension(b.unit);
-  const va = (a.values ?? []).map(String).sort().join('|');
-  const vb = (b.values ?? []).map(String).sort().join('|');
-  return va === vb && va !== '';
+/**
+ * A hazard of another procedure applies when every signal its condition names is declared here alike: with units
+ * of the same dimension, or (without units) with the same set of values. Hazards are grouped by condition text and
+ * by the owner's declarations of the named signals; conditions that cannot be read or name no signal apply nowhere.
+ */
+function foreignGroups(withCondition: Array<{ file: FileContext; hazard: Hazard }>): ForeignGroup[] {
+  const namesOf = new Map<string, string[] | null>();
+  const groups = new Map<string, ForeignGroup>();
+  withCondition.forEach(({ file, hazard }, order) => {
+    const text = hazard.when!.value;
+    let names = namesOf.get(text);
+    if (names === undefined) {
+      const parsed = parseCondition(text);
+      names = parsed.ok ? [...new Set(namesIn(parsed.condition).map((n) => n.name))].filter((n) => n !== 'elapsed' && n !== 'done') : null;
+      if (names && !names.length) names = null;
+      namesOf.set(text, names);
+    }
+    if (!names) return;
+    const signature = signatureIn(names, file.procedure!);
+    if (signature === null) return;
+    const key = `${text}\u0000${signature}`;
+    const group = groups.get(key) ?? { text, names, signature, members: [] };
+    group.members.push({ file, hazard, order });
+    groups.set(key, group);
+  });
+  return [...groups.values()];
+}
+
+/** How a procedure declares the named signals, as one comparable string; null when one of them is not declared comparably. */
+function signatureIn(names: string[], procedure: Procedure): string | null {
+  const parts: string[] = [];
+  for (const name of names) {
+    const part = signalSignature(procedure.signals[name]);
+    if (part === null) return null;
+    parts.push(part);
+  }
+  return parts.join('\u0001');
+}
+
+function signalSignature(signal: Signal | undefined): string | null {
+  if (!signal) return null;
+  if (signal.unit) return `unit:${unitDimension(signal.unit)}`;
+  const values = (signal.values ?? []).map(String).sort().join('|');
+  return values === '' ? null : `values:${values}`;
 }
