@@ -154,7 +154,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
     const places = loaded.view.procedures.map((p) => ({ slug: p.slug, area: p.area, kind: p.kind }));
-    offline = await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`), places, previousSite: outDir });
+    offline = await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`), places, previousSite: outDir, publishedUnder: base });
     // Very last: the SHA-256 of every file, signed when a key is given.
     writeSiteManifest(work, { privateKey });
     if (work !== tmp) {

@@ -6,6 +6,7 @@ import { gzipSync } from 'node:zlib';
 import { parseArgs } from 'node:util';
 import { UsageError, type CliIo } from './io.ts';
 import { siteBase } from '../engine/project.ts';
+import { parseBase } from '../model/site-base.ts';
 
 export const serveHelp = `Usage: stepwright serve [options]
 
@@ -15,8 +16,8 @@ Options:
   --dir <dir>     the site folder (default: dist)
   --port <n>      port (default: 4321; 0 picks a free one)
   --host <host>   address to listen on (default: localhost)
-  --base <path>   serve the manual under this path, as it was built with (default: 'base' in the
-                  config file, else the root)
+  --base <path>   serve the manual under this path (default: the path the site was built for,
+                  recorded by 'stepwright build'; else 'base' in the config file, else the root)
   --config <file> the configuration (default: the nearest stepwright.config.yaml)
   -h, --help      show this help
 `;
@@ -101,7 +102,7 @@ export async function runServe(argv: string[], io: CliIo): Promise<number> {
   const port = Number(values.port);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError(`'${values.port}' is not a port number.`);
   const dir = resolve(io.cwd, values.dir);
-  const base = siteBase(io, values);
+  const base = values.base !== undefined ? siteBase(io, values) : ((await builtFor(dir)) ?? siteBase(io, values));
   if (!(await stat(join(dir, 'index.html')).catch(() => null))) {
     io.stderr.write(`stepwright serve: no built manual in ${values.dir}/; run 'stepwright build' first.\n`);
     return 1;
@@ -115,6 +116,21 @@ export async function runServe(argv: string[], io: CliIo): Promise<number> {
   io.stdout.write(`Serving the manual from ${values.dir}/ on ${url} (Ctrl+C stops).\n`);
   await new Promise(() => {});
   return 0;
+}
+
+/** The path a Stepwright build recorded for its site ("/" when built for the root); undefined when there is no record. */
+export async function builtFor(dir: string): Promise<string | undefined> {
+  let record: unknown;
+  try {
+    record = JSON.parse(await readFile(join(dir, 'offline-manifest.json'), 'utf8'));
+  } catch {
+    return undefined;
+  }
+  if (!record || typeof record !== 'object' || typeof (record as { version?: unknown }).version !== 'string') return undefined;
+  const base = (record as { base?: unknown }).base;
+  if (base === undefined) return '/';
+  const parsed = typeof base === 'string' ? parseBase(base) : undefined;
+  return parsed && 'base' in parsed ? parsed.base : undefined;
 }
 
 /** A port or host the server cannot take is the user's to change: a usage error that names the option. */

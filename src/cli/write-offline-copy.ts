@@ -27,6 +27,11 @@ export interface OfflineCopyOptions {
   places?: ProcedurePlace[];
   /** The site's sub-path, "/" or e.g. "/manual/". */
   base?: string;
+  /**
+   * The path the site is served under, when not the root (e.g. "/manual/"): recorded in the publication so
+   * `stepwright serve` serves the folder where its links point. (The search fragments stay root-relative.)
+   */
+  publishedUnder?: string;
   /** A folder holding the previously published site, to report what an update from it costs. */
   previousSite?: string;
 }
@@ -43,7 +48,8 @@ export async function writeOfflineCopy(siteDir: string, options: OfflineCopyOpti
   const previous = options.previousSite ? await readFileList(options.previousSite) : null;
   await writeFile(join(siteDir, 'sw.js'), await readFile(workerCodeFile));
   await writeFile(join(siteDir, fileListName), formatFileList(list));
-  await writeFile(join(siteDir, publicationName), `${JSON.stringify({ ...publication, list: fileListName })}\n`);
+  const under = options.publishedUnder && options.publishedUnder !== '/' ? { base: options.publishedUnder } : {};
+  await writeFile(join(siteDir, publicationName), `${JSON.stringify({ ...publication, list: fileListName, ...under })}\n`);
   return { ...publication, list, update: previous ? updateCost(previous, list) : null };
 }
 

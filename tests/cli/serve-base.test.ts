@@ -4,7 +4,8 @@ import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { startStaticServer } from '../../src/cli/serve-command.ts';
+import { builtFor, startStaticServer } from '../../src/cli/serve-command.ts';
+import { writeOfflineCopy } from '../../src/cli/write-offline-copy.ts';
 import { runCli } from './run-cli.ts';
 
 describe('serving under a base', () => {
@@ -39,5 +40,17 @@ describe('serving under a base', () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toContain('--base');
     expect(r.stderr).toContain('address, not a path');
+  });
+
+  it('takes the base a build recorded for its site, so a site built under /manual/ is served there', async () => {
+    const site = mkdtempSync(join(tmpdir(), 'stepwright-serve-record-'));
+    writeFileSync(join(site, 'index.html'), '<!doctype html><title>home</title>');
+    expect(await builtFor(site)).toBeUndefined();
+    await writeOfflineCopy(site, { now: new Date('2026-12-01T00:00:00Z'), publishedUnder: '/manual/' });
+    expect(await builtFor(site)).toBe('/manual/');
+    await writeOfflineCopy(site, { now: new Date('2026-12-01T00:00:00Z') });
+    expect(await builtFor(site)).toBe('/');
+    writeFileSync(join(site, 'offline-manifest.json'), '{"version":"x","base":"https://elsewhere/"}');
+    expect(await builtFor(site)).toBeUndefined();
   });
 });

@@ -127,7 +127,8 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
       expect([...html.matchAll(/\b(?:href|src|action)="(\/(?!manual\/)[^"]*)"/g)].map((m) => m[1]), page).toEqual([]);
     }
 
-    const server = spawn(join(plant, 'node_modules', '.bin', 'stepwright'), ['serve', '--dir', 'dist-manual', '--base', 'manual', '--port', '0', '--host', '127.0.0.1'], { cwd: plant, env });
+    // serve takes the base the build recorded for the site.
+    const server = spawn(join(plant, 'node_modules', '.bin', 'stepwright'), ['serve', '--dir', 'dist-manual', '--port', '0', '--host', '127.0.0.1'], { cwd: plant, env });
     const browser = await launchChromium();
     try {
       const url = await servedAt(server);
