@@ -34,6 +34,8 @@ describe('requires', () => {
     expect(rules['requires-not-in-force'].meta.source).toMatch(/1910\.119\(f\)\(3\)/);
     // Source: common practice (prerequisites are completed first, so they are ordered without circles)
     expect(rules['requires-cycle'].meta.source).toMatch(/common practice/i);
+    // Source: OSHA 29 CFR 1910.119(f)(1)(i) steps for each operating phase; line-ups: common practice
+    expect(rules['line-up-contradicts-required'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(i\).*common practice/);
   });
 
   it('an unknown id suggests the near one', () => {
@@ -79,5 +81,17 @@ describe('requires', () => {
     ]);
     expect(found.map((d) => d.file).sort()).toEqual(['U2-A-001.md', 'U2-B-001.md', 'U2-C-001.md']);
     expect(found.find((d) => d.file === 'U2-A-001.md')!.trace).toEqual(['U2-A-001', 'U2-B-001', 'U2-C-001', 'U2-A-001']);
+  });
+
+  it('a line-up that the required procedure always leaves false is reported; one it leaves open is not', () => {
+    const required = procedure('U2-R-001', 'effective', [], 'signals:\n  XV-1: { text: Chute valve, values: [open, closed] }\n  XV-2: { text: Vent valve, values: [open, closed] }\nline-up: [XV-1 == closed]\n');
+    required.text = required.text.replace("    do: Check that XV-1 is closed\n    confirm: XV-1 shows closed", "    do: Open chute valve XV-1\n    state: { XV-1: open }\n    until: XV-1 == open");
+    const signals = 'signals:\n  XV-1: { text: Chute valve, values: [open, closed] }\n  XV-2: { text: Vent valve, values: [open, closed] }\n';
+    const a = procedure('U2-A-001', 'effective', ['U2-R-001'], `${signals}line-up: [XV-1 == closed, XV-2 == closed]\n`);
+    const b = procedure('U2-B-001', 'effective', ['U2-R-001'], `${signals}line-up: [XV-1 == open]\n`);
+    const found = of('line-up-contradicts-required', [required, a, b]);
+    expect(found.map((d) => `${d.file} ${d.message}`)).toEqual([
+      "U2-A-001.md The line-up says XV-1 == closed, but U2-R-001, which this procedure requires, always ends with XV-1 = open.",
+    ]);
   });
 });

@@ -1,0 +1,68 @@
+// Reports a line-up condition that a procedure this one requires never leaves true when it ends.
+import { namesIn, parseCondition } from '../../analysis/conditions/parse.ts';
+import { unitDimension } from '../../analysis/units.ts';
+import type { Signal } from '../../model/procedure.ts';
+import { defineManualRule } from '../define-rule.ts';
+import { filesById, requiresOf } from '../requires-sites.ts';
+
+export default defineManualRule(
+  {
+    id: 'line-up-contradicts-required',
+    summary: 'A line-up condition can never hold when a procedure this one requires has ended.',
+    category: 'sequence',
+    defaultSeverity: 'error',
+    source: 'OSHA 29 CFR 1910.119(f)(1)(i): steps for each operating phase; line-ups and prerequisites: common practice',
+    docs: `A procedure's \`line-up\` says what holds before its first step, and \`requires\` names the procedures completed
+before it starts. When a required procedure, on every way it can end normally, leaves the plant so that a line-up
+condition is false (the inerting procedure ends with the charge chute open, the line-up says it is closed), no
+operator can start the procedure as written: a step is missing between the two, or one of them is wrong.
+
+Stepwright works out the plant state at the end of the required procedure (its own line-up, steps, lasting actions
+and transitions) and compares each line-up condition that speaks only of signals both procedures declare alike.
+A condition the required procedure leaves open (it may or may not hold) is not reported; only one that cannot
+hold. Add the step that brings the plant into the line-up (to either procedure), or correct the line-up.`,
+    examples: {
+      bad: 'U2-K210-INERT-001 ends with XV-2107 open\nU2-K210-BATCH-001: requires: [U2-K210-INERT-001], line-up: [XV-2107 == closed]',
+      good: 'U2-K210-INERT-001 ends with a step that closes XV-2107',
+    },
+  },
+  (ctx) => {
+    const byId = filesById(ctx.files);
+    for (const file of ctx.files) {
+      const p = file.procedure;
+      if (!p || !p.lineUp.length) continue;
+      for (const site of requiresOf(p)) {
+        const required = byId.get(site.id);
+        const q = required?.procedure;
+        if (!q || required === file || !required.facts) continue;
+        const analysis = required.facts.state;
+        const ends = analysis.endViews.get('') ?? [];
+        if (!analysis.complete || !ends.length) continue;
+        for (const item of p.lineUp) {
+          const parsed = parseCondition(item.value);
+          if (!parsed.ok) continue;
+          const names = [...new Set(namesIn(parsed.condition).map((n) => n.name))];
+          if (!names.length || !names.every((n) => alike(p.signals[n], q.signals[n]))) continue;
+          const region = analysis.regionOf(item.value);
+          if (!region) continue;
+          if (analysis.space.and(ends.map((e) => e.box), region).length) continue;
+          const shown = [...new Set(ends.map((e) => analysis.space.describe(new Map([...e.box].filter(([k]) => names.includes(k))) as never)))].slice(0, 3).join('; or ');
+          ctx.report(file, {
+            path: item.path,
+            message: `The line-up says ${item.value}, but ${site.id}, which this procedure requires, always ends with ${shown}.`,
+            hint: `Add the step that brings the plant from the end of ${site.id} into this line-up (or make ${site.id} end so), or correct the line-up.`,
+            related: [{ file: required.file, range: required.source.rangeOf(['steps']), message: `the steps of ${site.id}` }],
+          });
+        }
+      }
+    }
+  },
+);
+
+function alike(a: Signal | undefined, b: Signal | undefined): boolean {
+  if (!a || !b) return false;
+  if (a.unit || b.unit) return !!a.unit && !!b.unit && unitDimension(a.unit) === unitDimension(b.unit);
+  const va = (a.values ?? []).map(String).sort().join('|');
+  const vb = (b.values ?? []).map(String).sort().join('|');
+  return va === vb && va !== '';
+}
