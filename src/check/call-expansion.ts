@@ -125,11 +125,14 @@ function combinationReport(finding: RawFinding, caller: Procedure, inlined: stri
   const severity: Severity = report.severity ?? rule.defaultSeverity;
   const site = report.path ? callSiteAbove(caller, report.path) : undefined;
   const trace = [`rule ${rule.id}`];
+  // Places in the caller's own text the finding relates to (its limit, say) stay; those in called files
+  // cannot be shown in this file and are named in the message instead.
+  const related = (report.related ?? []).filter((r) => !r.file && (r.range || (r.path && !callSiteAbove(caller, r.path))));
   if (site) {
     const inner = placeOf(caller, report.path!, (id) => (id === caller.id ? caller : undefined));
     if (inner.path.length) trace.push(`in ${site.callee} at ${inner.path.join('.')}`);
     return {
-      path: site.path, severity, trace,
+      path: site.path, severity, trace, ...(related.length ? { related } : {}),
       message: `With '${site.callee}' run by step '${site.step.id}': ${report.message}`,
       hint: report.hint ?? `Check the caller's limits and signals against '${site.callee}', or change the call.`,
     };
@@ -137,7 +140,7 @@ function combinationReport(finding: RawFinding, caller: Procedure, inlined: stri
   // In the caller's own text (its limits, a step after a call): reported there, naming the calls expanded.
   const named = [...new Set(inlined)].map((id) => `'${id}'`).join(', ');
   return {
-    ...(report.path ? { path: report.path, part: report.part } : {}), severity, trace,
+    ...(report.path ? { path: report.path, part: report.part } : {}), severity, trace, ...(related.length ? { related } : {}),
     message: `With ${named} run by this procedure's call${inlined.length === 1 ? '' : 's'}: ${report.message}`,
     hint: report.hint ?? `Check the caller's limits and signals against ${named}, or change the calls.`,
   };

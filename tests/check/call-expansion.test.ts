@@ -90,7 +90,10 @@ describe('call expansion pass', () => {
       const ownFinding = result.diagnostics.find((d) => d.file === 'p/high.md' && d.rule === rule)!;
       expect(pass.some((d) => d.message.endsWith(ownFinding.message))).toBe(false);
     }
-    expect(pass.some((d) => /150/.test(d.message))).toBe(true);
+    const combined = pass.find((d) => /150/.test(d.message))!;
+    expect(combined).toBeDefined();
+    // The caller's own limit it breaks is shown as a related place in the caller's file.
+    expect(combined.related?.map((r) => r.line)).toContain(lineOf(caller, 'high: 150 kPa'));
   });
 
   it('gives the same findings when the files come from the result cache (the pass reruns what it needs)', () => {
