@@ -78,9 +78,20 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
       }
       const foreign = [...firstOfText.values()].sort((a, b) => a.order - b.order).map(({ hazard, from }) => ({ hazard, from }));
       // Hazards the plant register states, with a condition, about the equipment and chemicals the procedure handles.
-      const fromRegister = registerHazardsOf(procedure)
-        .filter((r) => !ownTexts.has(r.hazard.when!.value) && declaredIn(r.hazard, expanded))
+      const registerHazards = registerHazardsOf(procedure)
+        .filter((r) => !ownTexts.has(r.hazard.when!.value))
         .filter((r) => !(emergencyKinds.has(procedure.kind) && r.hazard.level === 'notice'));
+      const fromRegister = registerHazards.filter((r) => undeclaredIn(r.hazard, expanded).length === 0);
+      for (const r of registerHazards) {
+        const missing = undeclaredIn(r.hazard, expanded);
+        if (!missing.length) continue;
+        ctx.report(file, {
+          path: r.hazard.path,
+          severity: 'info',
+          message: `Hazard '${r.hazard.hazard}' (stated in ${r.from}) was not checked here: its condition names ${missing.join(', ')}, which this procedure does not declare.`,
+          hint: `Declare ${missing.join(', ')} (or list ${missing.length > 1 ? 'them' : 'it'} under 'uses') so that the hazard is checked at every step.`,
+        });
+      }
       const all = [...own, ...foreign, ...fromRegister];
       if (!all.length) continue;
       const shared = expanded === procedure && !foreign.length && !fromRegister.length;
@@ -138,12 +149,12 @@ function registerHazardsOf(procedure: Procedure): Array<{ hazard: Hazard; from: 
   return out;
 }
 
-/** A register hazard applies when the procedure declares (or reads from the register) every signal it names. */
-function declaredIn(hazard: Hazard, here: Procedure): boolean {
+/** The signals a register hazard's condition names that the procedure does not declare (nor reads from the register). */
+function undeclaredIn(hazard: Hazard, here: Procedure): string[] {
   const parsed = parseCondition(hazard.when!.value);
-  if (!parsed.ok) return false;
+  if (!parsed.ok) return [];
   const names = [...new Set(namesIn(parsed.condition).map((n) => n.name))].filter((n) => n !== 'elapsed' && n !== 'done');
-  return names.length > 0 && names.every((n) => here.signals[n] !== undefined);
+  return names.filter((n) => here.signals[n] === undefined);
 }
 
 interface ForeignGroup {
