@@ -33,4 +33,8 @@ describe('plant-state rules cite their source', () => {
     expect(rules['retry-without-limit'].meta.source).toMatch(/common practice/i);
     expect(rules['state-not-analysed'].meta.source).toMatch(/common practice/i);
   });
+  it('trip-left-latched', () => {
+    // Source: IEC 61131-3 SFC action qualifiers S and R: a stored action lasts until it is reset; OSHA 29 CFR 1910.119(f)(1)(iv)
+    expect(rules['trip-left-latched'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iv\).*IEC 61131-3/);
+  });
 });

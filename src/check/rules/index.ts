@@ -11,6 +11,7 @@ import callRetiredProcedure from './call-retired-procedure.ts';
 import callRevisionMismatch from './call-revision-mismatch.ts';
 import callUnknownProcedure from './call-unknown-procedure.ts';
 import requiresCycle from './requires-cycle.ts';
+import tripLeftLatched from './trip-left-latched.ts';
 import lineUpContradictsRequired from './line-up-contradicts-required.ts';
 import ppeMissingForChemical from './ppe-missing-for-chemical.ts';
 import highLevelTripMissesFeed from './high-level-trip-misses-feed.ts';
@@ -128,6 +129,7 @@ export const rules = {
   'requires-unknown-procedure': requiresUnknownProcedure,
   'requires-not-in-force': requiresNotInForce,
   'requires-cycle': requiresCycle,
+  'trip-left-latched': tripLeftLatched,
   'line-up-contradicts-required': lineUpContradictsRequired,
   'ppe-missing-for-chemical': ppeMissingForChemical,
   'high-level-trip-misses-feed': highLevelTripMissesFeed,
