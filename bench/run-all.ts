@@ -56,11 +56,10 @@ let kept: { figures: Record<string, Figure>; scripts: Record<string, unknown> } 
 if (only?.length && existsSync(resultsPath)) {
   try {
     const before = JSON.parse(readFileSync(resultsPath, 'utf8')) as { quick?: boolean; figures?: Record<string, Figure>; scripts?: Record<string, unknown> };
-    const rerun = new Set(Object.keys(runs).map((s) => s.replace(/\.ts$/, '')));
-    const ranBefore = (f: Figure) => f.script !== undefined && rerun.has(f.script);
+    // Figures this run measured again replace the old ones, key by key; the rest keep their own time and load.
     if (before.quick === quick) {
       kept = {
-        figures: Object.fromEntries(Object.entries(before.figures ?? {}).filter(([, f]) => !ranBefore(f))),
+        figures: before.figures ?? {},
         scripts: Object.fromEntries(Object.entries(before.scripts ?? {}).filter(([name]) => !(name in runs))),
       };
     }
