@@ -146,6 +146,8 @@ export function readProcedureFiles(paths: string[], cwd: string): SourceInput[] 
   return readFoundFiles(findProcedureFiles(paths, cwd));
 }
 
+const utf8 = new TextDecoder('utf-8', { fatal: true });
+
 export function readFoundFiles(found: FoundFile[]): SourceInput[] {
   return found.map(({ file, absolute, missing, text: given }) => {
     if (missing) return { file, error: missing };
@@ -153,7 +155,7 @@ export function readFoundFiles(found: FoundFile[]): SourceInput[] {
     const read = readRegularFile(absolute, maxProcedureBytes);
     if ('error' in read) return { file, error: read.error };
     try {
-      const text = new TextDecoder('utf-8', { fatal: true }).decode(read.bytes);
+      const text = utf8.decode(read.bytes);
       return { file, text };
     } catch {
       return { file, error: 'it is not valid UTF-8 text' };
@@ -186,10 +188,17 @@ export function readRegularFile(path: string, limit: number): { bytes: Uint8Arra
     const opened = fstatSync(fd);
     const again = notRegular(opened);
     if (again) return { error: again };
-    const buffer = Buffer.alloc(limit + 1);
+    // Room for the size the file claims (plus one byte, to see it grow), grown as needed up to the limit: a
+    // buffer of the whole limit for every file cost more than reading a thousand procedures.
+    let buffer = Buffer.allocUnsafe(Math.min(limit + 1, Math.max(opened.size + 1, 16 * 1024)));
     let length = 0;
     while (length <= limit) {
-      const n = readSync(fd, buffer, length, limit + 1 - length, null);
+      if (length === buffer.length) {
+        const larger = Buffer.allocUnsafe(Math.min(limit + 1, buffer.length * 2));
+        buffer.copy(larger, 0, 0, length);
+        buffer = larger;
+      }
+      const n = readSync(fd, buffer, length, buffer.length - length, null);
       if (n === 0) break;
       length += n;
     }
