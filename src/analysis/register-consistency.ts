@@ -56,6 +56,10 @@ export function sameAmount(a: string | undefined, b: string | undefined): boolea
 
 /** Text compared the way a reader would: case, spaces and a final full stop do not matter. */
 export function sameWording(a: string | undefined, b: string | undefined): boolean {
-  const norm = (s: string | undefined) => (s ?? '').toLowerCase().replace(/\s+/g, ' ').trim().replace(/\.$/, '');
-  return norm(a) === norm(b);
+  return wording(a) === wording(b);
+}
+
+/** Text as sameWording compares it: lower case, spaces collapsed, no final full stop. */
+export function wording(s: string | undefined): string {
+  return (s ?? '').toLowerCase().replace(/\s+/g, ' ').trim().replace(/\.$/, '');
 }

@@ -1,5 +1,5 @@
 // Reports one interlock described differently in two procedures (when the plant register does not define it).
-import { conditionKey, sameWording } from '../../analysis/register-consistency.ts';
+import { conditionKey, sameWording, wording } from '../../analysis/register-consistency.ts';
 import type { Interlock } from '../../model/procedure.ts';
 import { defineManualRule, type FileContext } from '../define-rule.ts';
 
@@ -33,9 +33,16 @@ register defines are compared with it by \`register-conflict\` instead.`,
     }
     for (const [tag, uses] of byTag) {
       if (uses.length < 2) continue;
-      // The description most procedures use is the reference; on a tie, the first file's.
-      const agree = (a: Interlock, b: Interlock) => differences(a, b).length === 0;
-      const reference = uses.reduce((best, u) => (uses.filter((v) => agree(v.interlock, u.interlock)).length > uses.filter((v) => agree(v.interlock, best.interlock)).length ? u : best), uses[0]);
+      // The description most procedures use is the reference; on a tie, the first file's. Two declarations agree
+      // exactly when their descriptions (see description()) are equal, so they are counted, not compared in pairs.
+      const count = new Map<string, number>();
+      const keys = uses.map((u) => description(u.interlock));
+      for (const key of keys) count.set(key, (count.get(key) ?? 0) + 1);
+      let reference = uses[0];
+      let best = count.get(keys[0])!;
+      keys.forEach((key, i) => {
+        if (count.get(key)! > best) [reference, best] = [uses[i], count.get(key)!];
+      });
       for (const use of uses) {
         const found = differences(use.interlock, reference.interlock);
         if (!found.length) continue;
@@ -51,6 +58,16 @@ register defines are compared with it by \`register-conflict\` instead.`,
     }
   },
 );
+
+/**
+ * What differences() compares, as one string: the trip condition's canonical key (its text when it cannot be read;
+ * equal texts always have equal keys), the action as a reader reads it, and the latching.
+ */
+function description(interlock: Interlock): string {
+  const key = conditionKey(interlock.tripsWhen.value);
+  const trip = key === null ? `text:${interlock.tripsWhen.value.trim()}` : `key:${key}`;
+  return `${trip}\u0000${wording(interlock.action)}\u0000${interlock.latches}`;
+}
 
 function differences(here: Interlock, there: Interlock): string[] {
   const out: string[] = [];
