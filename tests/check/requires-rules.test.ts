@@ -1,4 +1,5 @@
 // The `requires` rules: unknown, not in force, and circles of required procedures.
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkSources } from '../../src/check/run-checks.ts';
 import { rules } from '../../src/check/rules/index.ts';
@@ -93,5 +94,20 @@ describe('requires', () => {
     expect(found.map((d) => `${d.file} ${d.message}`)).toEqual([
       "U2-A-001.md The line-up says XV-1 == closed, but U2-R-001, which this procedure requires, always ends with XV-1 = open.",
     ]);
+  });
+
+  it('reports exactly the requirements that lie on a circle, on random manuals (checked against a transitive closure)', () => {
+    const graph = fc.integer({ min: 1, max: 6 }).chain((n) => fc.tuple(fc.constant(n), fc.array(fc.tuple(fc.nat(n - 1), fc.nat(n - 1)), { maxLength: 10 })));
+    fc.assert(fc.property(graph, ([n, edges]) => {
+      const id = (i: number) => `U2-P-00${i}`;
+      const out = Array.from({ length: n }, (_, i) => [...new Set(edges.filter(([a]) => a === i).map(([, b]) => b))]);
+      const files = out.map((targets, i) => procedure(id(i), 'effective', targets.map(id)));
+      // reach[a][b]: b can be reached from a by one or more requirements.
+      const reach = Array.from({ length: n }, (_, a) => Array.from({ length: n }, (_, b) => out[a].includes(b)));
+      for (let k = 0; k < n; k++) for (let a = 0; a < n; a++) for (let b = 0; b < n; b++) if (reach[a][k] && reach[k][b]) reach[a][b] = true;
+      const expected = out.flatMap((targets, a) => targets.filter((b) => b === a || reach[b][a]).map((b) => `${id(a)}.md>${id(b)}`)).sort();
+      const found = of('requires-cycle', files).map((d) => `${d.file}>${d.trace![1]}`).sort();
+      expect(found).toEqual(expected);
+    }), { numRuns: 100 });
   });
 });
