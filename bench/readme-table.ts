@@ -24,6 +24,7 @@ const rows: Array<{ what: string; size: string; time: RegExp; ratio?: RegExp }> 
   { what: 'check, cold, whole process', size: '1,001', time: /^check\/\d+\/cold$/ },
   { what: 'check, cold, vs read + front-matter parse with positions', size: '1,001', time: /^check\/\d+\/cold$/, ratio: /^check\/\d+\/cold-ratio$/ },
   { what: 'check, cold, CPU time vs the same floor', size: '1,001', time: /^check\/\d+\/cold$/, ratio: /^check\/\d+\/cold-cpu-ratio$/ },
+  { what: 'check, warm cache, whole process', size: '1,001', time: /^check\/\d+\/warm$/ },
   { what: 'check, warm cache, vs the same floor', size: '1,001', time: /^check\/\d+\/warm$/, ratio: /^check\/\d+\/warm-ratio$/ },
   { what: '`stepwright --version` (installed package)', size: '—', time: /^startup\/version$/ },
   { what: '`stepwright check` of the demo manual, cold (installed package)', size: '13', time: /^startup\/check-demo$/ },
