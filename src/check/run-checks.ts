@@ -113,30 +113,32 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   // files together, so a run in which no file, register, configuration or date changed reads no file at all.
   const manualKey = store && keys.length === inputs.length ? cacheKey([shared, 'manual', options.today, ...keys]) : undefined;
   const knownManual = manualKey ? cachedManual(store!, manualKey, contexts) : undefined;
+  const byName = new Map(contexts.map((c) => [c.file, c]));
+  let manualFindings: CachedManual['files'] = [];
   if (knownManual) {
-    for (const { file, diagnostic } of knownManual.files) sink.get(contexts.find((c) => c.file === file)!)!.push(diagnostic);
+    for (const { file, diagnostic } of knownManual.files) sink.get(byName.get(file)!)!.push(diagnostic);
     registerDiagnostics.push(...knownManual.register);
   } else {
     const before = new Map(contexts.map((c) => [c, sink.get(c)!.length]));
     runEnginePasses(rules, contexts, ownFindings, emit);
     runManualRules(rules, contexts, options, emit, registerDiagnostics);
-    if (manualKey) {
-      const found: CachedManual = {
-        files: contexts.flatMap((c) => sink.get(c)!.slice(before.get(c)).map((diagnostic) => ({ file: c.file, diagnostic }))),
-        register: registerDiagnostics,
-      };
-      store!.set(manualKey, found);
-    }
+    manualFindings = contexts.flatMap((c) => sink.get(c)!.slice(before.get(c)).map((diagnostic) => ({ file: c.file, diagnostic })));
   }
 
+  // Waivers are looked up only where there is something to waive and the file has waivers at all; what they set
+  // aside is kept with the cross-file findings, so a run that changed nothing does not read those files either.
+  const waiverOutcomes: CachedManual['waivers'] = [];
+  const knownOutcomes = new Map(knownManual?.waivers.map((w) => [w.file, w]));
   for (const context of contexts) {
     const found = sink.get(context)!.sort(compareDiagnostics);
-    // Waivers are looked up only where there is something to waive and the file has waivers at all.
-    const { kept, waived } = found.length && context.summary?.waivers !== false
-      ? applyWaivers(context.procedure, context.source, found)
-      : { kept: found, waived: [] };
-    files.push(checkedFile(context, kept, waived));
+    let outcome: { kept: Diagnostic[]; waived: WaivedDiagnostic[] } = { kept: found, waived: [] };
+    if (found.length && context.summary?.waivers !== false) {
+      outcome = knownOutcomes.get(context.file) ?? applyWaivers(context.procedure, context.source, found);
+      waiverOutcomes.push({ file: context.file, ...outcome });
+    }
+    files.push(checkedFile(context, outcome.kept, outcome.waived));
   }
+  if (manualKey && !knownManual) store!.set(manualKey, { files: manualFindings, register: registerDiagnostics, waivers: waiverOutcomes } satisfies CachedManual);
   files.sort((a, b) => a.file.localeCompare(b.file));
   registerDiagnostics.sort(compareDiagnostics);
   return {
@@ -265,6 +267,8 @@ interface CachedFile {
 interface CachedManual {
   files: Array<{ file: string; diagnostic: Diagnostic }>;
   register: Diagnostic[];
+  /** Each file's findings split by its step waivers, for the files that waive a rule and have findings. */
+  waivers: Array<{ file: string; kept: Diagnostic[]; waived: WaivedDiagnostic[] }>;
 }
 
 /** A cached file entry, only when it has the shape this version writes (anything else is read afresh). */
@@ -279,7 +283,16 @@ function cachedManual(store: ResultCache, key: string, contexts: FileContext[]):
   const names = new Set(contexts.map((c) => c.file));
   if (!value || !Array.isArray(value.files) || !Array.isArray(value.register) || !value.register.every(isDiagnostic)) return undefined;
   if (!value.files.every((f) => f && typeof f === 'object' && names.has(f.file) && isDiagnostic(f.diagnostic) && f.diagnostic.file === f.file)) return undefined;
+  if (!Array.isArray(value.waivers) || !value.waivers.every((w) => w && typeof w === 'object' && names.has(w.file)
+    && Array.isArray(w.kept) && w.kept.every(isDiagnostic) && Array.isArray(w.waived) && w.waived.every(isWaived))) return undefined;
   return value as CachedManual;
+}
+
+function isWaived(value: unknown): value is WaivedDiagnostic {
+  if (!value || typeof value !== 'object') return false;
+  const { diagnostic, waiver } = value as { diagnostic?: unknown; waiver?: Record<string, unknown> };
+  return isDiagnostic(diagnostic) && !!waiver && typeof waiver === 'object' && typeof waiver.step === 'string' && typeof waiver.rule === 'string'
+    && typeof waiver.reason === 'string' && typeof waiver.line === 'number' && typeof waiver.column === 'number';
 }
 
 function isDiagnostic(value: unknown): value is Diagnostic {
