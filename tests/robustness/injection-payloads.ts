@@ -115,7 +115,8 @@ export function injectionProcedures(count = Math.ceil(payloads.length / fields.l
         mode: { text: `Kettle mode ${p('mode-text')}`, values: ['auto', 'manual'] },
       },
       limits: { 'TI-210': { low: '15 degC', high: '245 degC', consequence: p('limit-consequence'), correction: p('limit-correction') } },
-      interlocks: [{ tag: 'TSHH-210', 'trips-when': 'TI-210 >= 255 degC', action: p('interlock-action') }],
+      // Each procedure its own trip: one trip described differently in two procedures is an error of its own.
+      interlocks: [{ tag: `TSHH-${210 + k * 10}`, 'trips-when': 'TI-210 >= 255 degC', action: p('interlock-action') }],
       hazards: [{ level: 'warning', hazard: p('hazard'), consequence: p('hazard-consequence'), avoid: p('hazard-avoid'), at: ['heat-up'] }],
       steps: [
         {
