@@ -1,11 +1,22 @@
 import { defineConfig } from 'vitest/config';
 
+// Test files that replace a module with a mock need a module cache of their own.
+const needsOwnModules = ['tests/check/result-cache-reading.test.ts'];
+
 export default defineConfig({
   test: {
-    include: ['tests/**/*.test.ts'],
     testTimeout: 30_000,
     // Browser tests wait in their setup for the one shared demo build, which takes minutes on a busy 2-core machine.
     hookTimeout: 900_000,
     pool: 'forks',
+    projects: [
+      {
+        extends: true,
+        // One process imports the engine once for every file: starting a fresh process per file cost about
+        // four minutes of the suite's ten on a 2-core machine.
+        test: { name: 'shared', include: ['tests/**/*.test.ts'], exclude: needsOwnModules, isolate: false },
+      },
+      { extends: true, test: { name: 'own-modules', include: needsOwnModules, isolate: true } },
+    ],
   },
 });
