@@ -9,6 +9,9 @@ export default defineConfig({
     // Browser tests wait in their setup for the one shared demo build, which takes minutes on a busy 2-core machine.
     hookTimeout: 900_000,
     pool: 'forks',
+    // Two test processes: the browser and build tests wait on child processes much of the time (whole suite
+    // 466 s against 522 s with one, both under load from other work on a 2-core machine).
+    maxWorkers: 2,
     projects: [
       {
         extends: true,
