@@ -152,7 +152,7 @@ function runRules(file: FileContext, procedure: Procedure, facts: FileContext['f
   for (const rule of rules) {
     const context: FileContext = {
       file: file.file, source: file.source, procedure, schemaIssues: [], facts, today: file.today, readError: file.readError,
-      register: file.register, certificationIntervalMonths: file.certificationIntervalMonths, history: undefined,
+      register: file.register, certificationIntervalMonths: file.certificationIntervalMonths, ruleIds: file.ruleIds, history: undefined,
       report: (report: Report) => out.push({ rule: rule.meta, report }),
     };
     try {

@@ -62,6 +62,8 @@ export interface FileContext {
   register?: PlantRegister;
   /** Longest time between two certifications of a procedure in use, in months. */
   certificationIntervalMonths?: number;
+  /** The id of every rule the checker runs (what a waiver may name). */
+  ruleIds: readonly string[];
   report(report: Report): void;
 }
 

@@ -52,6 +52,9 @@ export interface CheckResult {
   register?: { register: PlantRegister; diagnostics: Diagnostic[] };
 }
 
+/** Every rule's id, for the rules that judge what a procedure names (waivers). */
+const allRuleIds: readonly string[] = allRules.map((r) => r.meta.id);
+
 export function checkSources(inputs: SourceInput[], options: CheckOptions): CheckResult {
   const rules = options.rules ?? allRules;
   const files: CheckedFile[] = [];
@@ -228,7 +231,7 @@ function lazyFileContext(
   let history: FileHistory | undefined | null = null;
   return {
     file: input.file, today: options.today, register: options.register,
-    certificationIntervalMonths: options.certificationIntervalMonths ?? 12,
+    certificationIntervalMonths: options.certificationIntervalMonths ?? 12, ruleIds: allRuleIds,
     get source() { return reading().source; },
     get procedure() { return reading().procedure; },
     get schemaIssues() { return reading().schemaIssues; },

@@ -2,8 +2,6 @@
 import { closest } from 'fastest-levenshtein';
 import { defineFileRule } from '../define-rule.ts';
 import { unwaivableRules } from '../waivers.ts';
-// A cycle with the registry, read only when the rule runs, after every module has loaded.
-import { rules } from './index.ts';
 
 export default defineFileRule(
   {
@@ -23,7 +21,7 @@ be waived.`,
   },
   (ctx) => {
     if (!ctx.facts) return;
-    const known = Object.keys(rules);
+    const known = ctx.ruleIds;
     for (const { step } of ctx.facts.steps) {
       for (const waiver of step.waivers ?? []) {
         if (unwaivableRules.has(waiver.rule)) {
