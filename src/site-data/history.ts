@@ -47,6 +47,20 @@ async function loadHistories(): Promise<Map<string, HistoryView>> {
   return out;
 }
 
+/** One committed revision of a procedure, with the revision before it: what a revision or redline page shows. */
+export interface RevisionPage { p: ProcedureView; entry: RevisionEntry; before?: RevisionEntry; history: HistoryView }
+
+/** Every committed revision of every procedure in the manual, oldest first per procedure. */
+export async function siteRevisions(): Promise<RevisionPage[]> {
+  const { view } = await siteManual();
+  const histories = await siteHistory();
+  return view.procedures.flatMap((p) => {
+    const history = histories.get(p.id);
+    if (!history) return [];
+    return history.revisions.map((entry, i) => ({ p, entry, before: history.revisions[i - 1], history }));
+  });
+}
+
 /** The same page model as the current procedure page, built from a committed revision's text. */
 export async function revisionPageView(entry: RevisionEntry): Promise<ProcedureView | undefined> {
   const { loaded } = await siteManual();
