@@ -26,7 +26,9 @@ Exit codes: 0 done (also when everything existed), 2 usage failure.
 
 /** The example procedure written by a plain init (a complete, approved procedure from the demo manual). */
 const exampleProcedure = join('unloading', 'u2-unl-xyl-001.md');
-const ignoreEntries = ['node_modules/', 'dist/', 'dist.versions/', '.stepwright/'];
+// The built manual's path is a link to its current version, and git matches a pattern ending in '/' only to a
+// folder: 'dist', not 'dist/', keeps it out of the repository.
+const ignoreEntries = ['node_modules/', 'dist', 'dist.versions/', '.stepwright/'];
 
 export async function runInit(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({
@@ -72,7 +74,7 @@ export async function runInit(argv: string[], io: CliIo): Promise<number> {
   const gitignore = join(root, '.gitignore');
   const present = existsSync(gitignore) ? readFileSync(gitignore, 'utf8') : '';
   const lines = new Set(present.split(/\r?\n/).map((l) => l.trim()));
-  const missing = ignoreEntries.filter((e) => !lines.has(e) && !lines.has(e.replace(/\/$/, '')) && !lines.has(`/${e}`));
+  const missing = ignoreEntries.filter((e) => !lines.has(e) && !lines.has(`/${e}`) && !(e.endsWith('/') && lines.has(e.slice(0, -1))));
   if (missing.length) {
     appendFileSync(gitignore, `${present && !present.endsWith('\n') ? '\n' : ''}${present ? '\n' : ''}# Stepwright: the built manual and its caches\n${missing.join('\n')}\n`);
     written.push(`.gitignore (${present ? 'added' : 'new:'} ${missing.join(' ')})`);

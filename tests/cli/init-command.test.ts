@@ -1,5 +1,6 @@
 // `stepwright init` sets up a plant repository and never overwrites what is there.
-import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -15,7 +16,7 @@ describe('stepwright init', () => {
     expect(run.code).toBe(0);
     expect(parse(readFileSync(join(dir, 'stepwright.config.yaml'), 'utf8'))).toEqual({ procedures: 'procedures', rules: {} });
     expect(readdirSync(join(dir, 'procedures', 'example'))).toEqual(['u2-unl-xyl-001.md']);
-    expect(readFileSync(join(dir, '.gitignore'), 'utf8').split('\n')).toEqual(expect.arrayContaining(['dist/', '.stepwright/', 'node_modules/']));
+    expect(readFileSync(join(dir, '.gitignore'), 'utf8').split('\n')).toEqual(expect.arrayContaining(['dist', 'dist.versions/', '.stepwright/', 'node_modules/']));
     const settings = JSON.parse(readFileSync(join(dir, '.vscode', 'settings.json'), 'utf8'));
     expect(Object.values(settings['yaml.schemas'])).toEqual([['procedures/**/*.md', 'procedures/**/*.yaml', 'procedures/**/*.yml']]);
     const workflow = parse(readFileSync(join(dir, '.github', 'workflows', 'procedures.yml'), 'utf8'));
@@ -23,6 +24,20 @@ describe('stepwright init', () => {
     const check = await runCli(['check'], dir);
     expect(check.stdout).toContain('0 errors');
     expect(check.code).toBe(0);
+  });
+
+  it('keeps the built manual out of git, although its path is a link to the version in use', async () => {
+    const dir = fresh();
+    expect(spawnSync('git', ['init', '-q'], { cwd: dir }).status).toBe(0);
+    // An earlier entry that ignores only a folder does not count as the entry.
+    writeFileSync(join(dir, '.gitignore'), 'dist/\n');
+    expect((await runCli(['init'], dir)).code).toBe(0);
+    mkdirSync(join(dir, 'dist.versions', 'site-1'), { recursive: true });
+    writeFileSync(join(dir, 'dist.versions', 'site-1', 'index.html'), '<p>built</p>\n');
+    symlinkSync(join('dist.versions', 'site-1'), join(dir, 'dist'));
+    const status = spawnSync('git', ['status', '--porcelain', '--untracked-files=all'], { cwd: dir, encoding: 'utf8' }).stdout;
+    expect(status).not.toMatch(/ dist/);
+    expect(status).toContain('.gitignore');
   });
 
   it('never overwrites a file and says what it left alone; a second run changes nothing', async () => {
