@@ -37,4 +37,9 @@ describe('plant-state rules cite their source', () => {
     // Source: IEC 61131-3 SFC action qualifiers S and R: a stored action lasts until it is reset; OSHA 29 CFR 1910.119(f)(1)(iv)
     expect(rules['trip-left-latched'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iv\).*IEC 61131-3/);
   });
+  it('trip-shares-alarm-sensor', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(iv) safety systems and their functions; ISA-5.1 loop numbering;
+    // independence of protection layers that share a sensor: common practice (IEC 61511-1, from memory)
+    expect(rules['trip-shares-alarm-sensor'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iv\).*ISA-5\.1.*common practice/);
+  });
 });
