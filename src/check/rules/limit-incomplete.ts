@@ -22,7 +22,7 @@ Missing content is a **warning** while the procedure is a \`draft\` and an **err
     low: 15 degC
     high: 245 degC
     consequence: Above 245 degC the resin gels and can vent through the scrubber
-    correction: Switch the jacket to cooling oil from E-222`,
+    correction: Close hot-oil valve XV-2101`,
     },
   },
   (ctx) => {
