@@ -8,10 +8,9 @@ import { UsageError, useColour, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
 import { linksOutsideBase, type SiteBase } from '../render/site-url.ts';
-import { indexSite } from './index-site.ts';
+import { finishPages } from './index-site.ts';
 import { publishSite, recoverSite } from './publish-site.ts';
 import { manifestFile, readPrivateKey, writeSiteManifest } from './site-manifest.ts';
-import { keepTokensWhole } from '../render/keep-tokens-whole.ts';
 import { siteConfig } from '../site/astro-config.ts';
 import { offlineReport } from './offline-report.ts';
 import { writeOfflineCopy, type OfflineCopySummary } from './write-offline-copy.ts';
@@ -138,29 +137,24 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
     await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base }), { sync: false } as Parameters<typeof build>[1]);
     progress.done(`${loaded.view.procedures.length} procedures`);
-    // Tags, ids and dates never break across lines, on every page (before the search index reads the pages).
-    await keepTokensWholeIn(work);
     // Under a sub-path, a link that leaves it is a broken page on the plant's server: the build stops.
     const leaving = await linksLeavingBase(work, base);
     if (leaving.length) {
       throw new Error(`pages link outside the base ${base}:\n${leaving.slice(0, 20).map((l) => `  ${l}`).join('\n')}${leaving.length > 20 ? `\n  … and ${leaving.length - 20} more` : ''}\n`);
     }
-    if (!values['no-index']) {
-      progress.phase('indexing for search');
-      await indexSite(work);
-      progress.done();
-    }
+    // One pass over the pages: tags, ids and dates never break across lines, on every page, and the search
+    // index reads the pages as kept.
+    if (!values['no-index']) progress.phase('indexing for search');
+    await finishPages(work, { index: !values['no-index'] });
+    if (!values['no-index']) progress.done();
     progress.phase('writing the offline copy');
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
     const places = loaded.view.procedures.map((p) => ({ slug: p.slug, area: p.area, kind: p.kind }));
     offline = await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`), places, previousSite: outDir, publishedUnder: base });
     // Very last: the SHA-256 of every file, signed when a key is given.
-    writeSiteManifest(work, { privateKey });
-    if (work !== tmp) {
-      cpSync(work, tmp, { recursive: true });
-      rmSync(work, { recursive: true, force: true });
-    }
+    writeSiteManifest(work, { privateKey, known: offline.hashes });
+    if (work !== tmp) moveFolder(work, tmp);
     publishSite(tmp, outDir);
     progress.done();
   } catch (error) {
@@ -177,6 +171,17 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${loaded.view.tags.length} tag pages into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
   if (offline) io.stdout.write(offlineReport(offline));
   return 0;
+}
+
+/** Moves a folder by renaming it; copies it only when the two places are on different file systems. */
+function moveFolder(from: string, to: string): void {
+  try {
+    renameSync(from, to);
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'EXDEV') throw error;
+    cpSync(from, to, { recursive: true });
+    rmSync(from, { recursive: true, force: true });
+  }
 }
 
 function isInside(path: string, folder: string): boolean {
@@ -225,15 +230,4 @@ export async function linksLeavingBase(dir: string, base: SiteBase): Promise<str
     for (const link of linksOutsideBase(await readFile(file, 'utf8'), base)) out.push(`${relative(dir, file).split(sep).join('/')}: ${link}`);
   }
   return out.sort();
-}
-
-async function keepTokensWholeIn(dir: string): Promise<void> {
-  const { readdir, readFile, writeFile } = await import('node:fs/promises');
-  for (const entry of await readdir(dir, { recursive: true, withFileTypes: true })) {
-    if (!entry.isFile() || !entry.name.endsWith('.html')) continue;
-    const file = join(entry.parentPath, entry.name);
-    const html = await readFile(file, 'utf8');
-    const kept = keepTokensWhole(html);
-    if (kept !== html) await writeFile(file, kept);
-  }
 }

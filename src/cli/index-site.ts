@@ -1,21 +1,57 @@
 // Indexes a built site for search. Pages are added one by one in sorted order: the index depends on the
 // order pages are added, and a folder listing's order differs between file systems (ext4, tmpfs, ...).
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { keepTokensWhole } from '../render/keep-tokens-whole.ts';
 import { siteFiles } from './site-manifest.ts';
 
+/** The attribute that marks a page's searchable part. */
+const bodyMark = 'data-pagefind-body';
+
 export async function indexSite(dir: string): Promise<void> {
-  const pagefind = await import('pagefind');
+  await finishPages(dir, { index: true });
+}
+
+/**
+ * The last pass over a built site's pages, each page read once: tags, ids and dates are kept whole on every
+ * page, and (with `index`) the pages are indexed for search. Once any page marks its searchable part, pagefind
+ * indexes only pages that do (its documented rule), so pages without the mark (tag lists, audit trails, rule
+ * pages) are not sent to it at all; when no page has the mark, every page is indexed as before.
+ */
+export async function finishPages(dir: string, options: { index: boolean }): Promise<void> {
+  const pagefind = options.index ? await import('pagefind') : undefined;
   try {
-    const { index, errors } = await pagefind.createIndex({});
-    if (!index) throw new Error(`pagefind: ${errors.join('; ')}`);
-    for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
-      const added = await index.addHTMLFile({ sourcePath: path, content: readFileSync(join(dir, ...path.split('/')), 'utf8') });
-      if (added.errors.length) throw new Error(`pagefind: ${path}: ${added.errors.join('; ')}`);
+    let index: Awaited<ReturnType<NonNullable<typeof pagefind>['createIndex']>>['index'];
+    if (pagefind) {
+      const created = await pagefind.createIndex({});
+      if (!created.index) throw new Error(`pagefind: ${created.errors.join('; ')}`);
+      index = created.index;
     }
+    const add = async (path: string, content: string) => {
+      const added = await index!.addHTMLFile({ sourcePath: path, content });
+      if (added.errors.length) throw new Error(`pagefind: ${path}: ${added.errors.join('; ')}`);
+    };
+    const unmarked: string[] = [];
+    let marked = 0;
+    for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
+      const file = join(dir, ...path.split('/'));
+      const html = readFileSync(file, 'utf8');
+      const kept = keepTokensWhole(html);
+      if (kept !== html) writeFileSync(file, kept);
+      if (!index) continue;
+      // A mention of the attribute in a page's text only sends one page more: pagefind still decides.
+      if (kept.includes(bodyMark)) {
+        marked++;
+        await add(path, kept);
+      } else {
+        unmarked.push(path);
+      }
+    }
+    if (!index) return;
+    if (marked === 0) for (const path of unmarked) await add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
     const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
     if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
   } finally {
-    await pagefind.close();
+    await pagefind?.close();
   }
 }

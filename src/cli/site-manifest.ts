@@ -45,9 +45,10 @@ export function hashFile(path: string): string {
   return createHash('sha256').update(readFileSync(path)).digest('hex');
 }
 
-export function buildManifest(siteDir: string): SiteManifest {
+/** `known`: hashes taken earlier in the same build of files left unchanged since (each file is read once). */
+export function buildManifest(siteDir: string, known?: ReadonlyMap<string, string>): SiteManifest {
   const files: Record<string, string> = {};
-  for (const path of siteFiles(siteDir)) files[path] = hashFile(join(siteDir, ...path.split('/')));
+  for (const path of siteFiles(siteDir)) files[path] = known?.get(path) ?? hashFile(join(siteDir, ...path.split('/')));
   return { format: 1, algorithm: 'sha256', files };
 }
 
@@ -56,8 +57,8 @@ export function manifestText(manifest: SiteManifest): string {
 }
 
 /** Writes the manifest (and its signature, with a private key) into the site folder. */
-export function writeSiteManifest(siteDir: string, options: { privateKey?: KeyObject } = {}): SiteManifest {
-  const manifest = buildManifest(siteDir);
+export function writeSiteManifest(siteDir: string, options: { privateKey?: KeyObject; known?: ReadonlyMap<string, string> } = {}): SiteManifest {
+  const manifest = buildManifest(siteDir, options.known);
   const text = manifestText(manifest);
   writeFileSync(join(siteDir, manifestFile), text);
   if (options.privateKey) writeFileSync(join(siteDir, signatureFile), `${sign(null, Buffer.from(text), options.privateKey).toString('base64')}\n`);

@@ -1,11 +1,12 @@
 // Post-build step (after pagefind): writes the offline copy's file list, the small publication record tablets
 // check, and the service worker (a plain copy of its code: no list inside, so it stays byte-identical between
 // publications and is not downloaded again).
+import { createHash } from 'node:crypto';
 import { readdir, readFile, writeFile } from 'node:fs/promises';
 import { join, relative, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import {
-  offlineFileList, publicationOf, updateCost, type BuiltFile, type OfflineFileList, type OfflinePublication, type ProcedurePlace, type UpdateCost,
+  offlineFileList, publicationOf, updateCost, type BuiltFile, type HashedFile, type OfflineFileList, type OfflinePublication, type ProcedurePlace, type UpdateCost,
 } from '../render/offline-manifest.ts';
 import { fragmentPages } from './pagefind-fragments.ts';
 
@@ -18,6 +19,8 @@ export interface OfflineCopySummary extends OfflinePublication {
   list: OfflineFileList;
   /** What a tablet holding the previous build's whole copy fetches; null when there was no previous build. */
   update: UpdateCost | null;
+  /** Path → hex SHA-256 of every file read for the list and left as it was read. */
+  hashes: Map<string, string>;
 }
 
 export interface OfflineCopyOptions {
@@ -37,20 +40,29 @@ export interface OfflineCopyOptions {
 }
 
 export async function writeOfflineCopy(siteDir: string, options: OfflineCopyOptions): Promise<OfflineCopySummary> {
-  const files: BuiltFile[] = [];
+  // Each file is read once and hashed as it is read; only the search fragments (small) stay in memory, to be
+  // tied to their pages. The hashes are handed on to the site manifest, which would read every file again.
+  const files: HashedFile[] = [];
+  const fragments: BuiltFile[] = [];
   for (const entry of await readdir(siteDir, { recursive: true, withFileTypes: true })) {
     if (!entry.isFile()) continue;
     const full = join(entry.parentPath, entry.name);
-    files.push({ path: relative(siteDir, full).split(sep).join('/'), bytes: await readFile(full) });
+    const path = relative(siteDir, full).split(sep).join('/');
+    const bytes = await readFile(full);
+    files.push({ path, sha256: createHash('sha256').update(bytes).digest('hex'), size: bytes.byteLength });
+    if (path.startsWith('pagefind/fragment/')) fragments.push({ path, bytes });
   }
-  const list = offlineFileList(files, { builtAt: options.now.toISOString(), places: options.places, fragmentPages: fragmentPages(files, options.base ?? '/') });
+  const list = offlineFileList(files, { builtAt: options.now.toISOString(), places: options.places, fragmentPages: fragmentPages(fragments, options.base ?? '/') });
   const publication = publicationOf(list);
   const previous = options.previousSite ? await readFileList(options.previousSite) : null;
+  const written = new Set(['sw.js', fileListName, publicationName]);
   await writeFile(join(siteDir, 'sw.js'), await readFile(workerCodeFile));
   await writeFile(join(siteDir, fileListName), formatFileList(list));
   const under = options.publishedUnder && options.publishedUnder !== '/' ? { base: options.publishedUnder } : {};
   await writeFile(join(siteDir, publicationName), `${JSON.stringify({ ...publication, list: fileListName, ...under })}\n`);
-  return { ...publication, list, update: previous ? updateCost(previous, list) : null };
+  // The files written just now are not among the hashes handed on.
+  const hashes = new Map(files.filter((f) => !written.has(f.path)).map((f) => [f.path, f.sha256]));
+  return { ...publication, list, update: previous ? updateCost(previous, list) : null, hashes };
 }
 
 /** One file per line: the list stays readable, and two publications compare line by line. */

@@ -9,6 +9,14 @@ export interface BuiltFile {
   bytes: Uint8Array;
 }
 
+/** A built file already hashed while it was read (its bytes need not stay in memory). */
+export interface HashedFile {
+  path: string;
+  /** Hex SHA-256 of the whole content. */
+  sha256: string;
+  size: number;
+}
+
 /** What the manual knows about a procedure page, so its files can be kept by area. */
 export interface ProcedurePlace {
   /** The folder name of its pages, e.g. "u2-k210-batch-001" for procedures/u2-k210-batch-001/. */
@@ -91,7 +99,7 @@ const byUrl = (a: { url: string }, b: { url: string }) => (a.url < b.url ? -1 : 
  * fragment (by path) to the page URL it describes.
  */
 export function offlineFileList(
-  files: BuiltFile[],
+  files: Array<BuiltFile | HashedFile>,
   options: { builtAt: string; places?: ProcedurePlace[]; fragmentPages?: Map<string, string> },
 ): OfflineFileList {
   const places = new Map((options.places ?? []).map((p) => [p.slug, p]));
@@ -105,7 +113,9 @@ export function offlineFileList(
     const url = urlOf(file.path);
     const page = options.fragmentPages?.get(file.path);
     const place = placeOfUrl(page ?? url);
-    const entry: OfflineEntry = { url, hash: contentHash(file.bytes), bytes: file.bytes.byteLength };
+    const entry: OfflineEntry = 'bytes' in file
+      ? { url, hash: contentHash(file.bytes), bytes: file.bytes.byteLength }
+      : { url, hash: file.sha256.slice(0, 32), bytes: file.size };
     if (place) entry.area = place.area;
     if (place && alwaysKeptKinds.includes(place.kind)) entry.always = true;
     if (page !== undefined) entry.page = page;

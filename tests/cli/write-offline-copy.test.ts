@@ -5,6 +5,7 @@ import { gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import { readFileList, writeOfflineCopy } from '../../src/cli/write-offline-copy.ts';
 import { offlineReport } from '../../src/cli/offline-report.ts';
+import { buildManifest, writeSiteManifest } from '../../src/cli/site-manifest.ts';
 
 async function site(pages: Record<string, string>): Promise<string> {
   const dir = await mkdtemp(join(tmpdir(), 'stepwright-offline-'));
@@ -60,5 +61,17 @@ describe('writeOfflineCopy', () => {
     expect(offlineReport(fresh)).toContain('No earlier build in the output folder');
     await rm(before, { recursive: true, force: true });
     await rm(after, { recursive: true, force: true });
+  });
+
+  it('hands on the hashes it took, so the site manifest reads no file twice and comes out the same', async () => {
+    const dir = await site({ 'index.html': '<h1>Manual</h1>', 'procedures/p-1/index.html': '<h1>P-1</h1>', 'a.css': 'body{}' });
+    const summary = await writeOfflineCopy(dir, { now: new Date('2026-12-01T00:00:00Z'), places });
+    // The three files written after the reading are not handed on (their hashes were not taken).
+    expect([...summary.hashes.keys()].sort()).toEqual(['a.css', 'index.html', 'procedures/p-1/index.html']);
+    expect(writeSiteManifest(dir, { known: summary.hashes })).toEqual(buildManifest(dir));
+    // A known hash is taken as given: the manifest is built once, at the end of the same build.
+    const planted = new Map([['a.css', '0'.repeat(64)]]);
+    expect(buildManifest(dir, planted).files['a.css']).toBe('0'.repeat(64));
+    await rm(dir, { recursive: true, force: true });
   });
 });

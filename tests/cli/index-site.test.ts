@@ -1,0 +1,80 @@
+// The last pass over a built site: tags kept whole on every page, and search indexing that sends pagefind only
+// the pages it indexes. The index must come out byte for byte as when every page is sent.
+import { createHash } from 'node:crypto';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { finishPages } from '../../src/cli/index-site.ts';
+import { siteFiles } from '../../src/cli/site-manifest.ts';
+
+const made: string[] = [];
+afterAll(() => {
+  for (const d of made) rmSync(d, { recursive: true, force: true });
+});
+
+function writeSite(pages: Record<string, string>): string {
+  const dir = mkdtempSync(join(tmpdir(), 'stepwright-finish-'));
+  made.push(dir);
+  for (const [path, html] of Object.entries(pages)) {
+    mkdirSync(join(dir, path, '..'), { recursive: true });
+    writeFileSync(join(dir, path), html);
+  }
+  return dir;
+}
+
+const page = (body: string) => `<!doctype html><html lang="en"><head><title>Page</title></head><body>${body}</body></html>`;
+const marked = Object.fromEntries(Array.from({ length: 12 }, (_, i) => [
+  `procedures/p-${String(i).padStart(2, '0')}/index.html`,
+  page(`<main data-pagefind-body><h1>Open valve XV-${2100 + i}</h1><p>Heat kettle K-${i % 5} to ${200 + i} degC.</p></main>`),
+]));
+const unmarked = Object.fromEntries(Array.from({ length: 12 }, (_, i) => [
+  `tags/t-${String(i).padStart(2, '0')}/index.html`,
+  page(`<h1>Where TI-${300 + i} is used</h1><p>Listed in ${i} procedures, drain valve unmarked${i}.</p>`),
+]));
+
+function indexHashes(dir: string): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const path of siteFiles(join(dir, 'pagefind'))) out[path] = createHash('sha256').update(readFileSync(join(dir, 'pagefind', path))).digest('hex');
+  return out;
+}
+
+/** The index as pagefind makes it when every page is sent (how the build indexed before). */
+async function indexEveryPage(dir: string): Promise<void> {
+  const pagefind = await import('pagefind');
+  try {
+    const { index } = await pagefind.createIndex({});
+    for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) await index!.addHTMLFile({ sourcePath: path, content: readFileSync(join(dir, path), 'utf8') });
+    await index!.writeFiles({ outputPath: join(dir, 'pagefind') });
+  } finally {
+    await pagefind.close();
+  }
+}
+
+describe('finishPages', () => {
+  it('gives the same index as sending every page, with only the marked pages sent', async () => {
+    const pages = { ...marked, ...unmarked };
+    const everyPage = writeSite(pages);
+    const onlyMarked = writeSite(pages);
+    await indexEveryPage(everyPage);
+    await finishPages(onlyMarked, { index: true });
+    const hashes = indexHashes(onlyMarked);
+    expect(Object.keys(hashes).filter((p) => p.startsWith('fragment/'))).toHaveLength(12);
+    // Tags are wrapped on the pages before they are indexed; wrapping changes no indexed word.
+    expect(readFileSync(join(onlyMarked, 'procedures/p-03/index.html'), 'utf8')).toContain('<span class="nb">XV-2103</span>');
+    expect(hashes).toEqual(indexHashes(everyPage));
+  }, 60_000);
+
+  it('indexes every page when no page marks its searchable part', async () => {
+    const dir = writeSite(unmarked);
+    await finishPages(dir, { index: true });
+    expect(siteFiles(join(dir, 'pagefind')).filter((p) => p.startsWith('fragment/'))).toHaveLength(12);
+  }, 60_000);
+
+  it('keeps tags whole without indexing when asked for no index', async () => {
+    const dir = writeSite({ 'tags/t-00/index.html': unmarked['tags/t-00/index.html'] });
+    await finishPages(dir, { index: false });
+    expect(readFileSync(join(dir, 'tags/t-00/index.html'), 'utf8')).toContain('<span class="nb">TI-300</span>');
+    expect(siteFiles(dir)).toEqual(['tags/t-00/index.html']);
+  });
+});
