@@ -66,7 +66,11 @@ export function planParts(layout: ChartLayout, box: PrintPageBox = defaultPrintB
 }
 
 export function renderChartPrintParts(procedure: Pick<Procedure, 'steps' | 'hazards'>, title: string, numbers?: StepNumbers, box: PrintPageBox = defaultPrintBox): ChartPart[] {
-  const layout = layoutChart(procedure, numbers);
+  return chartLayoutPrintParts(layoutChart(procedure, numbers), title, box);
+}
+
+/** The print parts of a chart already laid out (the page's screen chart uses the same layout). */
+export function chartLayoutPrintParts(layout: ChartLayout, title: string, box: PrintPageBox = defaultPrintBox): ChartPart[] {
   const plan = planParts(layout, box);
   if (plan.length < 2) return [];
   return plan.map(([y0, y1], i) => {

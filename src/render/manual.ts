@@ -7,8 +7,9 @@ import { areaName, type AreaSource } from './area-names.ts';
 import { renderBodyHtml } from './body-html.ts';
 import { conditionInWords } from './condition-words.ts';
 import { emergencyKinds, emergencyLead, type EmergencyLead } from './emergency-lead.ts';
-import { renderChartPrintParts } from './chart-print.ts';
-import { renderChartSvg } from './chart-svg.ts';
+import { chartLayoutPrintParts } from './chart-print.ts';
+import { chartLayoutToSvg } from './chart-svg.ts';
+import { layoutChart } from './chart-layout.ts';
 import { hazardRank, signalWordColours } from './signal-words.ts';
 import { numberSteps } from './step-numbers.ts';
 import { buildStepTable, type TableRow } from './step-table.ts';
@@ -187,6 +188,8 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
   const tagNames = [...new Set([...p.equipment, ...p.interlocks.map((i) => i.tag), ...Object.keys(p.signals)])];
   const steps = file.facts?.steps.length ?? 0;
   const rows = buildStepTable(p, numbers);
+  // One layout for the screen chart and its print parts.
+  const chart = layoutChart(p, numbers);
   return {
     id: p.id, slug, url: siteUrl(base, pagePath.procedure(slug)), file: p.file, area: areaName(areaOf(p.file, root), p.equipment, register), areaId: areaOf(p.file, root),
     title: p.title, kind: String(p.kind), kindLabel: kindLabel(String(p.kind)), revision: p.revision, status: String(p.status),
@@ -196,8 +199,8 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     equipment: p.equipment, ppe: p.ppe, banner: statusBanner(p, today), hazards,
     interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: siteUrl(base, pagePath.tag(slugOf(i.tag))) })),
     limits,
-    chartSvg: renderChartSvg(p, { title: `Sequence chart of ${p.id}, ${steps} steps` }, numbers),
-    chartPrintParts: renderChartPrintParts(p, `Sequence chart of ${p.id}`, numbers).map((part) => part.svg),
+    chartSvg: chartLayoutToSvg(chart, { title: `Sequence chart of ${p.id}, ${steps} steps` }),
+    chartPrintParts: chartLayoutPrintParts(chart, `Sequence chart of ${p.id}`).map((part) => part.svg),
     stepCount: steps,
     rows,
     bodyHtml: renderBodyHtml(p.body),

@@ -14,10 +14,22 @@ export function charWidthEm(ch: string): number {
   return 0.62;
 }
 
+/** charWidthEm of every ASCII character, looked up by code (the chart measures every character of every line). */
+const asciiWidths = Array.from({ length: 128 }, (_, code) => charWidthEm(String.fromCharCode(code)));
+
+function widthEm(ch: string): number {
+  const code = ch.charCodeAt(0);
+  return ch.length === 1 && code < 128 ? asciiWidths[code] : charWidthEm(ch);
+}
+
+/** The width in em of a text, adding from `em` (the width of the text before it) in reading order. */
+function addEm(em: number, text: string): number {
+  for (const ch of text) em += widthEm(ch);
+  return em;
+}
+
 export function textWidth(text: string, fontSize: number): number {
-  let em = 0;
-  for (const ch of text) em += charWidthEm(ch);
-  return Math.ceil(em * fontSize);
+  return Math.ceil(addEm(0, text) * fontSize);
 }
 
 /** Greedy word wrap by estimated width; a word longer than the line is broken where it must be. */
@@ -25,10 +37,13 @@ export function wrapText(text: string, maxWidth: number, fontSize: number): stri
   const words = text.replace(/\s+/g, ' ').trim().split(' ').filter(Boolean);
   const lines: string[] = [];
   let line = '';
+  // The line's width so far, added character by character as textWidth would (the same sums, to the last bit).
+  let lineEm = 0;
   const push = (word: string) => {
-    const candidate = line ? `${line} ${word}` : word;
-    if (textWidth(candidate, fontSize) <= maxWidth) {
-      line = candidate;
+    const candidateEm = addEm(line ? addEm(lineEm, ' ') : 0, word);
+    if (Math.ceil(candidateEm * fontSize) <= maxWidth) {
+      line = line ? `${line} ${word}` : word;
+      lineEm = candidateEm;
       return;
     }
     if (line) lines.push(line);
@@ -36,12 +51,14 @@ export function wrapText(text: string, maxWidth: number, fontSize: number): stri
     // Break an over-long token (a long tag or formula) into pieces that fit.
     let rest = word;
     while (textWidth(rest, fontSize) > maxWidth) {
-      let cut = rest.length - 1;
+      // At least one character per line: a character wider than the line still moves the wrap on.
+      let cut = Math.max(1, rest.length - 1);
       while (cut > 1 && textWidth(rest.slice(0, cut), fontSize) > maxWidth) cut--;
       lines.push(rest.slice(0, cut));
       rest = rest.slice(cut);
     }
     line = rest;
+    lineEm = addEm(0, rest);
   };
   for (const word of words) push(word);
   if (line) lines.push(line);
