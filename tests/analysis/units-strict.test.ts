@@ -132,3 +132,68 @@ steps:
     expect(parseQuantity('150 kPag')).toEqual({ ok: true, value: 150, unit: 'kPag' });
   });
 });
+
+describe('condition judgements that cross gauge and absolute pressure say so', () => {
+  // Source: NIST SP 811, Appendix B.8: standard atmosphere (atm) = 1.013 25 E+05 Pa; gauge = absolute - atmosphere.
+  const note = 'converting gauge to absolute pressure with the standard atmosphere, 101.325 kPa';
+  const procedure = (steps: string) => `---
+id: FX-P-002
+title: Pressure hold
+kind: normal
+revision: 0
+status: draft
+signals:
+  PI-1: { text: Vessel pressure (absolute), unit: kPaa, range: [0, 600] }
+steps:
+${steps}
+---
+`;
+  const messages = (steps: string, rule: string) => checkSources([{ file: 'p.md', text: procedure(steps) }], { today: '2026-12-01' })
+    .diagnostics.filter((d) => d.rule === rule).map((d) => d.message);
+  const branches = (first: string, second: string, before = 'PI-1 > 50 kPag') => `  - step: fill
+    do: Fill the vessel.
+    until: ${before}
+  - choose:
+      - when: ${first}
+        steps:
+          - { step: vent, do: Vent the vessel., until: done }
+      - when: ${second}
+        steps:
+          - { step: hold, do: Hold the vessel., until: done }`;
+
+  it('overlapping-branches: 110 kPag is 211.325 kPaa, so it overlaps >= 200 kPaa', () => {
+    const found = messages(branches('PI-1 >= 200 kPaa', 'PI-1 < 110 kPag'), 'overlapping-branches');
+    expect(found).toHaveLength(1);
+    expect(found[0]).toContain(note);
+    // The same overlap written in one reference needs no note.
+    const same = messages(branches('PI-1 >= 200 kPaa', 'PI-1 < 211.325 kPaa', 'PI-1 > 150 kPaa'), 'overlapping-branches');
+    expect(same).toHaveLength(1);
+    expect(same[0]).not.toContain('101.325');
+  });
+
+  it('uncovered-values: 90 kPag is 191.325 kPaa, leaving 191.325..200 kPaa uncovered', () => {
+    const found = messages(branches('PI-1 >= 200 kPaa', 'PI-1 < 90 kPag'), 'uncovered-values');
+    expect(found).toHaveLength(1);
+    expect(found[0]).toContain('191.325 kPaa <= PI-1 < 200 kPaa');
+    expect(found[0]).toContain(note);
+    // Exactly complementary across the references (98.675 kPag = 200 kPaa): nothing uncovered, nothing overlapping.
+    expect(messages(branches('PI-1 >= 200 kPaa', 'PI-1 < 98.675 kPag'), 'uncovered-values')).toEqual([]);
+    expect(messages(branches('PI-1 >= 200 kPaa', 'PI-1 < 98.675 kPag'), 'overlapping-branches')).toEqual([]);
+  });
+
+  it('contradictory-condition: above 150 kPag (251.325 kPaa) and below 200 kPaa cannot both hold', () => {
+    const found = messages('  - { step: hold, do: Hold the vessel., until: PI-1 > 150 kPag and PI-1 < 200 kPaa }', 'contradictory-condition');
+    expect(found).toHaveLength(1);
+    expect(found[0]).toContain(note);
+    expect(messages('  - { step: hold, do: Hold the vessel., until: PI-1 > 50 kPag and PI-1 < 200 kPaa }', 'contradictory-condition')).toEqual([]);
+  });
+
+  it('setpoint-blocks-transition: a 100 kPag setpoint (201.325 kPaa) never reaches 210 kPaa', () => {
+    const steps = (until: string) => `  - step: press\n    do: Pressurise the vessel.\n    set: { PI-1: 100 kPag }\n    until: ${until}`;
+    const found = messages(steps('PI-1 >= 210 kPaa'), 'setpoint-blocks-transition');
+    expect(found).toHaveLength(1);
+    expect(found[0]).toContain(note);
+    expect(messages(steps('PI-1 >= 201 kPaa'), 'setpoint-blocks-transition')).toEqual([]);
+    expect(messages(steps('PI-1 >= 110 kPag'), 'setpoint-blocks-transition')[0]).not.toContain('101.325');
+  });
+});

@@ -2,6 +2,7 @@
 import { namesIn } from '../../analysis/conditions/parse.ts';
 import { analyseDecisions } from '../../analysis/decisions/analyse-decisions.ts';
 import { neverTrue } from '../../analysis/decisions/never-true.ts';
+import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts';
 import type { Condition } from '../../analysis/conditions/ast.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -34,9 +35,10 @@ outside the declared range is reported by threshold-outside-range instead.`,
         'line-up': 'the procedure can never be started',
         'hazard-when': 'the hazard is never checked',
       }[site.role];
+      const note = conditionPressureNote([site.result.condition], (n) => signals[n]?.unit);
       ctx.report({
         path: site.path,
-        message: `'${site.text}' can never be true: no value of ${names(site.result.condition)} satisfies it, so ${role}.`,
+        message: `'${site.text}' can never be true: no value of ${names(site.result.condition)} satisfies it${note}, so ${role}.`,
         hint: 'Check the comparison operators and the thresholds; perhaps "or" was meant, or the bounds are swapped.',
       });
     }
@@ -49,9 +51,10 @@ outside the declared range is reported by threshold-outside-range instead.`,
         if (!when?.result.ok || when.problems.length) continue;
         if (neverTrue([when.result.condition], signals) !== false || neverTrue([until.result.condition], signals) !== false) continue;
         if (neverTrue([until.result.condition, when.result.condition], signals) !== true) continue;
+        const note = conditionPressureNote([until.result.condition, when.result.condition], (n) => signals[n]?.unit);
         ctx.report({
           path: when.path,
-          message: `This branch can never be taken: '${when.text}' contradicts the step's own until '${until.text}', which must also hold.`,
+          message: `This branch can never be taken: '${when.text}' contradicts the step's own until '${until.text}', which must also hold${note}.`,
           hint: "Move the step's until into the branch conditions, or correct the thresholds.",
           related: [{ path: until.path, message: "the step's until" }],
         });

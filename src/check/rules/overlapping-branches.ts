@@ -1,5 +1,7 @@
 // Reports two branches of a decision that can be true at the same time, with values that make both true.
 import { analyseDecisions } from '../../analysis/decisions/analyse-decisions.ts';
+import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts';
+import type { PathKey } from '../../parse/read-source.ts';
 import { defineFileRule } from '../define-rule.ts';
 
 export default defineFileRule(
@@ -21,14 +23,21 @@ that make both branches true. A step's own \`until\` is part of each branch's co
   },
   (ctx) => {
     if (!ctx.facts || !ctx.procedure) return;
-    for (const decision of analyseDecisions(ctx.facts)) {
+    const facts = ctx.facts;
+    const signals = ctx.procedure.signals;
+    const parsed = (path: readonly PathKey[] | undefined) => {
+      const site = path ? facts.conditionAt(path) : undefined;
+      return site?.result.ok ? [site.result.condition] : [];
+    };
+    for (const decision of analyseDecisions(facts)) {
       for (const overlap of decision.overlaps) {
         const a = decision.block.branches[overlap.a];
         const b = decision.block.branches[overlap.b];
         if (!a.when || !b.when) continue;
+        const note = conditionPressureNote([...parsed(a.when.path), ...parsed(b.when.path), ...parsed(decision.before?.path)], (n) => signals[n]?.unit);
         ctx.report({
           path: b.when.path,
-          message: `Branches ${overlap.a + 1} and ${overlap.b + 1} can both be true: both are true when ${overlap.witness.join(' and ') || 'any values'} ('${a.when.value}' and '${b.when.value}').`,
+          message: `Branches ${overlap.a + 1} and ${overlap.b + 1} can both be true: both are true when ${overlap.witness.join(' and ') || 'any values'} ('${a.when.value}' and '${b.when.value}')${note}.`,
           hint: 'Make the conditions exclusive, e.g. pair < with >=, or > with <=, at the same threshold.',
           related: [{ path: a.when.path, message: `branch ${overlap.a + 1}: ${a.when.value}` }],
         });

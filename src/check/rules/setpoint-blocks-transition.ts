@@ -1,6 +1,7 @@
 // Reports a step whose own setpoint keeps its until false: held at the setpoint, the step never ends.
 import { evaluateCondition } from '../../analysis/evaluate-condition.ts';
 import { toBase } from '../../analysis/units.ts';
+import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts';
 import { defineFileRule } from '../define-rule.ts';
 
 export default defineFileRule(
@@ -28,9 +29,10 @@ is reported.`,
       if (base === null) continue;
       const known = new Map([[site.signal, { kind: 'number' as const, base }]]);
       if (evaluateCondition(until.result.condition, known) !== false) continue;
+      const note = conditionPressureNote([until.result.condition], () => undefined, [{ signal: site.signal, unit: site.quantity.unit }]);
       ctx.report({
         path: step.until.path,
-        message: `Step '${step.id}' sets ${site.signal} to ${site.text}, but its until '${until.text}' is false at that setpoint: held there, the step never ends.`,
+        message: `Step '${step.id}' sets ${site.signal} to ${site.text}, but its until '${until.text}' is false at that setpoint${note}: held there, the step never ends.`,
         hint: 'Set the signal beyond the threshold, or wait for a value the setpoint reaches.',
         related: [{ path: site.path, message: `setpoint ${site.signal}: ${site.text}` }],
       });

@@ -1,5 +1,6 @@
 // Reports signal values for which no branch of a decision is true: the sequence would wait there.
 import { analyseDecisions } from '../../analysis/decisions/analyse-decisions.ts';
+import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts';
 import { defineFileRule } from '../define-rule.ts';
 
 export default defineFileRule(
@@ -28,10 +29,17 @@ count, nor does waiting while \`elapsed\` is below a time limit, since time goes
       const more = decision.gap.length > 3 ? ` and ${decision.gap.length - 3} more` : '';
       const witness = space.witness(decision.gap[0]).join(' and ') || 'any values';
       const after = decision.before ? ` once '${decision.before.text}' holds` : '';
+      const facts = ctx.facts;
+      const conditions = [...decision.block.branches.map((b) => b.when?.path), decision.before?.path].flatMap((path) => {
+        const site = path ? facts.conditionAt(path) : undefined;
+        return site?.result.ok ? [site.result.condition] : [];
+      });
+      const signals = ctx.procedure.signals;
+      const note = conditionPressureNote(conditions, (n) => signals[n]?.unit);
       ctx.report({
         path: [...decision.block.path, 'choose'],
         part: 'key',
-        message: `No branch is true when ${witness}${after}: the sequence would wait here (uncovered: ${shown.join('; ')}${more}).`,
+        message: `No branch is true when ${witness}${after}: the sequence would wait here (uncovered: ${shown.join('; ')}${more})${note}.`,
         hint: "Add a branch with 'otherwise: true', or widen a condition to cover these values (e.g. < to <=).",
         related: decision.before ? [{ path: decision.before.path, message: "the step's own until, part of every branch" }] : undefined,
       });
