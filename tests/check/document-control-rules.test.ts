@@ -1,0 +1,122 @@
+// Document-control rules, one by one, each against the OSHA paragraph it rests on: the review date, the yearly
+// certification, overdue reviews and temporary procedures with their end date.
+import { describe, expect, it } from 'vitest';
+import { checkSources } from '../../src/check/run-checks.ts';
+
+const today = '2026-12-01';
+
+interface Options {
+  kind?: string;
+  status?: string;
+  extra?: string;
+  interval?: number;
+}
+
+function procedure({ kind = 'normal', status = 'effective', extra = '' }: Options): string {
+  return `---
+id: FX-DC-010
+title: Drain the hot-oil header
+kind: ${kind}
+revision: 1
+status: ${status}
+effective: 2026-03-10
+approvals:
+  - { role: Process engineer, name: A. Writer, date: 2026-03-01, meaning: Authored }
+  - { role: Operations manager, name: B. Signer, date: 2026-03-05, meaning: Approved for use }
+${extra}
+steps:
+  - step: drain
+    do: Open the header drain.
+    confirm: Drain is open
+---
+`;
+}
+
+function found(rule: string, options: Options) {
+  return checkSources([{ file: 'p.md', text: procedure(options) }], { today, certificationIntervalMonths: options.interval })
+    .diagnostics.filter((d) => d.rule === rule);
+}
+
+describe('review-date-missing', () => {
+  // Source: OSHA 29 CFR 1910.119(f)(3): operating procedures are certified annually as current and accurate.
+  it('is an error for an effective or approved procedure without review-by', () => {
+    for (const status of ['effective', 'approved']) {
+      const d = found('review-date-missing', { status });
+      expect(d, status).toHaveLength(1);
+      expect(d[0].severity).toBe('error');
+      expect(d[0].message).toContain('yearly certification');
+    }
+  });
+  it('is silent once review-by is given, and for procedures not in use', () => {
+    expect(found('review-date-missing', { extra: 'review-by: 2027-03-10' })).toEqual([]);
+    for (const status of ['draft', 'in-review', 'superseded', 'retired']) expect(found('review-date-missing', { status }), status).toEqual([]);
+  });
+});
+
+describe('review-interval-too-long', () => {
+  // Source: OSHA 29 CFR 1910.119(f)(3): certified annually, so at most 12 months between certifications.
+  it('refuses a review date six years away', () => {
+    const d = found('review-interval-too-long', { extra: 'review-by: 2032-03-10' });
+    expect(d).toHaveLength(1);
+    expect(d[0].severity).toBe('error');
+    expect(d[0].message).toContain('due by 2027-03-10');
+  });
+  it('allows exactly 12 months after the effective date, not a day more', () => {
+    expect(found('review-interval-too-long', { extra: 'review-by: 2027-03-10' })).toEqual([]);
+    expect(found('review-interval-too-long', { extra: 'review-by: 2027-03-11' })).toHaveLength(1);
+  });
+  it('counts from the newest certification record, which is separate from the approvals', () => {
+    const certified = 'certifications:\n  - { name: C. Certifier, role: Operations superintendent, date: 2026-11-02 }\n';
+    expect(found('review-interval-too-long', { extra: `${certified}review-by: 2027-11-02` })).toEqual([]);
+    expect(found('review-interval-too-long', { extra: `${certified}review-by: 2027-11-03` })[0].message).toContain('certified 2026-11-02');
+    // Approvals are not certifications: a later signature does not move the due date.
+    const lateApproval = procedure({ extra: 'review-by: 2027-11-02' }).replace('date: 2026-03-05', 'date: 2026-11-02');
+    const d = checkSources([{ file: 'p.md', text: lateApproval }], { today }).diagnostics.filter((x) => x.rule === 'review-interval-too-long');
+    expect(d).toHaveLength(1);
+  });
+  it('takes a shorter interval from the configuration', () => {
+    expect(found('review-interval-too-long', { extra: 'review-by: 2027-03-10', interval: 6 })[0].message).toContain('due by 2026-09-10');
+  });
+});
+
+describe('review-overdue', () => {
+  // Source: OSHA 29 CFR 1910.119(f)(3): the yearly certification lapses once its date has passed.
+  it('warns after the review date, not on it', () => {
+    const d = found('review-overdue', { extra: 'review-by: 2026-11-30' });
+    expect(d).toHaveLength(1);
+    expect(d[0].severity).toBe('warning');
+    expect(found('review-overdue', { extra: `review-by: ${today}` })).toEqual([]);
+    expect(found('review-overdue', { status: 'superseded', extra: 'review-by: 2026-11-30' })).toEqual([]);
+  });
+});
+
+describe('temporary procedures', () => {
+  // Source: OSHA 29 CFR 1910.119(f)(1)(i)(C): procedures for temporary operations; (l)(2)(iv): the time period of a temporary change.
+  it('temporary-without-end: a temporary procedure in review or in use needs an end date', () => {
+    for (const status of ['in-review', 'approved', 'effective']) {
+      const d = found('temporary-without-end', { kind: 'temporary', status, extra: 'review-by: 2027-03-10\nmodifies: [U2-K210-BATCH-001]' });
+      expect(d, status).toHaveLength(1);
+      expect(d[0].severity).toBe('error');
+    }
+    expect(found('temporary-without-end', { kind: 'temporary', status: 'draft' })).toEqual([]);
+    expect(found('temporary-without-end', { kind: 'temporary', extra: 'review-by: 2027-01-15\nexpires: 2027-01-15' })).toEqual([]);
+    // Only temporary procedures carry an end date.
+    expect(found('temporary-without-end', { extra: 'review-by: 2027-03-10' })).toEqual([]);
+  });
+
+  it('the issue case: no end date and a review date six years away gives both errors', () => {
+    const options = { kind: 'temporary', extra: 'review-by: 2032-12-01' };
+    expect(found('temporary-without-end', options)).toHaveLength(1);
+    expect(found('review-interval-too-long', options)).toHaveLength(1);
+  });
+
+  it('temporary-expired: an error the day after the end date, while approved or effective', () => {
+    const expired = { kind: 'temporary', extra: 'review-by: 2027-03-10\nexpires: 2026-11-30' };
+    const d = found('temporary-expired', expired);
+    expect(d).toHaveLength(1);
+    expect(d[0].severity).toBe('error');
+    expect(d[0].message).toContain('expired on 2026-11-30');
+    expect(found('temporary-expired', { ...expired, extra: `review-by: 2027-03-10\nexpires: ${today}` })).toEqual([]);
+    expect(found('temporary-expired', { ...expired, status: 'retired' })).toEqual([]);
+  });
+});
