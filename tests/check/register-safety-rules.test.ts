@@ -19,6 +19,19 @@ describe('GHS hazard statements', () => {
     expect(least('H410')).toEqual(['notice']);
   });
 
+  it('knows the GHS codes that the EU CLP regulation does not adopt, and the desensitised explosives', () => {
+    // Source: GHS (UN), Annex 3, tables A3.1.2 and A3.1.3: H303, H305, H313, H316, H320, H333 (lower acute and
+    // irritation categories) and H401, H402 (acute aquatic 2 and 3) — listed from memory
+    for (const code of ['H303', 'H305', 'H313', 'H316', 'H320', 'H333']) expect(least(code), code).toEqual(['caution']);
+    for (const code of ['H401', 'H402']) expect(least(code), code).toEqual(['notice']);
+    // Source: EU CLP Regulation (EC) 1272/2008, Annex I, Table 2.17.2: H206, H207, H208 desensitised explosives
+    for (const code of ['H206', 'H207', 'H208']) expect(least(code), code).toEqual(['warning']);
+    // Source: GHS (UN), Annex 3, table A3.1.1: H232 pyrophoric gas; H282, H283 flammable chemicals under pressure — from memory
+    for (const code of ['H232', 'H282', 'H283']) expect(least(code), code).toEqual(['warning']);
+    // EU-only supplementary codes are not GHS hazard statements: not in the table (reported as not checked).
+    expect(hazardStatements('EUH066')).toEqual([]);
+  });
+
   it('reads combined codes and sub-categories, and gives nothing for an unknown code', () => {
     // Source: GHS (UN), Annex 3, combined statements such as H301+H311; CLP sub-categories such as H360FD
     expect(hazardStatements('H301+H311').map((s) => s.code)).toEqual(['H301', 'H311']);

@@ -31,6 +31,8 @@ injury (flammable liquids, toxic, corrosive, serious eye damage H318, respirator
 CAUTION for harmful, irritant and skin-sensitising codes; codes that harm only the environment ask for nothing
 here. A register hazard with a \`when\` condition is not asked for here: hazard-can-occur checks that no step of the
 procedure can reach it. In \`emergency\` and \`emergency-shutdown\` procedures a register NOTICE does not apply.
+A code the checker does not know (an EU-only EUH code, a mistyped code) is reported as information: the level it
+calls for was not checked.
 
 Fix it by adding the hazard to the procedure (level, hazard naming the item, consequence, how to avoid it), or by
 raising the level of the one it has.`,
@@ -47,6 +49,15 @@ raising the level of the one it has.`,
       const entry = use.entry;
       if (!entry || seen.has(entry.id) || (entry.section !== 'chemicals' && entry.section !== 'equipment')) continue;
       seen.add(entry.id);
+      const unknown = entry.section === 'chemicals' ? unknownCodes(entry.hazardStatements) : [];
+      if (entry.section === 'chemicals' && unknown.length) {
+        ctx.report({
+          path: use.path,
+          severity: 'info',
+          message: `The plant register gives ${entry.name} the code${unknown.length > 1 ? 's' : ''} ${unknown.join(', ')}, which the checker does not know; the hazard level ${unknown.length > 1 ? 'they call' : 'it calls'} for was not checked.`,
+          hint: 'Check the code against the safety data sheet (GHS hazard statements run from H200 to H420); if it is right, make sure a hazard of this procedure states it at the level it needs.',
+        });
+      }
       const needs = needsOf(entry).filter((n) => !(emergencyKinds.has(p.kind) && n.level === 'notice'));
       if (!needs.length) continue;
       const highest = needs.reduce((a, b) => (levelRank[b.level] > levelRank[a.level] ? b : a));
@@ -70,6 +81,11 @@ raising the level of the one it has.`,
     }
   },
 );
+
+/** The codes (or parts of combined codes) that the hazard statement table does not hold. */
+function unknownCodes(codes: string[]): string[] {
+  return codes.flatMap((code) => code.split('+').map((c) => c.trim()).filter((c) => hazardStatements(c).length === 0));
+}
 
 function needsOf(entry: RegisterChemical | RegisterEquipment): Need[] {
   const out: Need[] = [];
