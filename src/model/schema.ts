@@ -126,7 +126,8 @@ export const stepSchema = z.strictObject({
   'if-not': z.strictObject({
     do: doSchema.optional().describe('The response: actions to take when the expected result does not come.'),
     goto: z.string().optional().describe('Step id to go to instead.'),
-  }).optional().describe('What to do when the step\'s expected result does not come (a response with actions, or a jump).'),
+  }).refine((o) => o.do !== undefined || o.goto !== undefined, { message: "needs a response: 'do' with the actions to take, 'goto' with the step to go to, or both" })
+    .optional().describe('What to do when the step\'s expected result does not come (a response with actions, or a jump).'),
 });
 
 export type StepInput = z.infer<typeof stepSchema>;
