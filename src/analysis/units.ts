@@ -37,8 +37,9 @@ function defineUnits(math: MathJsInstance): MathJsInstance {
   math.createUnit('Torr', { definition: `${101325 / 760} Pa`, aliases: ['torr'] }, { override: true });
   // mathjs derives psi from a rounded pound-force; use the exact definition (lb × standard gravity / in²).
   math.createUnit('psi', { definition: `${psiInPa} Pa` }, { override: true });
-  // Conventional inch of mercury, NIST SP 811 Appendix B.8: 3.386 389 E+03 Pa.
-  math.createUnit('inHg', { definition: '3386.389 Pa' }, { override: true });
+  // Conventional inch of mercury: a column of 25.4 mm at 13.5951 g/cm³ under standard gravity, the same basis as mmHg
+  // above, so 1 inHg is exactly 25.4 mmHg = 3386.388640341 Pa (NIST SP 811 Appendix B.8 prints it as 3.386 389 E+03).
+  math.createUnit('inHg', { definition: `${133.322387415 * 25.4} Pa` }, { override: true });
   // US liquid gallon, exactly 231 in³ = 3.785411784 L (NIST SP 811 B.8), named as such; and the petroleum barrel of
   // 42 US gallons = 0.158987294928 m³ (SP 811 B.8), never the 31-gallon beer barrel.
   math.createUnit('USgal', { definition: '3.785411784 L' }, { override: true });

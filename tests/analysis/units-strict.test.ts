@@ -68,8 +68,12 @@ describe('exact factors', () => {
 
   it('inch of mercury', () => {
     // Source: NIST SP 811, Appendix B.8: inch of mercury, conventional (inHg) = 3.386 389 E+03 Pa.
-    expect(toBase(1, 'inHg')).toBeCloseTo(3386.389, 6);
-    expect(convert(29.92, 'inHg', 'kPa')).toBeCloseTo(101.3207589, 6);
+    expect(toBase(1, 'inHg')).toBeCloseTo(3386.389, 3);
+    // Source: NIST SP 811, Appendix B.8: both "conventional": a mercury column of 13.5951 g/cm3 under standard gravity
+    // 9.80665 m/s2 (from memory), so 1 inHg is exactly 25.4 mmHg = 3386.388640341 Pa.
+    expect(toBase(1, 'inHg')).toBeCloseTo(3386.388640341, 8);
+    expect(convert(1, 'inHg', 'mmHg')).toBeCloseTo(25.4, 12);
+    expect(convert(29.92, 'inHg', 'kPa')).toBeCloseTo(101.3207482, 6);
   });
 
   it('metric tonne', () => {
@@ -195,5 +199,53 @@ ${steps}
     expect(found[0]).toContain(note);
     expect(messages(steps('PI-1 >= 201 kPaa'), 'setpoint-blocks-transition')).toEqual([]);
     expect(messages(steps('PI-1 >= 110 kPag'), 'setpoint-blocks-transition')[0]).not.toContain('101.325');
+  });
+});
+
+describe('the added units through the checker', () => {
+  const procedure = (set: string) => `---
+id: FX-TF-001
+title: Fill tank T-250
+kind: normal
+revision: 0
+status: draft
+signals:
+  LV-250: { text: Tank T-250 contents, unit: m3, range: [0, 150] }
+  FI-251: { text: Fill flow, unit: gpm, range: [0, 800] }
+  PI-252: { text: Vapour space pressure (absolute), unit: inHg, range: [0, 35] }
+limits:
+  LV-250: { high: 100 m3, consequence: Tank overfills into the bund, correction: Stop the fill pump }
+  FI-251: { high: 100 m3/h, consequence: Static charge in the fill line, correction: Throttle the fill valve }
+  PI-252: { low: 28 inHg, consequence: The tank roof buckles under vacuum, correction: Stop the pump-out and check the vacuum breaker }
+steps:
+  - step: fill
+    do: Fill the tank.
+    set: { ${set} }
+    until: LV-250 >= 10 m3
+---
+`;
+  const outside = (set: string) => checkSources([{ file: 't.md', text: procedure(set) }], { today: '2026-12-01' }).diagnostics;
+
+  it('reads gpm and inHg as units, not as unknown-unit', () => {
+    expect(outside('LV-250: 50 m3').filter((d) => d.rule === 'unknown-unit')).toEqual([]);
+  });
+
+  it('a 700 bbl setpoint is 111.29 m3, above a 100 m3 high limit', () => {
+    // Source: NIST SP 811, Appendix B.8: barrel [for petroleum, 42 gallons (U.S.)] = 1.589 873 E-01 m3.
+    const found = outside('LV-250: 700 bbl').filter((d) => d.rule === 'setpoint-outside-limits');
+    expect(found).toHaveLength(1);
+    expect(found[0].message).toContain('111.29');
+    // 600 petroleum barrels is 95.39 m3: inside the limit.
+    expect(outside('LV-250: 600 bbl').filter((d) => d.rule === 'setpoint-outside-limits')).toEqual([]);
+  });
+
+  it('US gallons per minute and inches of mercury are compared with the limits exactly', () => {
+    // Source: NIST SP 811, Appendix B.8: gallon (U.S.) per minute = 6.309 020 E-05 m3/s, so 100 m3/h = 440.29 gpm.
+    expect(outside('FI-251: 440 gpm').filter((d) => d.rule === 'setpoint-outside-limits')).toEqual([]);
+    expect(outside('FI-251: 441 gpm').filter((d) => d.rule === 'setpoint-outside-limits')).toHaveLength(1);
+    // 28 inHg = 94.82 kPa; 711.2 mmHg is the same pressure, 711 mmHg just below it.
+    expect(outside('PI-252: 27.9 inHg').filter((d) => d.rule === 'setpoint-outside-limits')).toHaveLength(1);
+    expect(outside('PI-252: 711.2 mmHg').filter((d) => d.rule === 'setpoint-outside-limits')).toEqual([]);
+    expect(outside('PI-252: 711 mmHg').filter((d) => d.rule === 'setpoint-outside-limits')).toHaveLength(1);
   });
 });
