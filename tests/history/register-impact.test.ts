@@ -47,6 +47,24 @@ describe('register change impact in review', () => {
     expect(section.split('\n').filter((l) => /^\| [A-Za-z]/.test(l) && !l.startsWith('| Register entry'))).toHaveLength(1);
   });
 
+  it('does not flag a procedure that was revised with the register change', async () => {
+    const file = join(repo.dir, 'register', 'k-210.yaml');
+    const batch = join(repo.dir, 'procedures', 'k-210-resin', 'u2-k210-batch-001.md');
+    const before = readFileSync(file, 'utf8');
+    const batchBefore = readFileSync(batch, 'utf8');
+    const revision = Number(/^revision: (\d+)$/m.exec(batchBefore)![1]);
+    writeFileSync(file, before.replace('trips-when: TI-210 >= 255 degC', 'trips-when: TI-210 >= 265 degC'));
+    writeFileSync(batch, batchBefore.replace(/^revision: \d+$/m, `revision: ${revision + 1}`));
+    const r = await runCli(['review', '--base', base], repo.dir).finally(() => {
+      writeFileSync(file, before);
+      writeFileSync(batch, batchBefore);
+    });
+    const row = r.stdout.split('\n').find((l) => l.startsWith('| TSHH-210'))!.replaceAll('\\', '');
+    expect(row).toContain('U2-K210-BATCH-001');
+    expect(row).not.toContain('**U2-K210-BATCH-001**');
+    for (const id of demoFilesNaming('TSHH-210').filter((x) => x !== 'U2-K210-BATCH-001')) expect(row).toContain(`**${id}** (revision not changed)`);
+  });
+
   it('a change to the shutdown function reaches the procedures through the trips that start it', async () => {
     const file = join(repo.dir, 'register', 'k-210.yaml');
     const before = readFileSync(file, 'utf8');
