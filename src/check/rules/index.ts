@@ -5,6 +5,7 @@ import authorOnlyApprover from './author-only-approver.ts';
 import bodyTooDeep from './body-too-deep.ts';
 import bodyTooLarge from './body-too-large.ts';
 import badIdFormat from './bad-id-format.ts';
+import bypassProcedureUnknown from './bypass-procedure-unknown.ts';
 import callCycle from './call-cycle.ts';
 import callExpansionProblem from './call-expansion-problem.ts';
 import callRetiredProcedure from './call-retired-procedure.ts';
@@ -121,6 +122,7 @@ export const rules = {
   'author-only-approver': authorOnlyApprover,
   'body-too-deep': bodyTooDeep,
   'bad-id-format': badIdFormat,
+  'bypass-procedure-unknown': bypassProcedureUnknown,
   'body-too-large': bodyTooLarge,
   'call-cycle': callCycle,
   'call-expansion-problem': callExpansionProblem,
