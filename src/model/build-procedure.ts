@@ -9,7 +9,7 @@ import type {
 type Data = Record<string, unknown>;
 
 const stepKeys = new Set(['step', 'do', 'phase', 'set', 'params', 'until', 'confirm', 'expect', 'sign-off', 'note', 'waive',
-  'state', 'needs', 'trips', 'resets', 'performer', 'verify', 'time-limit', 'if-not']);
+  'state', 'needs', 'trips', 'resets', 'performer', 'verify', 'time-limit', 'if-not', 'max-drop']);
 const branchKeys = new Set(['when', 'otherwise', 'steps', 'goto']);
 
 export function buildProcedure(file: string, data: unknown, body: Root, bodyText: string): Procedure {
@@ -129,6 +129,7 @@ function buildStep(r: Data, path: PathKey[]): Step {
     actions,
     phase: asText(r.phase),
     set: Object.entries(asRecord(r.set)).map(([signal, q]) => ({ signal, quantity: String(q), path: [...path, 'set', signal] })),
+    maxDrop: Object.entries(asRecord(r['max-drop'])).map(([signal, q]) => ({ signal, quantity: String(q), path: [...path, 'max-drop', signal] })),
     params: Object.entries(asRecord(r.params)).map(([name, v]) => ({
       name, value: typeof v === 'number' || typeof v === 'boolean' ? v : String(v), path: [...path, 'params', name],
     })),

@@ -105,6 +105,8 @@ export interface Step {
   actions: string[];
   phase?: string;
   set: Setpoint[];
+  /** A hold test's acceptance criterion (`max-drop`): the most each signal may fall during the step. */
+  maxDrop?: Setpoint[];
   params: Array<{ name: string; value: string | number | boolean; path: PathKey[] }>;
   until?: Located<string>;
   confirm?: Located<string>;

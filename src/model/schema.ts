@@ -118,6 +118,8 @@ export const stepSchema = z.strictObject({
     kind: z.enum(verificationKinds).describe('independent: a second person checks separately afterwards; peer-check: a second person watches as it is done; second-person: a second person signs.'),
     role: text.describe('The role of the person who checks or signs.'),
   }).optional().describe('Who checks the step and how.'),
+  'max-drop': z.record(z.string(), quantityText).optional()
+    .describe('A hold test\'s acceptance criterion, {signal: quantity}: the most the signal may fall during the step for the test to pass.'),
   'time-limit': z.strictObject({
     max: durationText.describe('The longest the step may take, e.g. "15 min".'),
     then: text.describe('What to do when the step takes longer.'),

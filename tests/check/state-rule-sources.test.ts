@@ -42,4 +42,9 @@ describe('plant-state rules cite their source', () => {
     // independence of protection layers that share a sensor: common practice (IEC 61511-1, from memory)
     expect(rules['trip-shares-alarm-sensor'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iv\).*ISA-5\.1.*common practice/);
   });
+  it('hold-test-beyond-criterion', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(i) steps for each operating phase (start-up after a turnaround);
+    // a leak test passes only within its stated allowed drop: common practice
+    expect(rules['hold-test-beyond-criterion'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(i\).*common practice/);
+  });
 });
