@@ -76,6 +76,8 @@ export interface ManualContext {
   register?: PlantRegister;
   /** Report against a register file (paths are YAML paths in that file). */
   reportInRegister(file: string, report: Report): void;
+  /** Set when `files` are only part of the manual: `left` files of the procedures folder were not given. */
+  partial?: { folder: string; left: number };
 }
 
 export interface FileRule {

@@ -29,6 +29,11 @@ export interface CheckOptions {
   /** Longest time between two certifications of a procedure in use, in months (default 12). */
   certificationIntervalMonths?: number;
   /**
+   * Set when the inputs are only part of the manual: `left` files of the procedures folder `folder` were not given.
+   * Rules about the whole manual (a register entry no procedure uses) then say what they could not judge.
+   */
+  partial?: { folder: string; left: number };
+  /**
    * Per-file results kept between runs. `salt` must name everything the file rules depend on besides the file,
    * the date and its previous version: the Stepwright code (stepwrightStamp()) and the configuration text.
    */
@@ -114,7 +119,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   const register = options.register;
   // The cross-file rules and the engine's passes read every file; their findings are kept under the keys of all
   // files together, so a run in which no file, register, configuration or date changed reads no file at all.
-  const manualKey = store && keys.length === inputs.length ? cacheKey([shared, 'manual', options.today, ...keys]) : undefined;
+  const manualKey = store && keys.length === inputs.length ? cacheKey([shared, 'manual', options.today, options.partial ? `${options.partial.folder}\0${options.partial.left}` : '', ...keys]) : undefined;
   const knownManual = manualKey ? cachedManual(store!, manualKey, contexts) : undefined;
   const byName = new Map(contexts.map((c) => [c.file, c]));
   let manualFindings: CachedManual['files'] = [];
@@ -191,7 +196,7 @@ function runManualRules(
     const inRegister = reportInRegister(rule.meta);
     try {
       rule.check({
-        files: contexts, today: options.today, register, reportInRegister: inRegister,
+        files: contexts, today: options.today, register, reportInRegister: inRegister, ...(options.partial ? { partial: options.partial } : {}),
         report: (ctx, report) => emit(ctx, rule.meta, report),
       });
     } catch (error) {

@@ -80,6 +80,7 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     ? [...request.paths, ...(request.procedures ? [request.procedures] : [])]
     : [proceduresFolder(request, { procedures: request.procedures, config: request.config })];
   const found = await findWithStdin(paths, request);
+  const partial = request.paths?.length ? manualLeftOut(request, found) : undefined;
   const skipped: SkippedFile[] = [];
   const inputs: SourceInput[] = [];
   for (const input of readFoundFiles(found)) {
@@ -102,6 +103,7 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   const register = loadRegister(request.cwd, config.file?.file, config.config.register, paths.find((p) => p !== '-'));
   const checked = checkSources(inputs, {
     today, previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
+    ...(partial ? { partial } : {}),
     cache: request.cache === false ? undefined : commandCache(request, config.file?.text),
   });
   const skippedNotes = skipped.map((s): Diagnostic => ({
@@ -120,6 +122,19 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     errors: diagnostics.filter((d) => d.severity === 'error').length,
     texts,
   };
+}
+
+/**
+ * When the paths named are only part of the manual: the procedures folder and how many of its files were left
+ * out. Undefined when they cover the folder, or when there is no procedures folder to compare with.
+ */
+function manualLeftOut(request: CheckRunRequest, found: FoundFile[]): { folder: string; left: number } | undefined {
+  const folder = proceduresFolder(request, { procedures: request.procedures, config: request.config });
+  const all = findProcedureFiles([folder], request.cwd).filter((f) => !f.missing);
+  if (!all.length) return undefined;
+  const given = new Set(found.map((f) => f.absolute));
+  const left = all.filter((f) => !given.has(f.absolute)).length;
+  return left ? { folder, left } : undefined;
 }
 
 async function findWithStdin(paths: string[], request: CheckRunRequest): Promise<FoundFile[]> {

@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCheckRun } from '../../src/engine/check-run.ts';
+import { findProcedureFiles } from '../../src/engine/find-procedure-files.ts';
 import { loadManual, formatCheckFailure } from '../../src/site-data/manual.ts';
 import { formatHuman, summarize } from '../../src/render/format-diagnostics.ts';
 import { runCli } from '../cli/run-cli.ts';
@@ -130,5 +131,23 @@ describe('paths', () => {
     expect(run.diagnostics.some((d) => d.file === '<stdin>' && d.severity === 'error')).toBe(true);
     const report = formatHuman(run.diagnostics, run.texts, false) + summarize(run.diagnostics, run.inputs.length);
     expect(report).toMatch(/^<stdin>:\d+:\d+ error/m);
+  });
+});
+
+describe('part of the manual', () => {
+  const root = join(import.meta.dirname, '..', '..');
+  const unused = (paths: string[] | undefined) => runCheckRun({ cwd: root, env, paths, history: false, cache: false })
+    .then((run) => run.diagnostics.filter((d) => d.rule === 'register-entry-unused'));
+
+  it('does not call register entries unused when only some procedures were checked, and says so once', async () => {
+    // The demo register holds H-220 entries that only the H-220 procedures use.
+    const some = await unused(['procedures/k-210-resin']);
+    expect(some).toHaveLength(1);
+    expect(some[0]).toMatchObject({ severity: 'info', file: 'register/areas.yaml' });
+    const left = findProcedureFiles(['procedures'], root).filter((f) => !f.file.includes('k-210-resin')).length;
+    expect(some[0].message).toMatch(new RegExp(`^Register entries that no procedure uses were not looked for: ${left} files in procedures/ were not checked`));
+    // The whole folder, named or by default: every entry is used, nothing to say.
+    expect(await unused(['procedures'])).toEqual([]);
+    expect(await unused(undefined)).toEqual([]);
   });
 });
