@@ -13,9 +13,22 @@ export interface TemporaryNotice {
   modifies: Array<{ id: string; title?: string; url?: string }>;
 }
 
+type SiteTemporaries = { byProcedure: Map<string, TemporaryNotice[]>; all: TemporaryNotice[] };
+
+/** Worked out once per check run and view: every procedure page asks (once per page, a scan of every file). */
+const worked = new WeakMap<object, { view: object; temporaries: SiteTemporaries }>();
+
 /** Modified procedure id → the temporary procedures in force over it, on the build date. */
-export async function siteTemporaries(): Promise<{ byProcedure: Map<string, TemporaryNotice[]>; all: TemporaryNotice[] }> {
+export async function siteTemporaries(): Promise<SiteTemporaries> {
   const { loaded, view } = await siteManual();
+  const known = worked.get(loaded);
+  if (known && known.view === view) return known.temporaries;
+  const temporaries = temporariesOf(loaded, view);
+  worked.set(loaded, { view, temporaries });
+  return temporaries;
+}
+
+function temporariesOf(loaded: Awaited<ReturnType<typeof siteManual>>['loaded'], view: Awaited<ReturnType<typeof siteManual>>['view']): SiteTemporaries {
   const procedures = loaded.result.files.flatMap((f) => (f.procedure ? [f.procedure] : []));
   const inForce = temporaryProceduresInForce(procedures, loaded.today);
   const viewOf = new Map(view.procedures.map((p) => [p.id, p]));
