@@ -76,17 +76,18 @@ describe('building the manual', () => {
   });
 
   it('leaves the previous site intact when the build is killed midway', async () => {
-    // A different folder (one more procedure), so a build that got as far as the swap would show.
+    // A different folder (one procedure's narrative changed), so a build that got as far as the swap would show.
+    // (The other demo procedures read their plant data from the register, which is not copied here.)
     const more = join(work, 'more');
     cpSync(procedures, more, { recursive: true });
-    // A procedure that stands alone (the K-210 ones read their plant data from the register, not copied here).
-    cpSync(join(repo, 'procedures/unloading/u2-unl-xyl-001.md'), join(more, 'u2-unl-xyl-001.md'));
+    const edited = join(more, sample[1]);
+    writeFileSync(edited, `${readFileSync(edited, 'utf8')}\nA note added for the interrupted build.\n`);
     const site = join(work, 'site');
     const run = startBuild(more, site);
     let exited = false;
     void run.done.then(() => (exited = true));
     // Wait until the new site is being written, then kill the whole build. An output folder outside the project
-    // is first written in the project's private scratch folder (named after the build's process id) and copied
+    // is first written in the project's private scratch folder (named after the build's process id) and moved
     // next to the old site only at the end, so watch both places.
     const scratch = join(repo, '.stepwright', `site.tmp-${run.child.pid}`);
     const deadline = Date.now() + 150_000;
