@@ -47,4 +47,9 @@ describe('plant-state rules cite their source', () => {
     // a leak test passes only within its stated allowed drop: common practice
     expect(rules['hold-test-beyond-criterion'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(i\).*common practice/);
   });
+  it('correction-causes-hazard', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(1)(ii)(B) steps required to correct or avoid deviation;
+    // a correction must not create another hazard: common practice
+    expect(rules['correction-causes-hazard'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(ii\)\(B\).*common practice/);
+  });
 });

@@ -13,6 +13,7 @@ import callRevisionMismatch from './call-revision-mismatch.ts';
 import callUnknownProcedure from './call-unknown-procedure.ts';
 import requiresCycle from './requires-cycle.ts';
 import tripLeftLatched from './trip-left-latched.ts';
+import correctionCausesHazard from './correction-causes-hazard.ts';
 import holdTestBeyondCriterion from './hold-test-beyond-criterion.ts';
 import tripSharesAlarmSensor from './trip-shares-alarm-sensor.ts';
 import lineUpContradictsRequired from './line-up-contradicts-required.ts';
@@ -134,6 +135,7 @@ export const rules = {
   'requires-not-in-force': requiresNotInForce,
   'requires-cycle': requiresCycle,
   'trip-left-latched': tripLeftLatched,
+  'correction-causes-hazard': correctionCausesHazard,
   'hold-test-beyond-criterion': holdTestBeyondCriterion,
   'trip-shares-alarm-sensor': tripSharesAlarmSensor,
   'line-up-contradicts-required': lineUpContradictsRequired,
