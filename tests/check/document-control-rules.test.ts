@@ -120,3 +120,33 @@ describe('temporary procedures', () => {
     expect(found('temporary-expired', { ...expired, status: 'retired' })).toEqual([]);
   });
 });
+
+describe('modifies-unknown-procedure', () => {
+  // Source: OSHA 29 CFR 1910.119(f)(1)(i)(C): procedures for temporary operations; the procedures they change show it (common practice).
+  const temporary = (modifies: string, kind = 'temporary') => procedure({ kind, extra: `review-by: 2027-01-15\nexpires: 2027-01-15\nmodifies: [${modifies}]` })
+    .replace('id: FX-DC-010', 'id: FX-DC-020');
+  const normal = (id: string, status = 'effective') => procedure({ status, extra: 'review-by: 2027-03-10' }).replace('id: FX-DC-010', `id: ${id}`);
+  const run = (files: string[], partial?: { folder: string; left: number }) => checkSources(files.map((text, i) => ({ file: `p${i}.md`, text })), { today, partial })
+    .diagnostics.filter((d) => d.rule === 'modifies-unknown-procedure');
+
+  it('accepts a temporary procedure that modifies a procedure of the manual', () => {
+    expect(run([temporary('FX-DC-011'), normal('FX-DC-011')])).toEqual([]);
+  });
+  it('is an error for a number not in the manual, with the near one as hint', () => {
+    const d = run([temporary('FX-DC-111'), normal('FX-DC-011')]);
+    expect(d).toHaveLength(1);
+    expect(d[0]).toMatchObject({ severity: 'error', file: 'p0.md' });
+    expect(d[0].message).toContain("modifies 'FX-DC-111', which is not in the manual");
+    expect(d[0].hint).toBe("Did you mean 'FX-DC-011'?");
+    // Part of the manual: the procedure may be among the files not checked.
+    expect(run([temporary('FX-DC-111'), normal('FX-DC-011')], { folder: 'procedures', left: 2 })).toEqual([]);
+  });
+  it('warns when the modified procedure is no longer in use, and refuses modifies on a procedure that is not temporary', () => {
+    const superseded = run([temporary('FX-DC-011'), normal('FX-DC-011', 'superseded')]);
+    expect(superseded).toHaveLength(1);
+    expect(superseded[0].severity).toBe('warning');
+    const notTemporary = run([temporary('FX-DC-011', 'normal'), normal('FX-DC-011')]);
+    expect(notTemporary).toHaveLength(1);
+    expect(notTemporary[0].message).toContain("is a 'normal' procedure");
+  });
+});

@@ -44,6 +44,7 @@ import hazardUnknownStep from './hazard-unknown-step.ts';
 import invalidValue from './invalid-value.ts';
 import limitIncomplete from './limit-incomplete.ts';
 import loopWithoutExit from './loop-without-exit.ts';
+import modifiesUnknownProcedure from './modifies-unknown-procedure.ts';
 import missingFrontMatter from './missing-front-matter.ts';
 import missingRequiredKey from './missing-required-key.ts';
 import mixedAndOr from './mixed-and-or.ts';
@@ -164,6 +165,7 @@ export const rules = {
   'invalid-value': invalidValue,
   'limit-incomplete': limitIncomplete,
   'loop-without-exit': loopWithoutExit,
+  'modifies-unknown-procedure': modifiesUnknownProcedure,
   'missing-front-matter': missingFrontMatter,
   'missing-required-key': missingRequiredKey,
   'mixed-and-or': mixedAndOr,
