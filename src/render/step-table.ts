@@ -32,6 +32,8 @@ export interface StepRow {
   performer?: string;
   /** Who checks it, and how (independent verification, peer check, second-person sign-off). */
   verify?: { kind: string; label: string; role: string };
+  /** A hold test's acceptance: the most each signal may fall during the step (`max-drop`). */
+  maxDrop?: Array<{ signal: string; quantity: string }>;
   /** The longest the step may take, and what to do when it is exceeded. */
   timeLimit?: { max: string; then: string; goto?: StepTarget };
   /** What to do when the expected result does not come (the contingency). */
@@ -110,6 +112,7 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
     waivers: honouredWaivers(step).map((w) => ({ rule: w.rule, reason: w.reason })),
     ...(step.performer ? { performer: step.performer } : {}),
     ...(step.verify ? { verify: { kind: step.verify.kind, label: verifyLabel(step.verify.kind), role: step.verify.role } } : {}),
+    ...(step.maxDrop?.length ? { maxDrop: step.maxDrop.map((d) => ({ signal: d.signal, quantity: d.quantity })) } : {}),
     ...(step.timeLimit ? { timeLimit: { max: formatDuration(step.timeLimit.max.value), then: step.timeLimit.then, ...(step.timeLimit.goto ? { goto: target(step.timeLimit.goto.value) } : {}) } } : {}),
     ...(step.ifNot ? { ifNot: { actions: step.ifNot.actions, ...(step.ifNot.goto ? { goto: target(step.ifNot.goto.value) } : {}) } } : {}),
   });

@@ -96,6 +96,19 @@ describe('step waivers in the step table', () => {
   });
 });
 
+describe('step table: hold-test acceptance', () => {
+  it('carries max-drop with the step, and nothing for steps without it', () => {
+    const table = buildStepTable(readTestProcedure({
+      steps: [
+        { step: 'hold', do: 'Close XV-1 for the hold test', until: 'elapsed >= 30 min', 'max-drop': { 'PI-1': '5 kPa' } },
+        { step: 'record', do: 'Record the end pressure', until: 'done' },
+      ],
+    })).filter((r): r is Extract<TableRow, { kind: 'step' }> => r.kind === 'step');
+    expect(table.find((r) => r.id === 'hold')!.maxDrop).toEqual([{ signal: 'PI-1', quantity: '5 kPa' }]);
+    expect(table.find((r) => r.id === 'record')!.maxDrop).toBeUndefined();
+  });
+});
+
 describe('step table: contingency, time limit, performer and verification', () => {
   const withRoles = readTestProcedure({
     steps: [
