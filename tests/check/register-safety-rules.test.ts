@@ -28,6 +28,9 @@ describe('GHS hazard statements', () => {
     for (const code of ['H206', 'H207', 'H208']) expect(least(code), code).toEqual(['warning']);
     // Source: GHS (UN), Annex 3, table A3.1.1: H232 pyrophoric gas; H282, H283 flammable chemicals under pressure — from memory
     for (const code of ['H232', 'H282', 'H283']) expect(least(code), code).toEqual(['warning']);
+    // A gas container that bursts when heated can kill: WARNING in the ANSI Z535.6 sense (GHS's own signal word for
+    // H280 is 'Warning', a different scale). Source: ANSI Z535.6; GHS (UN) Annex 3, H280, H284 — common practice
+    for (const code of ['H280', 'H284']) expect(least(code), code).toEqual(['warning']);
     // EU-only supplementary codes are not GHS hazard statements: not in the table (reported as not checked).
     expect(hazardStatements('EUH066')).toEqual([]);
   });
