@@ -2,8 +2,11 @@
 // a change of content needs a new revision, a change of document control does not.
 import type { Procedure } from '../model/procedure.ts';
 
-/** Front-matter keys that describe the document rather than the operation. */
-export const documentControlKeys = ['revision', 'status', 'effective', 'review-by', 'owner', 'author', 'change', 'approvals'] as const;
+/**
+ * Front-matter keys that describe the document rather than the operation. The yearly certification (a new entry
+ * under `certifications` and the next `review-by`) confirms the content as it is, so it is not an edit of it.
+ */
+export const documentControlKeys = ['revision', 'status', 'effective', 'review-by', 'certifications', 'owner', 'author', 'change', 'approvals'] as const;
 
 /** Content areas in the order reviewers read them; 'body' is the narrative below the steps. */
 export type ContentArea =

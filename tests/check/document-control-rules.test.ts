@@ -150,3 +150,18 @@ describe('modifies-unknown-procedure', () => {
     expect(notTemporary[0].message).toContain("is a 'normal' procedure");
   });
 });
+
+describe('the yearly certification is document control, not an edit', () => {
+  // Source: OSHA 29 CFR 1910.119(f)(3): certifying that procedures are current and accurate confirms them as they are;
+  // a change of content goes through management of change, 1910.119(l).
+  it('recording a certification and the next review date on an effective revision needs no new revision', () => {
+    const before = procedure({ extra: 'review-by: 2027-03-10' });
+    const after = procedure({ extra: 'review-by: 2027-11-20\ncertifications:\n  - { name: C. Certifier, role: Operations superintendent, date: 2026-11-20 }' });
+    const previous = () => ({ text: before, commit: 'abc1234' });
+    const rules = (text: string) => checkSources([{ file: 'p.md', text }], { today, previous }).diagnostics
+      .filter((d) => d.rule === 'effective-edited-in-place' || d.rule === 'revision-not-bumped');
+    expect(rules(after)).toEqual([]);
+    // A content change made together with the certification is still caught.
+    expect(rules(after.replace('Open the header drain.', 'Open the header drain fully.')).map((d) => d.rule)).toContain('effective-edited-in-place');
+  });
+});

@@ -14,7 +14,8 @@ export default defineFileRule(
 place changes the instructions under the operators' hands without review, and loses the record of what they followed
 before. Make the change as a new revision: bump \`revision\`, set the status to \`draft\`, state the reason in
 \`change\`, and collect new approvals; the effective revision stays in force until the new one takes effect.
-Changes to document control only (review date, status to \`superseded\` or \`retired\`) are not edits of content.`,
+Changes to document control only (review date, a yearly certification under \`certifications\`, status to
+\`superseded\` or \`retired\`) are not edits of content.`,
     examples: { bad: '# committed: revision: 4, status: effective\nrevision: 4   # cook temperature changed', good: 'revision: 5\nstatus: draft' },
   },
   (ctx) => {
