@@ -5,7 +5,7 @@ import { evaluateCondition, type KnownValue } from '../../analysis/evaluate-cond
 import { parseQuantity, toBase } from '../../analysis/units.ts';
 import type { Procedure } from '../../model/procedure.ts';
 import type { PlantRegister } from '../../model/register.ts';
-import { defineFileRule } from '../define-rule.ts';
+import { defineManualRule, type Report } from '../define-rule.ts';
 
 /** Verbs of a correction and the value each gives an enumerated signal, in the order they are tried. */
 const verbs: Array<{ verb: RegExp; values: string[] }> = [
@@ -18,7 +18,7 @@ const verbs: Array<{ verb: RegExp; values: string[] }> = [
 /** Words that make a clause conditional or a prohibition: such a clause is not an instruction to do it now. */
 const qualified = /\b(only|once|when|after|until|unless|if|below|above|not|never|before)\b/i;
 
-export default defineFileRule(
+export default defineManualRule(
   {
     id: 'correction-causes-hazard',
     summary: "A limit's correction tells the operator to do what one of the hazards forbids at that limit.",
@@ -37,7 +37,9 @@ state, and evaluates every hazard condition of the procedure and every register 
 on. A condition that is then certainly true is reported. Clauses with *only*, *once*, *when*, *after*, *until*,
 *if*, *not*, *never*, *below*, *above* or *before* are conditions or prohibitions and are not read as instructions;
 corrections that name no tag (as "switch to cooling oil") and hazard conditions that need other signals are not
-judged. Limits read from the plant register are checked where they are written in a procedure only.
+judged. Limits of the plant register are checked in the register, with the register's enumerated signals and its
+equipment (a \`valve\` opens and closes; a \`pump\`, \`agitator\`, \`fan\` or \`compressor\` starts and stops) and
+every conditional hazard the register states.
 
 Fix the correction so that it takes the plant away from the limit without the hazard (close the heating first and
 open the cooling only once the hazard's condition has cleared), and say so in its words.`,
@@ -47,34 +49,72 @@ open the cooling only once the hazard's condition has cleared), and say so in it
     },
   },
   (ctx) => {
-    const p = ctx.procedure;
-    if (!p) return;
-    for (const limit of p.limits) {
-      if (limit.from || !limit.correction) continue;
-      const actions = actionsIn(limit.correction, p);
-      if (!actions.length) continue;
-      for (const side of [limit.high, limit.low]) {
-        if (!side) continue;
-        const q = parseQuantity(side.value);
-        const base = q.ok ? toBase(q.value, q.unit) : null;
-        if (base === null) continue;
-        for (const action of actions) {
-          const known = new Map<string, KnownValue>([[limit.signal, { kind: 'number', base }], [action.signal, { kind: 'word', value: action.value }]]);
-          for (const hazard of hazardsAbout(p, ctx.register, action.signal)) {
-            const parsed = parseCondition(hazard.when);
-            if (!parsed.ok || evaluateCondition(parsed.condition, known) !== true) continue;
-            ctx.report({
-              path: [...limit.path, 'correction'],
-              message: `The correction for ${limit.signal} at ${side.value} says to ${action.words}, which makes the hazard '${hazard.text}' true (${hazard.when}).`,
-              hint: `Correct the deviation without that state, or do it only once the hazard's condition has cleared, and say so in the correction.`,
-              related: hazard.related ? [hazard.related] : undefined,
-            });
-          }
+    for (const file of ctx.files) {
+      const p = file.procedure;
+      if (!p) continue;
+      for (const limit of p.limits) {
+        if (limit.from || !limit.correction) continue;
+        const sides = [limit.high?.value, limit.low?.value];
+        for (const f of findings(limit.signal, sides, limit.correction, p.signals, hazardsAbout(p, ctx.register))) {
+          ctx.report(file, { path: [...limit.path, 'correction'], ...f });
         }
+      }
+    }
+    const register = ctx.register;
+    if (!register) return;
+    const signals = registerSignals(register);
+    const hazards = [...register.equipment.values(), ...register.chemicals.values()].flatMap((e) => e.hazards.flatMap((h) => (h.when
+      ? [{ text: h.hazard, when: h.when.value, related: { file: e.file, message: `hazard of ${e.id} in the plant register` } }]
+      : [])));
+    for (const signal of register.signals.values()) {
+      const limits = signal.limits;
+      if (!limits?.correction) continue;
+      for (const f of findings(signal.id, [limits.high?.value, limits.low?.value], limits.correction, signals, hazards)) {
+        ctx.reportInRegister(signal.file, { path: [...limits.path, 'correction'], ...f });
       }
     }
   },
 );
+
+interface HazardCondition { text: string; when: string; related?: { file: string; message: string } }
+
+/** The hazards a correction makes true at either limit. */
+function findings(signal: string, sides: Array<string | undefined>, correction: string, signals: Pick<Procedure, 'signals'>['signals'], hazards: HazardCondition[]): Report[] {
+  const out: Report[] = [];
+  const actions = actionsIn(correction, { signals });
+  if (!actions.length) return out;
+  for (const side of sides) {
+    if (!side) continue;
+    const q = parseQuantity(side);
+    const base = q.ok ? toBase(q.value, q.unit) : null;
+    if (base === null) continue;
+    for (const action of actions) {
+      const known = new Map<string, KnownValue>([[signal, { kind: 'number', base }], [action.signal, { kind: 'word', value: action.value }]]);
+      for (const hazard of hazards) {
+        const parsed = parseCondition(hazard.when);
+        if (!parsed.ok || evaluateCondition(parsed.condition, known) !== true) continue;
+        out.push({
+          message: `The correction for ${signal} at ${side} says to ${action.words}, which makes the hazard '${hazard.text}' true (${hazard.when}).`,
+          hint: `Correct the deviation without that state, or do it only once the hazard's condition has cleared, and say so in the correction.`,
+          related: hazard.related ? [hazard.related] : undefined,
+        });
+      }
+    }
+  }
+  return out;
+}
+
+/** The register's enumerated signals, and its equipment as the states a valve or a machine can be put in. */
+function registerSignals(register: PlantRegister): Pick<Procedure, 'signals'>['signals'] {
+  const out: Pick<Procedure, 'signals'>['signals'] = {};
+  for (const e of register.equipment.values()) {
+    const type = (e.type ?? '').toLowerCase();
+    const values = /valve/.test(type) ? ['open', 'closed'] : /pump|agitator|fan|compressor|motor/.test(type) ? ['running', 'stopped'] : undefined;
+    if (values) out[e.id] = { name: e.id, text: e.text, values, path: [] };
+  }
+  for (const s of register.signals.values()) if (s.values?.length) out[s.id] = { name: s.id, text: s.text, values: s.values, path: [] };
+  return out;
+}
 
 interface Action {
   signal: string;
@@ -104,19 +144,22 @@ export function actionsIn(correction: string, p: Pick<Procedure, 'signals'>): Ac
   return out;
 }
 
-function hazardsAbout(p: Procedure, register: PlantRegister | undefined, signal: string) {
-  const out: Array<{ text: string; when: string; related?: { file: string; message: string } }> = [];
+function hazardsAbout(p: Procedure, register: PlantRegister | undefined): HazardCondition[] {
+  const out: HazardCondition[] = [];
   const seen = new Set<string>();
   for (const h of p.hazards) {
     if (!h.when?.value.trim() || seen.has(h.when.value)) continue;
     seen.add(h.when.value);
     out.push({ text: h.hazard, when: h.when.value });
   }
-  const entry = register?.equipment.get(signal);
-  for (const h of entry?.hazards ?? []) {
-    if (!h.when || seen.has(h.when.value)) continue;
-    seen.add(h.when.value);
-    out.push({ text: h.hazard, when: h.when.value, related: { file: entry!.file, message: `hazard of ${signal} in the plant register` } });
+  // Register hazards about the equipment the procedure names (the same ones hazard-can-occur applies).
+  for (const id of p.equipment) {
+    const entry = register?.equipment.get(id);
+    for (const h of entry?.hazards ?? []) {
+      if (!h.when || seen.has(h.when.value)) continue;
+      seen.add(h.when.value);
+      out.push({ text: h.hazard, when: h.when.value, related: { file: entry!.file, message: `hazard of ${id} in the plant register` } });
+    }
   }
   return out;
 }
