@@ -62,6 +62,8 @@ export interface ProcedureView {
   author?: string;
   change?: string;
   approvals: Array<Pick<Approval, 'role' | 'name' | 'date' | 'meaning'>>;
+  /** Yearly certifications as current and accurate, newest first; separate from the approvals of the revision. */
+  certifications: Array<{ name: string; role: string; date: string }>;
   equipment: string[];
   ppe: string[];
   banner?: Banner;
@@ -196,6 +198,7 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     current: p.status !== 'superseded' && p.status !== 'retired',
     effective: p.effective, reviewBy: p.reviewBy, review: reviewMark(p, today), owner: p.owner, author: p.author, change: p.change,
     approvals: p.approvals.map(({ role, name, date, meaning }) => ({ role, name, date, meaning })),
+    certifications: p.certifications.map(({ name, role, date }) => ({ name, role, date })).sort((x, y) => y.date.localeCompare(x.date)),
     equipment: p.equipment, ppe: p.ppe, banner: statusBanner(p, today), hazards,
     interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: siteUrl(base, pagePath.tag(slugOf(i.tag))) })),
     limits,

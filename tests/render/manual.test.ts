@@ -58,6 +58,20 @@ describe('manual view', () => {
     expect(pa.limits[0]).toMatchObject({ signal: 'TI-1', low: '10', high: '90', unit: 'degC', consequence: 'Seal damage', correction: 'Cool' });
   });
 
+  it('keeps the yearly certifications apart from the approvals, newest first', () => {
+    // Source: OSHA 29 CFR 1910.119(f)(3): the employer certifies annually that the procedures are current and accurate.
+    const certified = procedureText({
+      id: 'U9-C-001', title: 'Drain V-2', kind: 'normal', status: 'effective', revision: 1, effective: '2025-01-01', 'review-by': '2026-11-02',
+      certifications: [{ name: 'C. Older', role: 'Superintendent', date: '2025-10-01' }, { name: 'C. Newer', role: 'Superintendent', date: '2025-11-02' }],
+      steps: [{ step: 'drain', do: 'Drain V-2', until: 'done' }],
+    });
+    const checked = checkSources([{ file: 'procedures/c.md', text: certified }], { today: '2026-01-01' });
+    const pc = buildManualView({ files: checked.files, root: 'procedures', today: '2026-01-01' }).procedures[0];
+    expect(pc.certifications).toEqual([{ name: 'C. Newer', role: 'Superintendent', date: '2025-11-02' }, { name: 'C. Older', role: 'Superintendent', date: '2025-10-01' }]);
+    expect(pc.approvals.map((x) => x.name)).not.toContain('C. Newer');
+    expect(pa.certifications).toEqual([]);
+  });
+
   it('marks overdue review, and the superseded procedure as not current with a banner', () => {
     expect(pa.review.state).toBe('overdue');
     const pb = view.procedures.find((p) => p.id === 'U9-B-001')!;
