@@ -64,7 +64,7 @@ open the cooling only once the hazard's condition has cleared), and say so in it
     if (!register) return;
     const signals = registerSignals(register);
     const hazards = [...register.equipment.values(), ...register.chemicals.values()].flatMap((e) => e.hazards.flatMap((h) => (h.when
-      ? [{ text: h.hazard, when: h.when.value, related: { file: e.file, message: `hazard of ${e.id} in the plant register` } }]
+      ? [{ text: h.hazard, when: h.when.value, related: { file: e.file, ...registerRange(register, e.file, h.path), message: `hazard of ${e.id} in the plant register` } }]
       : [])));
     for (const signal of register.signals.values()) {
       const limits = signal.limits;
@@ -76,7 +76,7 @@ open the cooling only once the hazard's condition has cleared), and say so in it
   },
 );
 
-interface HazardCondition { text: string; when: string; related?: { file: string; message: string } }
+interface HazardCondition { text: string; when: string; related?: NonNullable<Report['related']>[number] }
 
 /** The hazards a correction makes true at either limit. */
 function findings(signal: string, sides: Array<string | undefined>, correction: string, signals: Pick<Procedure, 'signals'>['signals'], hazards: HazardCondition[]): Report[] {
@@ -158,8 +158,14 @@ function hazardsAbout(p: Procedure, register: PlantRegister | undefined): Hazard
     for (const h of entry?.hazards ?? []) {
       if (!h.when || seen.has(h.when.value)) continue;
       seen.add(h.when.value);
-      out.push({ text: h.hazard, when: h.when.value, related: { file: entry!.file, message: `hazard of ${id} in the plant register` } });
+      out.push({ text: h.hazard, when: h.when.value, related: { file: entry!.file, ...registerRange(register, entry!.file, h.path), message: `hazard of ${id} in the plant register` } });
     }
   }
   return out;
+}
+
+/** Where a register entry is written, so that a related place points into the register file. */
+function registerRange(register: PlantRegister | undefined, file: string, path: readonly (string | number)[]) {
+  const range = register?.sources.find((x) => x.file === file)?.source.rangeOf(path);
+  return range ? { range } : {};
 }

@@ -1,6 +1,7 @@
 // Reports a trip that acts on the same measurement as an alarm a step sets, so that one sensor fault defeats both.
 import { namesIn, parseCondition } from '../../analysis/conditions/parse.ts';
 import type { Procedure, Step } from '../../model/procedure.ts';
+import type { PlantRegister } from '../../model/register.ts';
 import { walkSteps } from '../../model/walk-steps.ts';
 import { defineFileRule, type Report } from '../define-rule.ts';
 import { unnamedRegisterTrips } from '../register-trips.ts';
@@ -47,7 +48,7 @@ in \`trips-when\`; or, if the two truly share a sensor, do not count them as sep
             if (!shared) continue;
             tags.push(`${interlock.tag} (on ${shared.name})`);
             related.push(interlock.from
-              ? { file: interlock.from.file, message: `${interlock.tag} in the plant register trips on ${shared.name}` }
+              ? { file: interlock.from.file, ...registerRange(ctx.register, interlock.from.file, interlock.from.path), message: `${interlock.tag} in the plant register trips on ${shared.name}` }
               : { path: interlock.tripsWhen.path, message: `${interlock.tag} trips on ${shared.name}` });
           }
           const sameSignals = [signal, ...Object.keys(p.signals).filter((s) => s !== signal && sameMeasurement(s, signal))];
@@ -78,6 +79,12 @@ function alarmSignals(p: Procedure, step: Step, param: string): string[] {
   if (p.signals[param]) return [param];
   const words = step.actions.join(' ');
   return Object.keys(p.signals).filter((s) => new RegExp(`(^|[^A-Za-z0-9-])${escape(s)}($|[^A-Za-z0-9-])`).test(words));
+}
+
+/** Where a register entry is written, so that a related place points into the register file. */
+function registerRange(register: PlantRegister | undefined, file: string, path: readonly (string | number)[]) {
+  const range = register?.sources.find((x) => x.file === file)?.source.rangeOf(path);
+  return range ? { range } : {};
 }
 
 function escape(text: string): string {
