@@ -55,6 +55,7 @@ import numberWithoutUnit from './number-without-unit.ts';
 import oneActionPerStep from './one-action-per-step.ts';
 import overlappingBranches from './overlapping-branches.ts';
 import placeholderText from './placeholder-text.ts';
+import pressureReferenceUnstated from './pressure-reference-unstated.ts';
 import ppeMissing from './ppe-missing.ts';
 import repeatCountInvalid from './repeat-count-invalid.ts';
 import requiredContentMissing from './required-content-missing.ts';
@@ -176,6 +177,7 @@ export const rules = {
   'one-action-per-step': oneActionPerStep,
   'overlapping-branches': overlappingBranches,
   'placeholder-text': placeholderText,
+  'pressure-reference-unstated': pressureReferenceUnstated,
   'ppe-missing': ppeMissing,
   'repeat-count-invalid': repeatCountInvalid,
   'required-content-missing': requiredContentMissing,
