@@ -3,8 +3,10 @@
 // moderate, NOTICE where only the environment or property is harmed. The codes are those of the GHS (UN), Annex 3,
 // tables A3.1.1 (physical), A3.1.2 (health) and A3.1.3 (environmental), including the ones the EU CLP regulation
 // does not adopt (H303, H305, H313, H316, H320, H333, H401, H402). The words are our own short paraphrase, listed
-// from memory and not compared line by line with the printed revision; the grading is ours, following the ANSI
-// Z535 meaning of the signal words. A code not in the table is reported by the rules that read it as not checked.
+// from memory; the physical codes H200-H231, the desensitised explosives H206-H208, the gases H280/H281 and the acute
+// toxicity codes were compared with public texts of the GHS list and the CLP Annex I tables, the rest were not. The
+// grading is ours, following the ANSI Z535 meaning of the signal words. A code not in the table is reported by the
+// rules that read it as not checked.
 import type { HazardLevel } from '../model/procedure.ts';
 
 export interface HazardStatement {

@@ -35,6 +35,16 @@ describe('GHS hazard statements', () => {
     expect(hazardStatements('EUH066')).toEqual([]);
   });
 
+  it('grades acute toxicity by category: categories 1 to 3 WARNING, category 4 CAUTION', () => {
+    // Source: EU CLP Regulation (EC) 1272/2008, Annex I, Table 3.1.3 (acute toxicity label elements): oral H300
+    // (cat. 1-2), H301 (cat. 3), H302 (cat. 4); dermal H310, H311, H312; inhalation H330, H331, H332
+    for (const code of ['H300', 'H301', 'H310', 'H311', 'H330', 'H331']) expect(least(code), code).toEqual(['warning']);
+    for (const code of ['H302', 'H312', 'H332']) expect(least(code), code).toEqual(['caution']);
+    // Source: EU CLP Regulation (EC) 1272/2008, Annex I, Table 2.5.2: H280 contains gas under pressure; H281 refrigerated gas
+    expect(hazardStatements('H280')[0]?.words).toMatch(/gas under pressure/);
+    expect(hazardStatements('H281')[0]?.words).toMatch(/refrigerated gas/);
+  });
+
   it('reads combined codes and sub-categories, and gives nothing for an unknown code', () => {
     // Source: GHS (UN), Annex 3, combined statements such as H301+H311; CLP sub-categories such as H360FD
     expect(hazardStatements('H301+H311').map((s) => s.code)).toEqual(['H301', 'H311']);
