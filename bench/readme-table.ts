@@ -18,6 +18,7 @@ const rows: Array<{ what: string; size: string; time: RegExp; ratio?: RegExp }> 
   { what: 'Full build vs bare Astro build, CPU time', size: '500', time: /^site\/500\/full-build$/, ratio: /^site\/500\/cpu-ratio$/ },
   { what: 'Full build peak memory vs bare Astro build', size: '500', time: /^site\/500\/full-build-peak-memory$/, ratio: /^site\/500\/peak-memory-ratio$/ },
   { what: 'Full build vs bare Astro build of the same pages', size: '2,000', time: /^site\/2000\/full-build$/, ratio: /^site\/2000\/ratio$/ },
+  { what: 'Full build vs bare Astro build, CPU time', size: '2,000', time: /^site\/2000\/full-build$/, ratio: /^site\/2000\/cpu-ratio$/ },
   { what: 'Full build peak memory vs bare Astro build', size: '2,000', time: /^site\/2000\/full-build-peak-memory$/, ratio: /^site\/2000\/peak-memory-ratio$/ },
   { what: 'Rebuild after one changed procedure vs full build', size: '2,000', time: /^site\/2000\/rebuild-one-change$/, ratio: /^site\/2000\/rebuild-ratio$/ },
   { what: 'Rebuild after one changed procedure vs full build', size: '500', time: /^site\/500\/rebuild-one-change$/, ratio: /^site\/500\/rebuild-ratio$/ },
