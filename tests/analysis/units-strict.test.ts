@@ -5,6 +5,8 @@ import {
   checkUnit, convert, convertDifference, documentedUnits, isKnownUnit, parseQuantity, pressureConversionNote, pressureReference, toBase,
 } from '../../src/analysis/units.ts';
 import { checkSources } from '../../src/check/run-checks.ts';
+import { buildRegister } from '../../src/model/register.ts';
+import { readYamlSource } from '../../src/parse/read-yaml-source.ts';
 
 describe('documented units only', () => {
   it.each([
@@ -247,5 +249,40 @@ steps:
     expect(outside('PI-252: 27.9 inHg').filter((d) => d.rule === 'setpoint-outside-limits')).toHaveLength(1);
     expect(outside('PI-252: 711.2 mmHg').filter((d) => d.rule === 'setpoint-outside-limits')).toEqual([]);
     expect(outside('PI-252: 711 mmHg').filter((d) => d.rule === 'setpoint-outside-limits')).toHaveLength(1);
+  });
+});
+
+describe('a local declaration against the register across gauge and absolute', () => {
+  // Source: NIST SP 811, Appendix B.8: standard atmosphere = 101.325 kPa; 250 kPag is 351.325 kPa absolute.
+  const registerText = `signals:
+  PI-7: { text: Vessel pressure (absolute), unit: kPaa, range: [0, 600], limits: { high: 250 kPaa, consequence: Overpressure, correction: Vent } }
+safety-functions:
+  PSHH-7: { trips-when: PI-7 >= 300 kPaa, closes: [XV-7] }
+`;
+  const register = buildRegister('register', [{ file: 'register/plant.yaml', source: readYamlSource('register/plant.yaml', registerText) }]);
+  const procedure = (limit: string, trip: string) => `---
+id: FX-RC-001
+title: Hold the vessel
+kind: normal
+revision: 0
+status: draft
+uses: [PSHH-7]
+limits:
+  PI-7: { high: ${limit}, consequence: Overpressure, correction: Vent }
+interlocks:
+  - { tag: PSHH-7, trips-when: "${trip}", action: Closes XV-7 }
+steps:
+  - { step: hold, do: Hold the vessel., until: done }
+---
+`;
+  const found = (limit: string, trip: string) => checkSources([{ file: 'p.md', text: procedure(limit, trip) }], { today: '2026-12-01', register })
+    .diagnostics.filter((d) => d.rule === 'register-conflict').map((d) => d.message);
+
+  it('register-conflict names the standard atmosphere when the two differ across references', () => {
+    expect(found('148.675 kPag', 'PI-7 >= 198.675 kPag').filter((m) => !m.startsWith('Interlock PSHH-7 is described'))).toEqual([]);
+    const differ = found('250 kPag', 'PI-7 >= 300 kPag');
+    expect(differ.find((m) => m.startsWith('The high limit'))).toContain('101.325 kPa');
+    expect(differ.find((m) => m.includes("trips when 'PI-7 >= 300 kPag'"))).toContain('101.325 kPa');
+    expect(found('260 kPaa', 'PI-7 >= 310 kPaa').every((m) => !m.includes('101.325'))).toBe(true);
   });
 });

@@ -56,3 +56,31 @@ describe('interlock described in two procedures', () => {
     expect(result.diagnostics.filter((d) => d.rule === 'interlock-inconsistent').map((d) => d.file)).toEqual(['a.md']);
   });
 });
+
+describe('interlock trips in gauge and absolute pressure', () => {
+  const withTrip = (id: string, trip: string) => `---
+id: ${id}
+title: Hold the vessel
+kind: normal
+revision: 0
+status: draft
+signals:
+  PI-1: { text: Vessel pressure (absolute), unit: kPaa, range: [0, 600] }
+interlocks:
+  - { tag: PSHH-1, trips-when: "${trip}", action: Closes XV-1 }
+steps:
+  - { step: hold, do: Hold the vessel., until: done }
+---
+`;
+  const found = (a: string, b: string) => checkSources([{ file: 'a.md', text: withTrip('FX-A-001', a) }, { file: 'b.md', text: withTrip('FX-B-001', b) }], { today: '2026-12-01' })
+    .diagnostics.filter((d) => d.rule === 'interlock-inconsistent').map((d) => d.message);
+
+  it('are one description when equal through the standard atmosphere, and the message names it when they differ', () => {
+    // Source: NIST SP 811, Appendix B.8: standard atmosphere = 101.325 kPa, so 148.675 kPag = 250 kPa absolute.
+    expect(found('PI-1 >= 250 kPaa', 'PI-1 >= 148.675 kPag')).toEqual([]);
+    const differ = found('PI-1 >= 250 kPaa', 'PI-1 >= 250 kPag');
+    expect(differ).toHaveLength(1);
+    expect(differ[0]).toContain('standard atmosphere, 101.325 kPa');
+    expect(found('PI-1 >= 250 kPaa', 'PI-1 >= 260 kPaa')[0]).not.toContain('101.325');
+  });
+});

@@ -1,5 +1,7 @@
 // Reports one interlock described differently in two procedures (when the plant register does not define it).
 import { conditionKey, sameWording, wording } from '../../analysis/register-consistency.ts';
+import { parseCondition } from '../../analysis/conditions/parse.ts';
+import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts';
 import type { Interlock } from '../../model/procedure.ts';
 import { defineManualRule, type FileContext } from '../define-rule.ts';
 
@@ -74,7 +76,11 @@ function differences(here: Interlock, there: Interlock): string[] {
   const a = conditionKey(here.tripsWhen.value);
   const b = conditionKey(there.tripsWhen.value);
   if (a === null || b === null ? here.tripsWhen.value.trim() !== there.tripsWhen.value.trim() : a !== b) {
-    out.push(`it trips when '${here.tripsWhen.value}' here, when '${there.tripsWhen.value}' there`);
+    const parsed = [here, there].flatMap((i) => {
+      const r = parseCondition(i.tripsWhen.value);
+      return r.ok ? [r.condition] : [];
+    });
+    out.push(`it trips when '${here.tripsWhen.value}' here, when '${there.tripsWhen.value}' there${conditionPressureNote(parsed, () => undefined)}`);
   }
   if (!sameWording(here.action, there.action)) out.push(`the action is '${here.action}' here, '${there.action}' there`);
   if (here.latches !== there.latches) out.push(`it ${here.latches ? 'latches' : 'does not latch'} here, ${there.latches ? 'latches' : 'does not latch'} there`);

@@ -1,6 +1,8 @@
 // Reports a procedure's own declaration of a signal, limit or interlock that says something else than the register.
 import { conditionKey, sameAmount, sameWording } from '../../analysis/register-consistency.ts';
-import { convert } from '../../analysis/units.ts';
+import { convert, parseQuantity, pressureConversionNote } from '../../analysis/units.ts';
+import { parseCondition } from '../../analysis/conditions/parse.ts';
+import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts';
 import { describeSafetyFunction } from '../../model/register.ts';
 import { reliefOf } from '../../model/apply-register.ts';
 import { defineFileRule } from '../define-rule.ts';
@@ -58,7 +60,7 @@ is wrong, and an operator could act on the wrong one. Remove the local declarati
         if (local === undefined || sameAmount(local, theirs)) continue;
         ctx.report({
           path: limit[side]!.path,
-          message: `The ${side} limit of ${limit.signal} is ${local} here but ${theirs ?? 'not set'} in the plant register.`,
+          message: `The ${side} limit of ${limit.signal} is ${local} here but ${theirs ?? 'not set'} in the plant register${unitNote(local, theirs)}.`,
           hint, related: [{ file: entry.file, range: rangeIn(register, entry.file, entry.limits.path), message: `register limits of ${entry.id}` }],
         });
       }
@@ -77,7 +79,7 @@ is wrong, and an operator could act on the wrong one. Remove the local declarati
       if (ours === null || theirs === null ? interlock.tripsWhen.value.trim() !== registerTrip.trim() : ours !== theirs) {
         ctx.report({
           path: interlock.tripsWhen.path,
-          message: `Interlock ${interlock.tag} trips when '${interlock.tripsWhen.value}' here, but when '${registerTrip}' in the plant register.`,
+          message: `Interlock ${interlock.tag} trips when '${interlock.tripsWhen.value}' here, but when '${registerTrip}' in the plant register${tripNote(interlock.tripsWhen.value, registerTrip)}.`,
           hint, related,
         });
       }
@@ -94,4 +96,20 @@ is wrong, and an operator could act on the wrong one. Remove the local declarati
 
 function rangeIn(register: NonNullable<Parameters<typeof describeSafetyFunction>[1]>, file: string, path: readonly (string | number)[]) {
   return register.sources.find((s) => s.file === file)?.source.rangeOf(path, 'key');
+}
+
+/** The gauge/absolute conversion note when the two limits are pressures on different references. */
+function unitNote(a: string | number | undefined, b: string | number | undefined): string {
+  const qa = a === undefined ? undefined : parseQuantity(String(a));
+  const qb = b === undefined ? undefined : parseQuantity(String(b));
+  return qa?.ok && qb?.ok ? pressureConversionNote(qa.unit, qb.unit) : '';
+}
+
+/** The same for two trip conditions. */
+function tripNote(a: string, b: string): string {
+  const parsed = [a, b].flatMap((text) => {
+    const r = parseCondition(text);
+    return r.ok ? [r.condition] : [];
+  });
+  return conditionPressureNote(parsed, () => undefined);
 }
