@@ -2,10 +2,12 @@
 // a saved procedure reloads the open pages, and check findings show on the pages instead of stopping them.
 import { existsSync, lstatSync, mkdirSync, readlinkSync, symlinkSync, unlinkSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
+import { createServer } from 'node:net';
 import { parseArgs } from 'node:util';
 import { siteConfig, siteFolder } from '../site/astro-config.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
+import { listenProblem } from './serve-command.ts';
 import { siteBase } from '../engine/project.ts';
 
 export const devHelp = `Usage: stepwright dev [options] [folder]
@@ -47,6 +49,10 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
   const folder = positionals[0] ?? proceduresFolder(io, values);
   if (values.config && !existsSync(resolve(io.cwd, values.config))) throw new UsageError(`The configuration file '${values.config}' does not exist.`);
   const base = siteBase(io, values);
+  // A port another program holds is the user's to change, as in `serve`: a usage error that names --port.
+  // Checked before Astro starts, and Vite is told not to move on to the next free port, so a preview never
+  // starts quietly on another port than the one asked for (the command would then wait on it for ever).
+  await portFree(port, values.host);
   // The pages read the procedures folder and the configuration from the environment.
   process.env.STEPWRIGHT_PROCEDURES = folder;
   process.env.STEPWRIGHT_CONFIG = values.config ? resolve(io.cwd, values.config) : '';
@@ -66,7 +72,13 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
     base,
     logLevel: 'warn',
   });
-  const server = await dev({ ...config, server: { port, host: values.host } });
+  let server: Awaited<ReturnType<typeof dev>>;
+  try {
+    server = await dev({ ...config, server: { port, host: values.host }, vite: { ...config.vite, server: { ...config.vite?.server, strictPort: true } } });
+  } catch (error) {
+    if (error instanceof Error && /^Port \d+ is already in use$/.test(error.message)) throw listenProblem(Object.assign(new Error(error.message), { code: 'EADDRINUSE' }), port, values.host)!;
+    throw listenProblem(error, port, values.host) ?? error;
+  }
   const host = server.address.address.includes(':') ? `[${server.address.address}]` : server.address.address;
   io.stdout.write(`Live preview of ${folder}/ on http://${values.host === 'localhost' ? 'localhost' : host}:${server.address.port}${base} (Ctrl+C stops it).\n`);
   // Vite ends the process on SIGTERM with exit code 143 before the server has stopped; a stop asked for is a
@@ -82,6 +94,16 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
     process.on('SIGTERM', stop);
   });
   return 0;
+}
+
+/** Binds the port for a moment and lets it go; a port that cannot be taken is a usage error naming --port. */
+async function portFree(port: number, host: string): Promise<void> {
+  if (port === 0) return;
+  const probe = createServer();
+  await new Promise<void>((done, fail) => {
+    probe.once('error', (error) => fail(listenProblem(error, port, host) ?? error));
+    probe.listen(port, host, () => probe.close(() => done()));
+  });
 }
 
 /**
