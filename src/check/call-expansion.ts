@@ -11,7 +11,7 @@ import { collectFacts } from '../analysis/procedure-facts.ts';
 import { callSitesOf, inlineCalls, type CallSite } from '../analysis/inline-calls.ts';
 import type { Procedure } from '../model/procedure.ts';
 import type { PathKey } from '../parse/read-source.ts';
-import type { Severity } from '../parse/diagnostic.ts';
+import type { Severity, SourceRange } from '../parse/diagnostic.ts';
 import type { FileContext, FileRule, Report, RuleMeta } from './define-rule.ts';
 
 /** Rule categories whose findings can change when a called procedure runs inside its caller. */
@@ -49,13 +49,21 @@ export function callSiteAbove(procedure: Pick<Procedure, 'id' | 'steps'>, path: 
  */
 export function findingKey(finding: RawFinding, procedure: Pick<Procedure, 'id' | 'steps'>, lookup: Lookup): string {
   const { report } = finding;
-  // A report placed by range or at the whole file has no path: it is keyed by its procedure alone.
-  const place = (path: readonly PathKey[] | undefined) => {
-    const at = path ? placeOf(procedure, path, lookup) : { procedure: procedure.id, path: ['(whole file)'] };
-    return [at.procedure, at.path];
+  // A report placed by range, or at the whole file, has no path to place: its range and its wording are all
+  // that tell it from another finding of the same rule, so both go into the key (two such findings never hide
+  // each other; at worst one problem worded two ways is reported twice).
+  const place = (path: readonly PathKey[] | undefined, range: SourceRange | undefined, message: string) => {
+    if (path) {
+      const at = placeOf(procedure, path, lookup);
+      return [at.procedure, at.path];
+    }
+    const where = range ? `${range.line}:${range.column}-${range.endLine}:${range.endColumn}` : '(whole file)';
+    return [procedure.id, [where], message];
   };
-  const related = (report.related ?? []).filter((r) => !r.file).map((r) => JSON.stringify(place(r.path))).sort();
-  return JSON.stringify([finding.rule.id, ...place(report.path), report.part ?? 'value', related]);
+  const related = (report.related ?? [])
+    .map((r) => JSON.stringify(r.file ? [r.file, r.range ?? null, r.path ?? null] : place(r.path, r.range, r.message)))
+    .sort();
+  return JSON.stringify([finding.rule.id, ...place(report.path, report.range, report.message), report.part ?? 'value', related]);
 }
 
 export interface CallExpansionInput {
@@ -114,20 +122,27 @@ export function expandCalls(input: CallExpansionInput): void {
       const key = findingKey(finding, file.procedure, lookup);
       if (known.has(key) || reported.has(key)) continue;
       reported.add(key);
-      input.report(file, combinationReport(finding, file.procedure, expanded.inlined));
+      input.report(file, combinationReport(finding, file.procedure, expanded.inlined, byId));
     }
   }
 }
 
 /** A finding of the expanded procedure as the caller's report: at the call step it came through. */
-function combinationReport(finding: RawFinding, caller: Procedure, inlined: string[]): Report {
+function combinationReport(finding: RawFinding, caller: Procedure, inlined: string[], filesById: Map<string, FileContext>): Report {
   const { report, rule } = finding;
   const severity: Severity = report.severity ?? rule.defaultSeverity;
   const site = report.path ? callSiteAbove(caller, report.path) : undefined;
   const trace = [`rule ${rule.id}`];
-  // Places in the caller's own text the finding relates to (its limit, say) stay; those in called files
-  // cannot be shown in this file and are named in the message instead.
-  const related = (report.related ?? []).filter((r) => !r.file && (r.range || (r.path && !callSiteAbove(caller, r.path))));
+  // Places the finding relates to (its limit, say) stay: those in the caller's own text as they are, those
+  // already in another file (a register entry) too, and those in called content are moved to the file of the
+  // procedure that holds them, at their place there.
+  const related = (report.related ?? []).flatMap((r) => {
+    if (r.file || r.range || !r.path || !callSiteAbove(caller, r.path)) return [r];
+    const at = placeOf(caller, r.path, (id) => filesById.get(id)?.procedure ?? undefined);
+    const holder = filesById.get(at.procedure);
+    if (!holder) return [];
+    return [{ file: holder.file, range: holder.source.rangeOf(at.path), message: `${r.message} (in ${at.procedure})` }];
+  });
   if (site) {
     const inner = placeOf(caller, report.path!, (id) => (id === caller.id ? caller : undefined));
     if (inner.path.length) trace.push(`in ${site.callee} at ${inner.path.join('.')}`);

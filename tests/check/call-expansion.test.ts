@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
 import { openResultCache } from '../../src/check/result-cache.ts';
-import { placeOf } from '../../src/check/call-expansion.ts';
+import { findingKey, placeOf, type RawFinding } from '../../src/check/call-expansion.ts';
 import { readProcedure } from '../../src/read/read-procedure.ts';
 
 const today = '2026-12-01';
@@ -104,6 +104,31 @@ describe('call expansion pass', () => {
     expect(store.stats.hits).toBeGreaterThanOrEqual(3);
     expect(second).toEqual(first);
     expect(second.some((d) => d.rule === 'call-expansion-problem')).toBe(true);
+  });
+
+  it("keeps a related place in a called procedure's file, pointing into that file", () => {
+    // The caller sets PI-1 itself and declares no limit for it; the limit it breaks is the called procedure's.
+    const setter = caller
+      .replace(/^limits:\n.*\n/m, '')
+      .replace('  - step: first\n    do: Pressurise gently\n    call: U2-T-LOW', '  - step: first\n    do: Pressurise the line for the flush\n    set: { PI-1: 450 kPa }\n    until: PI-1 >= 445 kPa\n  - step: then\n    do: Hold the pressure\n    call: U2-T-LOW');
+    const low = callee('U2-T-LOW', 120);
+    const result = checkSources([{ file: 'p/caller.md', text: setter }, { file: 'p/low.md', text: low }, inputs[2]], { today });
+    const combined = result.diagnostics.find((d) => d.rule === 'call-expansion-problem' && /450 kPa/.test(d.message));
+    expect(combined, JSON.stringify(result.diagnostics, null, 1)).toBeDefined();
+    expect(combined!.file).toBe('p/caller.md');
+    expect(combined!.related).toContainEqual(expect.objectContaining({ file: 'p/low.md', line: lineOf(low, 'PI-1: { low: 50 kPa') }));
+  });
+
+  it('tells apart findings placed by range, which have no path to compare', () => {
+    const rule = { id: 'some-rule', category: 'conditions' } as RawFinding['rule'];
+    const procedure = readProcedure('p/caller.md', caller).procedure!;
+    const lookup = () => undefined;
+    const at = (line: number, message: string): RawFinding => ({ rule, report: { range: { line, column: 3, endLine: line, endColumn: 9 }, message } });
+    // Two different problems of one rule at two places are two findings, not one.
+    expect(findingKey(at(12, 'a'), procedure, lookup)).not.toBe(findingKey(at(14, 'b'), procedure, lookup));
+    expect(findingKey(at(12, 'a'), procedure, lookup)).not.toBe(findingKey(at(12, 'b'), procedure, lookup));
+    // The same problem at the same place is one.
+    expect(findingKey(at(12, 'a'), procedure, lookup)).toBe(findingKey(at(12, 'a'), procedure, lookup));
   });
 
   it('places a path of expanded content in the file that holds it, call after call', () => {
