@@ -150,4 +150,15 @@ describe('part of the manual', () => {
     expect(await unused(['procedures'])).toEqual([]);
     expect(await unused(undefined)).toEqual([]);
   });
+
+  it('reports a call or a requirement outside the files checked as not checked (info), not as an unknown procedure', async () => {
+    const run = await runCheckRun({ cwd: root, env, paths: ['procedures/k-210-resin/u2-k210-tar-su-001.md', 'procedures/k-210-resin/u2-k210-batch-001.md'], history: false, cache: false });
+    const refs = run.diagnostics.filter((d) => d.rule === 'call-unknown-procedure' || d.rule === 'requires-unknown-procedure');
+    expect(refs.map((d) => [d.rule, d.severity])).toEqual([['requires-unknown-procedure', 'info'], ['call-unknown-procedure', 'info']]);
+    expect(refs.every((d) => d.message.includes("'U2-K210-INERT-001', which is not among the files checked"))).toBe(true);
+    expect(run.errors).toBe(0);
+    // With the inerting procedure among the files, nothing is left to say.
+    const all = await runCheckRun({ cwd: root, env, paths: ['procedures/k-210-resin'], history: false, cache: false });
+    expect(all.diagnostics.filter((d) => d.rule === 'call-unknown-procedure' || d.rule === 'requires-unknown-procedure')).toEqual([]);
+  });
 });

@@ -11,7 +11,9 @@ export default defineManualRule(
     defaultSeverity: 'error',
     docs: `A step with \`call: ID\` runs another procedure of the manual as one step (a shared operation written
 once, such as nitrogen inerting). The called procedure must exist in the same manual, under its document number,
-so that the checker can analyse the caller with the call expanded and the operator can follow it.`,
+so that the checker can analyse the caller with the call expanded and the operator can follow it.
+When only some files of the procedures folder are checked, a procedure that is not among them is reported as not
+checked (info) rather than as unknown.`,
     examples: {
       bad: '- step: inert\n  do: Inert kettle K-210\n  call: U2-K210-INERT-009',
       good: '- step: inert\n  do: Inert kettle K-210\n  call: U2-K210-INERT-001',
@@ -23,6 +25,15 @@ so that the checker can analyse the caller with the call expanded and the operat
       if (!file.procedure) continue;
       for (const site of callSitesOf(file.procedure)) {
         if (ids.includes(site.callee)) continue;
+        if (ctx.partial) {
+          // Part of the manual: the callee may be among the files not checked.
+          ctx.report(file, {
+            path: site.path, severity: 'info',
+            message: `Step '${site.step.id}' calls procedure '${site.callee}', which is not among the files checked, so the call was not checked (${leftOut(ctx.partial)}).`,
+            hint: `Check the whole procedures folder (stepwright check ${ctx.partial.folder}) to check the call.`,
+          });
+          continue;
+        }
         const guess = ids.length ? closest(site.callee, ids) : undefined;
         const close = guess !== undefined && distance(site.callee, guess) <= 3;
         ctx.report(file, {
@@ -34,3 +45,7 @@ so that the checker can analyse the caller with the call expanded and the operat
     }
   },
 );
+
+function leftOut(partial: { folder: string; left: number }): string {
+  return `${partial.left === 1 ? '1 file' : `${partial.left} files`} in ${partial.folder.replace(/\/+$/, '')}/ were not checked`;
+}
