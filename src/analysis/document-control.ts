@@ -16,10 +16,12 @@ const isDate = (s: string | undefined): s is string => Boolean(s && /^\d{4}-\d{2
 
 /**
  * The date the procedure was last confirmed current and accurate: its newest certification, or, before the first
- * one, the day the revision took effect (approval of a revision is a review of its whole text).
+ * one, the day the revision took effect (approval of a revision is a review of its whole text). With `today`,
+ * certifications dated later are left out.
  */
-export function lastCertification(p: Procedure): { date: string; by: 'certification' | 'effective' } | undefined {
-  const certified = p.certifications.map((c) => c.date).filter(isDate).sort().at(-1);
+export function lastCertification(p: Procedure, today?: string): { date: string; by: 'certification' | 'effective' } | undefined {
+  // A certification dated after today has not happened: it cannot move the next one out (certification-in-future).
+  const certified = p.certifications.map((c) => c.date).filter(isDate).filter((d) => !today || d <= today).sort().at(-1);
   const effective = isDate(p.effective) ? p.effective : undefined;
   if (certified && (!effective || certified >= effective)) return { date: certified, by: 'certification' };
   return effective ? { date: effective, by: 'effective' } : undefined;

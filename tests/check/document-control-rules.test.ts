@@ -165,3 +165,19 @@ describe('the yearly certification is document control, not an edit', () => {
     expect(rules(after.replace('Open the header drain.', 'Open the header drain fully.')).map((d) => d.rule)).toContain('effective-edited-in-place');
   });
 });
+
+describe('certification-in-future', () => {
+  // Source: OSHA 29 CFR 1910.119(f)(3): a certification records that the procedures were found current and accurate; it cannot precede the fact.
+  const certifiedOn = (date: string, reviewBy: string) => ({ extra: `review-by: ${reviewBy}\ncertifications:\n  - { name: C. Certifier, role: Operations superintendent, date: ${date} }` });
+  it('is an error for a certification dated after today, which then does not move the next one out', () => {
+    const typo = certifiedOn('2062-11-02', '2063-11-02');
+    const d = found('certification-in-future', typo);
+    expect(d).toHaveLength(1);
+    expect(d[0].message).toContain('dated 2062-11-02, after today (2026-12-01)');
+    expect(found('review-interval-too-long', typo)[0].message).toContain('due by 2027-03-10');
+  });
+  it('accepts a certification dated today', () => {
+    expect(found('certification-in-future', certifiedOn(today, '2027-12-01'))).toEqual([]);
+    expect(found('review-interval-too-long', certifiedOn(today, '2027-12-01'))).toEqual([]);
+  });
+});

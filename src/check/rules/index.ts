@@ -25,6 +25,7 @@ import timeLimitBelowExpected from './time-limit-below-expected.ts';
 import contingencyGotoUnsafe from './contingency-goto-unsafe.ts';
 import requiresNotInForce from './requires-not-in-force.ts';
 import requiresUnknownProcedure from './requires-unknown-procedure.ts';
+import certificationInFuture from './certification-in-future.ts';
 import cautionForSeriousInjury from './caution-for-serious-injury.ts';
 import cautionHoldsAction from './caution-holds-action.ts';
 import conditionSyntax from './condition-syntax.ts';
@@ -147,6 +148,7 @@ export const rules = {
   'register-hazard-not-stated': registerHazardNotStated,
   'time-limit-below-expected': timeLimitBelowExpected,
   'contingency-goto-unsafe': contingencyGotoUnsafe,
+  'certification-in-future': certificationInFuture,
   'caution-for-serious-injury': cautionForSeriousInjury,
   'caution-holds-action': cautionHoldsAction,
   'condition-syntax': conditionSyntax,

@@ -27,7 +27,7 @@ review-by: 2027-11-02
   (ctx) => {
     const p = ctx.procedure;
     if (!p?.reviewBy || !inUse.has(String(p.status))) return;
-    const last = lastCertification(p);
+    const last = lastCertification(p, ctx.today);
     if (!last) return;
     const months = ctx.certificationIntervalMonths ?? 12;
     const latest = addMonths(last.date, months);
