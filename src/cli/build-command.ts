@@ -142,10 +142,10 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     if (leaving.length) {
       throw new Error(`pages link outside the base ${base}:\n${leaving.slice(0, 20).map((l) => `  ${l}`).join('\n')}${leaving.length > 20 ? `\n  … and ${leaving.length - 20} more` : ''}\n`);
     }
-    // Tags, ids and dates never break across lines, on every page: the site's middleware kept them whole as
-    // the pages were rendered, so the search index reads the pages as published.
+    // One pass over the pages: tags, ids and dates never break across lines, on every page, and the search
+    // index reads the pages as kept.
     if (!values['no-index']) progress.phase('indexing for search');
-    await finishPages(work, { index: !values['no-index'], keptWhole: true });
+    await finishPages(work, { index: !values['no-index'] });
     if (!values['no-index']) progress.done();
     progress.phase('writing the offline copy');
     // Last, so the offline copy's list and version cover the pages and the search index.

@@ -14,13 +14,11 @@ export async function indexSite(dir: string): Promise<void> {
 
 /**
  * The last pass over a built site's pages, each page read once: tags, ids and dates are kept whole on every
- * page (unless `keptWhole`: the site's middleware did it as the pages were rendered), and (with `index`) the
- * pages are indexed for search. Once any page marks its searchable part, pagefind indexes only pages that do
- * (its documented rule), so pages without the mark (tag lists, audit trails, rule pages) are not sent to it at
- * all; when no page has the mark, every page is indexed as before.
+ * page, and (with `index`) the pages are indexed for search. Once any page marks its searchable part, pagefind
+ * indexes only pages that do (its documented rule), so pages without the mark (tag lists, audit trails, rule
+ * pages) are not sent to it at all; when no page has the mark, every page is indexed as before.
  */
-export async function finishPages(dir: string, options: { index: boolean; keptWhole?: boolean }): Promise<void> {
-  if (options.keptWhole && !options.index) return;
+export async function finishPages(dir: string, options: { index: boolean }): Promise<void> {
   const pagefind = options.index ? await import('pagefind') : undefined;
   try {
     let index: Awaited<ReturnType<NonNullable<typeof pagefind>['createIndex']>>['index'];
@@ -37,17 +35,14 @@ export async function finishPages(dir: string, options: { index: boolean; keptWh
     let marked = 0;
     for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
       const file = join(dir, ...path.split('/'));
-      let page: string | Buffer = readFileSync(file);
-      if (!options.keptWhole) {
-        const html = page.toString('utf8');
-        page = keepTokensWhole(html);
-        if (page !== html) writeFileSync(file, page);
-      }
+      const html = readFileSync(file, 'utf8');
+      const kept = keepTokensWhole(html);
+      if (kept !== html) writeFileSync(file, kept);
       if (!index) continue;
       // A mention of the attribute in a page's text only sends one page more: pagefind still decides.
-      if (page.includes(bodyMark)) {
+      if (kept.includes(bodyMark)) {
         marked++;
-        await add(path, page.toString('utf8'));
+        await add(path, kept);
       } else {
         unmarked.push(path);
       }

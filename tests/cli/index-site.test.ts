@@ -77,12 +77,4 @@ describe('finishPages', () => {
     expect(readFileSync(join(dir, 'tags/t-00/index.html'), 'utf8')).toContain('<span class="nb">TI-300</span>');
     expect(siteFiles(dir)).toEqual(['tags/t-00/index.html']);
   });
-
-  it('leaves pages alone that the site kept whole as it rendered them (wrapping twice would nest the spans)', async () => {
-    const kept = page('<main data-pagefind-body><p><span class="nb">XV-2101</span> open</p></main>');
-    const dir = writeSite({ 'procedures/p-00/index.html': kept });
-    await finishPages(dir, { index: true, keptWhole: true });
-    expect(readFileSync(join(dir, 'procedures/p-00/index.html'), 'utf8')).toBe(kept);
-    expect(siteFiles(join(dir, 'pagefind')).filter((p) => p.startsWith('fragment/'))).toHaveLength(1);
-  }, 60_000);
 });
