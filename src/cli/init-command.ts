@@ -4,6 +4,7 @@ import { appendFileSync, cpSync, existsSync, mkdirSync, readdirSync, readFileSyn
 import { dirname, join, relative, sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { configFileName } from '../check/config.ts';
+import { exampleRegisterText } from './example-register.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { packagedDemo, packagedDemoRegister, packagedSchema, packageRoot } from './package-files.ts';
 import { defaultProceduresFolder, projectRoot } from './project.ts';
@@ -11,7 +12,7 @@ import { defaultProceduresFolder, projectRoot } from './project.ts';
 export const initHelp = `Usage: stepwright init [options]
 
 Sets up this repository for Stepwright: ${configFileName}, a procedures folder with one example
-procedure, ignore entries for the built manual and caches, editor settings that map the front-matter
+procedure and the plant register entries it uses, ignore entries for the built manual and caches, editor settings that map the front-matter
 schema to the procedure files, and a CI workflow (.github/workflows/procedures.yml) that checks every
 push, posts the review on pull requests and builds the manual on the main branch.
 Never overwrites a file: whatever exists already is left as it is and named in the output.
@@ -68,7 +69,12 @@ export async function runInit(argv: string[], io: CliIo): Promise<number> {
   } else if (existsSync(procedures) && readdirSync(procedures).some((n) => n.endsWith('.md') || statSync(join(procedures, n)).isDirectory())) {
     skipped.push(`${show(procedures)}/ (already holds procedures; no example added)`);
   } else {
-    writeNew(join(procedures, 'example', 'u2-unl-xyl-001.md'), readFileSync(join(packagedDemo, exampleProcedure), 'utf8'));
+    const example = readFileSync(join(packagedDemo, exampleProcedure), 'utf8');
+    writeNew(join(procedures, 'example', 'u2-unl-xyl-001.md'), example);
+    // The register entries the example uses, so that it checks clean; a register already there is left alone.
+    const register = existsSync(packagedDemoRegister) ? exampleRegisterText(example, packagedDemoRegister) : null;
+    if (register && existsSync(join(root, 'register'))) skipped.push(`register/ (already there; the example uses ${register.names.join(', ')} from it)`);
+    else if (register) writeNew(join(root, 'register', 'plant.yaml'), register.text);
   }
 
   const gitignore = join(root, '.gitignore');

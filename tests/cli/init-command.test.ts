@@ -16,6 +16,10 @@ describe('stepwright init', () => {
     expect(run.code).toBe(0);
     expect(parse(readFileSync(join(dir, 'stepwright.config.yaml'), 'utf8'))).toEqual({ procedures: 'procedures', rules: {} });
     expect(readdirSync(join(dir, 'procedures', 'example'))).toEqual(['u2-unl-xyl-001.md']);
+    // The register entries the example lists under 'uses', and nothing else of the demo plant.
+    const register = parse(readFileSync(join(dir, 'register', 'plant.yaml'), 'utf8'));
+    expect(Object.keys(register)).toEqual(['chemicals']);
+    expect(Object.keys(register.chemicals)).toEqual(['xylene']);
     expect(readFileSync(join(dir, '.gitignore'), 'utf8').split('\n')).toEqual(expect.arrayContaining(['dist', 'dist.versions/', '.stepwright/', 'node_modules/']));
     const settings = JSON.parse(readFileSync(join(dir, '.vscode', 'settings.json'), 'utf8'));
     expect(Object.values(settings['yaml.schemas'])).toEqual([['procedures/**/*.md', 'procedures/**/*.yaml', 'procedures/**/*.yml']]);
