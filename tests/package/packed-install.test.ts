@@ -46,6 +46,9 @@ beforeAll(() => {
   git(['commit', '-q', '-m', 'Unloading procedure, revision 5'], '2026-03-01');
   writeFileSync(join(plant, 'procedures', 'u2-unl-xyl-001.md'), unloading);
   writeFileSync(join(plant, 'procedures', 'utilities', 'u2-n2-su-001.md'), nitrogen);
+  // The plant's register of chemicals, which the unloading procedure names under 'uses'.
+  mkdirSync(join(plant, 'register'));
+  writeFileSync(join(plant, 'register', 'chemicals.yaml'), readFileSync(join(tool, 'register', 'chemicals.yaml'), 'utf8'));
   git(['add', '-A'], '2026-04-01');
   git(['commit', '-q', '-m', 'Unloading procedure, revision 6; nitrogen start-up'], '2026-04-01');
 
