@@ -6,11 +6,14 @@ import type { BuiltFile } from '../render/offline-manifest.ts';
 const signature = 'pagefind_dcd';
 
 /**
- * Fragment path → page URL relative to the manual's root (e.g. "procedures/x/"). `base` is the site's sub-path
- * ("/" or "/manual/"), which pagefind writes at the front of every URL. A fragment that cannot be read is left
- * out of the map: the tablet then keeps it with the frame every page needs, which costs bytes, never a result.
+ * Fragment path → page URL relative to the manual's root (e.g. "procedures/x/"). The index is built from the
+ * site's files by their paths in the site folder, so every URL in a fragment starts at "/" whatever base the
+ * site is served under (the search page puts the base in front when it shows a result); the base is not
+ * looked for here. A fragment that cannot be read is left out of the map: the tablet then keeps it with the
+ * frame every page needs, which costs bytes, never a result.
  */
-export function fragmentPages(files: BuiltFile[], base = '/'): Map<string, string> {
+export function fragmentPages(files: BuiltFile[]): Map<string, string> {
+  const base = '/';
   const pages = new Map<string, string>();
   for (const file of files) {
     if (!/^pagefind\/fragment\/[^/]+\.pf_fragment$/.test(file.path)) continue;

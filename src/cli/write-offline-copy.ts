@@ -28,11 +28,10 @@ export interface OfflineCopyOptions {
   now: Date;
   /** Procedure pages by area and kind, from the manual. */
   places?: ProcedurePlace[];
-  /** The site's sub-path, "/" or e.g. "/manual/". */
-  base?: string;
   /**
    * The path the site is served under, when not the root (e.g. "/manual/"): recorded in the publication so
-   * `stepwright serve` serves the folder where its links point. (The search fragments stay root-relative.)
+   * `stepwright serve` serves the folder where its links point. (The search index's URLs start at "/" all the
+   * same: they are read without it.)
    */
   publishedUnder?: string;
   /** A folder holding the previously published site, to report what an update from it costs. */
@@ -52,7 +51,7 @@ export async function writeOfflineCopy(siteDir: string, options: OfflineCopyOpti
     files.push({ path, sha256: createHash('sha256').update(bytes).digest('hex'), size: bytes.byteLength });
     if (path.startsWith('pagefind/fragment/')) fragments.push({ path, bytes });
   }
-  const list = offlineFileList(files, { builtAt: options.now.toISOString(), places: options.places, fragmentPages: fragmentPages(fragments, options.base ?? '/') });
+  const list = offlineFileList(files, { builtAt: options.now.toISOString(), places: options.places, fragmentPages: fragmentPages(fragments) });
   const publication = publicationOf(list);
   const previous = options.previousSite ? await readFileList(options.previousSite) : null;
   const written = new Set(['sw.js', fileListName, publicationName]);

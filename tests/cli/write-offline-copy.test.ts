@@ -5,6 +5,7 @@ import { gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import { readFileList, writeOfflineCopy } from '../../src/cli/write-offline-copy.ts';
 import { offlineReport } from '../../src/cli/offline-report.ts';
+import { indexSite } from '../../src/cli/index-site.ts';
 import { buildManifest, writeSiteManifest } from '../../src/cli/site-manifest.ts';
 
 async function site(pages: Record<string, string>): Promise<string> {
@@ -72,6 +73,19 @@ describe('writeOfflineCopy', () => {
     // A known hash is taken as given: the manifest is built once, at the end of the same build.
     const planted = new Map([['a.css', '0'.repeat(64)]]);
     expect(buildManifest(dir, planted).files['a.css']).toBe('0'.repeat(64));
+    await rm(dir, { recursive: true, force: true });
+  });
+  it('ties each fragment of a real search index to its page, for a site built under /manual/ too', { timeout: 60_000 }, async () => {
+    // The index is made from the files by their place in the site folder: its URLs start at "/" even when
+    // every link in the pages starts at /manual/.
+    const page = (title: string) => `<!doctype html><html lang="en"><head><title>${title}</title></head><body><main data-pagefind-body><h1>${title}</h1><p>Open <a href="/manual/procedures/p-1/">P-1</a> first.</p></main></body></html>`;
+    const dir = await site({ 'index.html': page('Manual'), 'procedures/p-1/index.html': page('Purge east line'), 'procedures/p-2/index.html': page('Emergency stop west') });
+    await indexSite(dir);
+    const summary = await writeOfflineCopy(dir, { now: new Date('2026-12-01T10:00:00Z'), places, publishedUnder: '/manual/' });
+    const fragments = summary.list.files.filter((f) => f.url.startsWith('pagefind/fragment/'));
+    expect(fragments.map((f) => f.page).sort()).toEqual(['./', 'procedures/p-1/', 'procedures/p-2/']);
+    expect(fragments.find((f) => f.page === 'procedures/p-2/')).toMatchObject({ area: 'west', always: true });
+    expect(fragments.find((f) => f.page === 'procedures/p-1/')).toMatchObject({ area: 'east' });
     await rm(dir, { recursive: true, force: true });
   });
 });
