@@ -70,6 +70,7 @@ import limitBeyondTrip from './limit-beyond-trip.ts';
 import limitBeyondRelief from './limit-beyond-relief.ts';
 import limitOutsideRange from './limit-outside-range.ts';
 import setpointWithoutLimits from './setpoint-without-limits.ts';
+import paramDiffersFromDuty from './param-differs-from-duty.ts';
 import paramOutsideLimits from './param-outside-limits.ts';
 import interlockInconsistent from './interlock-inconsistent.ts';
 import registerLimitIncomplete from './register-limit-incomplete.ts';
@@ -193,6 +194,7 @@ export const rules = {
   'limit-beyond-relief': limitBeyondRelief,
   'limit-outside-range': limitOutsideRange,
   'setpoint-without-limits': setpointWithoutLimits,
+  'param-differs-from-duty': paramDiffersFromDuty,
   'param-outside-limits': paramOutsideLimits,
   'interlock-inconsistent': interlockInconsistent,
   'register-limit-incomplete': registerLimitIncomplete,
