@@ -71,7 +71,7 @@ export function isImperativeVerbAt(words: Word[], index: number): boolean {
   return isBaseVerb(tagsAt([verb, ...withThe].join(' '), 0));
 }
 
-function isBaseVerb(tags: Set<string>): boolean {
+function isBaseVerb(tags: ReadonlySet<string>): boolean {
   return tags.has('Verb') && !['Gerund', 'PastTense', 'Copula', 'Modal', 'Auxiliary', 'Participle', 'PerfectTense'].some((t) => tags.has(t));
 }
 

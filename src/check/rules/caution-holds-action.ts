@@ -1,5 +1,6 @@
 // Reports a safety message whose hazard or consequence text gives an instruction instead of describing the danger.
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
 import { givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -23,6 +24,7 @@ avoid: Do not open the jacket drains while H-220 runs`,
   },
   (ctx) => {
     if (!ctx.procedure) return;
+    tagProseAhead(ctx.procedure);
     for (const site of proseOf(ctx.procedure)) {
       if (site.role !== 'hazard') continue;
       for (const sentence of site.sentences) {

@@ -1,5 +1,6 @@
 // Reports a step note that gives an instruction: notes inform, actions belong in steps.
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
 import { givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -20,6 +21,7 @@ export default defineFileRule(
   },
   (ctx) => {
     if (!ctx.procedure) return;
+    tagProseAhead(ctx.procedure);
     for (const site of proseOf(ctx.procedure)) {
       if (site.role !== 'note') continue;
       for (const sentence of site.sentences) {

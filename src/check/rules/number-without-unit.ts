@@ -1,5 +1,6 @@
 // Reports numbers in prose that carry no unit ("Set TIC-210 to 45"), so the operator cannot tell 45 what.
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
 import { bareNumbers } from '../../analysis/prose/bare-numbers.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -22,6 +23,7 @@ ranges whose second value carries the unit (*40 to 50 degC*), pH values, times o
   },
   (ctx) => {
     if (!ctx.procedure) return;
+    tagProseAhead(ctx.procedure);
     for (const site of proseOf(ctx.procedure)) {
       for (const sentence of site.sentences) {
         for (const i of bareNumbers(sentence)) {

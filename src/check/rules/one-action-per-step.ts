@@ -1,5 +1,6 @@
 // Reports a step action that chains several imperatives ("Open XV-2101 and start P-211").
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
 import { chainedImperatives, givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -29,6 +30,7 @@ XV-2101 is open*) are not chained instructions.`,
   },
   (ctx) => {
     if (!ctx.procedure) return;
+    tagProseAhead(ctx.procedure);
     for (const site of proseOf(ctx.procedure)) {
       if (site.role !== 'action') continue;
       for (const sentence of site.sentences) {

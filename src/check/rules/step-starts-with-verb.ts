@@ -1,5 +1,6 @@
 // Reports a step action that does not start with an action verb ("The valve is opened", "Opening XV-2101").
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
 import { mainClauseStart, startsWithActionVerb } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -22,6 +23,7 @@ Passive or descriptive wording (*The valve is opened*, *Opening of XV-2101*) hid
   },
   (ctx) => {
     if (!ctx.procedure) return;
+    tagProseAhead(ctx.procedure);
     for (const site of proseOf(ctx.procedure)) {
       if (site.role !== 'action') continue;
       const first = site.sentences[0];

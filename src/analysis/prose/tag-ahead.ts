@@ -1,0 +1,28 @@
+// Tags ahead, in one reading of the English model, the phrases the writing rules will ask about in one
+// procedure's prose (see tagAhead). Each writing rule that asks the model calls this first; the work is done
+// once per procedure, and the rules' answers are the same as without it.
+import type { Procedure } from '../../model/procedure.ts';
+import { bareNumbers } from './bare-numbers.ts';
+import { chainedImperatives, givesInstruction, startsWithActionVerb } from './imperatives.ts';
+import { proseOf } from './prose-sites.ts';
+import { tagAhead } from './word-tags.ts';
+
+const done = new WeakSet<Procedure>();
+
+export function tagProseAhead(procedure: Procedure): void {
+  if (done.has(procedure)) return;
+  done.add(procedure);
+  tagAhead(() => {
+    for (const site of proseOf(procedure)) {
+      site.sentences.forEach((sentence, i) => {
+        // What number-without-unit asks of every sentence.
+        bareNumbers(sentence);
+        // caution-holds-action (hazard texts), note-holds-action (notes), one-action-per-step and
+        // step-starts-with-verb (step actions).
+        if (site.role === 'hazard' || site.role === 'note' || (site.role === 'action' && i > 0)) givesInstruction(sentence);
+        if (site.role === 'action') chainedImperatives(sentence);
+        if (site.role === 'action' && i === 0) startsWithActionVerb(sentence);
+      });
+    }
+  });
+}
