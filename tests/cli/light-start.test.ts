@@ -1,0 +1,33 @@
+// `--version` and `--help` load only the command line itself: not the analysis, the units and language
+// libraries, or the site stack. Checked on a whole process by listing every module it loads.
+import { spawnSync } from 'node:child_process';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+const root = join(import.meta.dirname, '..', '..');
+// Records the URL of every module the process loads and prints the list to stderr as it exits.
+const hook = `data:text/javascript,${encodeURIComponent(`
+import { registerHooks } from 'node:module';
+const seen = [];
+registerHooks({ resolve(specifier, context, next) { const r = next(specifier, context); seen.push(r.url); return r; } });
+process.on('exit', () => process.stderr.write('\\nLOADED ' + JSON.stringify(seen) + '\\n'));
+`)}`;
+
+function loaded(args: string[]): string[] {
+  const r = spawnSync(process.execPath, ['--import', hook, join(root, 'bin', 'stepwright.mjs'), ...args], { cwd: root, encoding: 'utf8', timeout: 60_000 });
+  expect(r.status, r.stderr).toBe(0);
+  const line = r.stderr.split('\n').find((l) => l.startsWith('LOADED '));
+  return JSON.parse(line!.slice('LOADED '.length)) as string[];
+}
+
+describe('a light start', () => {
+  for (const args of [['--version'], ['--help']]) {
+    it(`stepwright ${args.join(' ')} loads no analysis, units, language or site modules`, () => {
+      const urls = loaded(args);
+      // The hook sees the command's own modules: without them the check below would pass for nothing.
+      expect(urls.some((u) => u.endsWith('/src/cli/main.ts'))).toBe(true);
+      const heavy = urls.filter((u) => /\/src\/(analysis|check|render|site|site-data|history)\/|\/node_modules\/(mathjs|compromise|astro|pagefind|remark-parse|unified|zod)\//.test(u));
+      expect(heavy).toEqual([]);
+    });
+  }
+});
