@@ -252,6 +252,40 @@ steps:
   });
 });
 
+describe('plant-state findings across gauge and absolute', () => {
+  // Source: NIST SP 811, Appendix B.8: standard atmosphere = 101.325 kPa; 100 kPag is 201.325 kPa absolute.
+  const text = (hazardWhen: string, needs: string) => `---
+id: FX-P-005
+title: Pressure hold
+kind: normal
+revision: 0
+status: draft
+signals:
+  PI-1: { text: Vessel pressure (absolute), unit: kPaa, range: [0, 600] }
+hazards:
+  - { level: warning, hazard: Vessel under pressure, consequence: Leak at the manway, avoid: Vent first, when: "${hazardWhen}" }
+steps:
+  - { step: press, do: Pressurise the vessel., set: { PI-1: 210 kPaa }, until: PI-1 >= 205 kPaa }
+  - { step: hold, do: Hold the vessel., needs: "${needs}", until: done }
+---
+`;
+  const messages = (hazardWhen: string, needs: string, rule: string) => checkSources([{ file: 'p.md', text: text(hazardWhen, needs) }], { today: '2026-12-01' })
+    .diagnostics.filter((d) => d.rule === rule).map((d) => d.message);
+
+  it('hazard-can-occur and step-need-unmet say that the standard atmosphere was used', () => {
+    const hazard = messages('PI-1 > 100 kPag', 'PI-1 < 50 kPag', 'hazard-can-occur');
+    expect(hazard.length).toBeGreaterThan(0);
+    expect(hazard[0]).toContain('201.325 kPaa < PI-1');
+    expect(hazard.every((m) => m.includes('standard atmosphere, 101.325 kPa'))).toBe(true);
+    const need = messages('PI-1 > 100 kPag', 'PI-1 < 50 kPag', 'step-need-unmet');
+    expect(need).toHaveLength(1);
+    expect(need[0]).toContain('standard atmosphere, 101.325 kPa');
+    // Written in the signal's own reference: no note.
+    expect(messages('PI-1 > 201.325 kPaa', 'PI-1 < 151.325 kPaa', 'hazard-can-occur').every((m) => !m.includes('101.325 kPa)'))).toBe(true);
+    expect(messages('PI-1 > 201.325 kPaa', 'PI-1 < 151.325 kPaa', 'step-need-unmet')[0]).not.toContain('standard atmosphere');
+  });
+});
+
 describe('a local declaration against the register across gauge and absolute', () => {
   // Source: NIST SP 811, Appendix B.8: standard atmosphere = 101.325 kPa; 250 kPag is 351.325 kPa absolute.
   const registerText = `signals:

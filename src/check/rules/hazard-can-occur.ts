@@ -7,6 +7,7 @@ import { stateInputOf } from '../../analysis/state/state-input.ts';
 import { stepsWhere } from '../../analysis/state/state-findings.ts';
 import { compileStepGraph } from '../../analysis/step-graph.ts';
 import { unitDimension } from '../../analysis/units.ts';
+import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts';
 import type { Hazard, Procedure, Signal } from '../../model/procedure.ts';
 import { defineManualRule, type FileContext } from '../define-rule.ts';
 import { showPath } from '../state-path.ts';
@@ -117,9 +118,11 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
           if (reported.has(key)) continue;
           reported.add(key);
           const source = from ? ` (stated in ${from})` : '';
+          const when = parseCondition(hazard.when!.value);
+          const note = when.ok ? conditionPressureNote([when.condition], (n) => expanded.signals[n]?.unit) : '';
           ctx.report(file, {
             path: [...finding.step.path, 'step'],
-            message: `Hazard '${hazard.hazard}'${source} can be present at step '${finding.step.id}': ${hazard.when!.value} can hold there (${finding.values}). Path: ${showPath(finding.path)}.`,
+            message: `Hazard '${hazard.hazard}'${source} can be present at step '${finding.step.id}': ${hazard.when!.value} can hold there (${finding.values})${note}. Path: ${showPath(finding.path)}.`,
             hint: 'Add or move a step so that the plant is safe before this one (or make the step before guarantee it with its until), or change what this step does.',
             related: from ? undefined : [{ path: hazard.when!.path, message: 'the hazard\'s condition' }],
             trace: finding.path,

@@ -1,5 +1,7 @@
 // Reports a step whose `needs` may be false when it is reached, on some path from the line-up.
 import { unmetNeeds } from '../../analysis/state/state-findings.ts';
+import { parseCondition } from '../../analysis/conditions/parse.ts';
+import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts';
 import { defineFileRule } from '../define-rule.ts';
 import { showPath } from '../state-path.ts';
 
@@ -29,9 +31,12 @@ the needed state. When a latched trip is what holds the state, latched-trip-hold
     const trips = ctx.procedure.interlocks.map((i) => ({ tag: i.tag, latches: i.latches, holds: i.holds }));
     for (const f of unmetNeeds(state, ctx.facts.graph, trips)) {
       if (f.trip) continue;
+      const needs = parseCondition(f.step.needs!.value);
+      const signals = ctx.procedure.signals;
+      const note = needs.ok ? conditionPressureNote([needs.condition], (n) => signals[n]?.unit) : '';
       ctx.report({
         path: f.step.needs!.path,
-        message: `Step '${f.step.id}' needs ${f.step.needs!.value}, but it may not hold when the step is reached (${f.values}). Path: ${showPath(f.path)}.`,
+        message: `Step '${f.step.id}' needs ${f.step.needs!.value}, but it may not hold when the step is reached (${f.values})${note}. Path: ${showPath(f.path)}.`,
         hint: 'Add the state to the line-up if the procedure starts from it, or add a step before this one that brings the plant into it.',
         trace: f.path,
       });
