@@ -5,7 +5,10 @@ import { dirname, join, relative, resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 
 const root = join(import.meta.dirname, '..', '..', 'src');
-const files = readdirSync(root, { recursive: true }).map(String).filter((f) => /\.(ts|astro)$/.test(f)).map((f) => join(root, f));
+// Files only: `astro check` leaves a cache folder named src/site/.astro, which must not be read as a module.
+const files = readdirSync(root, { recursive: true, withFileTypes: true })
+  .filter((d) => d.isFile() && /\.(ts|astro)$/.test(d.name) && !d.parentPath.split(/[\\/]/).includes('node_modules'))
+  .map((d) => join(d.parentPath, d.name));
 const known = new Set(files);
 
 /** Relative imports that load code when the module runs (type-only imports are erased, so they cannot loop). */
