@@ -84,3 +84,20 @@ describe('register entries that cannot be used', () => {
     expect(found[0].related?.[0]).toMatchObject({ file: 'register/plant.yaml', line: 9 });
   });
 });
+
+describe('proof-test interval', () => {
+  const messages = (interval: string) => {
+    const text = `signals:\n  TI-1: { text: Tank temperature, unit: degC, range: [0, 150] }\nsafety-functions:\n  TSHH-1:\n    trips-when: TI-1 >= 90 degC\n    closes: [XV-1]\n    proof-test: ${interval}\n`;
+    const register = buildRegister('register', [{ file: 'register/plant.yaml', source: readYamlSource('register/plant.yaml', text) }]);
+    return checkSources([], { today: '2026-12-01', register }).diagnostics.filter((d) => d.rule === 'register-entry-invalid').map((d) => `${d.line} ${d.message}`);
+  };
+  it('reads a number of days, weeks, months or years, and reports anything else at its line', () => {
+    // Source: IEC 61511-1 (a safety instrumented function is proof-tested at a stated interval), from memory; common practice.
+    for (const ok of ['12 months', '1 year', '26 weeks', '90 days', '0.5 years']) expect(messages(ok), ok).toEqual([]);
+    for (const bad of ['yearly', '12months', '0 months', 'twelve months']) {
+      const found = messages(bad);
+      expect(found, bad).toHaveLength(1);
+      expect(found[0]).toMatch(/^7 The proof-test interval of TSHH-1 .* does not read/);
+    }
+  });
+});

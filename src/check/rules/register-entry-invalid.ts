@@ -28,7 +28,8 @@ at its line in the register file, with what was left unchecked. The rule reports
 - a relief device whose set pressure is not a pressure, or whose \`signal\` is not a register pressure signal;
 - \`starts\` naming no safety function (or a chain of \`starts\` that comes back to itself), a signal's
   \`equipment\`, an equipment's \`area\` or a relief device's \`protects\` naming nothing in the register;
-- a safety function that neither trips on anything nor does anything;
+- a safety function that neither trips on anything nor does anything, or whose \`proof-test\` interval is not a
+  number of days, weeks, months or years (\`12 months\`);
 - one phase parameter name given to two signals.
 
 Duplicate ids are \`register-duplicate-entry\`; unknown keys and wrong value types are \`register-invalid\`.`,
@@ -145,6 +146,9 @@ function checkSignal(signal: RegisterSignal, register: PlantRegister, users: Map
   }
 }
 
+/** A proof-test interval: a positive number and a calendar period ("12 months", "1 year", "26 weeks", "90 days"). */
+const proofTestInterval = /^(?!0+(\.0+)?\s)\d+(\.\d+)?\s+(days?|weeks?|months?|years?)$/;
+
 function checkSafetyFunctions(register: PlantRegister, users: Map<string, number>, report: Reporter): void {
   const signals = Object.fromEntries([...register.signals].map(([id, s]) => [id, { unit: s.unit !== undefined && !checkUnit(s.unit) ? s.unit : undefined, range: s.range, values: s.values }]));
   for (const fn of register.safetyFunctions.values()) {
@@ -164,6 +168,9 @@ function checkSafetyFunctions(register: PlantRegister, users: Map<string, number
           report(fn.file, fn.tripsWhen.path, message, problem.hint, 'value', range);
         }
       }
+    }
+    if (fn.proofTest !== undefined && !proofTestInterval.test(fn.proofTest.trim())) {
+      report(fn.file, [...fn.path, 'proof-test'], `The proof-test interval of ${fn.id} ('${fn.proofTest}') does not read as a number of days, weeks, months or years, so nobody can tell when the next test is due.`, 'Write it as a number and a period, e.g. proof-test: 12 months.');
     }
     if (fn.starts !== undefined) {
       if (!register.safetyFunctions.has(fn.starts)) {
