@@ -1,10 +1,11 @@
-// Shared by the floor e2e tests: one built site, a static server that can be stopped, and headless Chromium.
-import { createServer, type Server } from 'node:http';
+// Shared by the floor e2e tests: one built site, the tests' static server, and headless Chromium.
 import { existsSync } from 'node:fs';
-import { mkdir, readFile, stat } from 'node:fs/promises';
-import { extname, join, normalize } from 'node:path';
+import { mkdir } from 'node:fs/promises';
+import { join } from 'node:path';
 import { chromium, type Browser } from 'playwright-core';
 import { ensureBuiltSite } from './site-build.ts';
+
+export { serveSite, type SiteServer } from './static-server.ts';
 
 export const artifactsDir = join(process.cwd(), 'test-artifacts');
 
@@ -18,54 +19,6 @@ export async function builtSite(): Promise<string> {
     throw new Error(`The built manual in ${dir} has no offline copy (sw.js); 'stepwright build' writes it after pagefind.`);
   }
   return dir;
-}
-
-const types: Record<string, string> = {
-  '.html': 'text/html; charset=utf-8', '.js': 'text/javascript', '.mjs': 'text/javascript', '.css': 'text/css',
-  '.json': 'application/json', '.svg': 'image/svg+xml', '.png': 'image/png', '.wasm': 'application/wasm',
-  '.woff2': 'font/woff2', '.ico': 'image/x-icon', '.txt': 'text/plain',
-};
-
-export interface SiteServer {
-  url: string;
-  /** Replace a response body by path (e.g. a newer offline-manifest.json) for the next requests. */
-  override: Map<string, string>;
-  requests: string[];
-  close(): Promise<void>;
-}
-
-export async function serveSite(dir: string): Promise<SiteServer> {
-  const override = new Map<string, string>();
-  const requests: string[] = [];
-  const server: Server = createServer(async (req, res) => {
-    const path = decodeURIComponent(new URL(req.url ?? '/', 'http://x').pathname);
-    requests.push(path);
-    if (override.has(path)) {
-      res.writeHead(200, { 'content-type': types[extname(path)] ?? 'application/octet-stream', 'cache-control': 'no-cache' });
-      res.end(override.get(path));
-      return;
-    }
-    let file = join(dir, normalize(path).replace(/^(\.\.[/\\])+/, ''));
-    try {
-      if ((await stat(file)).isDirectory()) file = join(file, 'index.html');
-      const body = await readFile(file);
-      res.writeHead(200, { 'content-type': types[extname(file)] ?? 'application/octet-stream', 'cache-control': 'no-cache' });
-      res.end(body);
-    } catch {
-      res.writeHead(404, { 'content-type': 'text/plain' });
-      res.end('not found');
-    }
-  });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const address = server.address();
-  const port = typeof address === 'object' && address ? address.port : 0;
-  return {
-    // localhost, not 127.0.0.1: service workers need a secure context, and localhost counts as one.
-    url: `http://localhost:${port}`,
-    override,
-    requests,
-    close: () => new Promise<void>((resolve) => { server.closeAllConnections(); server.close(() => resolve()); }),
-  };
 }
 
 export async function launchChromium(): Promise<Browser> {

@@ -1,71 +1,16 @@
 // The offline copy at plant scale: two publications of a generated manual of 300 procedures, the second with one
 // procedure changed. A tablet (headless Chromium) updates from the first to the second; the test server's request
 // log shows what it fetched. The network drops halfway through an update; a tablet keeps chosen areas only.
-import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
-import { readFile, stat } from 'node:fs/promises';
-import { extname, join, normalize } from 'node:path';
+import { readFile } from 'node:fs/promises';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { launchChromium } from './floor-fixture.ts';
+import { serveSite, type SiteServer } from './static-server.ts';
 import { changedId, ensureGeneratedBuilds, procedureCount, type GeneratedManual } from './offline-builds.ts';
 import { updateCost, type OfflineFileList, type UpdateCost } from '../../src/render/offline-manifest.ts';
 
 vi.setConfig({ testTimeout: 180_000, hookTimeout: 20 * 60_000 });
-
-const types: Record<string, string> = {
-  '.html': 'text/html; charset=utf-8', '.js': 'text/javascript', '.css': 'text/css', '.json': 'application/json',
-  '.svg': 'image/svg+xml', '.wasm': 'application/wasm',
-};
-
-/** A static server whose published folder can be swapped, with a request log, and a network that can drop. */
-interface TestServer {
-  url: string;
-  serve(dir: string): void;
-  /** Requests the service worker made to save files (marked with its header), by path. */
-  saved: string[];
-  /** After this many more saving requests, every request fails (the connection is cut); null: never. */
-  dropAfter: number | null;
-  down: boolean;
-  close(): Promise<void>;
-}
-
-async function startServer(first: string): Promise<TestServer> {
-  let dir = first;
-  const state: TestServer = {
-    url: '', saved: [], dropAfter: null, down: false,
-    serve(next) { dir = next; },
-    close: () => new Promise<void>((resolve) => { server.closeAllConnections(); server.close(() => resolve()); }),
-  };
-  const handle = async (req: IncomingMessage, res: ServerResponse) => {
-    const path = decodeURIComponent(new URL(req.url ?? '/', 'http://x').pathname);
-    const saving = req.headers['x-stepwright-offline'] !== undefined;
-    if (saving && state.dropAfter !== null && !state.down) {
-      if (state.dropAfter <= 0) state.down = true;
-      else state.dropAfter--;
-    }
-    if (state.down) {
-      req.socket.destroy();
-      return;
-    }
-    if (saving) state.saved.push(path);
-    let file = join(dir, normalize(path).replace(/^(\.\.[/\\])+/, ''));
-    try {
-      if ((await stat(file)).isDirectory()) file = join(file, 'index.html');
-      const body = await readFile(file);
-      res.writeHead(200, { 'content-type': types[extname(file)] ?? 'application/octet-stream', 'cache-control': 'no-cache' });
-      res.end(body);
-    } catch {
-      res.writeHead(404, { 'content-type': 'text/plain' });
-      res.end('not found');
-    }
-  };
-  const server: Server = createServer((req, res) => { void handle(req, res); });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
-  const address = server.address();
-  // localhost: a secure context for the service worker.
-  state.url = `http://localhost:${typeof address === 'object' && address ? address.port : 0}`;
-  return state;
-}
 
 interface Status {
   copy: null | { version: string; files: number; keptFiles: number };
@@ -104,7 +49,7 @@ let listA: OfflineFileList;
 let listB: OfflineFileList;
 let cost: UpdateCost;
 let browser: Browser;
-let server: TestServer;
+let server: SiteServer;
 const changedSlug = changedId.toLowerCase();
 
 beforeAll(async () => {
@@ -153,7 +98,7 @@ describe('a tablet updating from the first publication to the second', () => {
   const seen: Array<{ url: string; copy: string | null }> = [];
 
   it('saves the whole first publication on its first visit', async () => {
-    server = await startServer(built.a);
+    server = await serveSite(built.a);
     context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
     const first = await context.newPage();
     await first.goto(`${server.url}/`);
@@ -236,6 +181,11 @@ describe('a tablet whose network drops halfway through an update', () => {
     await page.goto(`${server.url}/search/`);
     expect(await searchTitles(page, changedId)).toEqual([expect.stringContaining('Generated batch procedure 150')]);
     await expect.poll(() => page.locator('[data-offline-status]').textContent(), { timeout: 10_000 }).toMatch(/Update stopped at \d+ of \d+ files/);
+    // The offline-copy page says what stopped downloading, and when it last tried to check.
+    await page.goto(`${server.url}/offline/`);
+    await expect.poll(() => page.locator('[data-offline-details]').textContent(), { timeout: 10_000 })
+      .toMatch(/Download stopped at \d+ of [\d,]+ files? \([^)]*\); it goes on at the next check with a network\./);
+    await expect(page.locator('[data-offline-details]').textContent()).resolves.toMatch(/(Last checked|Last tried to check) for a newer manual \d{4}-/);
 
     // The network returns: the update goes on with the files it does not hold yet, and switches.
     server.dropAfter = null;
@@ -255,7 +205,7 @@ describe('a tablet whose network drops halfway through an update', () => {
 
 describe('a tablet that keeps chosen areas', () => {
   it('keeps its areas and every emergency procedure, keeps pages once opened, and remembers the choice', async () => {
-    server ??= await startServer(built.b);
+    server ??= await serveSite(built.b);
     server.serve(built.b);
     const context = await browser.newContext({ viewport: { width: 800, height: 1280 } });
     const page = await context.newPage();
@@ -264,6 +214,11 @@ describe('a tablet that keeps chosen areas', () => {
     const whole = (await status(page))!.copy!.keptFiles;
     expect(whole).toBe(listB.files.length);
     await expect.poll(() => page.locator('[data-offline-details]').textContent(), { timeout: 10_000 }).toMatch(/keeps the whole manual/);
+    // In plain words: which publication it holds, when it last checked, and that nothing is downloading.
+    const details = (await page.locator('[data-offline-details]').textContent())!;
+    expect(details).toMatch(/This tablet holds the manual published \d{4}-\d\d-\d\d( \d\d:\d\d)? \(version [^)]+\), saved \d{4}-\d\d-\d\d \d\d:\d\d\./);
+    expect(details).toMatch(/Last checked for a newer manual \d{4}-\d\d-\d\d \d\d:\d\d\./);
+    expect(details).toContain('Nothing is downloading.');
 
     // The choice is made on the tablet: one area (areas are named as the manual shows them).
     const chosen = listB.areas[0].area;
