@@ -30,10 +30,12 @@ const stepwright = (args: string[]) => run(join(plant, 'node_modules', '.bin', '
 const unloading = readFileSync(join(tool, 'procedures', 'unloading', 'u2-unl-xyl-001.md'), 'utf8');
 const nitrogen = readFileSync(join(tool, 'procedures', 'utilities', 'u2-n2-su-001.md'), 'utf8');
 
+let tarball = '';
+
 beforeAll(() => {
   // The tarball, made the way a release is made (prepack compiles the TypeScript into lib/).
   ok(run('npm', ['pack', '--pack-destination', work], tool, 300_000));
-  const tarball = join(work, readdirSync(work).find((f) => f.endsWith('.tgz'))!);
+  tarball = join(work, readdirSync(work).find((f) => f.endsWith('.tgz'))!);
 
   mkdirSync(join(plant, 'procedures', 'utilities'), { recursive: true });
   execFileSync('git', ['init', '-q', '-b', 'main'], { cwd: plant, env });
@@ -206,6 +208,32 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
     // Astro's own files (.astro/, caches) went into the plant's .stepwright/, not into the package.
     expect(readdirSync(installed, { recursive: true }).map(String).sort()).toEqual(before);
     expect(existsSync(join(plant, '.stepwright', 'dev', '.astro'))).toBe(true);
+  });
+
+  it('npx runs dev in a repository that has no node_modules of its own', async () => {
+    // A plant that tries the tool once: nothing installed in its repository, the package fetched by npx.
+    const once = join(work, 'once');
+    mkdirSync(join(once, 'procedures'), { recursive: true });
+    execFileSync('git', ['init', '-q', '-b', 'main'], { cwd: once, env });
+    writeFileSync(join(once, 'procedures', 'u2-n2-su-001.md'), nitrogen);
+    const dev = spawn('npm', ['exec', '--yes', '--prefer-offline', `--package=${tarball}`, '--', 'stepwright', 'dev', '--port', '0', '--host', '127.0.0.1'], { cwd: once, env, detached: true });
+    // npm runs the bin as its own child: signals go to the whole group, so no preview outlives the test.
+    const signal = (name: NodeJS.Signals) => { try { process.kill(-dev.pid!, name); } catch { /* already gone */ } };
+    let stderr = '';
+    dev.stderr.on('data', (chunk) => { stderr += chunk; });
+    try {
+      const url = await servedAt(dev).catch((error: Error) => { throw new Error(`${error.message}\n${stderr}`); });
+      // Before the fix the server listened but every page request waited for ever.
+      const page = await fetch(new URL('procedures/u2-n2-su-001/', url), { signal: AbortSignal.timeout(150_000) });
+      expect(page.status).toBe(200);
+      expect(await page.text()).toContain('U2-N2-SU-001');
+      const exited = new Promise<number | null>((resolve) => dev.on('exit', (code) => resolve(code)));
+      signal('SIGTERM');
+      await exited;
+    } finally {
+      signal('SIGKILL');
+    }
+    expect(existsSync(join(once, 'node_modules'))).toBe(false);
   });
 });
 
