@@ -374,6 +374,9 @@ describe('printing', () => {
     const header = await page.locator('.site-header').evaluate((el) => getComputedStyle(el).backgroundColor);
     expect(header).toMatch(/rgb\(255, 255, 255\)|rgba\(0, 0, 0, 0\)/);
     await shot(page, `print-${name}-1280x900`);
+    await page.setViewportSize(tablet);
+    await shot(page, `print-${name}-800x1280`);
+    await page.setViewportSize(desk);
     for (const format of ['A4', 'Letter'] as const) {
       const pdf = await page.pdf({ format, printBackground: true, preferCSSPageSize: format === 'A4' });
       const pages = await pdfPages(pdf);
@@ -384,12 +387,12 @@ describe('printing', () => {
         expect(body.length, `${slug} ${format} page ${i + 1} is blank`).toBeGreaterThan(40);
         expect(text, `${slug} ${format} page ${i + 1}`).toContain('Uncontrolled when printed');
       }
+      // Both charts are longer than a page, so each must be split at transitions into marked parts.
       const parts = await page.locator('.chart-print .chart-part').count();
-      if (parts > 1) {
-        const all = pages.join('\n');
-        expect(all).toContain(`Continued on the next page (part 2 of ${parts})`);
-        expect(all).toContain(`continued from the previous page (part ${parts} of ${parts})`);
-      }
+      expect(parts, `${slug} chart parts`).toBeGreaterThan(1);
+      const all = pages.join('\n');
+      expect(all).toContain(`Continued on the next page (part 2 of ${parts})`);
+      expect(all).toContain(`continued from the previous page (part ${parts} of ${parts})`);
     }
     await page.context().close();
   });
