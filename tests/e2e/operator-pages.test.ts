@@ -385,6 +385,8 @@ describe('printing', () => {
         // A page with nothing but its margin marks is blank.
         const body = text.replace(/Uncontrolled when printed|Page \d+ of \d+|U2-[A-Z0-9-]+ · Revision \d+ · (Effective|Status) [\w-]+/g, '').trim();
         expect(body.length, `${slug} ${format} page ${i + 1} is blank`).toBeGreaterThan(40);
+        // A section heading is never left alone at the bottom of a page (the chart heading was, before page 5).
+        expect(body, `${slug} ${format} page ${i + 1} ends with a heading`).not.toMatch(/(What to do now|Before you start|Sequence chart|Cycle time|Purpose, scope and notes|Revision history)$/);
         expect(text, `${slug} ${format} page ${i + 1}`).toContain('Uncontrolled when printed');
       }
       // Both charts are longer than a page, so each must be split at transitions into marked parts.
