@@ -344,6 +344,20 @@ describe('the demo manual', () => {
     await page.context().close();
   });
 
+  it('draws every step, the sign-off step included, with the same thin outline (double only for the initial step)', async () => {
+    // Source: IEC 60848, step symbols (plain box; initial step double box), common practice; no thick-border symbol.
+    const page = await open(demo, '/procedures/u2-k210-batch-001/', desk);
+    const steps = await page.locator('.chart-scroll a.sfc-step').evaluateAll((els) => els.map((e) => ({
+      step: e.getAttribute('data-step'),
+      widths: [...e.querySelectorAll('rect:not(.sfc-hit)')].filter((r) => getComputedStyle(r).stroke !== 'none')
+        .map((r) => Number.parseFloat(getComputedStyle(r).strokeWidth)),
+    })));
+    expect(steps.length).toBeGreaterThan(5);
+    for (const s of steps) for (const w of s.widths) expect(w, `step ${s.step}`).toBeLessThanOrEqual(2);
+    expect(steps.filter((s) => s.widths.length >= 2).length, 'steps drawn with a double outline').toBe(1);
+    await page.context().close();
+  });
+
   it('keeps table headings out of search excerpts', async () => {
     const page = await open(demo, `/search/?q=${encodeURIComponent('Ingrid Halvorsen')}`);
     await page.locator('#search-status').filter({ hasText: 'found' }).waitFor({ timeout: 30_000 });
