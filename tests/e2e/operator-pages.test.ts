@@ -403,6 +403,10 @@ describe('printing', () => {
         expect(body, `${slug} ${format} page ${i + 1} ends with a heading`).not.toMatch(/(What to do now|Before you start|Sequence chart|Cycle time|Purpose, scope and notes|Revision history)$/);
         expect(text, `${slug} ${format} page ${i + 1}`).toContain('Uncontrolled when printed');
       }
+      // The chart starts on a fresh page: on its first page nothing but the margin marks comes before its heading.
+      const chartPage = pages.find((t) => t.includes('Sequence chart Steps'));
+      expect(chartPage, `${slug} ${format}: chart page`).toBeDefined();
+      expect(chartPage!.replace(/Uncontrolled when printed|Page \d+ of \d+|U2-[A-Z0-9-]+ · Revision \d+ · (Effective|Status) [\w-]+/g, '').replace(/^\s*— printed \d{4}-\d\d-\d\d\s*/, ''), `${slug} ${format}: chart on a fresh page`).toMatch(/^Sequence chart Steps/);
       // Both charts are longer than a page, so each must be split at transitions into marked parts.
       const parts = await page.locator('.chart-print .chart-part').count();
       expect(parts, `${slug} chart parts`).toBeGreaterThan(1);
