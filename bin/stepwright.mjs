@@ -28,6 +28,14 @@ if (existsSync(sources)) {
   process.stderr.write('stepwright: the compiled program (lib/) is missing from this installation; reinstall the package.\n');
   process.exit(2);
 }
+// A reader that stops early (`stepwright check | head`) closes the pipe: stop quietly, as command-line tools do,
+// instead of a stack trace for a write nobody reads any more.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on('error', (error) => {
+    if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    process.exitCode = 2;
+  });
+}
 const { main } = await import(entry.href);
 // Standard input is read only when a command is given the path '-'.
 const stdin = async () => {
