@@ -1,6 +1,6 @@
 // `stepwright build [folder]`: checks the procedures, builds the manual with Astro and indexes it with
 // pagefind in a temporary folder, then swaps it into place: a failed or killed build leaves the last good site.
-import { cpSync, existsSync, readdirSync, renameSync, rmSync } from 'node:fs';
+import { cpSync, existsSync, mkdirSync, readdirSync, renameSync, rmSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { clearHandOff, formatCheckFailure, handOffManual, loadManual } from '../site-data/manual.ts';
@@ -16,6 +16,7 @@ import { offlineReport } from './offline-report.ts';
 import { writeOfflineCopy, type OfflineCopySummary } from './write-offline-copy.ts';
 import { GitError } from '../history/git.ts';
 import { buildProgress } from './progress.ts';
+import { linkPackages, packagesHolder, packagesReachableFrom } from './package-links.ts';
 
 export const buildHelp = `Usage: stepwright build [options] [folder]
 
@@ -112,8 +113,16 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   // Astro keeps its intermediate files inside the output folder only when that folder is inside the
   // project; elsewhere it would share <project>/.astro with any other build running at the same time.
   const scratch = join(io.cwd, '.stepwright');
-  const work = isInside(outDir, io.cwd) ? tmp : join(scratch, `site.tmp-${process.pid}`);
+  // Astro's prerender modules in the working folder import the site's packages from there upward; run through
+  // npx, nothing is installed above the user's folders, so the build works in our scratch folder, which gets a
+  // link to them.
+  const unreachable = packagesHolder() !== undefined && !packagesReachableFrom(dirname(tmp));
+  const work = isInside(outDir, io.cwd) && !unreachable ? tmp : join(scratch, `site.tmp-${process.pid}`);
   const cacheDir = join(scratch, `astro-cache.tmp-${process.pid}`);
+  if (unreachable) {
+    mkdirSync(scratch, { recursive: true });
+    linkPackages(scratch);
+  }
   removeStaleTemporaries(outDir);
   removeStaleTemporaries(join(scratch, 'site'));
   removeStaleTemporaries(join(scratch, 'astro-cache'));

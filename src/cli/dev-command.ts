@@ -8,6 +8,7 @@ import { siteConfig, siteFolder } from '../site/astro-config.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
 import { listenProblem } from './serve-command.ts';
+import { linkPackages } from './package-links.ts';
 import { siteBase } from '../engine/project.ts';
 
 export const devHelp = `Usage: stepwright dev [options] [folder]
@@ -123,25 +124,9 @@ function linkSiteCode(root: string): string {
     if (existing) unlinkSync(link);
     symlinkSync(target, link, 'junction');
   }
-  linkPackages(root, target);
+  // Modules reached through the link are resolved from the root upward: run through npx, nothing is installed
+  // above it and every page request waited for ever.
+  linkPackages(root);
   return link;
 }
 
-/**
- * Modules reached through the link are resolved from the preview's root upward (the linked paths are kept), so
- * the packages the pages import must be found from there. Installed in the plant's repository they are (its
- * node_modules is above the root); run through npx, nothing is installed there and every page request waited
- * for ever. The root then gets a link to the node_modules folder that holds the installed package. An entry of
- * that name that is not such a link is the user's and is left alone.
- */
-function linkPackages(root: string, code: string): void {
-  const packageRoot = dirname(code);
-  const holder = dirname(packageRoot);
-  if (basename(holder) !== 'node_modules') return;
-  const link = join(root, 'node_modules');
-  const existing = lstatSync(link, { throwIfNoEntry: false });
-  if (existing && !existing.isSymbolicLink()) return;
-  if (existing && readlinkSync(link) === holder) return;
-  if (existing) unlinkSync(link);
-  symlinkSync(holder, link, 'junction');
-}

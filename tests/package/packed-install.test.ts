@@ -235,6 +235,18 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
     }
     expect(existsSync(join(once, 'node_modules'))).toBe(false);
   });
+
+  it('npx builds the manual in a repository that has no node_modules of its own', () => {
+    // Before the fix: "Cannot find package … imported from …/dist.tmp-…/.prerender/chunks/…", no site.
+    const once = join(work, 'once-build');
+    mkdirSync(join(once, 'procedures'), { recursive: true });
+    execFileSync('git', ['init', '-q', '-b', 'main'], { cwd: once, env });
+    writeFileSync(join(once, 'procedures', 'u2-n2-su-001.md'), nitrogen);
+    const built = run('npm', ['exec', '--yes', '--prefer-offline', `--package=${tarball}`, '--', 'stepwright', 'build'], once);
+    expect(built.status, `${built.stdout}\n${built.stderr}`).toBe(0);
+    expect(readFileSync(join(once, 'dist', 'procedures', 'u2-n2-su-001', 'index.html'), 'utf8')).toContain('U2-N2-SU-001');
+    expect(existsSync(join(once, 'node_modules'))).toBe(false);
+  });
 });
 
 /** The URL `stepwright serve` says it serves on. */
