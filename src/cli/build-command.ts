@@ -184,6 +184,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
 
 /** Moves a folder by renaming it; copies it only when the two places are on different file systems. */
 function moveFolder(from: string, to: string): void {
+  // The output folder may be new, in a folder that does not exist yet (--out reports/2026/site).
+  mkdirSync(dirname(to), { recursive: true });
   try {
     renameSync(from, to);
   } catch (error) {

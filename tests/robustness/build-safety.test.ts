@@ -127,6 +127,12 @@ describe('building the manual', () => {
       }
     }, 180_000);
 
+  it('builds into an output folder whose parent folders do not exist yet', async () => {
+    const out = join(work, 'new', 'deeper', 'site');
+    await build(procedures, out);
+    expect(differences(firstSite, snapshot(out))).toEqual([]);
+  }, 180_000);
+
   it('never writes to the procedures folder, in check or build', async () => {
     const checked = await runCli(['check', procedures], work);
     expect(checked.code).toBe(0);
