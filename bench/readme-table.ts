@@ -30,6 +30,8 @@ const rows: Array<{ what: string; size: string; time: RegExp; ratio?: RegExp }> 
   { what: '`stepwright --version` (installed package)', size: '—', time: /^startup\/version$/ },
   { what: '`stepwright check` of the demo manual, cold (installed package)', size: '13', time: /^startup\/check-demo$/ },
   { what: '`stepwright check` of the demo manual, warm cache (installed package)', size: '13', time: /^startup\/check-demo-warm$/ },
+  { what: 'Offline copy of the whole manual (files and bytes a tablet holds)', size: '1,000', time: /^offline\/1000\/copy-size$/ },
+  { what: 'Tablet update after one changed procedure, share of the offline copy', size: '1,000', time: /^offline\/1000\/update-size$/, ratio: /^offline\/1000\/update-share$/ },
   { what: 'Sequence analysis, 12 parallel branches x 10 steps', size: '1', time: /^soundness\/12-branches$/ },
 ];
 
