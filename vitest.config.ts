@@ -1,7 +1,8 @@
 import { defineConfig } from 'vitest/config';
 
-// Test files that replace a module with a mock need a module cache of their own.
-const needsOwnModules = ['tests/check/result-cache-reading.test.ts'];
+// Test files that replace a module with a mock, or count what a module remembers between calls (the English
+// model's tag memo), need a module cache of their own.
+const needsOwnModules = ['tests/check/result-cache-reading.test.ts', 'tests/analysis/prose/word-tags.test.ts'];
 
 export default defineConfig({
   test: {
