@@ -3,6 +3,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { parse, stringify } from 'yaml';
+import { splitFrontMatter } from '../parse/split-front-matter.ts';
 
 const header = `# Plant register: every piece of equipment, signal, limit, trip, relief device, chemical and area defined once
 # and read by every procedure that lists it under 'uses' (see docs/register.md in the stepwright package).
@@ -13,8 +14,8 @@ const header = `# Plant register: every piece of equipment, signal, limit, trip,
 
 /** The register entries named by `uses` in the procedure text, taken from the register folder; null when none. */
 export function exampleRegisterText(procedureText: string, registerFolder: string): { text: string; names: string[] } | null {
-  const front = /^---\r?\n([\s\S]*?)\r?\n---/.exec(procedureText);
-  const uses: unknown = front ? (parse(front[1]) as { uses?: unknown } | null)?.uses : undefined;
+  const { yaml } = splitFrontMatter(procedureText);
+  const uses: unknown = yaml ? (parse(yaml) as { uses?: unknown } | null)?.uses : undefined;
   const wanted = new Set(Array.isArray(uses) ? uses.filter((u): u is string => typeof u === 'string') : []);
   if (!wanted.size) return null;
   const kept: Record<string, Record<string, unknown>> = {};
