@@ -2,7 +2,7 @@
 import fc from 'fast-check';
 import type { ChooseBranch, SequenceItem, Step } from '../../src/model/procedure.ts';
 
-type Shape =
+export type Shape =
   | { kind: 'step'; until: boolean }
   | { kind: 'parallel'; branches: Shape[][] }
   | { kind: 'choose'; branches: Array<{ items: Shape[] | null; jump: number | null }> };
