@@ -1,7 +1,10 @@
 // The structural method: parallel blocks that no jump crosses are single-entry single-exit regions, analysed
 // once each and then seen from outside as one place; only regions that jumps make unstructured are explored.
 // A region without jumps whose blocks all complete is sound by construction, so a structured procedure costs
-// one pass over its graph (Vanhatalo, Völzer, Koehler 2009: well-structured fragments are sound).
+// one pass over its graph (Vanhatalo, Völzer, Koehler 2009: well-structured fragments are sound). A block may be
+// seen as one place only while it is such a fragment: blocks inside a block that a jump crosses, and blocks with a
+// branch that can end with tokens left in it, are played out in the region around them, so that both methods
+// reach the same verdict (tests/analysis/soundness-methods.test.ts).
 import type { Place, StepGraph, Transition } from '../step-graph.ts';
 import { explore, type Exploration, type Game } from './token-game.ts';
 import type { RegionReport, SoundnessProblem, SoundnessResult } from './verdict.ts';
@@ -55,6 +58,14 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
     while (common < source.length && common < target.length && source[common] === target[common]) common++;
     for (const end of [source, target]) for (let i = common; i < end.length; i++) tainted.add(blockOf(end[i]));
     unstructured.add(common === 0 ? '' : source[common - 1]);
+  }
+  // A jump out of a branch leaves the tokens of its sibling branches behind, however deep inside the block they
+  // are (IEC 60848: a simultaneous divergence ends only at its convergence). A block inside such a branch can be
+  // abandoned half way, so it is no single-entry single-exit fragment either: every block inside a block that a
+  // jump crosses is played out too.
+  for (const p of graph.places) {
+    const first = p.scope.findIndex((key) => tainted.has(blockOf(key)));
+    if (first >= 0) for (let i = first + 1; i < p.scope.length; i++) tainted.add(blockOf(p.scope[i]));
   }
 
   // Indexes so that each region touches only its own places and transitions: linear overall.
@@ -204,12 +215,31 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
       for (const key of branchesOf.get(name.slice(macroPrefix.length))!) collect(key, reach);
     });
   };
-  collect('', () => []);
+  // A branch that can reach its end with tokens still inside it (left behind by a jump out of a nested branch)
+  // does not complete cleanly: seen from outside as one place, those tokens would vanish at the join, and its
+  // "improper" would be judged at the branch's end instead of the procedure's (which a run may never reach).
+  // Such a block is played out in the region around it instead, until every block still seen as one place
+  // completes cleanly; then only the whole procedure can be improper. Structured procedures never repeat this.
+  let discarded = 0;
+  for (;;) {
+    collect('', () => []);
+    const dirty = new Set<string>();
+    for (const r of regions) {
+      if (r.region !== '' && summaries.get(r.region)!.problems.some((p) => p.kind === 'improper')) dirty.add(blockOf(r.region));
+    }
+    if (!dirty.size) break;
+    for (const block of dirty) tainted.add(block);
+    discarded += regions.reduce((n, r) => n + r.states, 0);
+    summaries.clear();
+    problems.length = 0;
+    regions.length = 0;
+    deadPlaces.clear();
+  }
 
   const deadTransitions = new Set(graph.transitions.filter((t) => t.from.some((f) => deadPlaces.has(f))).map((t) => t.id));
   const exceeded = regions.some((r) => r.exceeded);
   return {
-    method: 'structural', complete: !exceeded, states: regions.reduce((n, r) => n + r.states, 0),
+    method: 'structural', complete: !exceeded, states: discarded + regions.reduce((n, r) => n + r.states, 0),
     regions, problems, deadPlaces: exceeded ? new Set() : deadPlaces, deadTransitions,
   };
 }
