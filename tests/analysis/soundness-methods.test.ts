@@ -94,4 +94,27 @@ describe('structural and explicit soundness agree', () => {
     expect(summarize(explicit)).toMatchObject({ unsafe: false, stuck: false, improper: true });
     expect(summarize(structuralSoundness(graph))).toEqual(summarize(explicit));
   });
+
+  // Playing out a branch that ends unevenly must not cost the whole block: its siblings, which no jump crosses,
+  // are met only at the join and stay one place each. s1; P (P.b0: Q (Q.b0: s2, goto s4 | Q.b1: s3), s4 … s11 |
+  // P.b1 … P.bn: ten steps each); s-last. By hand: s2 jumps to s4 and Q.b1's token stays behind; P can still join
+  // and the end is reached with it: improper.
+  it('on a branch that ends unevenly beside wide plain branches (improper, and only that branch played out)', () => {
+    const wide = (branches: number): Shape[] => [s(), parallel(
+      [parallel([s(), goto(3)], [s()]), ...Array.from({ length: 8 }, s)],
+      ...Array.from({ length: branches - 1 }, () => Array.from({ length: 10 }, s)),
+    ), s()];
+    const small = compileStepGraph(buildShapes(wide(3)));
+    const explicit = exploreSoundness(small);
+    expect(explicit.complete).toBe(true);
+    expect(summarize(explicit)).toMatchObject({ unsafe: false, stuck: false, improper: true });
+    expect(summarize(structuralSoundness(small))).toEqual(summarize(explicit));
+    // Twelve branches: 11^11 interleavings of the plain ones, past the explicit game's budget.
+    const big = compileStepGraph(buildShapes(wide(12)));
+    expect(exploreSoundness(big).complete).toBe(false);
+    const structural = structuralSoundness(big);
+    expect(structural.complete).toBe(true);
+    expect(structural.states).toBeLessThan(200);
+    expect(summarize(structural)).toMatchObject({ unsafe: false, stuck: false, improper: true });
+  });
 });

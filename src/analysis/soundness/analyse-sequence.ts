@@ -6,7 +6,7 @@ import { parallelScopeKey, walkBlocks } from '../../model/walk-steps.ts';
 import type { ProcedureFacts } from '../procedure-facts.ts';
 import type { Place, StepGraph, Transition } from '../step-graph.ts';
 import { findLoops, type Loop } from './loops.ts';
-import { macroPrefix, structuralSoundness } from './structural.ts';
+import { branchPrefix, macroPrefix, structuralSoundness } from './structural.ts';
 import type { SoundnessResult } from './verdict.ts';
 
 export interface SequenceAnalysis {
@@ -82,10 +82,15 @@ export function locatePlaces(facts: ProcedureFacts): PlaceLocator {
     }
   }
   const scopeOf = (p: Place) => (p.kind === 'branch-done' ? p.scope.slice(0, -1) : p.scope);
+  // A branch seen as one place by the structural method is active in that branch (and the ones around it).
+  const branchScope = new Map<string, string[]>();
+  for (const p of graph.places) p.scope.forEach((key, i) => branchScope.set(key, p.scope.slice(0, i + 1)));
+  const activeScope = (id: string) => (id.startsWith(branchPrefix) ? branchScope.get(id.slice(branchPrefix.length)) : byId.get(id)?.scope) ?? [];
   const locator: PlaceLocator = {
     place: (id) => byId.get(id),
     pathOf(id) {
       if (id.startsWith(macroPrefix)) return blocks.get(id.slice(macroPrefix.length))?.path;
+      if (id.startsWith(branchPrefix)) return branches.get(id.slice(branchPrefix.length))?.path;
       const p = byId.get(id);
       if (!p) return undefined;
       if (p.kind === 'step' && p.step) return [...p.step.path, 'step'];
@@ -97,6 +102,7 @@ export function locatePlaces(facts: ProcedureFacts): PlaceLocator {
         const block = blocks.get(id.slice(macroPrefix.length));
         return `the parallel block (${block?.branches.map((b) => b.name).join(', ')})`;
       }
+      if (id.startsWith(branchPrefix)) return `branch '${branches.get(id.slice(branchPrefix.length))?.name}'`;
       const p = byId.get(id);
       if (!p) return id;
       if (p.kind === 'step') return `step '${p.label}'`;
@@ -115,7 +121,7 @@ export function locatePlaces(facts: ProcedureFacts): PlaceLocator {
       return branch.when ? branch.when.path : branch.otherwise ? [...branch.path, 'otherwise'] : branch.path;
     },
     idleBranches(active) {
-      const busy = new Set(active.flatMap((id) => byId.get(id)?.scope ?? []));
+      const busy = new Set(active.flatMap(activeScope));
       const idle: Array<{ block: ParallelBlock; name: string; path: PathKey[] }> = [];
       const seen = new Set<ParallelBlock>();
       for (const key of busy) {

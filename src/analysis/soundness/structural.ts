@@ -2,9 +2,9 @@
 // once each and then seen from outside as one place; only regions that jumps make unstructured are explored.
 // A region without jumps whose blocks all complete is sound by construction, so a structured procedure costs
 // one pass over its graph (Vanhatalo, Völzer, Koehler 2009: well-structured fragments are sound). A block may be
-// seen as one place only while it is such a fragment: blocks inside a block that a jump crosses, and blocks with a
-// branch that can end with tokens left in it, are played out in the region around them, so that both methods
-// reach the same verdict (tests/analysis/soundness-methods.test.ts).
+// seen as one place only while it is such a fragment: blocks inside a block that a jump crosses, and branches
+// that can end with tokens left in them, are played out in the region around them, so that both methods reach
+// the same verdict (tests/analysis/soundness-methods.test.ts).
 import type { Place, StepGraph, Transition } from '../step-graph.ts';
 import { explore, type Exploration, type Game } from './token-game.ts';
 import type { RegionReport, SoundnessProblem, SoundnessResult } from './verdict.ts';
@@ -27,11 +27,18 @@ interface RegionSummary {
 
 const blockOf = (key: string) => key.slice(0, key.lastIndexOf('/'));
 export const macroPrefix = 'block:';
+/** One branch seen as one place, inside a block that is played out only because a sibling branch ends unevenly. */
+export const branchPrefix = 'branch:';
 
 /** The scope a jump logically starts from: a decision right after a parallel block sits outside it. */
 function sourceScope(place: Place): string[] {
   return place.kind === 'branch-done' ? place.scope.slice(0, -1) : place.scope;
 }
+
+const summarised = (name: string) => name.startsWith(macroPrefix) || name.startsWith(branchPrefix);
+/** The branches a place seen as one stands for. */
+const branchesBehind = (name: string, branchesOf: Map<string, Set<string>>): string[] =>
+  name.startsWith(macroPrefix) ? [...branchesOf.get(name.slice(macroPrefix.length))!] : [name.slice(branchPrefix.length)];
 
 export function structuralSoundness(graph: StepGraph, budget = defaultStateBudget): SoundnessResult {
   const placeById = new Map(graph.places.map((p) => [p.id, p]));
@@ -67,6 +74,11 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
     const first = p.scope.findIndex((key) => tainted.has(blockOf(key)));
     if (first >= 0) for (let i = first + 1; i < p.scope.length; i++) tainted.add(blockOf(p.scope[i]));
   }
+  const crossed = new Set(tainted);
+  // Branches that can end with tokens still inside them (see below): their blocks are played out as well, but
+  // only these branches in full; no jump crosses their siblings, which are still one place each.
+  const uneven = new Set<string>();
+  const isOpen = (key: string) => crossed.has(blockOf(key)) || uneven.has(key);
 
   // Indexes so that each region touches only its own places and transitions: linear overall.
   const regionOf = (p: Place) => p.scope[p.scope.length - 1] ?? '';
@@ -113,6 +125,7 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
       for (let i = depth; i < p.scope.length; i++) {
         const block = blockOf(p.scope[i]);
         if (!tainted.has(block)) return macroPrefix + block;
+        if (!isOpen(p.scope[i])) return branchPrefix + p.scope[i];
       }
       return p.id;
     };
@@ -127,10 +140,10 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
       }
       return n;
     };
-    // This region and the branches of blocks that jumps keep open, recursively; other blocks are one place each.
+    // This region and the branches that jumps keep open, recursively; other blocks (or branches) are one place each.
     const open = [region];
     for (let i = 0; i < open.length; i++) {
-      for (const block of childBlocks.get(open[i]) ?? []) if (tainted.has(block)) open.push(...branchesOf.get(block)!);
+      for (const block of childBlocks.get(open[i]) ?? []) if (tainted.has(block)) open.push(...[...branchesOf.get(block)!].filter(isOpen));
     }
     const repOf = new Map<string, number>();
     const repNumber = (id: string) => {
@@ -142,13 +155,17 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
       return n;
     };
     for (const r of open) for (const p of placesIn.get(r) ?? []) repNumber(p.id);
-    for (const r of open) for (const block of childBlocks.get(r) ?? []) if (!tainted.has(block)) numberOf(macroPrefix + block);
+    for (const r of open) {
+      for (const block of childBlocks.get(r) ?? []) {
+        if (!tainted.has(block)) numberOf(macroPrefix + block);
+        else for (const key of branchesOf.get(block)!) if (!isOpen(key)) numberOf(branchPrefix + key);
+      }
+    }
 
     const completes = new Map<string, boolean>();
     for (const name of names) {
-      if (!name.startsWith(macroPrefix)) continue;
-      const block = name.slice(macroPrefix.length);
-      completes.set(name, [...branchesOf.get(block)!].every((key) => analyse(key).canExit));
+      if (name.startsWith(macroPrefix)) completes.set(name, [...branchesOf.get(name.slice(macroPrefix.length))!].every((key) => analyse(key).canExit));
+      else if (name.startsWith(branchPrefix)) completes.set(name, analyse(name.slice(branchPrefix.length)).canExit);
     }
 
     const entryId = region === '' ? graph.start : headOf.get(region);
@@ -160,7 +177,7 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
       for (const t of transitionsAt.get(r) ?? []) {
         const from = [...new Set(t.from.map(repNumber))];
         const to = [...new Set(t.to.map(repNumber))];
-        if (from.length === 1 && to.length === 1 && from[0] === to[0] && names[from[0]].startsWith(macroPrefix)) continue;
+        if (from.length === 1 && to.length === 1 && from[0] === to[0] && summarised(names[from[0]])) continue;
         if (from.some((f) => completes.get(names[f]) === false)) continue;
         transitions.push({ from, to, source: t });
       }
@@ -200,35 +217,36 @@ export function structuralSoundness(graph: StepGraph, budget = defaultStateBudge
     regions.push({ region, method: s.method, states: s.run?.states ?? 0, exceeded: s.exceeded });
     for (const p of s.problems) problems.push({ ...p, path: [...prefix(), ...p.path] });
     s.game.places.forEach((name, i) => {
-      const isMacro = name.startsWith(macroPrefix);
+      const isMacro = summarised(name);
       if (!s.marked(i)) {
         if (!isMacro) deadPlaces.add(name);
         else {
-          const block = name.slice(macroPrefix.length);
-          for (const p of graph.places) if (p.scope.some((k) => blockOf(k) === block)) deadPlaces.add(p.id);
+          const keys = new Set(branchesBehind(name, branchesOf));
+          for (const p of graph.places) if (p.scope.some((k) => keys.has(k))) deadPlaces.add(p.id);
         }
         return;
       }
       if (!isMacro) return;
       let here: Transition[] | undefined;
       const reach = () => (here ??= [...prefix(), ...s.pathTo(i)]);
-      for (const key of branchesOf.get(name.slice(macroPrefix.length))!) collect(key, reach);
+      for (const key of branchesBehind(name, branchesOf)) collect(key, reach);
     });
   };
   // A branch that can reach its end with tokens still inside it (left behind by a jump out of a nested branch)
   // does not complete cleanly: seen from outside as one place, those tokens would vanish at the join, and its
   // "improper" would be judged at the branch's end instead of the procedure's (which a run may never reach).
-  // Such a block is played out in the region around it instead, until every block still seen as one place
-  // completes cleanly; then only the whole procedure can be improper. Structured procedures never repeat this.
+  // Such a branch is played out in the region around it instead (its siblings, which no jump crosses, stay one
+  // place each: only the join meets them), until every block or branch still seen as one place completes
+  // cleanly; then only the whole procedure can be improper. Structured procedures never go round this twice.
   let discarded = 0;
   for (;;) {
     collect('', () => []);
-    const dirty = new Set<string>();
-    for (const r of regions) {
-      if (r.region !== '' && summaries.get(r.region)!.problems.some((p) => p.kind === 'improper')) dirty.add(blockOf(r.region));
+    const dirty = regions.filter((r) => r.region !== '' && summaries.get(r.region)!.problems.some((p) => p.kind === 'improper'));
+    if (!dirty.length) break;
+    for (const r of dirty) {
+      uneven.add(r.region);
+      tainted.add(blockOf(r.region));
     }
-    if (!dirty.size) break;
-    for (const block of dirty) tainted.add(block);
     discarded += regions.reduce((n, r) => n + r.states, 0);
     summaries.clear();
     problems.length = 0;
