@@ -6,8 +6,9 @@ import picomatch from 'picomatch';
 import type { Diagnostic, Severity } from '../parse/diagnostic.ts';
 import type { SeverityPolicy } from './run-checks.ts';
 import { parseBase } from '../model/site-base.ts';
+import { configFileName } from '../model/config-file-name.ts';
 
-export const configFileName = 'stepwright.config.yaml';
+export { configFileName };
 
 const level = z.enum(['error', 'warning', 'info', 'off']);
 type Level = z.infer<typeof level>;

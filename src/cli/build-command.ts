@@ -10,41 +10,16 @@ import { siteBase } from '../engine/project.ts';
 import { linksOutsideBase, type SiteBase } from '../render/site-url.ts';
 import { finishPages } from './index-site.ts';
 import { publishSite, recoverSite } from './publish-site.ts';
-import { manifestFile, readPrivateKey, writeSiteManifest } from './site-manifest.ts';
+import { readPrivateKey, writeSiteManifest } from './site-manifest.ts';
 import { siteConfig } from '../site/astro-config.ts';
 import { offlineReport } from './offline-report.ts';
 import { writeOfflineCopy, type OfflineCopySummary } from './write-offline-copy.ts';
 import { GitError } from '../history/git.ts';
 import { buildProgress } from './progress.ts';
 import { linkPackages, packagesHolder, packagesReachableFrom } from './package-links.ts';
+import { buildHelp } from './command-help.ts';
 
-export const buildHelp = `Usage: stepwright build [options] [folder]
-
-Checks every procedure in the folder (default: see --procedures), then builds
-the operator manual as a static site and indexes it for search. A build with check errors stops
-with the same report as 'stepwright check' and leaves the last good site untouched.
-The review date marks use $STEPWRIGHT_TODAY or the date of the last commit, so builds repeat exactly.
-
-Options:
-  --out <dir>           where the site goes (default: dist)
-  --procedures <dir>    the procedures folder, same as the folder argument (default: $STEPWRIGHT_PROCEDURES,
-                        else 'procedures' in the config file, else procedures/)
-  --config <file>       the configuration (default: the nearest stepwright.config.yaml from this
-                        folder up to the top of the git repository)
-  --base <path>         the path the manual is served under, such as /manual/ (default: 'base' in the
-                        config file, else the site's root); every link, the search and the offline copy
-                        stay under it
-  --no-index            skip the search index
-  --sign-key <f>        sign the site's manifest with this ed25519 private key (from 'stepwright keygen';
-                        default: $STEPWRIGHT_SIGNING_KEY). Every build writes ${manifestFile},
-                        the SHA-256 of every published file, for 'stepwright verify'.
-  -h, --help            show this help
-
-The output path is a link to the newest complete build in <out>.versions/, replaced in one step, so it
-holds a complete site at every moment, even when a build is killed.
-
-Exit codes: 0 built, 1 check errors or a failed build, 2 usage or internal failure.
-`;
+export { buildHelp };
 
 export interface BuildOutcome {
   pages: number;

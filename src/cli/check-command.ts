@@ -6,31 +6,9 @@ import { formatSarif } from './format-sarif.ts';
 import { GitError, pathInRepository, runCheckRun } from '../engine/check-run.ts';
 import { UsageError, useColour, type CliIo } from './io.ts';
 import { packageVersion } from './version.ts';
+import { checkHelp } from './command-help.ts';
 
-export const checkHelp = `Usage: stepwright check [options] [paths…]
-
-Checks procedure files (markdown with YAML front-matter) and reports every problem with
-file:line:column, severity, rule id, message and a hint. Paths may be files or folders
-(default: the procedures folder, see --procedures), globs such as 'procedures/**/pump-*.md', or '-' for one procedure on
-standard input. Folders and globs are searched for *.md files; markdown there that is not a
-procedure (no front-matter and no procedure keys, e.g. a README) is skipped with an info line.
-
-Options:
-  --format <human|json|github|sarif>  output format (default: human); github prints workflow
-                          annotations, sarif a SARIF 2.1.0 log for code-scanning views
-  --quiet                 print errors only
-  --explain               also print each file's step graph, the proof method, the states explored,
-                          its loops and exits, and how each decision splits the signal space
-  --base <ref>            judge changes against this git ref (default: HEAD, the last commit)
-  --no-history            do not read git history (the revision and status rules stay silent)
-  --procedures <dir>      the procedures folder (default: $STEPWRIGHT_PROCEDURES, else 'procedures' in the
-                          config file, else procedures/)
-  --config <file>         rule severities and per-folder overrides (default: the nearest
-                          stepwright.config.yaml from this folder up to the top of the git repository)
-  -h, --help              show this help
-
-Exit codes: 0 no errors (warnings allowed), 1 errors found, 2 usage or internal failure.
-`;
+export { checkHelp };
 
 export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({

@@ -10,26 +10,9 @@ import { proceduresFolder } from './project.ts';
 import { listenProblem } from './serve-command.ts';
 import { linkPackages } from './package-links.ts';
 import { siteBase } from '../engine/project.ts';
+import { devHelp } from './command-help.ts';
 
-export const devHelp = `Usage: stepwright dev [options] [folder]
-
-Live preview of the operator manual while you write: serves the pages straight from the procedures
-folder (default: see --procedures), re-checks a procedure when you save it and shows
-its findings on its page. Nothing is published; use 'stepwright build' for the manual.
-
-Options:
-  --port <n>            port (default: 4321)
-  --host <host>         address to listen on (default: localhost)
-  --procedures <dir>    the procedures folder, same as the folder argument (default: $STEPWRIGHT_PROCEDURES,
-                        else 'procedures' in the config file, else procedures/)
-  --base <path>         serve the pages under this path, such as /manual/ (default: 'base' in the
-                        config file, else the root)
-  --cache-dir <dir>     where the preview keeps its working files (default: .stepwright/dev); nothing
-                        is written into the installed package
-  --config <file>       the configuration (default: the nearest stepwright.config.yaml from this
-                        folder up to the top of the git repository)
-  -h, --help            show this help
-`;
+export { devHelp };
 
 export async function runDev(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({

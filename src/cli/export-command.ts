@@ -12,26 +12,9 @@ import { mermaidFlowchart } from '../render/mermaid-flowchart.ts';
 import { formatHuman } from '../render/format-diagnostics.ts';
 import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
 import { readProcedureFiles } from '../engine/find-procedure-files.ts';
+import { exportHelp } from './command-help.ts';
 
-export const exportHelp = `Usage: stepwright export ID [--format json|mermaid] [--inline] [--force] [paths…]
-
-Prints one procedure of the manual for use elsewhere:
-  json      the checked model: identity, document control, signals, limits, interlocks, hazards,
-            the step tree (with each item's YAML path), the narrative body as markdown, and the
-            cycle-time estimate
-  mermaid   a mermaid flowchart of the sequence (steps, decisions, parallel branches, loops)
-
-The manual is read from paths (default: procedures/) so that calls can be expanded. A procedure with
-check errors is not exported (run 'stepwright check' first), unless --force is given.
-
-Options:
-  --format <json|mermaid>   output format (default: json)
-  --inline                  expand 'call' steps into the called procedures' steps
-  --force                   export even when the procedure has check errors
-  -h, --help                show this help
-
-Exit codes: 0 exported, 1 not found or has errors, 2 usage or internal failure.
-`;
+export { exportHelp };
 
 export async function runExport(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({

@@ -8,22 +8,9 @@ import { exampleRegisterText } from './example-register.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { packagedDemo, packagedDemoRegister, packagedSchema, packageRoot } from './package-files.ts';
 import { defaultProceduresFolder, projectRoot } from './project.ts';
+import { initHelp } from './command-help.ts';
 
-export const initHelp = `Usage: stepwright init [options]
-
-Sets up this repository for Stepwright: ${configFileName}, a procedures folder with one example
-procedure and the plant register entries it uses, ignore entries for the built manual and caches, editor settings that map the front-matter
-schema to the procedure files, and a CI workflow (.github/workflows/procedures.yml) that checks every
-push, posts the review on pull requests and builds the manual on the main branch.
-Never overwrites a file: whatever exists already is left as it is and named in the output.
-
-Options:
-  --procedures <dir>   the procedures folder to create (default: procedures)
-  --demo               copy the whole demo manual (Alder Reach Chemicals, Unit 2) and its plant register instead of one example
-  -h, --help           show this help
-
-Exit codes: 0 done (also when everything existed), 2 usage failure.
-`;
+export { initHelp };
 
 /** The example procedure written by a plain init (a complete, approved procedure from the demo manual). */
 const exampleProcedure = join('unloading', 'u2-unl-xyl-001.md');

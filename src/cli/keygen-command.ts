@@ -3,20 +3,9 @@ import { join, relative, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import type { CliIo } from './io.ts';
 import { privateKeyFile, publicKeyFile, writeKeyPair } from './site-manifest.ts';
+import { keygenHelp } from './command-help.ts';
 
-export const keygenHelp = `Usage: stepwright keygen [options] [folder]
-
-Writes a new ed25519 key pair into the folder (default: the current folder):
-  ${privateKeyFile}       the private key: give it to 'stepwright build --sign-key'; keep it secret,
-                                   out of the procedures repository
-  ${publicKeyFile}   the public key: give it to 'stepwright verify --public-key'
-An existing key file is never overwritten.
-
-Options:
-  -h, --help      show this help
-
-Exit codes: 0 written, 1 a key file already exists or could not be written, 2 usage failure.
-`;
+export { keygenHelp };
 
 export async function runKeygen(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({ args: argv, allowPositionals: true, options: { help: { type: 'boolean', short: 'h' } }, strict: true });

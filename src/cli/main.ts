@@ -2,6 +2,7 @@
 // Each command's module is imported only when that command runs, so `--version` and `--help` start fast
 // and load none of the checker, the units, the language model or the site stack.
 import { closest, distance } from 'fastest-levenshtein';
+import { commandHelp } from './command-help.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { packageVersion } from './version.ts';
 
@@ -65,8 +66,9 @@ export async function main(argv: string[], io: CliIo): Promise<number> {
       io.stdout.write(mainHelp());
       return 0;
     }
-    if (!commands[topic]) return unknownCommand(topic, io);
-    return main([topic, '--help'], io);
+    if (!Object.hasOwn(commands, topic)) return unknownCommand(topic, io);
+    io.stdout.write(commandHelp[topic]);
+    return 0;
   }
   if (name === '--version' || name === '-v' || name === 'version') {
     io.stdout.write(`stepwright ${packageVersion()}\n`);
@@ -74,6 +76,11 @@ export async function main(argv: string[], io: CliIo): Promise<number> {
   }
   const command = Object.hasOwn(commands, name) ? commands[name] : undefined;
   if (!command) return unknownCommand(name, io);
+  // A command's help alone is printed without loading the command.
+  if (rest.length === 1 && (rest[0] === '--help' || rest[0] === '-h') && Object.hasOwn(commandHelp, name)) {
+    io.stdout.write(commandHelp[name]);
+    return 0;
+  }
   try {
     const run = await command.load();
     return await run(rest, io);

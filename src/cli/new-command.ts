@@ -10,24 +10,9 @@ import { todayOf, UsageError, type CliIo } from './io.ts';
 import { schemaReference } from './package-files.ts';
 import { projectRoot, proceduresFolder } from './project.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
+import { newHelp } from './command-help.ts';
 
-export const newHelp = `Usage: stepwright new KIND ID [--title TEXT] [--dir FOLDER]
-
-Writes FOLDER/<id>.md, a new draft procedure with every section its kind needs. Each thing you must
-supply is marked TODO; 'stepwright check' lists the ones left (rule placeholder-text).
-Never overwrites a file, and refuses an id the manual already uses.
-
-KIND is one of: ${kinds.join(', ')}
-ID   is the document number, upper-case letters, digits and hyphens, e.g. U2-K210-SD-002
-
-Options:
-  --title <text>    the title (otherwise a TODO placeholder)
-  --dir <folder>    where to write it (default: the procedures folder: $STEPWRIGHT_PROCEDURES,
-                    else 'procedures' in the config file, else procedures/)
-  -h, --help        show this help
-
-Exit codes: 0 written, 1 not written (file exists or id in use), 2 usage error.
-`;
+export { newHelp };
 
 export async function runNew(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({

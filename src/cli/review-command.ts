@@ -19,30 +19,9 @@ import { findRegisterFolder } from './load-register.ts';
 import { registerImpact } from '../history/register-impact.ts';
 import { registerAt } from '../history/register-history.ts';
 import { registerPlace } from '../engine/register-place.ts';
+import { reviewHelp } from './command-help.ts';
 
-export const reviewHelp = `Usage: stepwright review --base <ref> [options] [paths…]
-
-Summarises the procedure changes between the merge base of <ref> and the working copy, for a pull
-request: per changed procedure the revision and status change, the safety-relevant changes (hazards,
-interlocks, limits, setpoints, transitions on guarded signals, removed hazard messages), a table of
-step changes, the sign-offs the review policy requires, the check results and a mermaid flowchart with
-the changed steps marked. Paths default to the procedures folder (see --procedures). See docs/review.md.
-
-Options:
-  --base <ref>                 the branch or commit the change is reviewed against (required)
-  --format <markdown|github|json>  markdown (default) prints the summary; json the same facts for
-                               tools (files, change, revision and status before/after, sign-offs,
-                               check results); github prints workflow
-                               annotations for the check problems of the changed files
-  --output <file>              also write the Markdown summary to this file
-  --procedures <dir>           the procedures folder (default: $STEPWRIGHT_PROCEDURES, else
-                               'procedures' in the config file, else procedures/)
-  --config <file>              the configuration with the review policy (default: the nearest
-                               stepwright.config.yaml up to the top of the git repository)
-  -h, --help                   show this help
-
-Exit codes: 0 no errors in the changed files, 1 errors found, 2 usage, git or internal failure.
-`;
+export { reviewHelp };
 
 export async function runReview(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({

@@ -4,17 +4,9 @@ import { dirname, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { procedureJsonSchemaText, registerJsonSchemaText } from '../model/json-schema.ts';
 import type { CliIo } from './io.ts';
+import { schemaHelp } from './command-help.ts';
 
-export const schemaHelp = `Usage: stepwright schema [--register] [--out FILE]
-
-Prints the JSON Schema of a procedure's front-matter (generated from the one schema 'check' uses),
-or writes it to FILE. Editors with YAML support use it to complete and validate keys; see docs/editor.md.
-
-Options:
-  --register     the schema of a plant register file instead (docs/register.md)
-  --out <file>   write the schema to this file instead of printing it
-  -h, --help     show this help
-`;
+export { schemaHelp };
 
 export async function runSchema(argv: string[], io: CliIo): Promise<number> {
   const { values } = parseArgs({ args: argv, options: { out: { type: 'string' }, register: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } }, strict: true });

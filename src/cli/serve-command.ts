@@ -7,20 +7,9 @@ import { parseArgs } from 'node:util';
 import { UsageError, type CliIo } from './io.ts';
 import { siteBase } from '../engine/project.ts';
 import { parseBase } from '../model/site-base.ts';
+import { serveHelp } from './command-help.ts';
 
-export const serveHelp = `Usage: stepwright serve [options]
-
-Serves the built manual (see 'stepwright build') on http://localhost:4321.
-
-Options:
-  --dir <dir>     the site folder (default: dist)
-  --port <n>      port (default: 4321; 0 picks a free one)
-  --host <host>   address to listen on (default: localhost)
-  --base <path>   serve the manual under this path (default: the path the site was built for,
-                  recorded by 'stepwright build'; else 'base' in the config file, else the root)
-  --config <file> the configuration (default: the nearest stepwright.config.yaml)
-  -h, --help      show this help
-`;
+export { serveHelp };
 
 const types: Record<string, string> = {
   '.html': 'text/html; charset=utf-8', '.css': 'text/css; charset=utf-8', '.js': 'text/javascript; charset=utf-8',

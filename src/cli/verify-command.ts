@@ -9,28 +9,9 @@ import { readProcedureFiles } from './read-procedure-files.ts';
 import { isNotAProcedure } from '../engine/not-a-procedure.ts';
 import { describeSite, recoverSite } from './publish-site.ts';
 import { checkSiteManifest, manifestFile, publicKeyFile, readPublicKey, signatureFile } from './site-manifest.ts';
+import { verifyHelp } from './command-help.ts';
 
-export const verifyHelp = `Usage: stepwright verify [options] <site folder>
-
-Checks a published manual, whole. First every file against the build's manifest (${manifestFile},
-the SHA-256 of every published file): a changed page, an added or a removed file is named. With the
-plant's public key the manifest's ed25519 signature is checked too, so a forged manifest is named.
-Then every procedure page against the procedure sources: each page carries the SHA-256 of the source
-text it was built from; verify names every page whose source has changed or is gone, and every source
-that has no page. It also says what it found at the site path (a link to a published version, a folder,
-or nothing because a build was stopped while publishing).
-
-Options:
-  --procedures <dir>   the procedure sources (default: $STEPWRIGHT_PROCEDURES, else 'procedures' in
-                       the nearest stepwright.config.yaml, else procedures/)
-  --public-key <file>  the ed25519 public key from 'stepwright keygen' (default: $STEPWRIGHT_PUBLIC_KEY,
-                       else ${publicKeyFile} in the current folder when it exists)
-  --repair             when a stopped build left no site at the path, put the newest complete one back
-  -h, --help           show this help
-
-Exit codes: 0 everything matches, 1 a file, the signature, a page or a source does not match, or there is
-no site, 2 usage failure.
-`;
+export { verifyHelp };
 
 export interface PageStamp {
   page: string;

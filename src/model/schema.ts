@@ -1,13 +1,12 @@
 // The one schema of a procedure's front-matter: the CLI, the site and the editor's JSON Schema all use it.
 import { z } from 'zod';
+import { kinds } from './kinds.ts';
 
 export const procedureIdPattern = /^[A-Z0-9][A-Z0-9-]*$/;
 export const stepIdPattern = /^[a-z0-9][a-z0-9-]*$/;
 const isoDate = /^\d{4}-\d{2}-\d{2}$/;
 
-export const kinds = [
-  'normal', 'batch', 'startup', 'startup-after-turnaround', 'shutdown', 'emergency-shutdown', 'emergency', 'temporary',
-] as const;
+export { kinds };
 export const statuses = ['draft', 'in-review', 'approved', 'effective', 'superseded', 'retired'] as const;
 export const hazardLevels = ['danger', 'warning', 'caution', 'notice'] as const;
 

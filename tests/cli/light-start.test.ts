@@ -1,5 +1,5 @@
-// `--version` and `--help` load only the command line itself: not the analysis, the units and language
-// libraries, or the site stack. Checked on a whole process by listing every module it loads.
+// `--version`, `--help`, `help <command>` and `<command> --help` load only the command line itself: not the
+// analysis, the units and language libraries, or the site stack. Checked on a whole process by listing every module it loads.
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -21,7 +21,7 @@ function loaded(args: string[]): string[] {
 }
 
 describe('a light start', () => {
-  for (const args of [['--version'], ['--help']]) {
+  for (const args of [['--version'], ['--help'], ['help', 'check'], ['check', '--help'], ['help', 'build'], ['new', '-h']]) {
     it(`stepwright ${args.join(' ')} loads no analysis, units, language or site modules`, () => {
       const urls = loaded(args);
       // The hook sees the command's own modules: without them the check below would pass for nothing.

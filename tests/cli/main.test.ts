@@ -27,6 +27,19 @@ describe('stepwright --version and help', () => {
     }
   });
 
+  it("every command has help of its own, and 'help <command>' prints what the command prints for --help next to another option", async () => {
+    for (const name of names) {
+      const viaHelp = await run(['help', name]);
+      expect(viaHelp.code).toBe(0);
+      expect(viaHelp.stdout).toMatch(new RegExp(`^Usage: stepwright ${name}\\b`));
+      // '--help' with another option goes through the command's own option parsing, which loads the command.
+      const runner = await commands[name].load();
+      let own = '';
+      const code = await runner(['--help', '--help'], { stdout: { write: (t: string) => (own += t) }, stderr: { write: () => true }, cwd: process.cwd(), env: {} });
+      expect({ code, own }).toEqual({ code: 0, own: viaHelp.stdout });
+    }
+  });
+
   it("'help' with an unknown command exits 2 and suggests the nearest", async () => {
     const r = await run(['help', 'chek']);
     expect(r.code).toBe(2);
