@@ -54,6 +54,19 @@ function unknownCommand(name: string, io: CliIo, context = ''): number {
   return 2;
 }
 
+/**
+ * A check with no result cache to answer from (none yet, or STEPWRIGHT_CACHE=off) reads every file's prose with the
+ * English model: its load starts now on a second thread, beside loading the checker and reading the files. A check
+ * that finds a cache may find every answer there and need no model, so it loads the model only when asked, as before.
+ */
+async function startEnglishModelEarly(io: CliIo): Promise<void> {
+  const { existsSync } = await import('node:fs');
+  const { resultCacheFolder } = await import('../engine/cache-folder.ts');
+  const folder = resultCacheFolder(io);
+  if (folder !== undefined && existsSync(folder)) return;
+  (await import('../analysis/prose/model-thread.ts')).startModelThread();
+}
+
 export async function main(argv: string[], io: CliIo): Promise<number> {
   const [name, ...rest] = argv;
   if (!name || name === '--help' || name === '-h') {
@@ -82,6 +95,7 @@ export async function main(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   try {
+    if (name === 'check') await startEnglishModelEarly(io);
     const run = await command.load();
     return await run(rest, io);
   } catch (error) {

@@ -31,3 +31,28 @@ describe('a light start', () => {
     });
   }
 });
+
+// A check with no result cache starts the English model's load on a second thread; the main thread never loads it
+// (it only looks the library's file up, to give the thread its path).
+const loadHook = `data:text/javascript,${encodeURIComponent(`
+import { registerHooks } from 'node:module';
+import { isMainThread } from 'node:worker_threads';
+const seen = [];
+registerHooks({ load(url, context, next) { seen.push(url); return next(url, context); } });
+if (isMainThread) process.on('exit', () => process.stderr.write('\\nLOADED ' + JSON.stringify(seen) + '\\n'));
+`)}`;
+
+describe('a cold check', () => {
+  it('reads prose with the English model on its own thread, not in the main thread', () => {
+    const r = spawnSync(process.execPath, ['--import', loadHook, join(root, 'bin', 'stepwright.mjs'), 'check', '--no-history', join(root, 'procedures', 'k-210-resin')], {
+      cwd: root, encoding: 'utf8', timeout: 120_000, env: { ...process.env, STEPWRIGHT_CACHE: 'off', STEPWRIGHT_TODAY: '2026-12-01' },
+    });
+    expect(r.status, r.stderr).not.toBe(2);
+    const lines = r.stderr.split('\n').filter((l) => l.startsWith('LOADED '));
+    const main = lines.map((l) => JSON.parse(l.slice('LOADED '.length)) as string[]).find((urls) => urls.some((u) => u.endsWith('/src/cli/main.ts')));
+    // The check ran its rules in this thread (the units library came in), and the model came from elsewhere.
+    expect(main!.some((u) => /\/src\/check\/rules\//.test(u))).toBe(true);
+    expect(main!.filter((u) => /\/node_modules\/compromise\//.test(u))).toEqual([]);
+    expect(r.stdout).toMatch(/files? checked/);
+  }, 120_000);
+});

@@ -2,6 +2,7 @@
 // The model is loaded on first use (half a second): a run that reads no prose (every file found in the result
 // cache) never loads it. It is the package's single-file build, the same version and code as its module entry.
 import { dependencyRequire } from '../load-dependency.ts';
+import { lexiconOnThread, modelThreadRunning, tagOnThread } from './model-thread.ts';
 
 type Term = { text: string; pre: string; post: string; tags: Set<string> };
 type Tagged = { document: Term[][]; compute(steps: string[]): unknown };
@@ -24,12 +25,17 @@ function nlp(): Nlp {
  * same tags in about half the time.
  */
 let taggingSteps: string[] | undefined;
-function tag(text: string): Tagged {
+function tag(text: string): Term[][] {
+  // The model on its own thread, when the command line started one (see model-thread.ts): the same tags.
+  if (modelThreadRunning()) {
+    const sentences = tagOnThread(text);
+    if (sentences) return sentences.map((terms) => terms.map(([text, pre, post, tags]) => ({ text, pre, post, tags: new Set(tags) })));
+  }
   const model = nlp();
   taggingSteps ??= model.world().hooks.filter((step) => step !== 'chunks');
   const doc = model.tokenize(text);
   doc.compute(taggingSteps);
-  return doc;
+  return doc.document;
 }
 
 /** Each phrase's terms' tags, by phrase. */
@@ -53,7 +59,7 @@ export function tagsAt(phrase: string, index: number): ReadonlySet<string> {
       return gathering.answer;
     }
     // Reading the tagged document directly costs half of what .terms().json() does.
-    remember(phrase, tag(phrase).document.flat());
+    remember(phrase, tag(phrase).flat());
     terms = memo.get(phrase)!;
   }
   return terms[index] ?? none;
@@ -84,7 +90,7 @@ export function tagAhead(ask: () => void): number {
     const batch = [...phrases].filter((p) => p.length > 0 && p.trim() === p && !/[.!?;:\n\r]/.test(p));
     if (batch.length < 2) return tagged;
     // One sentence a line: a full stop and a space after "a" or "an" reads as an abbreviation, a line break never.
-    const sentences = tag(batch.map((p) => `${p}.`).join('\n')).document;
+    const sentences = tag(batch.map((p) => `${p}.`).join('\n'));
     // Sentences and phrases are matched in order; should the model join phrases into one sentence, those phrases
     // are left to be tagged when asked, and matching stops wherever the text stops lining up.
     let next = 0;
@@ -104,10 +110,22 @@ export function tagAhead(ask: () => void): number {
 }
 
 let lexicon: Record<string, string | string[]> | undefined;
+/** The thread's answers, by word. */
+const lexiconAnswers = new Map<string, string | string[] | undefined>();
 
 /** The tag the model's own word list gives a word, without parsing (undefined for words it derives by rule). */
 export function lexiconTag(word: string): string | undefined {
-  lexicon ??= nlp().world().model.one.lexicon;
-  const tag = lexicon[word.toLowerCase()];
-  return Array.isArray(tag) ? tag[0] : tag;
+  const key = word.toLowerCase();
+  let entry: string | string[] | undefined;
+  if (!lexicon && lexiconAnswers.has(key)) entry = lexiconAnswers.get(key);
+  else {
+    const answer = !lexicon && modelThreadRunning() ? lexiconOnThread(key) : { found: false as const };
+    if (answer.found) lexiconAnswers.set(key, (entry = answer.value));
+    else {
+      lexicon ??= nlp().world().model.one.lexicon;
+      // Only the word list's own entries (not what every object inherits, such as 'constructor').
+      entry = Object.hasOwn(lexicon, key) ? lexicon[key] : undefined;
+    }
+  }
+  return Array.isArray(entry) ? entry[0] : entry;
 }

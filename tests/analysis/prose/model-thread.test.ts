@@ -1,0 +1,84 @@
+// The English model on a second thread (started by `stepwright check` when no result cache will answer) gives the
+// same tags and word-list entries as the model loaded in the main thread, one phrase or many phrases ahead.
+import fc from 'fast-check';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+
+type WordTags = typeof import('../../../src/analysis/prose/word-tags.ts');
+type ModelThread = typeof import('../../../src/analysis/prose/model-thread.ts');
+
+// Each reading gets its own module (its own memo of answers), so that the second reading asks the model again.
+async function freshModules(): Promise<{ tags: WordTags; thread: ModelThread }> {
+  vi.resetModules();
+  return {
+    tags: await import('../../../src/analysis/prose/word-tags.ts'),
+    thread: await import('../../../src/analysis/prose/model-thread.ts'),
+  };
+}
+
+type Reading = { tags: string[][][]; lexicon: Array<string | undefined>; onThread: boolean };
+async function read(phrases: string[], words: string[], onThread: boolean): Promise<Reading> {
+  const { tags, thread } = await freshModules();
+  thread.stopModelThread();
+  if (onThread) thread.startModelThread();
+  try {
+    // Half of them tagged ahead as one document, the rest one by one.
+    tags.tagAhead(() => phrases.slice(0, Math.ceil(phrases.length / 2)).forEach((p) => tags.tagsAt(p, 0)));
+    const tagged = phrases.map((p) => p.split(' ').map((_, i) => [...tags.tagsAt(p, i)].sort()));
+    const lexicon = words.map((w) => tags.lexiconTag(w));
+    return { tags: tagged, lexicon, onThread: thread.modelThreadRunning() };
+  } finally {
+    thread.stopModelThread();
+  }
+}
+
+const plantPhrases = [
+  'Close the nitrogen valve XV-2102', 'Open the hot-oil supply', 'Check that P-211 runs', 'Start agitator M-210',
+  'Vent the kettle to the scrubber', 'Record the time on form ARC-F-120', 'Do not open the hatch',
+  'If the level is low, then stop the pump', 'Wait for the drum to cool', 'Isolate the feed', 'Purge the line with nitrogen',
+];
+const plantWords = ['close', 'Open', 'purge', 'isolate', 'vent', 'drum', 'constructor', 'toString', '__proto__', 'hasOwnProperty', 'xylene', ''];
+
+afterEach(async () => {
+  (await import('../../../src/analysis/prose/model-thread.ts')).stopModelThread();
+});
+
+describe('the English model on its own thread', () => {
+  it('answers as the main thread does: tags of phrases alone and ahead, word-list entries', async () => {
+    const here = await read(plantPhrases, plantWords, false);
+    const there = await read(plantPhrases, plantWords, true);
+    expect(here.onThread).toBe(false);
+    // Still running after every answer: the answers came from the thread, not from a fallback.
+    expect(there.onThread).toBe(true);
+    expect(there.tags).toEqual(here.tags);
+    expect(there.lexicon).toEqual(here.lexicon);
+    // The word list knows 'purge' and nothing of what objects inherit.
+    expect(here.lexicon[plantWords.indexOf('constructor')]).toBeUndefined();
+    expect(here.tags.flat().some((t) => t.includes('Verb'))).toBe(true);
+  }, 60_000);
+
+  it('answers as the main thread does for random phrases (property)', async () => {
+    const word = fc.constantFrom('open', 'the', 'valve', 'slowly', 'pump', 'a', 'drum', 'to', 'cool', 'check', 'XV-201', '5', 'kPa', 'if', 'not', 'is', 'hot', 'resin', 'and', 'then', ',');
+    const phrase = fc.array(word, { minLength: 1, maxLength: 7 }).map((w) => w.join(' '));
+    await fc.assert(
+      fc.asyncProperty(fc.array(phrase, { minLength: 1, maxLength: 12 }), async (phrases) => {
+        const words = phrases.flatMap((p) => p.split(' '));
+        const here = await read(phrases, words, false);
+        const there = await read(phrases, words, true);
+        expect(there.onThread).toBe(true);
+        expect(there.tags).toEqual(here.tags);
+        expect(there.lexicon).toEqual(here.lexicon);
+      }),
+      { numRuns: 15, seed: 1203 },
+    );
+  }, 120_000);
+
+  it('once stopped, leaves the work to the main thread with the same answers', async () => {
+    const { tags, thread } = await freshModules();
+    thread.startModelThread();
+    const first = [...tags.tagsAt('Open the hot-oil supply', 0)].sort();
+    thread.stopModelThread();
+    expect(thread.modelThreadRunning()).toBe(false);
+    expect([...tags.tagsAt('Close the drain valve', 0)].sort()).toContain('Verb');
+    expect(first).toContain('Verb');
+  }, 60_000);
+});
