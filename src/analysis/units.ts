@@ -31,7 +31,8 @@ export const standardAtmospherePa = 101325;
 const gaugeUnits: Array<[string, number]> = [['kPag', 1000], ['MPag', 1e6], ['barg', 1e5], ['mbarg', 100], ['psig', psiInPa]];
 const absoluteUnits: Array<[string, number]> = [['kPaa', 1000], ['MPaa', 1e6], ['bara', 1e5], ['mbara', 100], ['psia', psiInPa]];
 
-function defineUnits(math: MathJsInstance): MathJsInstance {
+/** Adds and corrects the units a plant writes (exported for the test that compares the library files that hold them). */
+export function defineUnits(math: MathJsInstance): MathJsInstance {
   // mathjs rounds mmHg to 133.322 Pa and makes torr an alias of it; NIST SP 811 keeps them apart, so redefine both.
   math.createUnit('mmHg', { definition: '133.322387415 Pa' }, { override: true });
   math.createUnit('Torr', { definition: `${101325 / 760} Pa`, aliases: ['torr'] }, { override: true });
