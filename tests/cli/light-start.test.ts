@@ -1,5 +1,6 @@
 // `--version`, `--help`, `help <command>` and `<command> --help` load only the command line itself: not the
-// analysis, the units and language libraries, or the site stack. Checked on a whole process by listing every module it loads.
+// analysis, the units and language libraries, or the site stack. Checked on a whole process by listing every
+// module it loads.
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
