@@ -9,7 +9,6 @@ import fc from 'fast-check';
 import type { MathJsInstance } from 'mathjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { defineUnits, documentedUnits } from '../../src/analysis/units.ts';
-// @ts-expect-error: a plain JavaScript script of the repository, without type declarations
 import { writeMathjsUnits } from '../../scripts/mathjs-units.mjs';
 
 const root = join(import.meta.dirname, '..', '..');
@@ -22,7 +21,7 @@ let packages: string[];
 beforeAll(async () => {
   folder = mkdtempSync(join(tmpdir(), 'stepwright-mathjs-units-'));
   const file = join(folder, 'mathjs-units.cjs');
-  packages = (await writeMathjsUnits(file)) as string[];
+  packages = await writeMathjsUnits(file);
   const { create, unitDependencies, createUnitDependencies } = require(file);
   part = defineUnits(create({ unitDependencies, createUnitDependencies }, {}));
   // A fresh copy of the single-file build, so that this test's units are its own; the module cache is put back as
