@@ -84,6 +84,12 @@ export interface FileRule {
   meta: RuleMeta;
   scope: 'file';
   check(context: FileContext): void;
+  /**
+   * Starts, for one file, work that `check` will need and that can run beside the main thread (the English model's
+   * tagging): the engine calls it for every file it will check before any rule runs. It never reports and never
+   * changes what `check` finds.
+   */
+  prepare?(context: FileContext): void;
 }
 
 export interface ManualRule {
@@ -103,8 +109,8 @@ export interface EnginePass {
 
 export type Rule = FileRule | ManualRule | EnginePass;
 
-export function defineFileRule(meta: RuleMeta, check: (context: FileContext) => void): FileRule {
-  return { meta, scope: 'file', check };
+export function defineFileRule(meta: RuleMeta, check: (context: FileContext) => void, prepare?: (context: FileContext) => void): FileRule {
+  return { meta, scope: 'file', check, ...(prepare ? { prepare } : {}) };
 }
 
 export function defineEnginePass(meta: RuleMeta): EnginePass {

@@ -68,6 +68,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   const store = options.cache?.store;
   // What the rules that call expansion compares with reported on each file alone (files the rules ran on).
   const ownFindings = new Map<FileContext, RawFinding[]>();
+  const fileKeys = new Map<FileContext, string>();
 
   const emit = (context: FileContext, meta: RuleMeta, report: Report) => {
     const chosen = options.severity?.(meta.id, context.file);
@@ -85,6 +86,8 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   // Each file's key is taken before anything is read: a file found in the cache is parsed only when a cross-file
   // rule, a waiver or a caller asks for its model.
   const keys: string[] = [];
+  const toCheck: LazyFileContext[] = [];
+  const setCurrent = new Map<FileContext, (meta: RuleMeta) => void>();
   for (const input of inputs) {
     const previous = 'text' in input ? options.previous?.(input.file) : undefined;
     const key = store && 'text' in input
@@ -106,12 +109,30 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       continue;
     }
     ownFindings.set(context, []);
+    setCurrent.set(context, (meta) => (current = meta));
+    if (key) fileKeys.set(context, key);
+    toCheck.push(context);
+  }
+  // Work the rules can start ahead for every file (the English model tags on its own thread) is started before any
+  // rule runs, so that it goes on while the rules check the first files. It only ever changes when work is done.
+  for (const rule of rules) {
+    if (rule.scope !== 'file' || !rule.prepare) continue;
+    for (const context of toCheck) {
+      try {
+        rule.prepare(context);
+      } catch {
+        // the rule does the work itself when it checks the file, and reports what goes wrong there
+      }
+    }
+  }
+  for (const context of toCheck) {
     for (const rule of rules) {
       if (rule.scope !== 'file') continue;
-      current = rule.meta;
+      setCurrent.get(context)!(rule.meta);
       runGuarded(rule, () => rule.check(context), context, emit);
     }
     context.summary = summarise(context.procedure);
+    const key = fileKeys.get(context);
     if (key) store!.set(key, { diagnostics: sink.get(context)!, summary: context.summary } satisfies CachedFile);
   }
 

@@ -1,8 +1,10 @@
 // The English model (compromise) loaded on a second thread, so that its load (a quarter of a second of unpacking
 // its word lists) runs beside the main thread's own start: loading the checker, reading and parsing the files.
-// The rules ask it synchronously, as they ask the model in the main thread: the question goes to the thread and
-// the main thread waits on a shared flag for the answer (the answers are plain data: tags by term, lexicon
-// entries). The same library file answers, with the same steps, so the tags are the same as in the main thread.
+// Questions are numbered and answered in order. A question may be sent ahead (a procedure's phrases, posted
+// before the rules run) and its answer taken later, so that the thread tags while the main thread runs other rules;
+// a rule that needs an answer now waits on a shared counter for it. The word list is sent once, as the model has
+// loaded, and looked up in the main thread. The answers are plain data (tags by term, the word list); the same
+// library file answers, with the same steps, so the tags are the same as in the main thread.
 // Only the command line starts it (`stepwright check` when no result cache will answer). Should the thread fail
 // to start, to load the library or to answer, it is stopped and the model is loaded in the main thread, as
 // without it: the thread only ever changes when the work is done, never the answers.
@@ -11,10 +13,12 @@ import { dependencyRequire } from '../load-dependency.ts';
 
 /** One term of a tagged sentence, as the thread sends it: text, text before, text after, tags. */
 export type TermData = [text: string, pre: string, post: string, tags: string[]];
-type Question = { op: 'tag'; text: string } | { op: 'lexicon'; word: string };
-type Answer = { ok: true; value: unknown } | { ok: false; error: string };
+type Question = { id: number } & ({ op: 'tag'; text: string } | { op: 'lexicon' });
+type Answer = { id: number } & ({ ok: true; value: unknown } | { ok: false; error: string });
 
-// Runs in the thread (CommonJS, given as text so that the package needs no file of its own for it).
+// Runs in the thread (CommonJS, given as text so that the package needs no file of its own for it). Questions are
+// answered one at a time, in the order they came; each answer carries its question's number, and the shared
+// counter says how many answers have been sent.
 const threadSource = `
 const { workerData } = require('node:worker_threads');
 const { port, flag, entry } = workerData;
@@ -32,32 +36,48 @@ port.on('message', (question) => {
     if (question.op === 'tag') {
       const doc = nlp.tokenize(question.text);
       doc.compute(steps);
-      answer = { ok: true, value: doc.document.map((terms) => terms.map((t) => [t.text, t.pre, t.post, [...t.tags]])) };
+      answer = { id: question.id, ok: true, value: doc.document.map((terms) => terms.map((t) => [t.text, t.pre, t.post, [...t.tags]])) };
     } else {
-      // Only the word list's own entries (not what every object inherits, such as 'constructor').
+      // The word list whole, as one text: each word and the first tag of its entry. Only the list's own entries
+      // (not what every object inherits, such as 'constructor').
       const lexicon = nlp.world().model.one.lexicon;
-      answer = { ok: true, value: Object.hasOwn(lexicon, question.word) ? lexicon[question.word] : undefined };
+      const lines = [];
+      for (const word of Object.keys(lexicon)) {
+        const tag = Array.isArray(lexicon[word]) ? lexicon[word][0] : lexicon[word];
+        if (typeof tag === 'string' && !/[\\u0000\\u0001]/.test(word + tag)) lines.push(word + '\\u0001' + tag);
+      }
+      answer = { id: question.id, ok: true, value: lines.join('\\u0000') };
     }
   } catch (error) {
-    answer = { ok: false, error: String((error && error.message) || error) };
+    answer = { id: question.id, ok: false, error: String((error && error.message) || error) };
   }
   try {
     port.postMessage(answer);
   } catch (error) {
-    port.postMessage({ ok: false, error: String((error && error.message) || error) });
+    port.postMessage({ id: question.id, ok: false, error: String((error && error.message) || error) });
   }
-  Atomics.store(flag, 0, 1);
+  Atomics.add(flag, 0, 1);
   Atomics.notify(flag, 0);
 });
 `;
 
-type Thread = { worker: Worker; port: MessagePort; flag: Int32Array };
+type Thread = {
+  worker: Worker; port: MessagePort;
+  /** How many answers the thread has sent. */
+  flag: Int32Array;
+  /** The last question's number, and how many answers have been read off the port. */
+  asked: number; read: number;
+  /** Answers read off the port before they were asked for. */
+  early: Map<number, Answer>;
+  /** The number of the question for the word list, asked as the thread starts. */
+  lexiconQuestion?: number;
+};
 // Kept on globalThis: the command line starts the thread from its own copy of this module, the bundled checker asks
 // it from another.
 const slot = Symbol.for('stepwright.prose.model-thread');
 const slots = globalThis as unknown as Record<symbol, Thread | undefined>;
 
-/** How long one answer may take (the first waits for the library's load) before the main thread does it itself. */
+/** How long the main thread waits for any one answer (the first waits for the library's load) before doing it itself. */
 const answerLimitMs = 60_000;
 
 /** Starts loading the English model on a second thread; does nothing when it is running already or cannot start. */
@@ -72,7 +92,11 @@ export function startModelThread(): void {
     worker.unref();
     port1.unref();
     worker.on('error', () => stopModelThread());
-    slots[slot] = { worker, port: port1, flag };
+    const thread: Thread = { worker, port: port1, flag, asked: 0, read: 0, early: new Map() };
+    slots[slot] = thread;
+    // The word list is asked for at once: it is sent as soon as the model has loaded, and every later word is
+    // looked up in the main thread without a question.
+    thread.lexiconQuestion = post({ op: 'lexicon' });
   } catch {
     // no thread: the model is loaded in the main thread when it is first needed
   }
@@ -91,29 +115,84 @@ export function stopModelThread(): void {
   void thread.worker.terminate();
 }
 
-/** The thread's answer, or undefined when there is no thread or it did not answer (then it is stopped). */
-function ask(question: Question): { ok: true; value: unknown } | undefined {
+/** A question on its way, to be answered by `take`. */
+export type Ticket = number;
+
+/** Sends a question without waiting for its answer; undefined when there is no thread. */
+function post(question: { op: 'tag'; text: string } | { op: 'lexicon' }): Ticket | undefined {
   const thread = slots[slot];
   if (!thread) return undefined;
-  Atomics.store(thread.flag, 0, 0);
-  thread.port.postMessage(question);
-  const waited = Atomics.wait(thread.flag, 0, 0, answerLimitMs);
-  const message = waited === 'timed-out' ? undefined : receiveMessageOnPort(thread.port);
-  const answer = message?.message as Answer | undefined;
-  if (!answer || !answer.ok) {
+  const id = ++thread.asked;
+  try {
+    thread.port.postMessage({ id, ...question } satisfies Question);
+  } catch {
+    stopModelThread();
+    return undefined;
+  }
+  return id;
+}
+
+/**
+ * The answer to a question sent earlier, waiting for it when it has not come yet; undefined when the thread is
+ * gone, failed or did not answer in time (then it is stopped, and the caller does the work itself).
+ */
+function take(ticket: Ticket): { ok: true; value: unknown } | undefined {
+  const thread = slots[slot];
+  if (!thread) return undefined;
+  const started = Date.now();
+  while (!thread.early.has(ticket)) {
+    const message = receiveMessageOnPort(thread.port)?.message as Answer | undefined;
+    if (message) {
+      thread.read++;
+      thread.early.set(message.id, message);
+      continue;
+    }
+    const left = answerLimitMs - (Date.now() - started);
+    const sent = Atomics.load(thread.flag, 0);
+    // An answer counted but not yet readable is a moment away; otherwise wait for the counter to move.
+    if (left <= 0 || (sent <= thread.read && Atomics.wait(thread.flag, 0, sent, left) === 'timed-out')) {
+      stopModelThread();
+      return undefined;
+    }
+  }
+  const answer = thread.early.get(ticket)!;
+  thread.early.delete(ticket);
+  if (!answer.ok) {
     stopModelThread();
     return undefined;
   }
   return answer;
 }
 
-/** The sentences of a text with their terms, tagged by the thread; undefined when the main thread must do it. */
-export function tagOnThread(text: string): TermData[][] | undefined {
-  return ask({ op: 'tag', text })?.value as TermData[][] | undefined;
+/** Sends a text to be tagged; its sentences come back from `takeTagged`. */
+export function postTagging(text: string): Ticket | undefined {
+  return post({ op: 'tag', text });
 }
 
-/** The model's lexicon entry of a word (lower case) from the thread; `found: false` when the main thread must look. */
-export function lexiconOnThread(word: string): { found: true; value: string | string[] | undefined } | { found: false } {
-  const answer = ask({ op: 'lexicon', word });
-  return answer ? { found: true, value: answer.value as string | string[] | undefined } : { found: false };
+/** The sentences of a text posted earlier, with their terms; undefined when the main thread must tag it. */
+export function takeTagged(ticket: Ticket): TermData[][] | undefined {
+  return take(ticket)?.value as TermData[][] | undefined;
+}
+
+/** The sentences of a text with their terms, tagged by the thread; undefined when the main thread must do it. */
+export function tagOnThread(text: string): TermData[][] | undefined {
+  const ticket = postTagging(text);
+  return ticket === undefined ? undefined : takeTagged(ticket);
+}
+
+/**
+ * The model's word list from the thread (each word, lower case, and the first tag of its entry), read once; undefined
+ * when the main thread must look the words up itself.
+ */
+export function lexiconOnThread(): Map<string, string> | undefined {
+  const thread = slots[slot];
+  if (!thread || thread.lexiconQuestion === undefined) return undefined;
+  const text = take(thread.lexiconQuestion)?.value;
+  if (typeof text !== 'string') return undefined;
+  const words = new Map<string, string>();
+  for (const line of text.split('\u0000')) {
+    const cut = line.indexOf('\u0001');
+    if (cut >= 0) words.set(line.slice(0, cut), line.slice(cut + 1));
+  }
+  return words;
 }

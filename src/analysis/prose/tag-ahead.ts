@@ -1,18 +1,18 @@
 // Tags ahead, in one reading of the English model, the phrases the writing rules will ask about in one
 // procedure's prose (see tagAhead). Each writing rule that asks the model calls this first; the work is done
-// once per procedure, and the rules' answers are the same as without it.
+// once per procedure, and the rules' answers are the same as without it. With the model on its own thread, the
+// phrases of every procedure are sent to it before the rules run (tagProseLater), so that it tags while they run.
 import type { Procedure } from '../../model/procedure.ts';
 import { bareNumbers } from './bare-numbers.ts';
 import { chainedImperatives, givesInstruction, startsWithActionVerb } from './imperatives.ts';
 import { proseOf } from './prose-sites.ts';
-import { tagAhead } from './word-tags.ts';
+import { tagAhead, tagAheadLater } from './word-tags.ts';
 
 const done = new WeakSet<Procedure>();
 
-export function tagProseAhead(procedure: Procedure): void {
-  if (done.has(procedure)) return;
-  done.add(procedure);
-  tagAhead(() => {
+/** Asks, of the English model, what the writing rules will ask of one procedure's prose. */
+function askAsTheRulesDo(procedure: Procedure): () => void {
+  return () => {
     for (const site of proseOf(procedure)) {
       site.sentences.forEach((sentence, i) => {
         // What number-without-unit asks of every sentence.
@@ -24,5 +24,20 @@ export function tagProseAhead(procedure: Procedure): void {
         if (site.role === 'action' && i === 0) startsWithActionVerb(sentence);
       });
     }
-  });
+  };
+}
+
+export function tagProseAhead(procedure: Procedure): void {
+  if (done.has(procedure)) return;
+  done.add(procedure);
+  tagAhead(askAsTheRulesDo(procedure), procedure);
+}
+
+/**
+ * Sends the procedure's phrases to the model's thread, when one runs, before any rule needs them: the thread tags
+ * them while the main thread checks other files. tagProseAhead takes the answer. The answers are the same.
+ */
+export function tagProseLater(procedure: Procedure): void {
+  if (done.has(procedure)) return;
+  tagAheadLater(procedure, askAsTheRulesDo(procedure));
 }

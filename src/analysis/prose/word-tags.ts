@@ -2,7 +2,7 @@
 // The model is loaded on first use (half a second): a run that reads no prose (every file found in the result
 // cache) never loads it. It is the package's single-file build, the same version and code as its module entry.
 import { dependencyRequire } from '../load-dependency.ts';
-import { lexiconOnThread, modelThreadRunning, tagOnThread } from './model-thread.ts';
+import { lexiconOnThread, modelThreadRunning, postTagging, tagOnThread, takeTagged, type TermData, type Ticket } from './model-thread.ts';
 
 type Term = { text: string; pre: string; post: string; tags: Set<string> };
 type Tagged = { document: Term[][]; compute(steps: string[]): unknown };
@@ -29,13 +29,17 @@ function tag(text: string): Term[][] {
   // The model on its own thread, when the command line started one (see model-thread.ts): the same tags.
   if (modelThreadRunning()) {
     const sentences = tagOnThread(text);
-    if (sentences) return sentences.map((terms) => terms.map(([text, pre, post, tags]) => ({ text, pre, post, tags: new Set(tags) })));
+    if (sentences) return fromThread(sentences);
   }
   const model = nlp();
   taggingSteps ??= model.world().hooks.filter((step) => step !== 'chunks');
   const doc = model.tokenize(text);
   doc.compute(taggingSteps);
   return doc.document;
+}
+
+function fromThread(sentences: TermData[][]): Term[][] {
+  return sentences.map((terms) => terms.map(([text, pre, post, tags]) => ({ text, pre, post, tags: new Set(tags) })));
 }
 
 /** Each phrase's terms' tags, by phrase. */
@@ -58,6 +62,10 @@ export function tagsAt(phrase: string, index: number): ReadonlySet<string> {
       gathering.phrases.add(phrase);
       return gathering.answer;
     }
+    // Sent to the thread ahead: its answer (and those sent before it) is taken rather than asked again.
+    if (postedPhrases.has(phrase)) settlePosted((entry) => entry.batch.includes(phrase));
+    terms = memo.get(phrase);
+    if (terms) return terms[index] ?? none;
     // Reading the tagged document directly costs half of what .terms().json() does.
     remember(phrase, tag(phrase).flat());
     terms = memo.get(phrase)!;
@@ -66,66 +74,127 @@ export function tagsAt(phrase: string, index: number): ReadonlySet<string> {
 }
 
 /**
- * Tags ahead, in one reading, every phrase that `ask` would ask `tagsAt` for: the model reads one document of
- * many sentences several times faster than the same sentences one call each. `ask` is run twice while phrases
- * are gathered, once with every answer "no tags" and once with every answer "verb, noun and adjective", so that
- * the phrases asked after either answer are gathered. A phrase missed here is tagged when it is asked, as
- * before; a phrase whose sentence the model does not read back exactly as written (a full stop or question mark
- * inside it) is left to that too. Answers are the same either way: each sentence is tagged on its own.
- * Returns how many phrases were tagged ahead.
+ * Every phrase `ask` would ask `tagsAt` for and that has no answer yet. `ask` is run twice, once with every
+ * answer "no tags" and once with every answer "verb, noun and adjective", so that the phrases asked after either
+ * answer are gathered.
  */
-export function tagAhead(ask: () => void): number {
+function gather(ask: () => void): Set<string> {
+  const phrases = new Set<string>();
+  for (const answer of [none, new Set(['Verb', 'Noun', 'Adjective'])]) {
+    gathering = { phrases, answer };
+    try {
+      ask();
+    } finally {
+      gathering = undefined;
+    }
+  }
+  return phrases;
+}
+
+/** The phrases that can be read as sentences of one document (no full stop or question mark inside). */
+function readable(phrases: Iterable<string>): string[] {
+  return [...phrases].filter((p) => p.length > 0 && p.trim() === p && !/[.!?;:\n\r]/.test(p));
+}
+
+/** One sentence a line: a full stop and a space after "a" or "an" reads as an abbreviation, a line break never. */
+function asDocument(batch: string[]): string {
+  return batch.map((p) => `${p}.`).join('\n');
+}
+
+/**
+ * Keeps the tags of each phrase of `batch` from the tagged document of asDocument(batch). Sentences and phrases are
+ * matched in order; should the model join phrases into one sentence, those phrases are left to be tagged when asked,
+ * and matching stops wherever the text stops lining up. Returns how many phrases were kept.
+ */
+function rememberDocument(batch: string[], sentences: Term[][]): number {
+  let kept = 0;
+  let next = 0;
+  for (const terms of sentences) {
+    const text = terms.map((t) => t.pre + t.text + t.post).join('').trimEnd();
+    let joined = '';
+    const first = next;
+    while (next < batch.length && joined.length < text.length) joined += `${joined ? '\n' : ''}${batch[next++]}.`;
+    if (joined !== text) return kept;
+    if (next === first + 1) {
+      remember(batch[first], terms);
+      kept++;
+    }
+  }
+  return kept;
+}
+
+/**
+ * Tags ahead, in one reading, every phrase that `ask` would ask `tagsAt` for: the model reads one document of
+ * many sentences several times faster than the same sentences one call each. A phrase missed here is tagged when
+ * it is asked, as before; a phrase whose sentence the model does not read back exactly as written (a full stop or
+ * question mark inside it) is left to that too. Answers are the same either way: each sentence is tagged on its own.
+ * `key` names what `ask` reads (a procedure): when its phrases were sent to the thread by tagAheadLater, that answer
+ * is taken first. Returns how many phrases were tagged ahead in this call.
+ */
+export function tagAhead(ask: () => void, key?: object): number {
+  if (key && postedKeys.has(key)) settlePosted((entry) => entry.key === key);
   let tagged = 0;
   // Answers found in one round open paths the guesses did not take: gather again until nothing new turns up.
   for (let round = 0; round < 3; round++) {
-    const phrases = new Set<string>();
-    for (const answer of [none, new Set(['Verb', 'Noun', 'Adjective'])]) {
-      gathering = { phrases, answer };
-      try {
-        ask();
-      } finally {
-        gathering = undefined;
-      }
-    }
-    const batch = [...phrases].filter((p) => p.length > 0 && p.trim() === p && !/[.!?;:\n\r]/.test(p));
+    const batch = readable(gather(ask));
     if (batch.length < 2) return tagged;
-    // One sentence a line: a full stop and a space after "a" or "an" reads as an abbreviation, a line break never.
-    const sentences = tag(batch.map((p) => `${p}.`).join('\n'));
-    // Sentences and phrases are matched in order; should the model join phrases into one sentence, those phrases
-    // are left to be tagged when asked, and matching stops wherever the text stops lining up.
-    let next = 0;
-    for (const terms of sentences) {
-      const text = terms.map((t) => t.pre + t.text + t.post).join('').trimEnd();
-      let joined = '';
-      const first = next;
-      while (next < batch.length && joined.length < text.length) joined += `${joined ? '\n' : ''}${batch[next++]}.`;
-      if (joined !== text) return tagged;
-      if (next === first + 1) {
-        remember(batch[first], terms);
-        tagged++;
-      }
-    }
+    const kept = rememberDocument(batch, tag(asDocument(batch)));
+    tagged += kept;
   }
   return tagged;
 }
 
+/** Phrases sent to the thread and not yet taken back, in the order they were sent. */
+const posted: Array<{ key: object; batch: string[]; ticket: Ticket }> = [];
+const postedPhrases = new Set<string>();
+const postedKeys = new Set<object>();
+
+/**
+ * Sends the phrases `ask` would ask about (the first round of tagAhead) to the model's thread without waiting, so
+ * that the thread tags them while the main thread goes on; tagAhead(ask, key) or tagsAt takes the answer. Does
+ * nothing without a thread. Phrases already answered or already sent are not sent again.
+ */
+export function tagAheadLater(key: object, ask: () => void): void {
+  if (!modelThreadRunning() || postedKeys.has(key)) return;
+  const batch = readable(gather(ask)).filter((p) => !postedPhrases.has(p));
+  if (batch.length < 2) return;
+  const ticket = postTagging(asDocument(batch));
+  if (ticket === undefined) return;
+  posted.push({ key, batch, ticket });
+  postedKeys.add(key);
+  for (const phrase of batch) postedPhrases.add(phrase);
+}
+
+/** Takes the answers sent ahead, in order, up to and including the first entry `until` accepts. */
+function settlePosted(until: (entry: (typeof posted)[number]) => boolean): void {
+  while (posted.length) {
+    const entry = posted.shift()!;
+    postedKeys.delete(entry.key);
+    for (const phrase of entry.batch) postedPhrases.delete(phrase);
+    const sentences = takeTagged(entry.ticket);
+    if (!sentences) {
+      // The thread has stopped: what was sent is tagged in the main thread when asked.
+      posted.length = 0;
+      postedKeys.clear();
+      postedPhrases.clear();
+      return;
+    }
+    rememberDocument(entry.batch, fromThread(sentences));
+    if (until(entry)) return;
+  }
+}
+
 let lexicon: Record<string, string | string[]> | undefined;
-/** The thread's answers, by word. */
-const lexiconAnswers = new Map<string, string | string[] | undefined>();
+/** The word list as the thread sent it: each word and the first tag of its entry. */
+let threadLexicon: Map<string, string> | undefined;
 
 /** The tag the model's own word list gives a word, without parsing (undefined for words it derives by rule). */
 export function lexiconTag(word: string): string | undefined {
   const key = word.toLowerCase();
-  let entry: string | string[] | undefined;
-  if (!lexicon && lexiconAnswers.has(key)) entry = lexiconAnswers.get(key);
-  else {
-    const answer = !lexicon && modelThreadRunning() ? lexiconOnThread(key) : { found: false as const };
-    if (answer.found) lexiconAnswers.set(key, (entry = answer.value));
-    else {
-      lexicon ??= nlp().world().model.one.lexicon;
-      // Only the word list's own entries (not what every object inherits, such as 'constructor').
-      entry = Object.hasOwn(lexicon, key) ? lexicon[key] : undefined;
-    }
-  }
+  if (!lexicon && !threadLexicon && modelThreadRunning()) threadLexicon = lexiconOnThread();
+  if (!lexicon && threadLexicon) return threadLexicon.get(key);
+  lexicon ??= nlp().world().model.one.lexicon;
+  // Only the word list's own entries (not what every object inherits, such as 'constructor').
+  const entry = Object.hasOwn(lexicon, key) ? lexicon[key] : undefined;
   return Array.isArray(entry) ? entry[0] : entry;
 }

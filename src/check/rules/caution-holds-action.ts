@@ -1,6 +1,6 @@
 // Reports a safety message whose hazard or consequence text gives an instruction instead of describing the danger.
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
-import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
+import { tagProseAhead, tagProseLater } from '../../analysis/prose/tag-ahead.ts';
 import { givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -38,5 +38,9 @@ avoid: Do not open the jacket drains while H-220 runs`,
         });
       }
     }
+  },
+  // The procedure's phrases go to the English model's thread before any rule runs.
+  (ctx) => {
+    if (ctx.procedure) tagProseLater(ctx.procedure);
   },
 );

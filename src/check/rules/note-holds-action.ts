@@ -1,6 +1,6 @@
 // Reports a step note that gives an instruction: notes inform, actions belong in steps.
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
-import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
+import { tagProseAhead, tagProseLater } from '../../analysis/prose/tag-ahead.ts';
 import { givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -35,5 +35,9 @@ export default defineFileRule(
         });
       }
     }
+  },
+  // The procedure's phrases go to the English model's thread before any rule runs.
+  (ctx) => {
+    if (ctx.procedure) tagProseLater(ctx.procedure);
   },
 );

@@ -1,6 +1,6 @@
 // Reports a step action that chains several imperatives ("Open XV-2101 and start P-211").
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
-import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
+import { tagProseAhead, tagProseLater } from '../../analysis/prose/tag-ahead.ts';
 import { chainedImperatives, givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -55,5 +55,9 @@ XV-2101 is open*) are not chained instructions.`,
         });
       }
     }
+  },
+  // The procedure's phrases go to the English model's thread before any rule runs.
+  (ctx) => {
+    if (ctx.procedure) tagProseLater(ctx.procedure);
   },
 );

@@ -72,6 +72,27 @@ describe('the English model on its own thread', () => {
     );
   }, 120_000);
 
+  it('tags phrases sent ahead while the main thread goes on, with the answers of the main thread', async () => {
+    const here = await read(plantPhrases, plantWords, false);
+    const { tags, thread } = await freshModules();
+    thread.startModelThread();
+    const procedures = [{}, {}];
+    const asks = [plantPhrases.slice(0, 6), plantPhrases.slice(6)].map((batch) => () => batch.forEach((p) => tags.tagsAt(p, 0)));
+    // Both sent before either is asked for; the second answer is taken after the first.
+    procedures.forEach((key, i) => tags.tagAheadLater(key, asks[i]));
+    // Nothing is left to tag: every phrase's answer came from what was sent ahead.
+    expect(procedures.map((key, i) => tags.tagAhead(asks[i], key))).toEqual([0, 0]);
+    const tagged = plantPhrases.map((p) => p.split(' ').map((_, i) => [...tags.tagsAt(p, i)].sort()));
+    expect(thread.modelThreadRunning()).toBe(true);
+    expect(tagged).toEqual(here.tags);
+    // Without a thread nothing is sent: tagging ahead does the work itself.
+    const fresh = await freshModules();
+    fresh.thread.stopModelThread();
+    fresh.tags.tagAheadLater(procedures[0], asks[0]);
+    const alone = () => plantPhrases.slice(0, 6).forEach((p) => fresh.tags.tagsAt(p, 0));
+    expect(fresh.tags.tagAhead(alone, procedures[0])).toBe(6);
+  }, 60_000);
+
   it('once stopped, leaves the work to the main thread with the same answers', async () => {
     const { tags, thread } = await freshModules();
     thread.startModelThread();
