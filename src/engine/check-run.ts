@@ -88,19 +88,25 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     if (discovered && 'text' in input && isNotAProcedure(input.text)) skipped.push({ file: input.file, reason: notAProcedureReason });
     else inputs.push(input);
   }
-  const config = loadConfig({ cwd: request.cwd }, request.config);
-
-  let previous: ((file: string) => PreviousVersion | undefined) | undefined;
-  let repo: Repository | undefined;
+  // git reads the previous versions in processes of its own while this thread reads the configuration and the
+  // register; its answer is awaited before the rules run.
   const history = request.history ?? {};
-  if (history && 'previous' in history) ({ previous, repo } = history);
-  else if (history) ({ previous, repo } = await previousFromGit(inputs.filter((i) => i.file !== stdinName), request, history.base, paths.find((p) => p !== '-')));
-
+  const fromGit = history && !('previous' in history)
+    ? previousFromGit(inputs.filter((i) => i.file !== stdinName), request, history.base, paths.find((p) => p !== '-'))
+    : undefined;
+  // Should reading the configuration or the register fail first, git's own failure is not left unhandled.
+  fromGit?.catch(() => {});
+  const config = loadConfig({ cwd: request.cwd }, request.config);
   const { today, source: todaySource } = request.date === 'build'
     ? buildDate(request, inputs, paths[0])
     : clockDate(request);
   // The plant register named by the configuration (or found next to it): procedures read their declarations from it.
   const register = loadRegister(request.cwd, config.file?.file, config.config.register, paths.find((p) => p !== '-'));
+
+  let previous: ((file: string) => PreviousVersion | undefined) | undefined;
+  let repo: Repository | undefined;
+  if (history && 'previous' in history) ({ previous, repo } = history);
+  else if (fromGit) ({ previous, repo } = await fromGit);
   const checked = checkSources(inputs, {
     today, previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
     ...(partial ? { partial } : {}),

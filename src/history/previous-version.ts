@@ -15,11 +15,17 @@ export interface PreviousVersion {
 export async function previousVersions(git: Git, files: Array<{ path: string }>, base: string): Promise<Map<string, PreviousVersion>> {
   const found = new Map<string, PreviousVersion>();
   const commit = await resolveCommit(git, base);
-  const oldPaths = await pathsAtBase(git, commit);
+  // The files under their names now and the renames since are read at once (two git processes side by side);
+  // a file renamed since is then read under its old name.
+  const [oldPaths, underNewNames] = await Promise.all([
+    pathsAtBase(git, commit),
+    showFiles(git, files.map(({ path }) => `${commit}:${path}`)),
+  ]);
   const specOf = (path: string) => `${commit}:${oldPaths.get(path) ?? path}`;
-  const texts = await showFiles(git, files.map(({ path }) => specOf(path)));
+  const renamed = files.filter(({ path }) => oldPaths.has(path));
+  const underOldNames = renamed.length ? await showFiles(git, renamed.map(({ path }) => specOf(path))) : new Map<string, string | undefined>();
   for (const { path } of files) {
-    const text = texts.get(specOf(path));
+    const text = oldPaths.has(path) ? underOldNames.get(specOf(path)) : underNewNames.get(specOf(path));
     if (text !== undefined) found.set(path, { text, commit: describeBase(base, commit) });
   }
   return found;
