@@ -57,18 +57,26 @@ if (leftovers.length) {
   process.stderr.write(`compile: still importing .ts files: ${leftovers.join(', ')}\n`);
   process.exit(1);
 }
-// The check command is the one a plant runs at every save and push: its module and everything it imports from
-// lib/ become one file (libraries stay outside, loaded from node_modules), which Node loads in about half the
-// time of its 217 separate modules. The modules that build paths from import.meta (the package root, the
-// libraries) sit one folder below lib/, as the bundle does, so those paths resolve the same. The separate
-// modules stay for the other commands and the site.
+// The check command is the one a plant runs at every save and push: its module, everything it imports from lib/
+// and the libraries it imports become one file (the English model and mathjs, loaded on first use, stay outside),
+// which Node loads in a fraction of the time of its 217 own and about 290 library modules. The licences of the
+// libraries it holds are written next to it. The modules that build paths from import.meta (the package root, the
+// libraries) sit one folder below lib/, as the bundle does, so those paths resolve the same. The separate modules
+// stay for the other commands and the site.
 const { buildSync } = await import(createRequire(import.meta.url).resolve('esbuild'));
 // The part of mathjs the unit conversions use, as one file that loads in about two thirds of the whole library's
 // time (see scripts/mathjs-units.mjs and src/analysis/load-mathjs.ts).
 const { writeMathjsUnits } = await import('./mathjs-units.mjs');
 await writeMathjsUnits(join(lib, 'analysis', 'mathjs-units.cjs'));
 const checkCommand = join(lib, 'cli', 'check-command.js');
-buildSync({ entryPoints: [checkCommand], outfile: checkCommand, allowOverwrite: true, bundle: true, packages: 'external', platform: 'node', format: 'esm', target: 'node22', logLevel: 'warning' });
+const bundled = buildSync({
+  entryPoints: [checkCommand], outfile: checkCommand, allowOverwrite: true, bundle: true, platform: 'node', format: 'esm', target: 'node22',
+  external: ['compromise', 'mathjs'], metafile: true, legalComments: 'inline', logLevel: 'warning', absWorkingDir: root,
+  // The CommonJS libraries in it ask for Node's own modules with require, which an ES module has not got.
+  banner: { js: "// Licences of the libraries in this file: check-command.LICENSES.txt.\nimport { createRequire as createRequireForLibraries } from 'node:module';\nconst require = createRequireForLibraries(import.meta.url);" },
+});
+const { writeBundleLicences } = await import('./bundle-licences.mjs');
+writeBundleLicences(root, bundled.metafile, 'check-command.js', join(lib, 'cli', 'check-command.LICENSES.txt'));
 
 // On standard error: `npm pack --json` keeps standard output for its own report.
 process.stderr.write(`compile: lib/ written (${copied} site files copied).\n`);

@@ -4,10 +4,11 @@
 // about two thirds of the time of the library's single-file build, which holds every function of the library.
 // The licences of the packages it holds are written next to it. Used by compile.mjs, and by a test that compares
 // its units with the whole library's.
-import { readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { writeBundleLicences } from './bundle-licences.mjs';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
 
@@ -21,24 +22,7 @@ export async function writeMathjsUnits(outfile) {
     outfile, absWorkingDir: root, bundle: true, platform: 'node', format: 'cjs', target: 'node22', metafile: true, legalComments: 'inline', logLevel: 'warning',
     banner: { js: `// mathjs ${mathjsVersion}: create, unitDependencies and createUnitDependencies, with what they import. Licences: ${outfile.split('/').pop().replace(/\.cjs$/, '.LICENSES.txt')}.` },
   });
-  // Each package folder the file took code from, and its licence text.
-  const folders = new Set();
-  for (const input of Object.keys(result.metafile.inputs)) {
-    const match = /^(.*node_modules\/(?:@[^/]+\/)?[^/]+)\//.exec(input);
-    if (match) folders.add(match[1]);
-  }
-  const packages = [];
-  let licences = `Licences of the packages whose code is in ${outfile.split('/').pop()}.\n`;
-  for (const folder of [...folders].sort()) {
-    const { name, version, license } = JSON.parse(readFileSync(join(root, folder, 'package.json'), 'utf8'));
-    packages.push(name);
-    licences += `\n${'='.repeat(78)}\n${name} ${version} (${license})\n${'='.repeat(78)}\n`;
-    for (const file of readdirSync(join(root, folder)).filter((f) => /^(licen[cs]e|notice)(\.|$)/i.test(f)).sort()) {
-      licences += `\n--- ${file} ---\n${readFileSync(join(root, folder, file), 'utf8')}`;
-    }
-  }
-  writeFileSync(outfile.replace(/\.cjs$/, '.LICENSES.txt'), licences);
-  return packages;
+  return writeBundleLicences(root, result.metafile, outfile.split('/').pop(), outfile.replace(/\.cjs$/, '.LICENSES.txt'));
 }
 
 // Allows `node scripts/mathjs-units.mjs <outfile>` by hand.

@@ -3,6 +3,7 @@
 // Node 24). Every procedure gets a page and the audit trail lists that repository's commits, not the tool's.
 import { execFileSync, spawn, spawnSync, type SpawnSyncReturns } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { builtinModules } from 'node:module';
 import { tmpdir } from 'node:os';
 import { delimiter, dirname, join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -70,6 +71,14 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
     const manifest = JSON.parse(readFileSync(join(installed, 'package.json'), 'utf8'));
     expect(manifest.engines.node).toBe('>=22.12.0');
     expect(Object.keys(manifest.dependencies)).not.toContain('tsx');
+    // The check command is one file with the libraries it imports (the English model and mathjs are loaded on first
+    // use, from node_modules); their licences are shipped beside it.
+    const bundle = readFileSync(join(installed, 'lib', 'cli', 'check-command.js'), 'utf8');
+    const imported = [...bundle.matchAll(/^import\s[^'"]*?from\s*['"]([^'"]+)['"]/gm)].map((m) => m[1]);
+    expect(imported.filter((name) => !name.startsWith('node:') && !builtinModules.includes(name))).toEqual([]);
+    expect(imported.length).toBeGreaterThan(0);
+    const licences = readFileSync(join(installed, 'lib', 'cli', 'check-command.LICENSES.txt'), 'utf8');
+    for (const library of ['yaml', 'zod', 'micromark', '@babel/code-frame']) expect(licences).toMatch(new RegExp(`^${library} \\d+\\.\\d+\\.\\d+ \\(`, 'm'));
   });
 
   it('init adds config, ignore entries, editor settings and a workflow, and leaves the procedures alone', () => {
