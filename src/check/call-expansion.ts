@@ -13,6 +13,7 @@ import type { Procedure } from '../model/procedure.ts';
 import type { PathKey } from '../parse/read-source.ts';
 import type { Severity, SourceRange } from '../parse/diagnostic.ts';
 import type { FileContext, FileRule, Report, RuleMeta } from './define-rule.ts';
+import { groupDigits } from '../parse/group-digits.ts';
 
 /** Rule categories whose findings can change when a called procedure runs inside its caller. */
 export const expansionCategories: ReadonlySet<string> = new Set(['sequence', 'conditions', 'limits']);
@@ -106,7 +107,7 @@ export function expandCalls(input: CallExpansionInput): void {
         severity: 'warning',
         message: problem.kind === 'too-deep'
           ? `Step '${problem.site.step.id}' calls '${problem.site.callee}' ${problem.depth} calls deep; calls are expanded at most ${problem.limit} deep, so this one was not checked together with its caller.`
-          : `Expanding the call of '${problem.site.callee}' at step '${problem.site.step.id}' would give ${problem.steps > 1e15 ? 'more than 10^15' : problem.steps.toLocaleString('en-GB')} steps in all (calls multiplied out); the limit is ${problem.limit.toLocaleString('en-GB')}, so this call was not checked together with its caller.`,
+          : `Expanding the call of '${problem.site.callee}' at step '${problem.site.step.id}' would give ${problem.steps > 1e15 ? 'more than 10^15' : groupDigits(problem.steps)} steps in all (calls multiplied out); the limit is ${groupDigits(problem.limit)}, so this call was not checked together with its caller.`,
         hint: 'Shared operations that call other shared operations multiply: call each one once, at the level where it is needed, or split the procedure.',
       });
     }

@@ -6,6 +6,7 @@ import type { Root } from 'mdast';
 import type { Diagnostic, SourceRange } from './diagnostic.ts';
 import { splitFrontMatter } from './split-front-matter.ts';
 import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesting-prescan.ts';
+import { groupDigits } from './group-digits.ts';
 
 export type PathKey = string | number;
 
@@ -51,7 +52,7 @@ export function readSource(file: string, text: string): ParsedSource {
   if (bodySize) {
     diagnostics.push({
       file, ...at(split.bodyOffset + bodySize.offset), severity: 'error', rule: 'body-too-large',
-      message: `The narrative text has ${bodySize.found.toLocaleString('en-GB')} ${bodySize.what}; the limit is ${bodySize.limit.toLocaleString('en-GB')}. It was not read.`,
+      message: `The narrative text has ${groupDigits(bodySize.found)} ${bodySize.what}; the limit is ${groupDigits(bodySize.limit)}. It was not read.`,
       hint: 'A procedure\'s narrative holds its purpose, scope and notes. Move reference material to its own document and link to it.',
     });
   } else if (bodyProblem) {

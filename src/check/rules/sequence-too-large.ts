@@ -2,6 +2,7 @@
 import { analyseSequence } from '../../analysis/soundness/analyse-sequence.ts';
 import { defaultStateBudget } from '../../analysis/soundness/explicit.ts';
 import { defineFileRule } from '../define-rule.ts';
+import { groupDigits } from '../../parse/group-digits.ts';
 
 export default defineFileRule(
   {
@@ -25,7 +26,7 @@ inside one branch, or split the procedure.`,
     ctx.report({
       path: ['steps'],
       part: 'key',
-      message: `The sequence has more than ${defaultStateBudget.toLocaleString('en')} combinations of active steps where jumps cross parallel branches; it was not proved sound.`,
+      message: `The sequence has more than ${groupDigits(defaultStateBudget)} combinations of active steps where jumps cross parallel branches; it was not proved sound.`,
       hint: 'Keep each goto inside one parallel branch, or loop whole blocks, so that the structural proof applies.',
     });
   },
