@@ -133,6 +133,9 @@ function rememberDocument(batch: string[], sentences: Term[][]): number {
  */
 export function tagAhead(ask: () => void, key?: object): number {
   if (key && postedKeys.has(key)) settlePosted((entry) => entry.key === key);
+  // Gathered ahead with nothing new to send: gathering again would find the same nothing (a phrase missed all the
+  // same is tagged when it is asked), so the rules' own reading is spared a second gathering.
+  else if (key && gatheredNothing.has(key)) return 0;
   let tagged = 0;
   // Answers found in one round open paths the guesses did not take: gather again until nothing new turns up.
   for (let round = 0; round < 3; round++) {
@@ -148,6 +151,8 @@ export function tagAhead(ask: () => void, key?: object): number {
 const posted: Array<{ key: object; batch: string[]; ticket: Ticket }> = [];
 const postedPhrases = new Set<string>();
 const postedKeys = new Set<object>();
+/** What was gathered ahead and had no phrase left to send (every one answered or sent for another key). */
+const gatheredNothing = new WeakSet<object>();
 
 /**
  * Sends the phrases `ask` would ask about (the first round of tagAhead) to the model's thread without waiting, so
@@ -156,8 +161,12 @@ const postedKeys = new Set<object>();
  */
 export function tagAheadLater(key: object, ask: () => void): void {
   if (!modelThreadRunning() || postedKeys.has(key)) return;
+  if (gatheredNothing.has(key)) return;
   const batch = readable(gather(ask)).filter((p) => !postedPhrases.has(p));
-  if (batch.length < 2) return;
+  if (batch.length < 2) {
+    gatheredNothing.add(key);
+    return;
+  }
   const ticket = postTagging(asDocument(batch));
   if (ticket === undefined) return;
   posted.push({ key, batch, ticket });

@@ -85,6 +85,18 @@ describe('the English model on its own thread', () => {
     const tagged = plantPhrases.map((p) => p.split(' ').map((_, i) => [...tags.tagsAt(p, i)].sort()));
     expect(thread.modelThreadRunning()).toBe(true);
     expect(tagged).toEqual(here.tags);
+    // A third procedure with the first one's phrases has nothing left to send; the rules then do not gather again.
+    let asked = 0;
+    const again = () => {
+      asked++;
+      asks[0]();
+    };
+    const third = {};
+    tags.tagAheadLater(third, again);
+    const gatheredAhead = asked;
+    expect(tags.tagAhead(again, third)).toBe(0);
+    expect(gatheredAhead).toBeGreaterThan(0);
+    expect(asked).toBe(gatheredAhead);
     // Without a thread nothing is sent: tagging ahead does the work itself.
     const fresh = await freshModules();
     fresh.thread.stopModelThread();
