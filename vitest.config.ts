@@ -1,4 +1,5 @@
 import { defineConfig } from 'vitest/config';
+import SlowFilesFirst from './tests/slow-files-first.ts';
 
 // Test files that replace a module with a mock, or count what a module remembers between calls (the English
 // model's tag memo), need a module cache of their own.
@@ -10,6 +11,8 @@ export default defineConfig({
     // Browser tests wait in their setup for the one shared demo build, which takes minutes on a busy 2-core machine.
     hookTimeout: 900_000,
     pool: 'forks',
+    // The longest files start first (see tests/slow-files-first.ts).
+    sequence: { sequencer: SlowFilesFirst },
     // Two test processes: the browser and build tests wait on child processes much of the time (whole suite
     // 466 s against 522 s with one, both under load from other work on a 2-core machine).
     maxWorkers: 2,

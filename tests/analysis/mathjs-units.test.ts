@@ -1,7 +1,7 @@
 // The installed package loads only the part of mathjs the units use (scripts/mathjs-units.mjs writes it at packing);
 // a development checkout loads the library's single-file build. Both must read every unit the same way: the same
 // units, prefixes, powers, values, offsets and dimensions, and the same refusals.
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, realpathSync, rmSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -26,7 +26,8 @@ beforeAll(async () => {
   part = defineUnits(create({ unitDependencies, createUnitDependencies }, {}));
   // A fresh copy of the single-file build, so that this test's units are its own; the module cache is put back as
   // it was, so that units.ts, in tests sharing this process, never meets units defined here.
-  const browser = join(root, 'node_modules', 'mathjs', 'lib', 'browser', 'math.js');
+  // By its real path, the key of the module cache (node_modules may be reached through a symbolic link).
+  const browser = realpathSync(join(root, 'node_modules', 'mathjs', 'lib', 'browser', 'math.js'));
   const cached = require.cache[browser];
   delete require.cache[browser];
   whole = defineUnits(require(browser) as MathJsInstance);
