@@ -11,7 +11,7 @@ import { chartLayoutPrintParts } from './chart-print.ts';
 import { chartLayoutToSvg } from './chart-svg.ts';
 import { layoutChart } from './chart-layout.ts';
 import { hazardRank, signalWordColours } from './signal-words.ts';
-import { numberSteps } from './step-numbers.ts';
+import { numberSteps, type StepNumbers } from './step-numbers.ts';
 import { buildStepTable, type TableRow } from './step-table.ts';
 import { tagUsesIn, type TagRole, type TagUse } from './where-used.ts';
 import { pagePath, rootBase, siteUrl, type SiteBase } from './site-url.ts';
@@ -70,9 +70,11 @@ export interface ProcedureView {
   hazards: Array<{ level: HazardLevel; word: string; hazard: string; consequence?: string; avoid?: string; steps: Array<{ id: string; number: string }> }>;
   interlocks: Array<{ tag: string; tripsWhen: string; tripsWhenWords?: string; action: string; tagUrl: string }>;
   limits: Array<{ signal: string; text?: string; low?: string; high?: string; unit?: string; consequence?: string; correction?: string }>;
-  chartSvg: string;
-  /** The chart cut at transitions into parts that each fit a printed page (empty when it fits one page). */
-  chartPrintParts: string[];
+  /**
+   * The sequence chart, drawn when a page asks for it: a manual keeps every procedure's view for the whole build,
+   * and the drawings are its largest part (two thousand procedures held hundreds of megabytes of SVG).
+   */
+  chart(): ChartDrawing;
   stepCount: number;
   rows: TableRow[];
   bodyHtml: string;
@@ -83,6 +85,12 @@ export interface ProcedureView {
   lineUp: Array<{ condition: string; words?: string }>;
   /** Procedures that must be complete before this one starts (a URL when the manual has the procedure). */
   requires: Array<{ id: string; url?: string; title?: string }>;
+}
+
+export interface ChartDrawing {
+  svg: string;
+  /** The chart cut at transitions into parts that each fit a printed page (empty when it fits one page). */
+  printParts: string[];
 }
 
 export interface TagView {
@@ -190,8 +198,6 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
   const tagNames = [...new Set([...p.equipment, ...p.interlocks.map((i) => i.tag), ...Object.keys(p.signals)])];
   const steps = file.facts?.steps.length ?? 0;
   const rows = buildStepTable(p, numbers);
-  // One layout for the screen chart and its print parts.
-  const chart = layoutChart(p, numbers);
   return {
     id: p.id, slug, url: siteUrl(base, pagePath.procedure(slug)), file: p.file, area: areaName(areaOf(p.file, root), p.equipment, register), areaId: areaOf(p.file, root),
     title: p.title, kind: String(p.kind), kindLabel: kindLabel(String(p.kind)), revision: p.revision, status: String(p.status),
@@ -202,8 +208,7 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     equipment: p.equipment, ppe: p.ppe, banner: statusBanner(p, today), hazards,
     interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: siteUrl(base, pagePath.tag(slugOf(i.tag))) })),
     limits,
-    chartSvg: chartLayoutToSvg(chart, { title: `Sequence chart of ${p.id}, ${steps} steps` }),
-    chartPrintParts: chartLayoutPrintParts(chart, `Sequence chart of ${p.id}`).map((part) => part.svg),
+    chart: () => drawChart(p, numbers, steps),
     stepCount: steps,
     rows,
     bodyHtml: renderBodyHtml(p.body),
@@ -211,6 +216,15 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     tags: tagNames.map((t) => ({ tag: t, url: siteUrl(base, pagePath.tag(slugOf(t))) })),
     lineUp: p.lineUp.map((l) => ({ condition: l.value, ...withWords(conditionInWords(l.value, p.signals)) })),
     requires: p.requires.map((r) => ({ id: r.value })),
+  };
+}
+
+/** The screen chart and its print parts, from one layout. */
+function drawChart(p: Procedure, numbers: StepNumbers, steps: number): ChartDrawing {
+  const layout = layoutChart(p, numbers);
+  return {
+    svg: chartLayoutToSvg(layout, { title: `Sequence chart of ${p.id}, ${steps} steps` }),
+    printParts: chartLayoutPrintParts(layout, `Sequence chart of ${p.id}`).map((part) => part.svg),
   };
 }
 
