@@ -27,6 +27,11 @@ export interface ParsedSource {
   rangeOf(path: readonly PathKey[], part?: 'key' | 'value'): SourceRange;
   /** Where characters [from, to) of the scalar string at a path are written. */
   rangeInScalar(path: readonly PathKey[], from: number, to: number): SourceRange;
+  /**
+   * Lets go of the YAML document (about as large as the procedure's model) once the checks are done with it; a
+   * later `doc`, `rangeOf` or `rangeInScalar` reads the same front-matter again and gives the same answers.
+   */
+  release(): void;
 }
 
 const limits = { maxAliasCount: 100, maxDepth: 200 };
@@ -100,7 +105,8 @@ export function readSource(file: string, text: string): ParsedSource {
         hint: 'A procedure needs only a few levels of nesting. Flatten the blocks or split the procedure.',
       });
     }
-    doc = parseDocument(tooDeep ? '' : split.yaml, { lineCounter, prettyErrors: false, uniqueKeys: true, strict: true });
+    const yamlText = tooDeep ? '' : split.yaml;
+    doc = parseDocument(yamlText, { lineCounter, prettyErrors: false, uniqueKeys: true, strict: true });
     const yamlLineOffset = fileLines(split.yamlOffset).line - 1;
     // Only the first error: later ones are nearly always knock-on effects of it.
     for (const error of doc.errors.slice(0, 1)) {
@@ -139,7 +145,9 @@ export function readSource(file: string, text: string): ParsedSource {
     if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
     // Positions from the YAML document are offsets into the YAML text; shift them into the file.
     const base = split.yamlOffset;
-    const docRef = doc;
+    let kept: Document.Parsed | null = doc;
+    // The same text read with the same options: the same nodes at the same offsets.
+    const document = (): Document.Parsed => (kept ??= parseDocument(yamlText, { prettyErrors: false, uniqueKeys: true, strict: true }));
     const nodeRange = (node: Node | Pair | null | undefined): [number, number] | null => {
       if (!node) return null;
       if (isPair(node)) {
@@ -152,7 +160,7 @@ export function readSource(file: string, text: string): ParsedSource {
       return range ? [range[0], range[1]] : null;
     };
     const locate = (path: readonly PathKey[], part: 'key' | 'value'): { node: Node | null; key: Node | null } => {
-      let current: unknown = docRef.contents;
+      let current: unknown = document().contents;
       let lastKey: Node | null = null;
       for (const segment of path) {
         if (isMap(current)) {
@@ -185,10 +193,14 @@ export function readSource(file: string, text: string): ParsedSource {
       const start = base + node.range[0] + (quoted ? 1 : 0);
       return at(start + from, start + to);
     };
-    return { file, text, doc, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar };
+    return {
+      file, text, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar,
+      get doc() { return document(); },
+      release() { kept = null; },
+    };
   }
   const rangeOf = (): SourceRange => at(0);
-  return { file, text, doc, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar: rangeOf };
+  return { file, text, doc, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar: rangeOf, release() {} };
 }
 
 /** One frozen processor for every body: building it costs as much as parsing a short body. */
