@@ -2,8 +2,11 @@
 // order pages are added, and a folder listing's order differs between file systems (ext4, tmpfs, ...).
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { keepTokensWhole } from '../render/keep-tokens-whole.ts';
+import { keepTokensWholeInBytes } from '../render/keep-tokens-whole.ts';
 import { siteFiles } from './site-manifest.ts';
+
+/** Pages sent to the search indexer before waiting for its answers. */
+const pagesInFlight = 16;
 
 /** The attribute that marks a page's searchable part. */
 const bodyMark = 'data-pagefind-body';
@@ -27,28 +30,43 @@ export async function finishPages(dir: string, options: { index: boolean }): Pro
       if (!created.index) throw new Error(`pagefind: ${created.errors.join('; ')}`);
       index = created.index;
     }
+    // Pages are sent to the indexer without waiting for each answer, a few at a time, so that it indexes while the
+    // next pages are read and kept whole. It takes its requests one by one in the order they arrive, so the index
+    // is the same as with every page awaited in turn.
+    const pending: Array<Promise<void>> = [];
+    // The first failure is kept and thrown when the pages in flight are collected (never left unhandled).
+    let failure: Error | undefined;
+    const settle = async () => {
+      await Promise.all(pending.splice(0));
+      if (failure) throw failure;
+    };
     const add = async (path: string, content: string) => {
-      const added = await index!.addHTMLFile({ sourcePath: path, content });
-      if (added.errors.length) throw new Error(`pagefind: ${path}: ${added.errors.join('; ')}`);
+      pending.push(index!.addHTMLFile({ sourcePath: path, content }).then(
+        (added) => { if (added.errors.length) failure ??= new Error(`pagefind: ${path}: ${added.errors.join('; ')}`); },
+        (error: unknown) => { failure ??= error instanceof Error ? error : new Error(String(error)); },
+      ));
+      if (pending.length >= pagesInFlight) await settle();
     };
     const unmarked: string[] = [];
     let marked = 0;
     for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
       const file = join(dir, ...path.split('/'));
-      const html = readFileSync(file, 'utf8');
-      const kept = keepTokensWhole(html);
-      if (kept !== html) writeFileSync(file, kept);
+      const page = readFileSync(file);
+      const kept = keepTokensWholeInBytes(page);
+      if (kept !== page) writeFileSync(file, kept);
       if (!index) continue;
-      // A mention of the attribute in a page's text only sends one page more: pagefind still decides.
-      if (kept.includes(bodyMark)) {
+      // A mention of the attribute in a page's text only sends one page more: pagefind still decides. Only the
+      // pages sent are decoded.
+      if (kept.includes(bodyMark, 0, 'latin1')) {
         marked++;
-        await add(path, kept);
+        await add(path, kept.toString('utf8'));
       } else {
         unmarked.push(path);
       }
     }
     if (!index) return;
     if (marked === 0) for (const path of unmarked) await add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
+    await settle();
     const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
     if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
   } finally {

@@ -1,12 +1,17 @@
 // Tags, document ids and dates must never break across lines ("AI-/210", "2026-04-/06" read wrong on a tablet).
 // Browsers may break after any hyphen, so every such token in the text of a page's body is wrapped in a span
 // that does not wrap. Markup, attributes, scripts, styles, SVG and the head are left exactly as they are.
+//
+// Every pattern here is written in ASCII (the whitespace that ends a closing tag is HTML's own, not any Unicode
+// space), so the same function works on a page's UTF-8 bytes read as Latin-1 characters, one character per byte:
+// no byte of a multi-byte character can match, and the spans it adds are ASCII. The build keeps tokens whole that
+// way, which spares decoding and encoding every page (keepTokensWholeInBytes).
 
 /** A plant tag or document id (upper-case letters and digits joined by hyphens, at least one digit), or a date. */
 const token = /\d{4}-\d{2}-\d{2}(?:[T ]\d{2}:\d{2}(?::\d{2})?)?|(?<![\w-])[A-Z][A-Z0-9]*(?:-[A-Z0-9]+)+(?![\w-])/g;
 
 /** Segments that are not text: whole elements whose content is not flowing text, comments, and single tags. */
-const skip = /(<(script|style|title|textarea|template|noscript)\b[\s\S]*?<\/\2\s*>|<!--[\s\S]*?-->|<(?:[^>"']|"[^"]*"|'[^']*')*>)/gi;
+const skip = /(<(script|style|title|textarea|template|noscript)\b[\s\S]*?<\/\2[ \t\n\f\r]*>|<!--[\s\S]*?-->|<(?:[^>"']|"[^"]*"|'[^']*')*>)/gi;
 
 /** The end of the <svg> element opening at `from` (SVG may nest: a symbol drawn inside a chart). */
 function svgEnd(html: string, from: number): number {
@@ -46,4 +51,11 @@ export function keepTokensWhole(html: string): string {
 function wrapText(text: string): string {
   if (!text) return text;
   return text.replace(token, (t) => (/\d/.test(t) ? `<span class="${noBreakClass}">${t}</span>` : t));
+}
+
+/** keepTokensWhole on a page's UTF-8 bytes, without decoding them: the same bytes as decoding, wrapping and encoding. */
+export function keepTokensWholeInBytes(page: Buffer): Buffer {
+  const bytes = page.toString('latin1');
+  const kept = keepTokensWhole(bytes);
+  return kept === bytes ? page : Buffer.from(kept, 'latin1');
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { keepTokensWhole } from '../../src/render/keep-tokens-whole.ts';
+import { keepTokensWhole, keepTokensWholeInBytes } from '../../src/render/keep-tokens-whole.ts';
 
 describe('keepTokensWhole', () => {
   it('wraps tags, document ids and dates in the body text only', () => {
@@ -27,5 +27,20 @@ describe('keepTokensWhole', () => {
       const html = `<body>${parts.join('')}</body>`;
       expect(keepTokensWhole(html).replace(/<span class="nb">|<\/span>/g, '')).toBe(html);
     }));
+  });
+  it('gives on a page\'s bytes exactly the bytes of wrapping the decoded page (property)', () => {
+    // Characters of one, two, three and four bytes in UTF-8 beside the tokens, the tags and the whitespace that
+    // closes a tag, Unicode spaces included (U+00A0 is also the last byte of "à" in UTF-8).
+    const piece = fc.constantFrom('K-210', ' ', 'é', 'à', '\u00a0', '—', '≥', '°C', '𝜇', '\u2028', 'ÄB-1', 'TI-2101·', '<p>', '</p>',
+      '<script>x = "XV-1";</script\u00a0>', '</script >', '<style>a{}</style>', '<svg><text>Q-1 —</text></svg>', '2026-01-02', '<!-- P-1 -->', '<b title="à > K-1">', 'x');
+    fc.assert(fc.property(fc.array(piece, { maxLength: 40 }), (parts) => {
+      const html = `<html><head><title>T-1 —</title></head><body>${parts.join('')}</body></html>`;
+      const bytes = Buffer.from(html, 'utf8');
+      expect(keepTokensWholeInBytes(bytes).equals(Buffer.from(keepTokensWhole(html), 'utf8'))).toBe(true);
+    }), { numRuns: 500 });
+  });
+  it('hands back the very same bytes when there is nothing to wrap', () => {
+    const page = Buffer.from('<body><p>Nothing here — at 25 °C.</p></body>', 'utf8');
+    expect(keepTokensWholeInBytes(page)).toBe(page);
   });
 });
