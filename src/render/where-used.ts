@@ -17,8 +17,22 @@ export interface TagUse {
 /** True when `tag` appears in `text` as a whole token (tags contain hyphens, so word boundaries are not enough). */
 export function mentionsTag(text: string, tag: string): boolean {
   if (!tag) return false;
-  const escaped = tag.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
-  return new RegExp(`(?<![A-Za-z0-9_-])${escaped}(?![A-Za-z0-9_-])`).test(text);
+  return tagPattern(tag).test(text);
+}
+
+/** Each tag's pattern is made once: a manual asks about the same few hundred tags in every step of every procedure. */
+const patterns = new Map<string, RegExp>();
+
+function tagPattern(tag: string): RegExp {
+  let pattern = patterns.get(tag);
+  if (!pattern) {
+    // A long-running live preview meets new tags with every edit: start again rather than grow without end.
+    if (patterns.size >= 20_000) patterns.clear();
+    const escaped = tag.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+    pattern = new RegExp(`(?<![A-Za-z0-9_-])${escaped}(?![A-Za-z0-9_-])`);
+    patterns.set(tag, pattern);
+  }
+  return pattern;
 }
 
 /** Decision conditions belong to the step that waits for them: the step right before the choose block. */
@@ -48,8 +62,9 @@ export function tagUsesIn(procedure: Procedure, facts: ProcedureFacts, numbers: 
   const add = (tag: string, use: TagUse) => uses.set(tag, [...(uses.get(tag) ?? []), use]);
   const steps = facts.steps.map((s) => s.step);
   const decisions = decisionTexts(procedure.steps);
+  const texts = new Map(steps.map((s) => [s, stepText(s, decisions)]));
   const stepsWhere = (test: (step: Step, text: string) => boolean) =>
-    steps.filter((s) => test(s, stepText(s, decisions))).map((s) => ({ id: s.id, number: numbers.ofStep.get(s.id) ?? '?', action: s.actions.join('; ') }));
+    steps.filter((s) => test(s, texts.get(s)!)).map((s) => ({ id: s.id, number: numbers.ofStep.get(s.id) ?? '?', action: s.actions.join('; ') }));
 
   for (const tag of procedure.equipment) add(tag, { role: 'equipment', procedureId: procedure.id, steps: stepsWhere((_, text) => mentionsTag(text, tag)) });
 
