@@ -5,6 +5,7 @@
 import { createHash } from 'node:crypto';
 import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
+import { Worker } from 'node:worker_threads';
 
 /** Bumped when the layout of an entry changes; part of every key. */
 const entryFormat = 'stepwright-cache-1';
@@ -13,6 +14,8 @@ export interface ResultCache {
   /** The value stored under the key, or undefined when there is none or it cannot be trusted. */
   get<T>(key: string): T | undefined;
   set(key: string, value: unknown): void;
+  /** Waits until every entry set so far is on disk (or given up on): call before the run ends. */
+  flush(): Promise<void>;
   /** Entries found and used, missed, and refused as corrupt or stale in this run. */
   readonly stats: { hits: number; misses: number; refused: number };
 }
@@ -34,6 +37,8 @@ export function openResultCache(dir: string): ResultCache {
   const stats = { hits: 0, misses: 0, refused: 0 };
   const pathOf = (key: string) => join(dir, key.slice(0, 2), `${key}.json`);
   let broken = false;
+  let written = 0;
+  const writer = entryWriter();
   return {
     stats,
     get<T>(key: string): T | undefined {
@@ -65,21 +70,115 @@ export function openResultCache(dir: string): ResultCache {
       if (broken) return;
       const path = pathOf(key);
       const body = JSON.stringify(value);
-      const tmp = `${path}.tmp-${process.pid}-${Math.random().toString(36).slice(2)}`;
-      try {
-        mkdirSync(dirname(path), { recursive: true });
-        // Written aside and renamed into place: a reader never sees half an entry from this writer.
-        writeFileSync(tmp, `{"format":${JSON.stringify(entryFormat)},"key":${JSON.stringify(key)},"sum":${JSON.stringify(sumOf(body))},"value":${body}}`);
-        renameSync(tmp, path);
-      } catch {
-        // A full disk or a read-only folder: go on without caching rather than fail the check.
-        broken = true;
-        try {
-          rmSync(tmp, { force: true });
-        } catch {
-          // Nothing was written.
-        }
+      const entry = `{"format":${JSON.stringify(entryFormat)},"key":${JSON.stringify(key)},"sum":${JSON.stringify(sumOf(body))},"value":${body}}`;
+      written++;
+      // A large first run (hundreds of files) hands its writes to a thread of their own: the files are opened,
+      // written and renamed there while the rules go on checking. A small one writes them here.
+      if (written > writtenHere && !writer.failed) {
+        writer.write(path, entry);
+        return;
       }
+      if (!writeEntry(path, entry)) broken = true;
+    },
+    async flush(): Promise<void> {
+      await writer.finish();
+    },
+  };
+}
+
+/** Entries a run writes itself before it hands the rest to the writing thread. */
+const writtenHere = 64;
+
+/** Writes an entry aside and renames it into place, so a reader never sees half an entry. False when it could not. */
+function writeEntry(path: string, entry: string): boolean {
+  const tmp = `${path}.tmp-${process.pid}-${Math.random().toString(36).slice(2)}`;
+  try {
+    mkdirSync(dirname(path), { recursive: true });
+    writeFileSync(tmp, entry);
+    renameSync(tmp, path);
+    return true;
+  } catch {
+    // A full disk or a read-only folder: go on without caching rather than fail the check.
+    try {
+      rmSync(tmp, { force: true });
+    } catch {
+      // Nothing was written.
+    }
+    return false;
+  }
+}
+
+/** The writing thread's own code: the same steps as writeEntry, one message per entry; stops at the first failure. */
+const writerSource = `
+const { parentPort, threadId } = require('node:worker_threads');
+const { mkdirSync, writeFileSync, renameSync, rmSync } = require('node:fs');
+const { dirname } = require('node:path');
+let failed = false;
+const made = new Set();
+parentPort.on('message', (message) => {
+  if (message === 'finish') return parentPort.postMessage({ finished: true, failed });
+  if (failed) return;
+  const [path, entry] = message;
+  const tmp = path + '.tmp-' + process.pid + '-' + threadId + '-' + Math.random().toString(36).slice(2);
+  try {
+    const dir = dirname(path);
+    if (!made.has(dir)) { mkdirSync(dir, { recursive: true }); made.add(dir); }
+    writeFileSync(tmp, entry);
+    renameSync(tmp, path);
+  } catch {
+    failed = true;
+    try { rmSync(tmp, { force: true }); } catch {}
+  }
+});
+`;
+
+interface EntryWriter {
+  /** True once the thread could not be started or stopped writing: entries are then not cached. */
+  readonly failed: boolean;
+  write(path: string, entry: string): void;
+  finish(): Promise<void>;
+}
+
+/** The thread that writes a large run's entries, started on the first entry it is given. */
+function entryWriter(): EntryWriter {
+  let worker: Worker | undefined;
+  let failed = false;
+  let done: Promise<void> | undefined;
+  const stop = () => {
+    failed = true;
+    void worker?.terminate();
+  };
+  return {
+    get failed() { return failed; },
+    write(path, entry) {
+      if (!worker) {
+        try {
+          worker = new Worker(writerSource, { eval: true });
+        } catch {
+          failed = true;
+          return;
+        }
+        worker.on('error', stop);
+        // Never what keeps the process alive; finish() holds it until the entries are written.
+        worker.unref();
+      }
+      worker.postMessage([path, entry]);
+    },
+    finish() {
+      if (!worker || failed) return Promise.resolve();
+      const running = worker;
+      done ??= new Promise<void>((resolve) => {
+        const end = () => {
+          void running.terminate();
+          resolve();
+        };
+        running.once('message', end);
+        running.once('error', end);
+        running.once('exit', end);
+        running.ref();
+        running.postMessage('finish');
+      });
+      return done;
     },
   };
 }

@@ -107,11 +107,15 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   let repo: Repository | undefined;
   if (history && 'previous' in history) ({ previous, repo } = history);
   else if (fromGit) ({ previous, repo } = await fromGit);
+  const cache = request.cache === false ? undefined : commandCache(request, config.file?.text);
   const checked = checkSources(inputs, {
     today, previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
     ...(partial ? { partial } : {}),
-    cache: request.cache === false ? undefined : commandCache(request, config.file?.text),
+    cache,
   });
+  // A large run's entries are written on a thread of their own while the rules check: they are all on disk (or
+  // given up on) before the run reports.
+  await cache?.store.flush();
   const skippedNotes = skipped.map((s): Diagnostic => ({
     file: s.file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'info', rule: 'not-a-procedure',
     message: `Skipped: ${s.file} is not a procedure (${s.reason}).`,

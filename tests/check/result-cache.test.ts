@@ -25,6 +25,31 @@ const withText = (inputs: SourceInput[], file: string, edit: (text: string) => s
 const noisy = (text: string) => text.replace(/\bdo: /, 'do: Adjust the valve as required and check it. ');
 
 describe('result cache', () => {
+  it('writes a large run\'s entries on its own thread: all of them are there, whole, once the run is flushed', async () => {
+    const store = openResultCache(dir);
+    const values = Array.from({ length: 300 }, (_, i) => ({ i, text: `XV-${2100 + i} ${'x'.repeat(i * 37)}` }));
+    values.forEach((v, i) => store.set(cacheKey([`entry ${i}`]), v));
+    await store.flush();
+    expect(entries()).toHaveLength(300);
+    // No half-written file is left beside them.
+    expect(readdirSync(dir, { recursive: true }).map(String).filter((f) => f.includes('.tmp-'))).toEqual([]);
+    const again = openResultCache(dir);
+    values.forEach((v, i) => expect(again.get(cacheKey([`entry ${i}`]))).toEqual(v));
+    expect(again.stats).toMatchObject({ hits: 300, misses: 0, refused: 0 });
+    // Flushing again, or a store that wrote nothing, waits for nothing.
+    await store.flush();
+    await openResultCache(dir).flush();
+  });
+
+  it('gives up on caching, not on the check, when the folder cannot be written from the writing thread', async () => {
+    const file = join(dir, 'not-a-folder');
+    writeFileSync(file, '');
+    const store = openResultCache(file);
+    for (let i = 0; i < 200; i++) store.set(cacheKey([`entry ${i}`]), { i });
+    await store.flush();
+    expect(openResultCache(file).get(cacheKey(['entry 150']))).toBeUndefined();
+  });
+
   it('gives the same diagnostics warm as cold, from the cache', () => {
     const inputs = withText(demo, demo[0].file, noisy);
     const cold = check(inputs);
