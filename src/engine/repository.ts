@@ -17,21 +17,29 @@ export interface Repository {
 
 /**
  * The repository around `at` (a file or folder; default the working folder). Pass the procedures folder:
- * history belongs to the repository that holds the procedures, wherever the command was started.
+ * history belongs to the repository that holds the procedures, wherever the command was started. With `base`, the
+ * same git process also resolves that ref to its commit (`commit`, absent when the ref is not in the clone).
  */
-export async function openRepository(io: { cwd: string; env?: Record<string, string | undefined> }, at?: string): Promise<Repository | undefined> {
+export async function openRepository(io: { cwd: string; env?: Record<string, string | undefined> }, at?: string, base?: string): Promise<(Repository & { commit?: string }) | undefined> {
   const start = existingFolder(resolve(io.cwd, at ?? '.'));
+  // A ref never starts with '-' (git check-ref-format): such a base is left to resolveCommit to refuse, not read
+  // as an option here.
+  const ref = base !== undefined && !base.startsWith('-') ? [`--revs-only`, `${base}^{commit}`] : [];
   // git runs with the process environment (PATH, HOME, GIT_*), not the CLI's injected variables.
   let lines: string[];
   try {
-    // One git process for both answers: this runs before every check.
-    lines = (await gitIn(start)(['rev-parse', '--show-toplevel', '--is-shallow-repository'])).split('\n');
+    // One git process for all three answers: this runs before every check, and each git process costs the
+    // checker tens of milliseconds to start.
+    lines = (await gitIn(start)(['rev-parse', '--show-toplevel', '--is-shallow-repository', ...ref])).split('\n');
   } catch {
     return undefined;
   }
-  const [root, shallow = 'false'] = lines;
+  const [root, shallow = 'false', commit = ''] = lines;
   if (!root) return undefined;
-  return { git: gitIn(root), root, cwd: io.cwd, shallow: shallow.trim() === 'true' };
+  return {
+    git: gitIn(root), root, cwd: io.cwd, shallow: shallow.trim() === 'true',
+    ...(/^[0-9a-f]{40,64}$/.test(commit.trim()) ? { commit: commit.trim() } : {}),
+  };
 }
 
 /** A file name as the CLI shows it (relative to the working folder, or absolute) → a path relative to the repository root. */
@@ -82,12 +90,12 @@ export async function previousFromGit(
   /** Where the procedures are (default: the first file read): its repository holds their history. */
   at?: string,
 ): Promise<{ previous?: (file: string) => PreviousVersion | undefined; repo?: Repository }> {
-  const repo = await openRepository(io, at ?? inputs.find((i) => 'text' in i)?.file);
+  const repo = await openRepository(io, at ?? inputs.find((i) => 'text' in i)?.file, base ?? 'HEAD');
   if (!repo) return {};
   const files = inputs.flatMap((i) => ('text' in i ? [{ file: i.file, path: repoPath(repo, resolve(io.cwd, i.file)) }] : []));
   let found: Map<string, PreviousVersion>;
   try {
-    found = await previousVersions(repo.git, files, base ?? 'HEAD');
+    found = await previousVersions(repo.git, files, base ?? 'HEAD', repo.commit);
   } catch (error) {
     // Before the first commit there is no HEAD and so no history; a missing --base is the user's to fix.
     if (base === undefined && error instanceof GitError && !error.missingGit) return { repo };

@@ -12,9 +12,10 @@ export interface PreviousVersion {
  * `check` uses HEAD, so it judges the uncommitted change; `review` uses the pull request's base.
  * Keys and `files[].path` are paths relative to the repository root.
  */
-export async function previousVersions(git: Git, files: Array<{ path: string }>, base: string): Promise<Map<string, PreviousVersion>> {
+export async function previousVersions(git: Git, files: Array<{ path: string }>, base: string, resolved?: string): Promise<Map<string, PreviousVersion>> {
   const found = new Map<string, PreviousVersion>();
-  const commit = await resolveCommit(git, base);
+  // The commit when the caller has resolved the base already; else (or to say why it cannot be found) here.
+  const commit = resolved ?? (await resolveCommit(git, base));
   // The files under their names now and the renames since are read at once (two git processes side by side);
   // a file renamed since is then read under its old name.
   const [oldPaths, underNewNames] = await Promise.all([

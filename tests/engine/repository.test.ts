@@ -1,0 +1,45 @@
+// The repository that holds the procedures, found with one git process that also resolves the base ref.
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { openRepository, previousFromGit } from '../../src/engine/repository.ts';
+
+const dir = mkdtempSync(join(tmpdir(), 'stepwright-repository-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+const git = (...args: string[]) => execFileSync('git', args, { cwd: dir, encoding: 'utf8', env: { ...process.env, GIT_AUTHOR_NAME: 'T', GIT_AUTHOR_EMAIL: 't@example.org', GIT_COMMITTER_NAME: 'T', GIT_COMMITTER_EMAIL: 't@example.org' } }).trim();
+git('init', '-q', '-b', 'main');
+writeFileSync(join(dir, 'a.md'), 'first\n');
+git('add', '.');
+git('commit', '-q', '-m', 'first');
+const head = git('rev-parse', 'HEAD');
+writeFileSync(join(dir, 'a.md'), 'second\n');
+
+describe('openRepository', () => {
+  it('finds the root and resolves the base in the same call', async () => {
+    const repo = await openRepository({ cwd: dir }, 'a.md', 'main');
+    expect(repo?.commit).toBe(head);
+    expect(repo?.shallow).toBe(false);
+    expect((await openRepository({ cwd: dir }, 'a.md'))?.commit).toBeUndefined();
+  });
+
+  it('gives no commit for a base the clone does not have, or one that would read as an option', async () => {
+    expect((await openRepository({ cwd: dir }, '.', 'origin/nowhere'))?.commit).toBeUndefined();
+    const odd = await openRepository({ cwd: dir }, '.', '--all');
+    expect(odd?.root).toBeTruthy();
+    expect(odd?.commit).toBeUndefined();
+  });
+});
+
+describe('previousFromGit', () => {
+  it('reads the committed text at the base', async () => {
+    const { previous } = await previousFromGit([{ file: 'a.md', text: 'second\n' }], { cwd: dir }, 'main');
+    expect(previous?.('a.md')).toEqual({ text: 'first\n', commit: `main (${head.slice(0, 7)})` });
+  });
+
+  it('says how to fetch a base that is not in the clone', async () => {
+    await expect(previousFromGit([{ file: 'a.md', text: 'second\n' }], { cwd: dir }, 'origin/nowhere')).rejects.toThrow(/not in this clone/);
+    await expect(previousFromGit([{ file: 'a.md', text: 'second\n' }], { cwd: dir }, '--all')).rejects.toThrow(/not in this clone/);
+  });
+});
