@@ -16,17 +16,17 @@ export async function previousVersions(git: Git, files: Array<{ path: string }>,
   const found = new Map<string, PreviousVersion>();
   // The commit when the caller has resolved the base already; else (or to say why it cannot be found) here.
   const commit = resolved ?? (await resolveCommit(git, base));
-  // The files under their names now and the renames since are read at once (two git processes side by side);
-  // a file renamed since is then read under its old name.
-  const [oldPaths, underNewNames] = await Promise.all([
-    pathsAtBase(git, commit),
-    showFiles(git, files.map(({ path }) => `${commit}:${path}`)),
-  ]);
+  // The files under their names now; only those the base has not got under that name can have been renamed since
+  // (a rename's new name is new at the base), so the renames are asked for only then: each git process costs the
+  // checker tens of milliseconds to start.
+  const underNewNames = await showFiles(git, files.map(({ path }) => `${commit}:${path}`));
+  const missing = files.filter(({ path }) => underNewNames.get(`${commit}:${path}`) === undefined);
+  const oldPaths = missing.length ? await pathsAtBase(git, commit) : new Map<string, string>();
+  const renamed = new Set(missing.filter(({ path }) => oldPaths.has(path)).map(({ path }) => path));
   const specOf = (path: string) => `${commit}:${oldPaths.get(path) ?? path}`;
-  const renamed = files.filter(({ path }) => oldPaths.has(path));
-  const underOldNames = renamed.length ? await showFiles(git, renamed.map(({ path }) => specOf(path))) : new Map<string, string | undefined>();
+  const underOldNames = renamed.size ? await showFiles(git, [...renamed].map(specOf)) : new Map<string, string | undefined>();
   for (const { path } of files) {
-    const text = oldPaths.has(path) ? underOldNames.get(specOf(path)) : underNewNames.get(specOf(path));
+    const text = renamed.has(path) ? underOldNames.get(specOf(path)) : underNewNames.get(`${commit}:${path}`);
     if (text !== undefined) found.set(path, { text, commit: describeBase(base, commit) });
   }
   return found;

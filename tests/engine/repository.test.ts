@@ -11,10 +11,15 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 const git = (...args: string[]) => execFileSync('git', args, { cwd: dir, encoding: 'utf8', env: { ...process.env, GIT_AUTHOR_NAME: 'T', GIT_AUTHOR_EMAIL: 't@example.org', GIT_COMMITTER_NAME: 'T', GIT_COMMITTER_EMAIL: 't@example.org' } }).trim();
 git('init', '-q', '-b', 'main');
 writeFileSync(join(dir, 'a.md'), 'first\n');
+writeFileSync(join(dir, 'b.md'), 'a procedure long enough for git to see it moved\nline two\nline three\nline four\n');
 git('add', '.');
 git('commit', '-q', '-m', 'first');
 const head = git('rev-parse', 'HEAD');
 writeFileSync(join(dir, 'a.md'), 'second\n');
+// Renamed since the commit (and edited a little), and a file the base has not got at all.
+git('mv', 'b.md', 'c.md');
+writeFileSync(join(dir, 'c.md'), 'a procedure long enough for git to see it moved\nline two\nline three\nline four, edited\n');
+writeFileSync(join(dir, 'd.md'), 'new\n');
 
 describe('openRepository', () => {
   it('finds the root and resolves the base in the same call', async () => {
@@ -36,6 +41,14 @@ describe('previousFromGit', () => {
   it('reads the committed text at the base', async () => {
     const { previous } = await previousFromGit([{ file: 'a.md', text: 'second\n' }], { cwd: dir }, 'main');
     expect(previous?.('a.md')).toEqual({ text: 'first\n', commit: `main (${head.slice(0, 7)})` });
+  });
+
+  it('reads a file renamed since the base under its old name, and nothing for a file the base has not got', async () => {
+    const inputs = ['a.md', 'c.md', 'd.md'].map((file) => ({ file, text: '' }));
+    const { previous } = await previousFromGit(inputs, { cwd: dir }, 'main');
+    expect(previous?.('a.md')?.text).toBe('first\n');
+    expect(previous?.('c.md')?.text).toBe('a procedure long enough for git to see it moved\nline two\nline three\nline four\n');
+    expect(previous?.('d.md')).toBeUndefined();
   });
 
   it('says how to fetch a base that is not in the clone', async () => {
