@@ -1,6 +1,7 @@
 // Runs every rule over a set of procedure sources and returns the diagnostics, sorted by place.
 import { compareDiagnostics, type Diagnostic, type Severity } from '../parse/diagnostic.ts';
-import { readSource, type ParsedSource } from '../parse/read-source.ts';
+import { readSource, type ParsedSource, type SourceParts } from '../parse/read-source.ts';
+import { startSourceReader, type SourceReader } from '../parse/source-reader.ts';
 import type { Procedure } from '../model/procedure.ts';
 import type { PlantRegister } from '../model/register.ts';
 import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
@@ -38,6 +39,8 @@ export interface CheckOptions {
    * the date and its previous version: the Stepwright code (stepwrightStamp()) and the configuration text.
    */
   cache?: { store: ResultCache; salt: string };
+  /** Read a large run's files on a second thread as well (default true); the results are the same either way. */
+  readAhead?: boolean;
 }
 
 export interface CheckedFile {
@@ -87,6 +90,10 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   // rule, a waiver or a caller asks for its model.
   const keys: string[] = [];
   const toCheck: LazyFileContext[] = [];
+  // A large run's files are read on a thread of their own as well (parse/source-reader.ts), in the order below.
+  const toRead: Array<{ file: string; text: string }> = [];
+  let reader: SourceReader | undefined;
+  const partsOf = (file: string) => reader?.take(file);
   const setCurrent = new Map<FileContext, (meta: RuleMeta) => void>();
   for (const input of inputs) {
     const previous = 'text' in input ? options.previous?.(input.file) : undefined;
@@ -100,7 +107,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     const context = lazyFileContext(input, previous, options, (report) => {
       if (expansionCategories.has(current.category)) ownFindings.get(context)?.push({ rule: current, report });
       emit(context, current, report);
-    }, !known);
+    }, !known, partsOf);
     sink.set(context, []);
     contexts.push(context);
     if (known) {
@@ -112,7 +119,9 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     setCurrent.set(context, (meta) => (current = meta));
     if (key) fileKeys.set(context, key);
     toCheck.push(context);
+    if ('text' in input) toRead.push({ file: input.file, text: input.text });
   }
+  reader = options.readAhead === false ? undefined : startSourceReader(toRead);
   // Work the rules can start ahead for every file (the English model tags on its own thread) is started before any
   // rule runs, so that it goes on while the rules check the first files. It only ever changes when work is done.
   for (const rule of rules) {
@@ -139,6 +148,10 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     const key = fileKeys.get(context);
     if (key) store!.set(key, { diagnostics: sink.get(context)!, summary: context.summary } satisfies CachedFile);
   }
+
+  // Every file the rules check has been read: the cross-file rules read any other file on this thread.
+  reader?.stop();
+  reader = undefined;
 
   const registerDiagnostics: Diagnostic[] = [];
   const register = options.register;
@@ -244,13 +257,14 @@ interface LazyFileContext extends FileContext {
 
 function lazyFileContext(
   input: SourceInput, previous: { text: string; commit: string } | undefined, options: CheckOptions, report: (r: Report) => void, full: boolean,
+  partsOf?: (file: string) => SourceParts | undefined,
 ): LazyFileContext {
   let read: (ReturnType<typeof readProcedure> & { readError?: string }) | undefined;
   const reading = () => {
     if (read) return read;
     if ('error' in input) return (read = { ...unreadable(input.file), readError: input.error });
     try {
-      read = readProcedure(input.file, input.text, options.register);
+      read = readProcedure(input.file, input.text, options.register, partsOf?.(input.file));
       if (full) void read.facts;
     } catch (error) {
       // Whatever a file holds, the check goes on and the file gets a diagnostic: never a crash of the whole run.

@@ -1,5 +1,5 @@
-// Reads a procedure file into YAML nodes that keep their positions and an mdast tree of the body.
-import { LineCounter, parseDocument, isMap, isSeq, isScalar, isPair, isNode, type Document, type Node, type Pair } from 'yaml';
+// Reads a procedure file: the front-matter's data with a table of where each value is written, and an mdast tree of the body.
+import { LineCounter, parseDocument, isMap, isSeq, type Document } from 'yaml';
 import { unified } from 'unified';
 import remarkParse from 'remark-parse';
 import type { Root } from 'mdast';
@@ -7,6 +7,7 @@ import type { Diagnostic, SourceRange } from './diagnostic.ts';
 import { splitFrontMatter } from './split-front-matter.ts';
 import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesting-prescan.ts';
 import { groupDigits } from './group-digits.ts';
+import { locateIn, positionTable, type PositionTable } from './yaml-positions.ts';
 
 export type PathKey = string | number;
 
@@ -34,21 +35,55 @@ export interface ParsedSource {
   release(): void;
 }
 
+/**
+ * What reading a file finds, in plain data that can be sent to another thread: no YAML document, no functions.
+ * A source made from these parts (readSource's `given`) reads its YAML document again only when a position is
+ * asked for.
+ */
+export interface SourceParts {
+  data: unknown;
+  body: Root;
+  diagnostics: Diagnostic[];
+  /** The front-matter text the YAML document is read from; null when the file has none. */
+  yamlText: string | null;
+  /** Where each node of the YAML document is written (null when the file has no front-matter). */
+  positions: PositionTable | null;
+}
+
 const limits = { maxAliasCount: 100, maxDepth: 200 };
 
-export function readSource(file: string, text: string): ParsedSource {
+type Split = ReturnType<typeof splitFrontMatter>;
+type At = (offset: number, endOffset?: number) => SourceRange;
+
+/** The file's lines, and the range of a span of it. */
+function positionsIn(text: string): { split: Split; at: At; bodyStartLine: number } {
   const split = splitFrontMatter(text);
   const fileLines = createOffsetToPosition(text);
-  const diagnostics: Diagnostic[] = [];
-  const bodyStartLine = fileLines(split.bodyOffset).line;
-  let doc: Document.Parsed | null = null;
-  let data: unknown = null;
-
   const at = (offset: number, endOffset = offset): SourceRange => {
     const s = fileLines(offset);
     const e = fileLines(Math.max(offset, endOffset));
     return { line: s.line, column: s.column, endLine: e.line, endColumn: e.column };
   };
+  return { split, at, bodyStartLine: fileLines(split.bodyOffset).line };
+}
+
+/** Reads a file; with `given` (the parts another thread read from the same text), only assembles the source. */
+export function readSource(file: string, text: string, given?: SourceParts): ParsedSource {
+  const where = positionsIn(text);
+  // The document itself is let go at once: positions come from the parts' table.
+  return assemble(file, text, where, given ?? readParts(file, text, where).parts, null);
+}
+
+/** The parts of a file as readSource reads them, for sending to another thread. */
+export function readSourceParts(file: string, text: string): SourceParts {
+  return readParts(file, text, positionsIn(text)).parts;
+}
+
+function readParts(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>): { parts: SourceParts; doc: Document.Parsed | null } {
+  const diagnostics: Diagnostic[] = [];
+  let doc: Document.Parsed | null = null;
+  let data: unknown = null;
+  const fileLines = (offset: number) => at(offset);
 
   // The markdown parser slows steeply with nesting and can overflow the stack, so absurd bodies are refused first.
   const bodyProblem = prescanBodyNesting(split.body);
@@ -143,64 +178,44 @@ export function readSource(file: string, text: string): ParsedSource {
       ? frontMatterShapeProblem(data, split.yaml, split.body)
       : null;
     if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
-    // Positions from the YAML document are offsets into the YAML text; shift them into the file.
-    const base = split.yamlOffset;
-    let kept: Document.Parsed | null = doc;
-    // The same text read with the same options: the same nodes at the same offsets.
-    const document = (): Document.Parsed => (kept ??= parseDocument(yamlText, { prettyErrors: false, uniqueKeys: true, strict: true }));
-    const nodeRange = (node: Node | Pair | null | undefined): [number, number] | null => {
-      if (!node) return null;
-      if (isPair(node)) {
-        const k = nodeRange(node.key as Node);
-        const v = nodeRange(node.value as Node);
-        if (k && v) return [k[0], v[1]];
-        return k ?? v;
-      }
-      const range = (node as Node).range;
-      return range ? [range[0], range[1]] : null;
-    };
-    const locate = (path: readonly PathKey[], part: 'key' | 'value'): { node: Node | null; key: Node | null } => {
-      let current: unknown = document().contents;
-      let lastKey: Node | null = null;
-      for (const segment of path) {
-        if (isMap(current)) {
-          const pair = current.items.find((p) => (isScalar(p.key) ? String(p.key.value) : String(p.key)) === String(segment));
-          if (!pair) break;
-          lastKey = isNode(pair.key) ? pair.key : null;
-          current = pair.value;
-          if (current === null) { current = pair.key; break; }
-        } else if (isSeq(current)) {
-          const item = current.items[Number(segment)];
-          if (item === undefined) break;
-          lastKey = null;
-          current = item;
-        } else break;
-      }
-      return { node: isNode(current) ? current : null, key: part === 'key' ? lastKey : null };
-    };
-    const rangeOf = (path: readonly PathKey[], part: 'key' | 'value' = 'value'): SourceRange => {
-      const { node, key } = locate(path, part);
-      const r = nodeRange(part === 'key' && key ? key : node);
-      if (!r) return at(base);
-      return at(base + r[0], base + trimTrailingSpace(split.yaml!, r[0], r[1]));
-    };
-    const rangeInScalar = (path: readonly PathKey[], from: number, to: number): SourceRange => {
-      const { node } = locate(path, 'value');
-      if (!node || !isScalar(node) || !node.range) return rangeOf(path);
-      const quoted = node.type === 'QUOTE_DOUBLE' || node.type === 'QUOTE_SINGLE';
-      const isBlock = node.type === 'BLOCK_LITERAL' || node.type === 'BLOCK_FOLDED';
-      if (isBlock) return rangeOf(path);
-      const start = base + node.range[0] + (quoted ? 1 : 0);
-      return at(start + from, start + to);
-    };
-    return {
-      file, text, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar,
-      get doc() { return document(); },
-      release() { kept = null; },
-    };
+    return { parts: { data, body, diagnostics, yamlText, positions: positionTable(doc) }, doc };
   }
-  const rangeOf = (): SourceRange => at(0);
-  return { file, text, doc, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar: rangeOf, release() {} };
+  return { parts: { data, body, diagnostics, yamlText: null, positions: null }, doc };
+}
+
+/**
+ * The source with its positions. Positions come from the table of the YAML document's nodes, which answers as the
+ * document would; the document itself is not kept (it is read again from the same text if asked for).
+ */
+function assemble(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, parts: SourceParts, doc: Document.Parsed | null): ParsedSource {
+  const { data, body, diagnostics, yamlText, positions } = parts;
+  if (yamlText === null || positions === null || split.yaml === null) {
+    const rangeOf = (): SourceRange => at(0);
+    return { file, text, doc: null, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar: rangeOf, release() {} };
+  }
+  const yaml = split.yaml;
+  // Positions in the table are offsets into the YAML text; shift them into the file.
+  const base = split.yamlOffset;
+  let kept: Document.Parsed | null = doc;
+  const rangeOf = (path: readonly PathKey[], part: 'key' | 'value' = 'value'): SourceRange => {
+    const { node, key } = locateIn(positions, path, part);
+    const r = (part === 'key' && key ? key : node)?.r;
+    if (!r) return at(base);
+    return at(base + r[0], base + trimTrailingSpace(yaml, r[0], r[1]));
+  };
+  const rangeInScalar = (path: readonly PathKey[], from: number, to: number): SourceRange => {
+    const { node } = locateIn(positions, path, 'value');
+    // Not a scalar, no range, or a block scalar (its characters are not where the string's are): the whole value.
+    if (!node || node.t === 0 || node.t === 3 || !node.r) return rangeOf(path);
+    const start = base + node.r[0] + (node.t === 2 ? 1 : 0);
+    return at(start + from, start + to);
+  };
+  return {
+    file, text, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar,
+    // The same text read with the same options gives the same document.
+    get doc() { return (kept ??= parseDocument(yamlText, { prettyErrors: false, uniqueKeys: true, strict: true })); },
+    release() { kept = null; },
+  };
 }
 
 /** One frozen processor for every body: building it costs as much as parsing a short body. */

@@ -1,6 +1,6 @@
 // The one front door for reading a procedure: source text → parsed source → model → facts.
 // The checker, the site, the history views and every command read procedures through here.
-import { readSource, type ParsedSource } from '../parse/read-source.ts';
+import { readSource, type ParsedSource, type SourceParts } from '../parse/read-source.ts';
 import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { validateFrontMatter } from '../model/validate.ts';
@@ -16,10 +16,14 @@ export interface ReadProcedure {
   facts: ProcedureFacts | null;
 }
 
-/** Reads one source; with a plant register, the procedure takes its declarations from the entries it uses. */
-export function readProcedure(file: string, text: string, register?: PlantRegister): ReadProcedure {
-  const source = readSource(file, text);
-  const readable = source.doc !== null && source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
+/**
+ * Reads one source; with a plant register, the procedure takes its declarations from the entries it uses. `parts`
+ * are what another thread read from the same text (parse/source-reader.ts).
+ */
+export function readProcedure(file: string, text: string, register?: PlantRegister, parts?: SourceParts): ReadProcedure {
+  const source = readSource(file, text, parts);
+  // Data is there only when the front-matter was read without a problem (the YAML document itself is not needed).
+  const readable = source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
   const schemaIssues = readable ? validateFrontMatter(source.data) : [];
   const procedure = readable ? applyRegister(buildProcedure(file, source.data, source.body, source.bodyText), register) : null;
   // The facts (conditions resolved, units converted, the step graph) are worked out when first asked for: a

@@ -1,0 +1,100 @@
+// Reads procedure files on a thread of its own while the main thread builds their models and checks them: a large
+// run's reading (YAML with positions, the markdown body) is split between two cores. The thread reads the files in
+// the order the main thread will ask for them; a file it has not read yet when asked is read on the main thread,
+// which tells the thread to pass over it. What the thread sends is plain data (SourceParts); the main thread reads
+// a file's YAML document again only when a position in it is asked for. Anything that goes wrong with the thread
+// only means the main thread reads the file itself: the answers are the same either way.
+import { existsSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { MessageChannel, receiveMessageOnPort, Worker, type MessagePort } from 'node:worker_threads';
+import type { SourceParts } from './read-source.ts';
+
+export interface SourceReader {
+  /** The parts the thread read for `file`, or undefined: then read the file here (the thread passes over it). */
+  take(file: string): SourceParts | undefined;
+  /** Ends the thread; later `take`s answer undefined. */
+  stop(): void;
+}
+
+/** The thread is worth starting from this many files on (it costs about as much to start as reading ten files). */
+export const readerThreshold = 100;
+
+/** The reading module, from this module's place: the sources in a checkout, the compiled files in the package (where the check command is one bundle one folder below the package's lib/). */
+function readingModule(): string | undefined {
+  // Compiled first; in a checkout, where nothing is compiled, the source (Node strips its types).
+  for (const extension of ['js', 'ts']) {
+    const url = new URL(`../parse/read-source.${extension}`, import.meta.url);
+    if (existsSync(fileURLToPath(url))) return url.href;
+  }
+  return undefined;
+}
+
+const threadSource = `
+const { workerData } = require('node:worker_threads');
+const { files, url, passed, port } = workerData;
+const last = new Int32Array(passed);
+import(url).then(({ readSourceParts }) => {
+  for (let i = 0; i < files.length; i++) {
+    // The main thread has read this file (or gone past it) itself.
+    if (Atomics.load(last, 0) >= i) continue;
+    let parts = null;
+    try {
+      parts = readSourceParts(files[i].file, files[i].text);
+    } catch {
+      // The main thread reads it and reports what went wrong.
+    }
+    port.postMessage([i, parts]);
+  }
+}, () => port.close());
+`;
+
+export function startSourceReader(files: Array<{ file: string; text: string }>): SourceReader | undefined {
+  const url = readingModule();
+  if (!url || files.length < readerThreshold) return undefined;
+  const indexOf = new Map<string, number>();
+  files.forEach(({ file }, i) => {
+    if (!indexOf.has(file)) indexOf.set(file, i);
+  });
+  const passed = new Int32Array(new SharedArrayBuffer(4));
+  Atomics.store(passed, 0, -1);
+  let port: MessagePort | undefined;
+  let worker: Worker | undefined;
+  try {
+    const channel = new MessageChannel();
+    port = channel.port1;
+    worker = new Worker(threadSource, { eval: true, workerData: { files, url, passed: passed.buffer, port: channel.port2 }, transferList: [channel.port2] });
+  } catch {
+    port?.close();
+    return undefined;
+  }
+  // Neither keeps the process alive; a thread that fails is simply not asked again.
+  worker.unref();
+  port.unref();
+  let running = true;
+  const stop = () => {
+    if (!running) return;
+    running = false;
+    port!.close();
+    void worker!.terminate();
+  };
+  worker.on('error', stop);
+  const read = new Map<number, SourceParts | null>();
+  return {
+    take(file) {
+      const index = indexOf.get(file);
+      if (index === undefined || !running) return undefined;
+      for (let message = receiveMessageOnPort(port!); message; message = receiveMessageOnPort(port!)) {
+        const [i, parts] = message.message as [number, SourceParts | null];
+        read.set(i, parts);
+      }
+      const parts = read.get(index);
+      // Files are asked for in order: what was sent for this file and those before it is no longer wanted.
+      for (const i of read.keys()) if (i <= index) read.delete(i);
+      if (parts) return parts;
+      // Not read yet (or the thread could not): read here, and the thread passes over it and everything before it.
+      if (Atomics.load(passed, 0) < index) Atomics.store(passed, 0, index);
+      return undefined;
+    },
+    stop,
+  };
+}

@@ -1,0 +1,62 @@
+// A large run's files are read on a second thread too: what it sends makes the same sources as reading here, and a
+// check that uses it finds exactly what a check without it finds.
+import { describe, expect, it } from 'vitest';
+import { readSource, readSourceParts } from '../../src/parse/read-source.ts';
+import { readerThreshold, startSourceReader } from '../../src/parse/source-reader.ts';
+import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
+import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
+
+const demo = readProcedureFiles(['procedures'], process.cwd()).flatMap((i) => ('text' in i ? [i] : []));
+
+/** Copies of the demo manual with their own ids (and, in every other copy, a vague step to report). */
+function copies(count: number): Array<{ file: string; text: string }> {
+  return Array.from({ length: count }, (_, n) => {
+    const { file, text } = demo[n % demo.length];
+    const copy = text.replace(/\bU2-/g, `C${Math.floor(n / demo.length)}-U2-`);
+    return { file: `copy-${n}/${file}`, text: n % 2 ? copy.replace(/\bdo: /, 'do: Adjust the valve as required. ') : copy };
+  });
+}
+
+const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+describe('source reader', () => {
+  it('is not started for a small run', () => {
+    expect(startSourceReader(copies(readerThreshold - 1))).toBeUndefined();
+  });
+
+  it('sends parts that make the same source as reading it here', async () => {
+    const files = copies(readerThreshold + 20);
+    const reader = startSourceReader(files)!;
+    expect(reader).toBeDefined();
+    // Give the thread time to read ahead, then take every file in order.
+    await sleep(1500);
+    let taken = 0;
+    for (const { file, text } of files) {
+      const parts = reader.take(file);
+      if (!parts) continue;
+      taken++;
+      expect(parts).toEqual(readSourceParts(file, text));
+      const here = readSource(file, text);
+      const there = readSource(file, text, parts);
+      expect(there.data).toEqual(here.data);
+      expect(there.diagnostics).toEqual(here.diagnostics);
+      for (const path of [['id'], ['steps', 0, 'do'], ['steps', 1], ['hazards', 0, 'hazard'], ['nowhere']]) {
+        expect(there.rangeOf(path)).toEqual(here.rangeOf(path));
+        expect(there.rangeOf(path, 'key')).toEqual(here.rangeOf(path, 'key'));
+        expect(there.rangeInScalar(path, 1, 3)).toEqual(here.rangeInScalar(path, 1, 3));
+      }
+    }
+    expect(taken).toBeGreaterThan(0);
+    expect(reader.take('not-a-file.md')).toBeUndefined();
+    reader.stop();
+    expect(reader.take(files[files.length - 1].file)).toBeUndefined();
+  }, 60_000);
+
+  it('gives a check the same findings with it as without it', () => {
+    const inputs: SourceInput[] = copies(readerThreshold + 30);
+    const withReader = checkSources(inputs, { today: '2026-12-01' });
+    const without = checkSources(inputs, { today: '2026-12-01', readAhead: false });
+    expect(withReader.diagnostics.length).toBeGreaterThan(0);
+    expect(withReader.diagnostics).toEqual(without.diagnostics);
+  }, 120_000);
+});
