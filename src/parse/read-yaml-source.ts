@@ -21,9 +21,12 @@ export function readYamlSource(file: string, text: string): ParsedSource {
     });
   }
   return {
-    ...wrapped,
+    file: wrapped.file, data: wrapped.data, body: wrapped.body, bodyText: wrapped.bodyText, bodyStartLine: wrapped.bodyStartLine,
     text,
     diagnostics,
+    // The document is read only if asked for (a spread would read it at once).
+    get doc() { return wrapped.doc; },
+    release: () => wrapped.release(),
     rangeOf: (path: readonly PathKey[], part?: 'key' | 'value') => back(wrapped.rangeOf(path, part)),
     rangeInScalar: (path: readonly PathKey[], from: number, to: number) => back(wrapped.rangeInScalar(path, from, to)),
   };
