@@ -141,10 +141,6 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       runGuarded(rule, () => rule.check(context), context, emit);
     }
     context.summary = summarise(context.procedure);
-    // The file's own rules are done with its YAML document, so a large manual does not hold every document at once;
-    // a file with waivers keeps it (waivers are placed by position after the cross-file rules), and a cross-file
-    // rule that asks for a position in any other file reads it again.
-    if (context.summary.waivers === false) context.source?.release();
     const key = fileKeys.get(context);
     if (key) store!.set(key, { diagnostics: sink.get(context)!, summary: context.summary } satisfies CachedFile);
   }

@@ -14,7 +14,7 @@ export type PathKey = string | number;
 export interface ParsedSource {
   file: string;
   text: string;
-  /** The YAML document, or null when the file has no front-matter. */
+  /** The YAML document, or null when the file has no front-matter (read from the text when first asked for). */
   doc: Document.Parsed | null;
   /** Plain data of the front-matter (null when it could not be read). */
   data: unknown;
@@ -29,16 +29,15 @@ export interface ParsedSource {
   /** Where characters [from, to) of the scalar string at a path are written. */
   rangeInScalar(path: readonly PathKey[], from: number, to: number): SourceRange;
   /**
-   * Lets go of the YAML document (about as large as the procedure's model) once the checks are done with it; a
-   * later `doc`, `rangeOf` or `rangeInScalar` reads the same front-matter again and gives the same answers.
+   * Lets go of a YAML document read through `doc`; a later `doc` reads the same front-matter again. Positions never
+   * need it: they come from the table of the document's nodes.
    */
   release(): void;
 }
 
 /**
  * What reading a file finds, in plain data that can be sent to another thread: no YAML document, no functions.
- * A source made from these parts (readSource's `given`) reads its YAML document again only when a position is
- * asked for.
+ * A source made from these parts (readSource's `given`) answers positions from their table.
  */
 export interface SourceParts {
   data: unknown;
@@ -71,15 +70,15 @@ function positionsIn(text: string): { split: Split; at: At; bodyStartLine: numbe
 export function readSource(file: string, text: string, given?: SourceParts): ParsedSource {
   const where = positionsIn(text);
   // The document itself is let go at once: positions come from the parts' table.
-  return assemble(file, text, where, given ?? readParts(file, text, where).parts, null);
+  return assemble(file, text, where, given ?? readParts(file, text, where));
 }
 
 /** The parts of a file as readSource reads them, for sending to another thread. */
 export function readSourceParts(file: string, text: string): SourceParts {
-  return readParts(file, text, positionsIn(text)).parts;
+  return readParts(file, text, positionsIn(text));
 }
 
-function readParts(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>): { parts: SourceParts; doc: Document.Parsed | null } {
+function readParts(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>): SourceParts {
   const diagnostics: Diagnostic[] = [];
   let doc: Document.Parsed | null = null;
   let data: unknown = null;
@@ -178,16 +177,16 @@ function readParts(file: string, text: string, { split, at, bodyStartLine }: Ret
       ? frontMatterShapeProblem(data, split.yaml, split.body)
       : null;
     if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
-    return { parts: { data, body, diagnostics, yamlText, positions: positionTable(doc) }, doc };
+    return { data, body, diagnostics, yamlText, positions: positionTable(doc) };
   }
-  return { parts: { data, body, diagnostics, yamlText: null, positions: null }, doc };
+  return { data, body, diagnostics, yamlText: null, positions: null };
 }
 
 /**
  * The source with its positions. Positions come from the table of the YAML document's nodes, which answers as the
  * document would; the document itself is not kept (it is read again from the same text if asked for).
  */
-function assemble(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, parts: SourceParts, doc: Document.Parsed | null): ParsedSource {
+function assemble(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, parts: SourceParts): ParsedSource {
   const { data, body, diagnostics, yamlText, positions } = parts;
   if (yamlText === null || positions === null || split.yaml === null) {
     const rangeOf = (): SourceRange => at(0);
@@ -196,7 +195,7 @@ function assemble(file: string, text: string, { split, at, bodyStartLine }: Retu
   const yaml = split.yaml;
   // Positions in the table are offsets into the YAML text; shift them into the file.
   const base = split.yamlOffset;
-  let kept: Document.Parsed | null = doc;
+  let kept: Document.Parsed | null = null;
   const rangeOf = (path: readonly PathKey[], part: 'key' | 'value' = 'value'): SourceRange => {
     const { node, key } = locateIn(positions, path, part);
     const r = (part === 'key' && key ? key : node)?.r;

@@ -219,12 +219,15 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
   };
 }
 
-/** The screen chart and its print parts, from one layout. */
+/** The screen chart and, when a page asks for them (a revision page does not), its print parts, from one layout. */
 function drawChart(p: Procedure, numbers: StepNumbers, steps: number): ChartDrawing {
   const layout = layoutChart(p, numbers);
+  let printParts: string[] | undefined;
   return {
     svg: chartLayoutToSvg(layout, { title: `Sequence chart of ${p.id}, ${steps} steps` }),
-    printParts: chartLayoutPrintParts(layout, `Sequence chart of ${p.id}`).map((part) => part.svg),
+    get printParts() {
+      return (printParts ??= chartLayoutPrintParts(layout, `Sequence chart of ${p.id}`).map((part) => part.svg));
+    },
   };
 }
 

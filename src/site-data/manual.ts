@@ -55,9 +55,6 @@ export async function loadManual(options: LoadOptions): Promise<LoadedManual> {
   });
   const base = options.base ?? rootBase;
   const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today, register: run.register, base }) : undefined;
-  // The pages need the procedures' models, not their YAML documents: a manual of thousands of procedures would
-  // hold hundreds of megabytes of them through the whole build. A page that asks for a position reads it again.
-  if (view) for (const file of run.result.files) file.source?.release();
   return {
     cwd: options.cwd, root, today: run.today, todaySource: run.todaySource === 'clock' ? 'STEPWRIGHT_TODAY' : run.todaySource,
     inputs: run.inputs, result: run.result, errors: run.errors, run, base, view,
