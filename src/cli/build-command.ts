@@ -129,13 +129,13 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // One pass over the pages: tags, ids and dates never break across lines, on every page, and the search
     // index reads the pages as kept.
     if (!values['no-index']) progress.phase('indexing for search');
-    await finishPages(work, { index: !values['no-index'] });
+    const pages = await finishPages(work, { index: !values['no-index'] });
     if (!values['no-index']) progress.done();
     progress.phase('writing the offline copy');
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
     const places = loaded.view.procedures.map((p) => ({ slug: p.slug, area: p.area, kind: p.kind }));
-    offline = await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`), places, previousSite: outDir, publishedUnder: base });
+    offline = await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`), places, previousSite: outDir, publishedUnder: base, known: pages });
     // Very last: the SHA-256 of every file, signed when a key is given.
     writeSiteManifest(work, { privateKey, known: offline.hashes });
     if (work !== tmp) moveFolder(work, tmp);

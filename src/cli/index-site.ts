@@ -1,9 +1,11 @@
 // Indexes a built site for search. Pages are added one by one in sorted order: the index depends on the
 // order pages are added, and a folder listing's order differs between file systems (ext4, tmpfs, ...).
+import { createHash } from 'node:crypto';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { keepTokensWholeInBytes } from '../render/keep-tokens-whole.ts';
 import { siteFiles } from './site-manifest.ts';
+import type { HashedFile } from '../render/offline-manifest.ts';
 
 /** Pages sent to the search indexer before waiting for its answers. */
 const pagesInFlight = 16;
@@ -20,8 +22,11 @@ export async function indexSite(dir: string): Promise<void> {
  * page, and (with `index`) the pages are indexed for search. Once any page marks its searchable part, pagefind
  * indexes only pages that do (its documented rule), so pages without the mark (tag lists, audit trails, rule
  * pages) are not sent to it at all; when no page has the mark, every page is indexed as before.
+ * Returns the SHA-256 and size of every page as it was left, by path in the site: later steps of the same build
+ * (the offline copy's list, the site manifest) take them instead of reading every page again.
  */
-export async function finishPages(dir: string, options: { index: boolean }): Promise<void> {
+export async function finishPages(dir: string, options: { index: boolean }): Promise<Map<string, HashedFile>> {
+  const pages = new Map<string, HashedFile>();
   const pagefind = options.index ? await import('pagefind') : undefined;
   try {
     let index: Awaited<ReturnType<NonNullable<typeof pagefind>['createIndex']>>['index'];
@@ -54,6 +59,7 @@ export async function finishPages(dir: string, options: { index: boolean }): Pro
       const page = readFileSync(file);
       const kept = keepTokensWholeInBytes(page);
       if (kept !== page) writeFileSync(file, kept);
+      pages.set(path, { path, sha256: createHash('sha256').update(kept).digest('hex'), size: kept.byteLength });
       if (!index) continue;
       // A mention of the attribute in a page's text only sends one page more: pagefind still decides. Only the
       // pages sent are decoded.
@@ -64,11 +70,12 @@ export async function finishPages(dir: string, options: { index: boolean }): Pro
         unmarked.push(path);
       }
     }
-    if (!index) return;
+    if (!index) return pages;
     if (marked === 0) for (const path of unmarked) await add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
     await settle();
     const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
     if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
+    return pages;
   } finally {
     await pagefind?.close();
   }

@@ -72,6 +72,19 @@ describe('finishPages', () => {
     expect(siteFiles(join(dir, 'pagefind')).filter((p) => p.startsWith('fragment/'))).toHaveLength(12);
   }, 60_000);
 
+  it('returns the SHA-256 and size of every page as it left it, so that no later step reads the pages again', async () => {
+    const dir = writeSite({ ...unmarked, 'procedures/p-00/index.html': marked['procedures/p-00/index.html'] });
+    const pages = await finishPages(dir, { index: true });
+    const html = siteFiles(dir).filter((p) => p.endsWith('.html'));
+    expect([...pages.keys()].sort()).toEqual(html);
+    for (const path of html) {
+      // The bytes on disk after the pass (tags wrapped), not the bytes Astro wrote.
+      const bytes = readFileSync(join(dir, path));
+      expect(pages.get(path)).toEqual({ path, sha256: createHash('sha256').update(bytes).digest('hex'), size: bytes.byteLength });
+    }
+    expect(pages.get('tags/t-00/index.html')!.size).toBeGreaterThan(Buffer.byteLength(unmarked['tags/t-00/index.html']));
+  }, 60_000);
+
   it('keeps tags whole without indexing when asked for no index', async () => {
     const dir = writeSite({ 'tags/t-00/index.html': unmarked['tags/t-00/index.html'] });
     await finishPages(dir, { index: false });

@@ -47,6 +47,25 @@ describe('writeOfflineCopy', () => {
     await rm(dir, { recursive: true, force: true });
   });
 
+  it('takes the hashes the pass over the pages made, and gives the list that reading every file gives', async () => {
+    const pages = { 'index.html': '<h1>Manual</h1>', 'procedures/p-1/index.html': '<h1>P-1 <span class="nb">XV-1</span></h1>', 'procedures/p-2/index.html': '<h1>P-2</h1>' };
+    const read = await site(pages);
+    const handed = await site(pages);
+    for (const dir of [read, handed]) await indexSite(dir);
+    const fromFiles = await writeOfflineCopy(read, { now: new Date('2026-12-01T00:00:00Z'), places });
+    const { finishPages } = await import('../../src/cli/index-site.ts');
+    const known = await finishPages(handed, { index: false });
+    const fromPass = await writeOfflineCopy(handed, { now: new Date('2026-12-01T00:00:00Z'), places, known });
+    expect(fromPass.list).toEqual(fromFiles.list);
+    expect(fromPass.hashes).toEqual(fromFiles.hashes);
+    // A hash handed over is taken as it is: the page is not read again (a wrong one would show in the list).
+    const wrong = new Map(known);
+    wrong.set('index.html', { path: 'index.html', sha256: '0'.repeat(64), size: 1 });
+    const taken = await writeOfflineCopy(handed, { now: new Date('2026-12-01T00:00:00Z'), places, known: wrong });
+    expect(taken.hashes.get('index.html')).toBe('0'.repeat(64));
+    for (const dir of [read, handed]) await rm(dir, { recursive: true, force: true });
+  }, 60_000);
+
   it('reports what an update from the previous build costs', async () => {
     const before = await site({ 'index.html': '<h1>Manual</h1>', 'procedures/p-1/index.html': '<h1>P-1</h1>', 'procedures/p-2/index.html': '<h1>P-2</h1>', 'old.css': 'x' });
     await writeOfflineCopy(before, { now: new Date('2026-12-01T00:00:00Z'), places });
