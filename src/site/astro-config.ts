@@ -57,7 +57,10 @@ export function siteConfig(options: SiteConfigOptions): AstroInlineConfig {
     mode: options.mode,
     logLevel: options.logLevel ?? 'error',
     trailingSlash: 'always',
-    build: { format: 'directory', inlineStylesheets: 'never' },
+    // Two pages at a time: one is rendered while the other is written out. Measured on 2,000 procedures (2 cores,
+    // three runs each, interleaved): pages in 17.9 s against 21.9 s one at a time; four at a time 18.9 s. The pages
+    // come out byte for byte the same.
+    build: { format: 'directory', inlineStylesheets: 'never', concurrency: 2 },
     compressHTML: true,
     devToolbar: { enabled: false },
     // Procedure pages are generated from the procedures folder, never from markdown files in the site.
