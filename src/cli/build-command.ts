@@ -15,6 +15,7 @@ import { siteConfig } from '../site/astro-config.ts';
 import { offlineReport } from './offline-report.ts';
 import { writeOfflineCopy, type OfflineCopySummary } from './write-offline-copy.ts';
 import { GitError } from '../history/git.ts';
+import { stopModelThread } from '../analysis/prose/model-thread.ts';
 import { buildProgress } from './progress.ts';
 import { linkPackages, packagesHolder, packagesReachableFrom } from './package-links.ts';
 import { buildHelp } from './command-help.ts';
@@ -61,6 +62,10 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     progress.fail();
     io.stderr.write(`stepwright build: ${error.message}\n`);
     return 2;
+  } finally {
+    // The English model's thread (started for a check with no cache to answer from) has done its part: the pages
+    // never read prose with it, and its memory is the build's.
+    stopModelThread();
   }
   progress.done(`${loaded.inputs.length} checked`);
   if (loaded.run.diagnostics.length > 0) io.stdout.write(formatCheckFailure(loaded, useColour(io, io.stdout)));

@@ -58,6 +58,7 @@ function unknownCommand(name: string, io: CliIo, context = ''): number {
  * A check with no result cache to answer from (none yet, or STEPWRIGHT_CACHE=off) reads every file's prose with the
  * English model: its load starts now on a second thread, beside loading the checker and reading the files. A check
  * that finds a cache may find every answer there and need no model, so it loads the model only when asked, as before.
+ * `build` checks first in the same way (and stops the thread once the check is done, before the pages are built).
  */
 async function startEnglishModelEarly(io: CliIo): Promise<void> {
   const { existsSync } = await import('node:fs');
@@ -95,7 +96,7 @@ export async function main(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   try {
-    if (name === 'check') await startEnglishModelEarly(io);
+    if (name === 'check' || name === 'build') await startEnglishModelEarly(io);
     const run = await command.load();
     return await run(rest, io);
   } catch (error) {

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { removeStaleTemporaries } from '../../src/cli/build-command.ts';
+import { modelThreadRunning } from '../../src/analysis/prose/model-thread.ts';
 import { runCli } from './run-cli.ts';
 
 const broken = `---
@@ -32,6 +33,10 @@ describe('stepwright build', () => {
   it('stops on check errors with the same report as check, and keeps the last good site', async () => {
     const dir = project();
     const build = await runCli(['build'], dir);
+    // With no result cache yet, the check read the prose with the English model on its own thread; the build stops
+    // that thread once the check is done (the pages never ask it), whether the build goes on or not.
+    expect(existsSync(join(dir, '.stepwright', 'cache'))).toBe(true);
+    expect(modelThreadRunning()).toBe(false);
     const check = await runCli(['check', 'procedures'], dir);
     expect(build.code).toBe(1);
     expect(check.code).toBe(1);
