@@ -9,6 +9,10 @@ import { compileStepGraph, type StepGraph } from './step-graph.ts';
 import { collectQuantities, type QuantitySite } from './quantity-sites.ts';
 import { analyseState, type StateAnalysis } from './state/analyse-state.ts';
 import { stateInputOf } from './state/state-input.ts';
+import { RuleMemo } from './rule-memo.ts';
+
+/** The plant-state analysis of each procedure's facts: only rules read it (see rule-memo.ts). */
+const stateMemo = new RuleMemo<ProcedureFacts, StateAnalysis>();
 
 export interface ConditionSite {
   path: PathKey[];
@@ -78,9 +82,8 @@ export function collectFacts(procedure: Procedure): ProcedureFacts {
   for (const c of conditions) if (!byPath.has(c.path.join('\u0000'))) byPath.set(c.path.join('\u0000'), c);
 
   let graph: StepGraph | undefined;
-  let state: StateAnalysis | undefined;
   const graphOnce = () => (graph ??= compileStepGraph(procedure));
-  return {
+  const facts: ProcedureFacts = {
     procedure,
     steps,
     stepById,
@@ -91,9 +94,13 @@ export function collectFacts(procedure: Procedure): ProcedureFacts {
       return graphOnce();
     },
     get state() {
-      const extra = conditions.filter((c) => c.role === 'needs' || c.role === 'hazard-when').map((c) => c.text);
-      state ??= analyseState(stateInputOf(procedure, graphOnce()), extra);
+      let state = stateMemo.get(facts);
+      if (!state) {
+        const extra = conditions.filter((c) => c.role === 'needs' || c.role === 'hazard-when').map((c) => c.text);
+        stateMemo.set(facts, (state = analyseState(stateInputOf(procedure, graphOnce()), extra)));
+      }
       return state;
     },
   };
+  return facts;
 }

@@ -11,6 +11,7 @@ import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from '../render/format-diagnostics.ts';
 import { normalizeBase, rootBase, type SiteBase } from '../render/site-url.ts';
 import { procedureStamp, tolerantManualView } from './dev-manual.ts';
+import { forgetRuleAnalyses } from '../analysis/rule-memo.ts';
 
 export { buildDate } from '../engine/check-run.ts';
 
@@ -53,6 +54,9 @@ export async function loadManual(options: LoadOptions): Promise<LoadedManual> {
     cwd: options.cwd, env: options.env, paths: [root], config: options.env.STEPWRIGHT_CONFIG || undefined,
     date: 'build', history: options.history === false ? false : {},
   });
+  // The pages keep every procedure but never read what only the rules did (prose, sequence, decisions, plant
+  // state): let that go before the pages are built.
+  forgetRuleAnalyses();
   const base = options.base ?? rootBase;
   const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today, register: run.register, base }) : undefined;
   return {

@@ -6,6 +6,7 @@ import { walkBlocks } from '../../model/walk-steps.ts';
 import type { Condition } from '../conditions/ast.ts';
 import type { ProcedureFacts } from '../procedure-facts.ts';
 import { NotAnalysable, SignalSpace, type Box, type Region, type SpaceOptions } from './signal-space.ts';
+import { RuleMemo } from '../rule-memo.ts';
 
 export interface BranchRegion {
   index: number;
@@ -98,7 +99,7 @@ export function analyseChoose(facts: ProcedureFacts, block: ChooseBlock, options
   return result;
 }
 
-const cache = new WeakMap<ProcedureFacts, ChooseAnalysis[]>();
+const cache = new RuleMemo<ProcedureFacts, ChooseAnalysis[]>();
 
 /** Every decision of the procedure, analysed once and shared by the rules and --explain. */
 export function analyseDecisions(facts: ProcedureFacts): ChooseAnalysis[] {

@@ -4,6 +4,7 @@ import type { Procedure } from '../../model/procedure.ts';
 import { valueAt } from '../../model/validate.ts';
 import { walkSteps } from '../../model/walk-steps.ts';
 import { splitSentences, type Sentence } from './words.ts';
+import { RuleMemo } from '../rule-memo.ts';
 
 /**
  * `action`: an instruction (a step's `do`); `check`: an operator check (`confirm`);
@@ -21,7 +22,7 @@ export interface ProseSite {
   sentences: Sentence[];
 }
 
-const cache = new WeakMap<Procedure, ProseSite[]>();
+const cache = new RuleMemo<Procedure, ProseSite[]>();
 
 /** The prose of a procedure, split once and shared by every writing rule. */
 export function proseOf(procedure: Procedure): ProseSite[] {

@@ -8,6 +8,7 @@ import type { Place, StepGraph, Transition } from '../step-graph.ts';
 import { findLoops, type Loop } from './loops.ts';
 import { branchPrefix, macroPrefix, structuralSoundness } from './structural.ts';
 import type { SoundnessResult } from './verdict.ts';
+import { RuleMemo } from '../rule-memo.ts';
 
 export interface SequenceAnalysis {
   graph: StepGraph;
@@ -18,7 +19,7 @@ export interface SequenceAnalysis {
   endless: Loop[];
 }
 
-const cache = new WeakMap<ProcedureFacts, SequenceAnalysis>();
+const cache = new RuleMemo<ProcedureFacts, SequenceAnalysis>();
 
 export function analyseSequence(facts: ProcedureFacts): SequenceAnalysis {
   const known = cache.get(facts);
