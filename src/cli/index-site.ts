@@ -1,6 +1,6 @@
 // Indexes a built site for search. Pages are added one by one in sorted order: the index depends on the
 // order pages are added, and a folder listing's order differs between file systems (ext4, tmpfs, ...).
-import { createHash } from 'node:crypto';
+import { webcrypto } from 'node:crypto';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { keepTokensWholeInBytes } from '../render/keep-tokens-whole.ts';
@@ -27,6 +27,7 @@ export async function indexSite(dir: string): Promise<void> {
  */
 export async function finishPages(dir: string, options: { index: boolean }): Promise<Map<string, HashedFile>> {
   const pages = new Map<string, HashedFile>();
+  const digests: Array<Promise<void>> = [];
   const pagefind = options.index ? await import('pagefind') : undefined;
   try {
     let index: Awaited<ReturnType<NonNullable<typeof pagefind>['createIndex']>>['index'];
@@ -59,7 +60,10 @@ export async function finishPages(dir: string, options: { index: boolean }): Pro
       const page = readFileSync(file);
       const kept = keepTokensWholeInBytes(page);
       if (kept !== page) writeFileSync(file, kept);
-      pages.set(path, { path, sha256: createHash('sha256').update(kept).digest('hex'), size: kept.byteLength });
+      // Hashed on the thread pool while this thread goes on with the next page; all are in before the pages are returned.
+      const hashed: HashedFile = { path, sha256: '', size: kept.byteLength };
+      pages.set(path, hashed);
+      digests.push(webcrypto.subtle.digest('SHA-256', kept).then((digest) => { hashed.sha256 = Buffer.from(digest).toString('hex'); }));
       if (!index) continue;
       // A mention of the attribute in a page's text only sends one page more: pagefind still decides. Only the
       // pages sent are decoded.
@@ -70,11 +74,15 @@ export async function finishPages(dir: string, options: { index: boolean }): Pro
         unmarked.push(path);
       }
     }
-    if (!index) return pages;
+    if (!index) {
+      await Promise.all(digests);
+      return pages;
+    }
     if (marked === 0) for (const path of unmarked) await add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
     await settle();
     const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
     if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
+    await Promise.all(digests);
     return pages;
   } finally {
     await pagefind?.close();
