@@ -260,7 +260,9 @@ function lazyFileContext(
     if (read) return read;
     if ('error' in input) return (read = { ...unreadable(input.file), readError: input.error });
     try {
-      read = readProcedure(input.file, input.text, options.register, partsOf?.(input.file));
+      // A file the rules check takes its table of positions as it is read; a file read for its model alone (its check
+      // results came from the cache) makes it only if a position is asked for.
+      read = readProcedure(input.file, input.text, options.register, partsOf?.(input.file), full ? 'now' : 'when-asked');
       if (full) void read.facts;
     } catch (error) {
       // Whatever a file holds, the check goes on and the file gets a diagnostic: never a crash of the whole run.

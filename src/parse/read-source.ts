@@ -50,6 +50,8 @@ export interface SourceParts {
 }
 
 const limits = { maxAliasCount: 100, maxDepth: 200 };
+/** How every front-matter is read (a line counter besides changes no node's range). */
+const documentOptions = { prettyErrors: false, uniqueKeys: true, strict: true } as const;
 
 type Split = ReturnType<typeof splitFrontMatter>;
 type At = (offset: number, endOffset?: number) => SourceRange;
@@ -66,19 +68,29 @@ function positionsIn(text: string): { split: Split; at: At; bodyStartLine: numbe
   return { split, at, bodyStartLine: fileLines(split.bodyOffset).line };
 }
 
+/**
+ * When the table of positions is made: 'now', as the file is read (a file the rules will check: nearly every one
+ * gets a diagnostic, with a position), or 'when-asked' (a file read for its model alone, such as a file whose check
+ * results come from the cache: the front-matter is read again for the table the first time a position is asked for).
+ */
+export type PositionsWhen = 'now' | 'when-asked';
+
 /** Reads a file; with `given` (the parts another thread read from the same text), only assembles the source. */
-export function readSource(file: string, text: string, given?: SourceParts): ParsedSource {
+export function readSource(file: string, text: string, given?: SourceParts, positions: PositionsWhen = 'when-asked'): ParsedSource {
   const where = positionsIn(text);
   // The document itself is let go at once: positions come from the parts' table.
-  return assemble(file, text, where, given ?? readParts(file, text, where));
+  return assemble(file, text, where, given ?? readParts(file, text, where, positions === 'now'));
 }
 
 /** The parts of a file as readSource reads them, for sending to another thread. */
 export function readSourceParts(file: string, text: string): SourceParts {
-  return readParts(file, text, positionsIn(text));
+  return readParts(file, text, positionsIn(text), true) as SourceParts;
 }
 
-function readParts(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>): SourceParts {
+/** Parts whose table of positions may be left to be made when first asked for (undefined). */
+type ReadParts = Omit<SourceParts, 'positions'> & { positions: PositionTable | null | undefined };
+
+function readParts(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, tableNow: boolean): ReadParts {
   const diagnostics: Diagnostic[] = [];
   let doc: Document.Parsed | null = null;
   let data: unknown = null;
@@ -140,7 +152,7 @@ function readParts(file: string, text: string, { split, at, bodyStartLine }: Ret
       });
     }
     const yamlText = tooDeep ? '' : split.yaml;
-    doc = parseDocument(yamlText, { lineCounter, prettyErrors: false, uniqueKeys: true, strict: true });
+    doc = parseDocument(yamlText, { lineCounter, ...documentOptions });
     const yamlLineOffset = fileLines(split.yamlOffset).line - 1;
     // Only the first error: later ones are nearly always knock-on effects of it.
     for (const error of doc.errors.slice(0, 1)) {
@@ -177,7 +189,7 @@ function readParts(file: string, text: string, { split, at, bodyStartLine }: Ret
       ? frontMatterShapeProblem(data, split.yaml, split.body)
       : null;
     if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
-    return { data, body, diagnostics, yamlText, positions: positionTable(doc) };
+    return { data, body, diagnostics, yamlText, positions: tableNow ? positionTable(doc) : undefined };
   }
   return { data, body, diagnostics, yamlText: null, positions: null };
 }
@@ -186,9 +198,9 @@ function readParts(file: string, text: string, { split, at, bodyStartLine }: Ret
  * The source with its positions. Positions come from the table of the YAML document's nodes, which answers as the
  * document would; the document itself is not kept (it is read again from the same text if asked for).
  */
-function assemble(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, parts: SourceParts): ParsedSource {
-  const { data, body, diagnostics, yamlText, positions } = parts;
-  if (yamlText === null || positions === null || split.yaml === null) {
+function assemble(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, parts: ReadParts): ParsedSource {
+  const { data, body, diagnostics, yamlText } = parts;
+  if (yamlText === null || parts.positions === null || split.yaml === null) {
     const rangeOf = (): SourceRange => at(0);
     return { file, text, doc: null, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar: rangeOf, release() {} };
   }
@@ -196,14 +208,17 @@ function assemble(file: string, text: string, { split, at, bodyStartLine }: Retu
   // Positions in the table are offsets into the YAML text; shift them into the file.
   const base = split.yamlOffset;
   let kept: Document.Parsed | null = null;
+  // The same text read with the same options gives the same document, and so the same table.
+  let table = parts.positions;
+  const positions = (): PositionTable => (table ??= positionTable(parseDocument(yamlText, documentOptions)));
   const rangeOf = (path: readonly PathKey[], part: 'key' | 'value' = 'value'): SourceRange => {
-    const { node, key } = locateIn(positions, path, part);
+    const { node, key } = locateIn(positions(), path, part);
     const r = (part === 'key' && key ? key : node)?.r;
     if (!r) return at(base);
     return at(base + r[0], base + trimTrailingSpace(yaml, r[0], r[1]));
   };
   const rangeInScalar = (path: readonly PathKey[], from: number, to: number): SourceRange => {
-    const { node } = locateIn(positions, path, 'value');
+    const { node } = locateIn(positions(), path, 'value');
     // Not a scalar, no range, or a block scalar (its characters are not where the string's are): the whole value.
     if (!node || node.t === 0 || node.t === 3 || !node.r) return rangeOf(path);
     const start = base + node.r[0] + (node.t === 2 ? 1 : 0);
@@ -212,7 +227,7 @@ function assemble(file: string, text: string, { split, at, bodyStartLine }: Retu
   return {
     file, text, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar,
     // The same text read with the same options gives the same document.
-    get doc() { return (kept ??= parseDocument(yamlText, { prettyErrors: false, uniqueKeys: true, strict: true })); },
+    get doc() { return (kept ??= parseDocument(yamlText, documentOptions)); },
     release() { kept = null; },
   };
 }

@@ -1,6 +1,6 @@
 // The one front door for reading a procedure: source text → parsed source → model → facts.
 // The checker, the site, the history views and every command read procedures through here.
-import { readSource, type ParsedSource, type SourceParts } from '../parse/read-source.ts';
+import { readSource, type ParsedSource, type PositionsWhen, type SourceParts } from '../parse/read-source.ts';
 import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { validateFrontMatter } from '../model/validate.ts';
@@ -18,10 +18,11 @@ export interface ReadProcedure {
 
 /**
  * Reads one source; with a plant register, the procedure takes its declarations from the entries it uses. `parts`
- * are what another thread read from the same text (parse/source-reader.ts).
+ * are what another thread read from the same text (parse/source-reader.ts). `positions`: when the table of where
+ * each value is written is made (parse/read-source.ts); a file the rules check takes it 'now'.
  */
-export function readProcedure(file: string, text: string, register?: PlantRegister, parts?: SourceParts): ReadProcedure {
-  const source = readSource(file, text, parts);
+export function readProcedure(file: string, text: string, register?: PlantRegister, parts?: SourceParts, positions?: PositionsWhen): ReadProcedure {
+  const source = readSource(file, text, parts, positions);
   // Data is there only when the front-matter was read without a problem (the YAML document itself is not needed).
   const readable = source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
   const schemaIssues = readable ? validateFrontMatter(source.data) : [];

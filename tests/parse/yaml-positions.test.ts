@@ -4,7 +4,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { isMap, isNode, isPair, isScalar, isSeq, parseDocument, type Node, type Pair } from 'yaml';
 import { locateIn, positionTable } from '../../src/parse/yaml-positions.ts';
-import type { PathKey } from '../../src/parse/read-source.ts';
+import { readSource, type PathKey } from '../../src/parse/read-source.ts';
 
 /** The walk over the document that positions were taken from before the table (the reference). */
 function locateInDocument(contents: unknown, path: readonly PathKey[], part: 'key' | 'value'): { node: Node | null; key: Node | null } {
@@ -97,5 +97,21 @@ describe('the table of positions', () => {
     const table = positionTable(parseDocument(text, { prettyErrors: false }));
     expect(table.nodes.length).toBe(depth + 1);
     expect(locateIn(table, Array(depth).fill(0), 'value').node?.t).toBe(1);
+  });
+
+  it('answers the same when the table is made as the file is read or when a position is first asked for (property)', () => {
+    // Whole files: front-matter (valid or not) and a body; ranges in the file, scalars' inner ranges included.
+    const file = fc.tuple(yamlText, fc.constantFrom('', 'Body text.\n', '# Notes\n\nMore.\n'), fc.constantFrom('---\n', '\n---\n', ''))
+      .map(([yaml, body, lead]) => `${lead}---\n${yaml.replace(/^\n/, '')}\n---\n${body}`);
+    fc.assert(fc.property(file, fc.array(fc.array(segment, { maxLength: 4 }), { minLength: 1, maxLength: 4 }), fc.nat(6), (text, paths, from) => {
+      const now = readSource('p.md', text, undefined, 'now');
+      const later = readSource('p.md', text, undefined, 'when-asked');
+      expect(later.data).toEqual(now.data);
+      expect(later.diagnostics).toEqual(now.diagnostics);
+      for (const path of paths) {
+        for (const part of ['key', 'value'] as const) expect(later.rangeOf(path, part), `${path.join('.')} ${part}`).toEqual(now.rangeOf(path, part));
+        expect(later.rangeInScalar(path, from, from + 2)).toEqual(now.rangeInScalar(path, from, from + 2));
+      }
+    }), { numRuns: 1500 });
   });
 });
