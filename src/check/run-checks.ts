@@ -51,6 +51,11 @@ export interface CheckedFile {
   diagnostics: Diagnostic[];
   /** Diagnostics set aside by a step's waiver (with its reason); kept out of `diagnostics`, shown by the site. */
   waived?: WaivedDiagnostic[];
+  /**
+   * Lets go of what the file's reading keeps for positions (the table of its front-matter's nodes); a position asked
+   * for later reads the same text again. A file that was not read is not read for this.
+   */
+  releaseSource?(): void;
 }
 
 export interface CheckResult {
@@ -249,6 +254,7 @@ function runManualRules(
 /** A file's context whose source, model and facts are read on first use (and once). */
 interface LazyFileContext extends FileContext {
   summary?: FileSummary;
+  releaseSource(): void;
 }
 
 function lazyFileContext(
@@ -292,6 +298,9 @@ function lazyFileContext(
       return history;
     },
     report,
+    releaseSource() {
+      read?.source.release();
+    },
   };
 }
 
@@ -301,6 +310,7 @@ function checkedFile(context: LazyFileContext, diagnostics: Diagnostic[], waived
     get source() { return context.source; },
     get procedure() { return context.procedure; },
     get facts() { return context.facts; },
+    releaseSource: () => context.releaseSource(),
   };
 }
 

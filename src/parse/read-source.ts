@@ -29,8 +29,8 @@ export interface ParsedSource {
   /** Where characters [from, to) of the scalar string at a path are written. */
   rangeInScalar(path: readonly PathKey[], from: number, to: number): SourceRange;
   /**
-   * Lets go of a YAML document read through `doc`; a later `doc` reads the same front-matter again. Positions never
-   * need it: they come from the table of the document's nodes.
+   * Lets go of a YAML document read through `doc` and of the table of positions; a later `doc` or position reads the
+   * same front-matter again (the same text read the same way: the same answers).
    */
   release(): void;
 }
@@ -228,7 +228,10 @@ function assemble(file: string, text: string, { split, at, bodyStartLine }: Retu
     file, text, data, body, bodyText: split.body, bodyStartLine, diagnostics, rangeOf, rangeInScalar,
     // The same text read with the same options gives the same document.
     get doc() { return (kept ??= parseDocument(yamlText, documentOptions)); },
-    release() { kept = null; },
+    release() {
+      kept = null;
+      table = undefined;
+    },
   };
 }
 

@@ -57,6 +57,9 @@ export async function loadManual(options: LoadOptions): Promise<LoadedManual> {
   // The pages keep every procedure but never read what only the rules did (prose, sequence, decisions, plant
   // state): let that go before the pages are built.
   forgetRuleAnalyses();
+  // Nor positions in the front-matters (every diagnostic has its position by now): a file read by the check keeps
+  // no table of its nodes through the build (one is made again, the same, if a page ever asks).
+  for (const file of run.result.files) file.releaseSource?.();
   const base = options.base ?? rootBase;
   const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today, register: run.register, base }) : undefined;
   return {
