@@ -7,9 +7,9 @@ import type { Diagnostic, SourceRange } from './diagnostic.ts';
 import { splitFrontMatter } from './split-front-matter.ts';
 import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesting-prescan.ts';
 import { groupDigits } from './group-digits.ts';
-import { locateIn, positionTable, type PositionTable } from './yaml-positions.ts';
+import { locateIn, positionTable, type PathKey, type PositionTable } from './yaml-positions.ts';
 
-export type PathKey = string | number;
+export type { PathKey } from './yaml-positions.ts';
 
 export interface ParsedSource {
   file: string;

@@ -3,7 +3,9 @@
 // the table answers exactly as the document would (the same walk over the same nodes), costs a fraction of its
 // memory, and is plain data that can be sent from a reading thread.
 import { isMap, isNode, isScalar, isSeq, type Document } from 'yaml';
-import type { PathKey } from './read-source.ts';
+
+/** One step of a path into a front-matter: a map's key or a sequence's index. */
+export type PathKey = string | number;
 
 /** A node: its range (null without one), its scalar style, and for a map or a sequence where its parts lead. */
 export interface PositionNode {
