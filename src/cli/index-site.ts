@@ -74,14 +74,12 @@ export async function finishPages(dir: string, options: { index: boolean }): Pro
         unmarked.push(path);
       }
     }
-    if (!index) {
-      await Promise.all(digests);
-      return pages;
+    if (index) {
+      if (marked === 0) for (const path of unmarked) await add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
+      await settle();
+      const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
+      if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
     }
-    if (marked === 0) for (const path of unmarked) await add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
-    await settle();
-    const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
-    if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
     await Promise.all(digests);
     return pages;
   } finally {

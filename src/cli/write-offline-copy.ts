@@ -55,14 +55,16 @@ export async function writeOfflineCopy(siteDir: string, options: OfflineCopyOpti
     if (!entry.isFile()) continue;
     const full = join(entry.parentPath, entry.name);
     const path = relative(siteDir, full).split(sep).join('/');
-    const hashed = options.known?.get(path);
-    if (hashed && !path.startsWith('pagefind/fragment/')) {
+    // A search fragment is always read: its bytes tie it to its page.
+    const fragment = path.startsWith('pagefind/fragment/');
+    const hashed = fragment ? undefined : options.known?.get(path);
+    if (hashed) {
       files.push({ path, sha256: hashed.sha256, size: hashed.size });
       continue;
     }
     const bytes = readFileSync(full);
     files.push({ path, sha256: createHash('sha256').update(bytes).digest('hex'), size: bytes.byteLength });
-    if (path.startsWith('pagefind/fragment/')) fragments.push({ path, bytes });
+    if (fragment) fragments.push({ path, bytes });
   }
   const list = offlineFileList(files, { builtAt: options.now.toISOString(), places: options.places, fragmentPages: fragmentPages(fragments) });
   const publication = publicationOf(list);
