@@ -5,11 +5,11 @@ import { join } from 'node:path';
 import type { Server } from 'node:http';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { AxeBuilder } from '@axe-core/playwright';
 import { loadManual } from '../../src/site-data/manual.ts';
 import { startStaticServer } from '../../src/cli/serve-command.ts';
 import { compileStepGraph, type StepGraph } from '../../src/analysis/step-graph.ts';
 import type { ProcedureView } from '../../src/render/manual.ts';
+import { seriousViolations } from './accessibility-scan.ts';
 import { ensureBuiltSite } from './site-build.ts';
 
 // A browser on a busy 2-core machine: give each test room; the build itself is shared and runs once.
@@ -62,9 +62,7 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
   };
 
   const expectNoSeriousViolations = async (page: Page, name: string) => {
-    const results = await new AxeBuilder({ page }).analyze();
-    const serious = results.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
-    expect(serious.map((v) => `${name}: ${v.id} (${v.impact}) ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`)).toEqual([]);
+    expect((await seriousViolations(page)).map((v) => `${name}: ${v}`)).toEqual([]);
   };
 
   it('finds a procedure from the home page by searching an equipment tag', async () => {
