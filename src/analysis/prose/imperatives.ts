@@ -1,5 +1,5 @@
 // Finds instructions in prose: does a sentence start with an action verb, and does it chain a second one?
-import { lexiconTag, tagsAt } from './word-tags.ts';
+import { isModelInfinitive, tagsAt } from './word-tags.ts';
 import type { Sentence, Word } from './words.ts';
 
 /**
@@ -59,7 +59,7 @@ export function isImperativeVerbAt(words: Word[], index: number): boolean {
   if (plantVerbs.has(lower)) return true;
   // Cheap answers first; parsing a phrase costs milliseconds. A base-form verb in the model's word list is a
   // verb in this position; a function word never is.
-  if (lexiconTag(lower) === 'Infinitive') return true;
+  if (isModelInfinitive(lower)) return true;
   if (determiners.has(lower) || prepositions.has(lower) || conditionOpeners.has(lower) || chainWords.has(lower) || modals.has(lower)) return false;
   // The model reads the clause as a sentence of its own, so the word stands where an imperative stands. Plant
   // objects often read as noun compounds ("Remove pump P-211"), so the clause is asked again with "the" before

@@ -2,9 +2,9 @@
 // its word lists) runs beside the main thread's own start: loading the checker, reading and parsing the files.
 // Questions are numbered and answered in order. A question may be sent ahead (a procedure's phrases, posted
 // before the rules run) and its answer taken later, so that the thread tags while the main thread runs other rules;
-// a rule that needs an answer now waits on a shared counter for it. The word list is sent once, as the model has
-// loaded, and looked up in the main thread. The answers are plain data (tags by term, the word list); the same
-// library file answers, with the same steps, so the tags are the same as in the main thread.
+// a rule that needs an answer now waits on a shared counter for it. The answers are plain data (tags by term); the
+// same library file answers, with the same steps, so the tags are the same as in the main thread. (Whether a word is
+// a base-form verb in the model's word list is answered from a list taken from it: model-infinitives.ts.)
 // Only the command line starts it (`stepwright check` when no result cache will answer). Should the thread fail
 // to start, to load the library or to answer, it is stopped and the model is loaded in the main thread, as
 // without it: the thread only ever changes when the work is done, never the answers.
@@ -13,7 +13,7 @@ import { dependencyRequire } from '../load-dependency.ts';
 
 /** One term of a tagged sentence, as the thread sends it: text, text before, text after, tags. */
 export type TermData = [text: string, pre: string, post: string, tags: string[]];
-type Question = { id: number } & ({ op: 'tag'; text: string } | { op: 'lexicon' });
+type Question = { id: number } & { op: 'tag'; text: string };
 type Answer = { id: number } & ({ ok: true; value: unknown } | { ok: false; error: string });
 
 // Runs in the thread (CommonJS, given as text so that the package needs no file of its own for it). Questions are
@@ -33,21 +33,9 @@ port.on('message', (question) => {
   let answer;
   try {
     if (failure) throw new Error(failure);
-    if (question.op === 'tag') {
-      const doc = nlp.tokenize(question.text);
-      doc.compute(steps);
-      answer = { id: question.id, ok: true, value: doc.document.map((terms) => terms.map((t) => [t.text, t.pre, t.post, [...t.tags]])) };
-    } else {
-      // The word list whole, as one text: each word and the first tag of its entry. Only the list's own entries
-      // (not what every object inherits, such as 'constructor').
-      const lexicon = nlp.world().model.one.lexicon;
-      const lines = [];
-      for (const word of Object.keys(lexicon)) {
-        const tag = Array.isArray(lexicon[word]) ? lexicon[word][0] : lexicon[word];
-        if (typeof tag === 'string' && !/[\\u0000\\u0001]/.test(word + tag)) lines.push(word + '\\u0001' + tag);
-      }
-      answer = { id: question.id, ok: true, value: lines.join('\\u0000') };
-    }
+    const doc = nlp.tokenize(question.text);
+    doc.compute(steps);
+    answer = { id: question.id, ok: true, value: doc.document.map((terms) => terms.map((t) => [t.text, t.pre, t.post, [...t.tags]])) };
   } catch (error) {
     answer = { id: question.id, ok: false, error: String((error && error.message) || error) };
   }
@@ -69,8 +57,6 @@ type Thread = {
   asked: number; read: number;
   /** Answers read off the port before they were asked for. */
   early: Map<number, Answer>;
-  /** The number of the question for the word list, asked as the thread starts. */
-  lexiconQuestion?: number;
 };
 // Kept on globalThis: the command line starts the thread from its own copy of this module, the bundled checker asks
 // it from another.
@@ -94,9 +80,6 @@ export function startModelThread(): void {
     worker.on('error', () => stopModelThread());
     const thread: Thread = { worker, port: port1, flag, asked: 0, read: 0, early: new Map() };
     slots[slot] = thread;
-    // The word list is asked for at once: it is sent as soon as the model has loaded, and every later word is
-    // looked up in the main thread without a question.
-    thread.lexiconQuestion = post({ op: 'lexicon' });
   } catch {
     // no thread: the model is loaded in the main thread when it is first needed
   }
@@ -119,7 +102,7 @@ export function stopModelThread(): void {
 export type Ticket = number;
 
 /** Sends a question without waiting for its answer; undefined when there is no thread. */
-function post(question: { op: 'tag'; text: string } | { op: 'lexicon' }): Ticket | undefined {
+function post(question: { op: 'tag'; text: string }): Ticket | undefined {
   const thread = slots[slot];
   if (!thread) return undefined;
   const id = ++thread.asked;
@@ -178,21 +161,4 @@ export function takeTagged(ticket: Ticket): TermData[][] | undefined {
 export function tagOnThread(text: string): TermData[][] | undefined {
   const ticket = postTagging(text);
   return ticket === undefined ? undefined : takeTagged(ticket);
-}
-
-/**
- * The model's word list from the thread (each word, lower case, and the first tag of its entry), read once; undefined
- * when the main thread must look the words up itself.
- */
-export function lexiconOnThread(): Map<string, string> | undefined {
-  const thread = slots[slot];
-  if (!thread || thread.lexiconQuestion === undefined) return undefined;
-  const text = take(thread.lexiconQuestion)?.value;
-  if (typeof text !== 'string') return undefined;
-  const words = new Map<string, string>();
-  for (const line of text.split('\u0000')) {
-    const cut = line.indexOf('\u0001');
-    if (cut >= 0) words.set(line.slice(0, cut), line.slice(cut + 1));
-  }
-  return words;
 }

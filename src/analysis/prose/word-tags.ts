@@ -2,13 +2,14 @@
 // The model is loaded on first use (half a second): a run that reads no prose (every file found in the result
 // cache) never loads it. It is the package's single-file build, the same version and code as its module entry.
 import { dependencyRequire } from '../load-dependency.ts';
-import { lexiconOnThread, modelThreadRunning, postTagging, tagOnThread, takeTagged, type TermData, type Ticket } from './model-thread.ts';
+import { modelInfinitives } from './model-infinitives.ts';
+import { modelThreadRunning, postTagging, tagOnThread, takeTagged, type TermData, type Ticket } from './model-thread.ts';
 
 type Term = { text: string; pre: string; post: string; tags: Set<string> };
 type Tagged = { document: Term[][]; compute(steps: string[]): unknown };
 type Nlp = ((text: string) => Tagged) & {
   tokenize(text: string): Tagged;
-  world(): { hooks: string[]; model: { one: { lexicon: Record<string, string | string[]> } } };
+  world(): { hooks: string[] };
 };
 
 let model: Nlp | undefined;
@@ -193,17 +194,14 @@ function settlePosted(until: (entry: (typeof posted)[number]) => boolean): void 
   }
 }
 
-let lexicon: Record<string, string | string[]> | undefined;
-/** The word list as the thread sent it: each word and the first tag of its entry. */
-let threadLexicon: Map<string, string> | undefined;
+let infinitives: ReadonlySet<string> | undefined;
 
-/** The tag the model's own word list gives a word, without parsing (undefined for words it derives by rule). */
-export function lexiconTag(word: string): string | undefined {
-  const key = word.toLowerCase();
-  if (!lexicon && !threadLexicon && modelThreadRunning()) threadLexicon = lexiconOnThread();
-  if (!lexicon && threadLexicon) return threadLexicon.get(key);
-  lexicon ??= nlp().world().model.one.lexicon;
-  // Only the word list's own entries (not what every object inherits, such as 'constructor').
-  const entry = Object.hasOwn(lexicon, key) ? lexicon[key] : undefined;
-  return Array.isArray(entry) ? entry[0] : entry;
+/**
+ * Whether the model's own word list enters a word (lower case) first as a base-form verb. Answered from the list
+ * taken from the model (model-infinitives.ts, checked against it by a test), so that neither the model nor its
+ * thread is waited for: the first instruction of a run is read while the model is still loading.
+ */
+export function isModelInfinitive(word: string): boolean {
+  infinitives ??= new Set(modelInfinitives);
+  return infinitives.has(word.toLowerCase());
 }

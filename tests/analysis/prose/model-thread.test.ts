@@ -1,5 +1,5 @@
 // The English model on a second thread (started by `stepwright check` when no result cache will answer) gives the
-// same tags and word-list entries as the model loaded in the main thread, one phrase or many phrases ahead.
+// same tags as the model loaded in the main thread, one phrase or many phrases ahead.
 import fc from 'fast-check';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 
@@ -15,8 +15,8 @@ async function freshModules(): Promise<{ tags: WordTags; thread: ModelThread }> 
   };
 }
 
-type Reading = { tags: string[][][]; lexicon: Array<string | undefined>; onThread: boolean };
-async function read(phrases: string[], words: string[], onThread: boolean): Promise<Reading> {
+type Reading = { tags: string[][][]; onThread: boolean };
+async function read(phrases: string[], onThread: boolean): Promise<Reading> {
   const { tags, thread } = await freshModules();
   thread.stopModelThread();
   if (onThread) thread.startModelThread();
@@ -24,8 +24,7 @@ async function read(phrases: string[], words: string[], onThread: boolean): Prom
     // Half of them tagged ahead as one document, the rest one by one.
     tags.tagAhead(() => phrases.slice(0, Math.ceil(phrases.length / 2)).forEach((p) => tags.tagsAt(p, 0)));
     const tagged = phrases.map((p) => p.split(' ').map((_, i) => [...tags.tagsAt(p, i)].sort()));
-    const lexicon = words.map((w) => tags.lexiconTag(w));
-    return { tags: tagged, lexicon, onThread: thread.modelThreadRunning() };
+    return { tags: tagged, onThread: thread.modelThreadRunning() };
   } finally {
     thread.stopModelThread();
   }
@@ -36,23 +35,19 @@ const plantPhrases = [
   'Vent the kettle to the scrubber', 'Record the time on form ARC-F-120', 'Do not open the hatch',
   'If the level is low, then stop the pump', 'Wait for the drum to cool', 'Isolate the feed', 'Purge the line with nitrogen',
 ];
-const plantWords = ['close', 'Open', 'purge', 'isolate', 'vent', 'drum', 'constructor', 'toString', '__proto__', 'hasOwnProperty', 'xylene', ''];
 
 afterEach(async () => {
   (await import('../../../src/analysis/prose/model-thread.ts')).stopModelThread();
 });
 
 describe('the English model on its own thread', () => {
-  it('answers as the main thread does: tags of phrases alone and ahead, word-list entries', async () => {
-    const here = await read(plantPhrases, plantWords, false);
-    const there = await read(plantPhrases, plantWords, true);
+  it('answers as the main thread does: tags of phrases alone and ahead', async () => {
+    const here = await read(plantPhrases, false);
+    const there = await read(plantPhrases, true);
     expect(here.onThread).toBe(false);
     // Still running after every answer: the answers came from the thread, not from a fallback.
     expect(there.onThread).toBe(true);
     expect(there.tags).toEqual(here.tags);
-    expect(there.lexicon).toEqual(here.lexicon);
-    // The word list knows 'purge' and nothing of what objects inherit.
-    expect(here.lexicon[plantWords.indexOf('constructor')]).toBeUndefined();
     expect(here.tags.flat().some((t) => t.includes('Verb'))).toBe(true);
   }, 60_000);
 
@@ -61,19 +56,17 @@ describe('the English model on its own thread', () => {
     const phrase = fc.array(word, { minLength: 1, maxLength: 7 }).map((w) => w.join(' '));
     await fc.assert(
       fc.asyncProperty(fc.array(phrase, { minLength: 1, maxLength: 12 }), async (phrases) => {
-        const words = phrases.flatMap((p) => p.split(' '));
-        const here = await read(phrases, words, false);
-        const there = await read(phrases, words, true);
+        const here = await read(phrases, false);
+        const there = await read(phrases, true);
         expect(there.onThread).toBe(true);
         expect(there.tags).toEqual(here.tags);
-        expect(there.lexicon).toEqual(here.lexicon);
       }),
       { numRuns: 15, seed: 1203 },
     );
   }, 120_000);
 
   it('tags phrases sent ahead while the main thread goes on, with the answers of the main thread', async () => {
-    const here = await read(plantPhrases, plantWords, false);
+    const here = await read(plantPhrases, false);
     const { tags, thread } = await freshModules();
     thread.startModelThread();
     const procedures = [{}, {}];
