@@ -22,6 +22,18 @@ export class RuleMemo<K extends object, V> {
   forget(): void {
     this.#entries = new WeakMap();
   }
+
+  delete(key: object): void {
+    this.#entries.delete(key as K);
+  }
+}
+
+/**
+ * Lets the analyses of one procedure go (its model and its facts are the keys): the check calls it once a file's own
+ * rules are done, so that a large run does not hold every file's analyses until its end.
+ */
+export function forgetRuleAnalysesOf(...keys: Array<object | null | undefined>): void {
+  for (const key of keys) if (key) for (const memo of memos) memo.delete(key);
 }
 
 /** Lets every rule analysis kept so far go (each is made again when asked for). */

@@ -5,6 +5,7 @@ import { startSourceReader, type SourceReader } from '../parse/source-reader.ts'
 import type { Procedure } from '../model/procedure.ts';
 import type { PlantRegister } from '../model/register.ts';
 import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
+import { forgetRuleAnalysesOf } from '../analysis/rule-memo.ts';
 import { readProcedure } from '../read/read-procedure.ts';
 import { toDiagnostic, type FileContext, type FileHistory, type FileRule, type Report, type Rule, type RuleMeta } from './define-rule.ts';
 import { expandCalls, expansionCategories, type RawFinding } from './call-expansion.ts';
@@ -146,6 +147,9 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       runGuarded(rule, () => rule.check(context), context, emit);
     }
     context.summary = summarise(context.procedure);
+    // What only this file's rules read (its prose, sequence, decisions and plant state) is made again should a later
+    // pass ask for it: a large run keeps one file's analyses at a time, not every file's until the end.
+    forgetRuleAnalysesOf(context.procedure, context.facts);
     const key = fileKeys.get(context);
     if (key) store!.set(key, { diagnostics: sink.get(context)!, summary: context.summary } satisfies CachedFile);
   }
