@@ -17,6 +17,7 @@ import { writeOfflineCopy, type OfflineCopySummary } from './write-offline-copy.
 import { GitError } from '../history/git.ts';
 import { stopModelThread } from '../analysis/prose/model-thread.ts';
 import { buildProgress } from './progress.ts';
+import { compactHeap } from './compact-heap.ts';
 import { linkPackages, packagesHolder, packagesReachableFrom } from './package-links.ts';
 import { buildHelp } from './command-help.ts';
 
@@ -67,6 +68,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // never read prose with it, and its memory is the build's.
     stopModelThread();
   }
+  // What the check made and dropped is given back before the pages are built on top of it (see compact-heap.ts).
+  if (loaded.view) compactHeap();
   progress.done(`${loaded.inputs.length} checked`);
   if (loaded.run.diagnostics.length > 0) io.stdout.write(formatCheckFailure(loaded, useColour(io, io.stdout)));
   const outDir = resolve(io.cwd, values.out);
