@@ -2,6 +2,7 @@
 import type { MathJsInstance, Unit } from 'mathjs';
 import { closest, distance } from 'fastest-levenshtein';
 import { loadMathjs } from './load-mathjs.ts';
+import { documentedUnitParts, libraryUnitWords } from './unit-table.ts';
 
 /** A problem with a unit or quantity, as plain data for diagnostics. */
 export interface UnitError {
@@ -18,6 +19,10 @@ export type ParsedDuration = { ok: true; min: number; max: number } | UnitError;
 // once per process (on globalThis): the site's pages run a bundled copy of this module next to the command's
 // own, and both must use the one instance that has the units below, defined once.
 const instanceSlot = Symbol.for('stepwright.units.mathjs');
+/** The library instance with Stepwright's units (for the script that writes unit-table.ts, and its test). */
+export function unitLibrary(): MathJsInstance {
+  return mathjs();
+}
 function mathjs(): MathJsInstance {
   const slots = globalThis as unknown as Record<symbol, MathJsInstance | undefined>;
   slots[instanceSlot] ??= defineUnits(loadMathjs());
@@ -108,15 +113,18 @@ const dimensionNames: Record<string, string> = {
   'time': 'time',
   'mass·time^-1': 'mass flow',
   'length^3·time^-1': 'volume flow',
-  'temperature·time^-1': 'temperature rate',
+  // Keys list the base dimensions in the order of baseNames below (time before temperature).
+  'time^-1·temperature': 'temperature rate',
+  'time^-1': 'frequency',
   'mass·length^2·time^-3': 'power',
   'current': 'electric current',
   'time·current': 'electric charge',
+  'mass·length^2·time^-3·current^-1': 'electric potential',
 };
 
 const baseNames = ['mass', 'length', 'time', 'current', 'temperature', 'luminous intensity', 'amount', 'angle', 'bit'];
 
-interface UnitFacts {
+export interface UnitFacts {
   /** Stable key for the physical dimension, e.g. "pressure" or "mass·length^-2". */
   dimension: string;
   /** Factor to SI base for differences (no offset). */
@@ -135,7 +143,7 @@ interface MathjsUnitPart {
 const factsCache = new Map<string, UnitFacts | UnitError>();
 
 /** Spellings mathjs cannot read but plant people write. */
-function normalizeUnit(unit: string): string {
+export function normalizeUnit(unit: string): string {
   return unit.replaceAll('%', 'percent');
 }
 
@@ -158,9 +166,9 @@ function suggestUnit(unit: string): string {
   return 'Write a unit such as degC, kPa, mmHg, kg, m3/h, min or %.';
 }
 
-function dimensionKey(u: Unit): string {
+function dimensionKey(dimensions: readonly number[]): string {
   const parts: string[] = [];
-  u.dimensions.forEach((power, i) => {
+  dimensions.forEach((power, i) => {
     if (power === 0) return;
     parts.push(power === 1 ? baseNames[i] : `${baseNames[i]}^${power}`);
   });
@@ -178,7 +186,8 @@ function describe(unit: string): UnitFacts | UnitError {
   return facts;
 }
 
-function readUnit(unit: string): UnitFacts | UnitError {
+/** A unit's dimension, scale and offset, or why it is not a unit (exported for the test that compares it with the library). */
+export function readUnit(unit: string): UnitFacts | UnitError {
   const trimmed = unit.trim();
   if (trimmed === '') return unitError('The unit is missing.', 'Write a unit such as degC, kPa, kg or min.');
   if (/\s/.test(trimmed)) return unitError(`The unit '${trimmed}' contains a space.`, 'Write the unit without spaces, e.g. m3/h.');
@@ -187,6 +196,26 @@ function readUnit(unit: string): UnitFacts | UnitError {
   if (parts.length > 2 || !parts.every((p) => documented.has(p))) {
     return unitError(`'${trimmed}' is not a unit Stepwright knows.`, suggestUnit(trimmed));
   }
+  return fromTable(parts) ?? readWithLibrary(trimmed);
+}
+
+/**
+ * The facts of a documented unit or a compound of two, from the table the library's own readings were written to
+ * (unit-table.ts): the same arithmetic on the same numbers as readWithLibrary, without loading the library.
+ * Undefined when the table lacks a part (then the library is asked).
+ */
+function fromTable(parts: string[]): UnitFacts | undefined {
+  const read = parts.map((p) => documentedUnitParts[p]);
+  if (read.some((r) => r === undefined)) return undefined;
+  const dimensions = read[0].dimensions.map((d, i) => (read.length === 1 ? d : d - read[1].dimensions[i]));
+  let scale = 1;
+  read.forEach((r, i) => { scale *= (r.value * r.prefix) ** (i === 0 ? 1 : -1); });
+  // The library applies an offset only to a lone unit to the first power (degC, not degC/min); so do we.
+  return { dimension: dimensionKey(dimensions), scale, offset: read.length === 1 ? read[0].offset : 0 };
+}
+
+/** The facts of a unit as the library reads it (exported for the test that compares it with the table). */
+export function readWithLibrary(trimmed: string): UnitFacts | UnitError {
   let parsed: Unit;
   // Loaded outside the try: a library that cannot be loaded is a fault to report, not an unknown unit.
   const math = mathjs();
@@ -207,16 +236,25 @@ function readUnit(unit: string): UnitFacts | UnitError {
   // mathjs applies an offset only to a lone unit to the first power (degC, not degC/min); so do we.
   const [only] = parsed.units as unknown as MathjsUnitPart[];
   const offset = parsed.units.length === 1 && only.power === 1 ? only.unit.offset : 0;
-  return { dimension: dimensionKey(parsed), scale, offset };
+  return { dimension: dimensionKey(parsed.dimensions), scale, offset };
 }
 
 export function isKnownUnit(unit: string): boolean {
   return !('ok' in describe(unit));
 }
 
+let unitWords: ReadonlySet<string> | undefined;
+
 /** Whether a word in running text reads as some unit (lenient: prose is not held to the documented list). */
 export function isUnitWord(word: string): boolean {
   if (isKnownUnit(word)) return true;
+  // A word of letters and digits is one unit name to the library: it reads it as a unit exactly when the name, or a
+  // prefix and the name, is one of its units (the table lists every such word). Anything else is asked of it.
+  const normalized = normalizeUnit(word);
+  if (/^[A-Za-z][A-Za-z0-9]*$/.test(normalized)) {
+    unitWords ??= new Set(libraryUnitWords);
+    return unitWords.has(normalized);
+  }
   const math = mathjs();
   try {
     return math.unit(normalizeUnit(word)).value === null;
