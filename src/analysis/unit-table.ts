@@ -1,4 +1,4 @@
-// Written by scripts/unit-table.mjs from mathjs 15.2.0 with the units Stepwright defines. Do not edit;
+// Written by scripts/write-unit-table.mjs from mathjs 15.2.0 with the units Stepwright defines. Do not edit;
 // run `npm run unit-table` again after upgrading mathjs or changing the units.
 export const unitTableVersion = "15.2.0";
 

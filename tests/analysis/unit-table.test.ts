@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { documentedUnitParts, libraryUnitWords, unitTableVersion } from '../../src/analysis/unit-table.ts';
 import { commonUnits, documentedUnits, isUnitWord, normalizeUnit, readUnit, readWithLibrary, unitDimension, unitLibrary } from '../../src/analysis/units.ts';
 // @ts-expect-error: the script is plain JavaScript without type declarations.
-import { unitTableOf } from '../../scripts/unit-table.mjs';
+import { unitTableOf } from '../../scripts/write-unit-table.mjs';
 
 /** The library's own answer: the word parses as a unit with no number. */
 function libraryReadsAsUnit(word: string): boolean {

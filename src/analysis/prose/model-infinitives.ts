@@ -1,4 +1,4 @@
-// Written by scripts/model-infinitives.mjs from the word list of compromise 14.17.0: every word whose entry's first
+// Written by scripts/write-model-infinitives.mjs from the word list of compromise 14.17.0: every word whose entry's first
 // tag is "Infinitive" (a base-form verb). Do not edit; run the script again after upgrading the model.
 export const modelVersion = "14.17.0";
 

@@ -11,7 +11,7 @@ const lexicon = nlp.world().model.one.lexicon;
 const firstTag = (word: string) => (Object.hasOwn(lexicon, word) ? [lexicon[word]].flat()[0] : undefined);
 
 describe('the base-form verbs of the English model', () => {
-  it('were taken from the installed model (run scripts/model-infinitives.mjs after an upgrade)', () => {
+  it('were taken from the installed model (run scripts/write-model-infinitives.mjs after an upgrade)', () => {
     expect(modelVersion).toBe(nlp.version);
     const fromModel = Object.keys(lexicon).filter((word) => firstTag(word) === 'Infinitive');
     expect([...modelInfinitives]).toEqual(fromModel);

@@ -27,7 +27,7 @@ export function moduleText(words, version) {
     line += (line ? ' ' : '') + item;
   }
   if (line) lines.push(`  ${line}`);
-  return `// Written by scripts/model-infinitives.mjs from the word list of compromise ${version}: every word whose entry's first
+  return `// Written by scripts/write-model-infinitives.mjs from the word list of compromise ${version}: every word whose entry's first
 // tag is "Infinitive" (a base-form verb). Do not edit; run the script again after upgrading the model.
 export const modelVersion = ${JSON.stringify(version)};
 

@@ -43,7 +43,7 @@ function wrapped(items) {
 
 export function moduleText({ version, parts, words }) {
   const entries = Object.entries(parts).map(([name, p]) => `  ${JSON.stringify(name)}: { dimensions: ${JSON.stringify(p.dimensions)}, value: ${JSON.stringify(p.value)}, prefix: ${JSON.stringify(p.prefix)}, offset: ${JSON.stringify(p.offset)} },`);
-  return `// Written by scripts/unit-table.mjs from mathjs ${version} with the units Stepwright defines. Do not edit;
+  return `// Written by scripts/write-unit-table.mjs from mathjs ${version} with the units Stepwright defines. Do not edit;
 // run \`npm run unit-table\` again after upgrading mathjs or changing the units.
 export const unitTableVersion = ${JSON.stringify(version)};
 
