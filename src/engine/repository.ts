@@ -3,7 +3,7 @@
 import { realpathSync, statSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import type { SourceInput } from '../check/run-checks.ts';
-import { GitError, gitIn, type Git } from '../history/git.ts';
+import { GitError, gitIn, gitNow, type Git } from '../history/git.ts';
 import { previousVersions, type PreviousVersion } from '../history/previous-version.ts';
 
 export interface Repository {
@@ -21,6 +21,11 @@ export interface Repository {
  * same git process also resolves that ref to its commit (`commit`, absent when the ref is not in the clone).
  */
 export async function openRepository(io: { cwd: string; env?: Record<string, string | undefined> }, at?: string, base?: string): Promise<(Repository & { commit?: string }) | undefined> {
+  return openRepositoryNow(io, at, base);
+}
+
+/** openRepository, waiting for git's one short answer in place. */
+export function openRepositoryNow(io: { cwd: string; env?: Record<string, string | undefined> }, at?: string, base?: string): (Repository & { commit?: string }) | undefined {
   const start = existingFolder(resolve(io.cwd, at ?? '.'));
   // A ref never starts with '-' (git check-ref-format): such a base is left to resolveCommit to refuse, not read
   // as an option here.
@@ -30,7 +35,7 @@ export async function openRepository(io: { cwd: string; env?: Record<string, str
   try {
     // One git process for all three answers: this runs before every check, and each git process costs the
     // checker tens of milliseconds to start.
-    lines = (await gitIn(start)(['rev-parse', '--show-toplevel', '--is-shallow-repository', ...ref])).split('\n');
+    lines = gitNow(start, ['rev-parse', '--show-toplevel', '--is-shallow-repository', ...ref]).split('\n');
   } catch {
     return undefined;
   }
@@ -90,7 +95,9 @@ export async function previousFromGit(
   /** Where the procedures are (default: the first file read): its repository holds their history. */
   at?: string,
 ): Promise<{ previous?: (file: string) => PreviousVersion | undefined; repo?: Repository }> {
-  const repo = await openRepository(io, at ?? inputs.find((i) => 'text' in i)?.file, base ?? 'HEAD');
+  // Asked in place, so that the previous versions are asked for at once: git reads them while this thread reads the
+  // configuration and the register.
+  const repo = openRepositoryNow(io, at ?? inputs.find((i) => 'text' in i)?.file, base ?? 'HEAD');
   if (!repo) return {};
   const files = inputs.flatMap((i) => ('text' in i ? [{ file: i.file, path: repoPath(repo, resolve(io.cwd, i.file)) }] : []));
   let found: Map<string, PreviousVersion>;

@@ -1,5 +1,5 @@
 // Runs the git command line in one working folder; injected so tests can point it at a repository they build.
-import { execFile } from 'node:child_process';
+import { execFile, execFileSync } from 'node:child_process';
 
 /** Runs `git <args>` and resolves with its standard output; rejects with a GitError. */
 export interface Git {
@@ -21,13 +21,28 @@ export class GitError extends Error {
   }
 }
 
+function gitFailure(args: string[], error: Error, stderr: unknown): GitError {
+  const missing = (error as NodeJS.ErrnoException).code === 'ENOENT';
+  const detail = String(stderr || error.message).trim().split('\n')[0];
+  return new GitError(missing ? 'git is not installed or not on the PATH' : `git ${args[0]} failed: ${detail}`, args, String(stderr), missing);
+}
+
+/**
+ * Runs `git <args>` in `cwd` and waits for it, returning its standard output; throws a GitError. For the one short
+ * question a run asks before anything else, so that what follows can be started without waiting for a turn of the
+ * event loop (which the checker's own work would hold up).
+ */
+export function gitNow(cwd: string, args: string[]): string {
+  try {
+    return execFileSync('git', args, { cwd, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'], maxBuffer: 64 * 1024 * 1024 });
+  } catch (error) {
+    throw gitFailure(args, error as Error, (error as { stderr?: unknown }).stderr);
+  }
+}
+
 export function gitIn(cwd: string, env?: Record<string, string | undefined>): Git {
   const options = { cwd, env: env as NodeJS.ProcessEnv | undefined, maxBuffer: 1024 * 1024 * 1024 };
-  const fail = (args: string[], error: Error, stderr: unknown) => {
-    const missing = (error as NodeJS.ErrnoException).code === 'ENOENT';
-    const detail = String(stderr || error.message).trim().split('\n')[0];
-    return new GitError(missing ? 'git is not installed or not on the PATH' : `git ${args[0]} failed: ${detail}`, args, String(stderr), missing);
-  };
+  const fail = gitFailure;
   const run: Git = (args) =>
     new Promise((resolve, reject) => {
       execFile('git', args, { ...options, encoding: 'utf8' }, (error, stdout, stderr) => (error ? reject(fail(args, error, stderr)) : resolve(stdout)));
