@@ -5,6 +5,7 @@
 import { writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { fileURLToPath } from 'node:url';
+import { wrappedItems } from './generated-list.mjs';
 
 const require = createRequire(import.meta.url);
 
@@ -16,23 +17,12 @@ export function infinitivesOfModel() {
 }
 
 export function moduleText(words, version) {
-  const lines = [];
-  let line = '';
-  for (const word of words) {
-    const item = `${JSON.stringify(word)},`;
-    if (line && line.length + item.length + 1 > 116) {
-      lines.push(`  ${line}`);
-      line = '';
-    }
-    line += (line ? ' ' : '') + item;
-  }
-  if (line) lines.push(`  ${line}`);
   return `// Written by scripts/write-model-infinitives.mjs from the word list of compromise ${version}: every word whose entry's first
 // tag is "Infinitive" (a base-form verb). Do not edit; run the script again after upgrading the model.
 export const modelVersion = ${JSON.stringify(version)};
 
 export const modelInfinitives: readonly string[] = [
-${lines.join('\n')}
+${wrappedItems(words.map((word) => `${JSON.stringify(word)},`))}
 ];
 `;
 }

@@ -5,6 +5,7 @@
 // tests/analysis/unit-table.test.ts fails until then.
 import { writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+import { wrappedItems } from './generated-list.mjs';
 
 /** The table's content, read from the library instance the units module makes. */
 export async function unitTableOf() {
@@ -27,20 +28,6 @@ export async function unitTableOf() {
   return { version: math.version, parts, words: plain };
 }
 
-function wrapped(items) {
-  const lines = [];
-  let line = '';
-  for (const item of items) {
-    if (line && line.length + item.length + 1 > 116) {
-      lines.push(`  ${line}`);
-      line = '';
-    }
-    line += (line ? ' ' : '') + item;
-  }
-  if (line) lines.push(`  ${line}`);
-  return lines.join('\n');
-}
-
 export function moduleText({ version, parts, words }) {
   const entries = Object.entries(parts).map(([name, p]) => `  ${JSON.stringify(name)}: { dimensions: ${JSON.stringify(p.dimensions)}, value: ${JSON.stringify(p.value)}, prefix: ${JSON.stringify(p.prefix)}, offset: ${JSON.stringify(p.offset)} },`);
   return `// Written by scripts/write-unit-table.mjs from mathjs ${version} with the units Stepwright defines. Do not edit;
@@ -54,7 +41,7 @@ ${entries.join('\n')}
 
 /** Every word of letters and digits the library reads as a unit without a number: a unit's name, with or without one of its prefixes. */
 export const libraryUnitWords: readonly string[] = [
-${wrapped(words.map((w) => `${JSON.stringify(w)},`))}
+${wrappedItems(words.map((w) => `${JSON.stringify(w)},`))}
 ];
 `;
 }

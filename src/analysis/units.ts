@@ -257,7 +257,7 @@ export function isUnitWord(word: string): boolean {
   }
   const math = mathjs();
   try {
-    return math.unit(normalizeUnit(word)).value === null;
+    return math.unit(normalized).value === null;
   } catch {
     return false;
   }

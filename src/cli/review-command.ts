@@ -42,7 +42,7 @@ export async function runReview(argv: string[], io: CliIo): Promise<number> {
 
   const paths = positionals.length ? [...positionals, ...(values.procedures ? [values.procedures] : [])] : [proceduresFolder(io, values)];
   // The repository that holds the procedures, wherever the command was started.
-  const repo = await openRepository(io, paths[0]);
+  const repo = openRepository(io, paths[0]);
   if (!repo) {
     io.stderr.write(`stepwright review: ${paths[0]} is not inside a git repository; review compares against a git base.\n`);
     return 2;

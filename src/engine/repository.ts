@@ -18,14 +18,10 @@ export interface Repository {
 /**
  * The repository around `at` (a file or folder; default the working folder). Pass the procedures folder:
  * history belongs to the repository that holds the procedures, wherever the command was started. With `base`, the
- * same git process also resolves that ref to its commit (`commit`, absent when the ref is not in the clone).
+ * same git process also resolves that ref to its commit (`commit`, absent when the ref is not in the clone). Waits
+ * for git's one short answer in place, so that a caller can start its next git process at once.
  */
-export async function openRepository(io: { cwd: string; env?: Record<string, string | undefined> }, at?: string, base?: string): Promise<(Repository & { commit?: string }) | undefined> {
-  return openRepositoryNow(io, at, base);
-}
-
-/** openRepository, waiting for git's one short answer in place. */
-export function openRepositoryNow(io: { cwd: string; env?: Record<string, string | undefined> }, at?: string, base?: string): (Repository & { commit?: string }) | undefined {
+export function openRepository(io: { cwd: string; env?: Record<string, string | undefined> }, at?: string, base?: string): (Repository & { commit?: string }) | undefined {
   const start = existingFolder(resolve(io.cwd, at ?? '.'));
   // A ref never starts with '-' (git check-ref-format): such a base is left to resolveCommit to refuse, not read
   // as an option here.
@@ -97,7 +93,7 @@ export async function previousFromGit(
 ): Promise<{ previous?: (file: string) => PreviousVersion | undefined; repo?: Repository }> {
   // Asked in place, so that the previous versions are asked for at once: git reads them while this thread reads the
   // configuration and the register.
-  const repo = openRepositoryNow(io, at ?? inputs.find((i) => 'text' in i)?.file, base ?? 'HEAD');
+  const repo = openRepository(io, at ?? inputs.find((i) => 'text' in i)?.file, base ?? 'HEAD');
   if (!repo) return {};
   const files = inputs.flatMap((i) => ('text' in i ? [{ file: i.file, path: repoPath(repo, resolve(io.cwd, i.file)) }] : []));
   let found: Map<string, PreviousVersion>;

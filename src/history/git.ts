@@ -42,14 +42,13 @@ export function gitNow(cwd: string, args: string[]): string {
 
 export function gitIn(cwd: string, env?: Record<string, string | undefined>): Git {
   const options = { cwd, env: env as NodeJS.ProcessEnv | undefined, maxBuffer: 1024 * 1024 * 1024 };
-  const fail = gitFailure;
   const run: Git = (args) =>
     new Promise((resolve, reject) => {
-      execFile('git', args, { ...options, encoding: 'utf8' }, (error, stdout, stderr) => (error ? reject(fail(args, error, stderr)) : resolve(stdout)));
+      execFile('git', args, { ...options, encoding: 'utf8' }, (error, stdout, stderr) => (error ? reject(gitFailure(args, error, stderr)) : resolve(stdout)));
     });
   run.bytes = (args, input) =>
     new Promise((resolve, reject) => {
-      const child = execFile('git', args, { ...options, encoding: 'buffer' }, (error, stdout, stderr) => (error ? reject(fail(args, error, stderr)) : resolve(stdout)));
+      const child = execFile('git', args, { ...options, encoding: 'buffer' }, (error, stdout, stderr) => (error ? reject(gitFailure(args, error, stderr)) : resolve(stdout)));
       // git may exit before it has read all of its input (e.g. outside a repository): the write then fails
       // with EPIPE, which must become the command's failure, not an unhandled error that ends the process.
       child.stdin?.on('error', () => {});

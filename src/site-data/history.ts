@@ -21,7 +21,7 @@ async function loadHistories(): Promise<Map<string, HistoryView>> {
   const { loaded, view } = await siteManual();
   const io = { cwd: loaded.cwd, env: process.env };
   // History comes from the repository that holds the procedures (the check run has opened it already).
-  const repo = loaded.run.repo ?? (await openRepository(io, loaded.root));
+  const repo = loaded.run.repo ?? openRepository(io, loaded.root);
   const out = new Map<string, HistoryView>();
   const identity = (p: ProcedureView) => ({ id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status, url: p.url });
   if (!repo) {

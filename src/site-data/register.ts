@@ -40,7 +40,7 @@ async function load(): Promise<SiteRegister | undefined> {
   if (!register) return undefined;
   const view = buildRegisterView(register, loaded.result.files, manual, { href: (path) => siteUrl(loaded.base, path) });
   const absolute = resolve(loaded.cwd, register.folder);
-  const repo = loaded.run.repo ?? (await openRepository({ cwd: loaded.cwd, env: process.env }, absolute));
+  const repo = loaded.run.repo ?? openRepository({ cwd: loaded.cwd, env: process.env }, absolute);
   if (!repo) {
     return { view, history: new Map(), commits: 0, uncommitted: false, impact: new Map(), historyNotice: 'This manual was built outside a git checkout, so the register\'s earlier versions are not available.' };
   }
