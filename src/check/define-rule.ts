@@ -80,16 +80,26 @@ export interface ManualContext {
   partial?: { folder: string; left: number };
 }
 
+/**
+ * Work that a file rule's `check` will need and that can run beside the main thread (the English model's tagging).
+ * It never reports and never changes what `check` finds; it only changes when the work is done.
+ */
+export interface WorkAhead {
+  /** Starts the work for one file: the engine calls it for every file it will check before any rule runs. */
+  prepare(context: FileContext): void;
+  /**
+   * Whether `check` can run on the file now without waiting for that work. When it cannot, the engine may check the
+   * file's other rules first and come back to this one later.
+   */
+  ready(context: FileContext): boolean;
+}
+
 export interface FileRule {
   meta: RuleMeta;
   scope: 'file';
   check(context: FileContext): void;
-  /**
-   * Starts, for one file, work that `check` will need and that can run beside the main thread (the English model's
-   * tagging): the engine calls it for every file it will check before any rule runs. It never reports and never
-   * changes what `check` finds.
-   */
-  prepare?(context: FileContext): void;
+  /** Work for `check` that can be started ahead, beside the main thread (see WorkAhead). */
+  ahead?: WorkAhead;
 }
 
 export interface ManualRule {
@@ -109,8 +119,8 @@ export interface EnginePass {
 
 export type Rule = FileRule | ManualRule | EnginePass;
 
-export function defineFileRule(meta: RuleMeta, check: (context: FileContext) => void, prepare?: (context: FileContext) => void): FileRule {
-  return { meta, scope: 'file', check, ...(prepare ? { prepare } : {}) };
+export function defineFileRule(meta: RuleMeta, check: (context: FileContext) => void, ahead?: WorkAhead): FileRule {
+  return { meta, scope: 'file', check, ...(ahead ? { ahead } : {}) };
 }
 
 export function defineEnginePass(meta: RuleMeta): EnginePass {

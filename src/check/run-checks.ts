@@ -130,28 +130,53 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   reader = options.readAhead === false ? undefined : startSourceReader(toRead);
   // Work the rules can start ahead for every file (the English model tags on its own thread) is started before any
   // rule runs, so that it goes on while the rules check the first files. It only ever changes when work is done.
-  for (const rule of rules) {
-    if (rule.scope !== 'file' || !rule.prepare) continue;
+  const fileRules = rules.filter((r): r is FileRule => r.scope === 'file');
+  for (const rule of fileRules) {
+    if (!rule.ahead) continue;
     for (const context of toCheck) {
       try {
-        rule.prepare(context);
+        rule.ahead.prepare(context);
       } catch {
         // the rule does the work itself when it checks the file, and reports what goes wrong there
       }
     }
   }
-  for (const context of toCheck) {
-    for (const rule of rules) {
-      if (rule.scope !== 'file') continue;
+  const runRules = (context: LazyFileContext, list: FileRule[]) => {
+    for (const rule of list) {
       setCurrent.get(context)!(rule.meta);
       runGuarded(rule, () => rule.check(context), context, emit);
     }
+  };
+  const finish = (context: LazyFileContext) => {
     context.summary = summarise(context.procedure);
     // What only this file's rules read (its prose, sequence, decisions and plant state) is made again should a later
     // pass ask for it: a large run keeps one file's analyses at a time, not every file's until the end.
     forgetRuleAnalysesOf(context.procedure, context.facts);
     const key = fileKeys.get(context);
     if (key) store!.set(key, { diagnostics: sink.get(context)!, summary: context.summary } satisfies CachedFile);
+  };
+  // A rule whose work ahead is not done yet for a file (its phrases not yet tagged) is left for later: the other rules
+  // check that file and the next ones meanwhile, instead of waiting. Few files wait so, in the order they came; the
+  // findings are the same, sorted as always.
+  const waiting: Array<{ context: LazyFileContext; rules: FileRule[] }> = [];
+  const ready = (entry: (typeof waiting)[number]) => entry.rules.every((rule) => readyAhead(rule, entry.context));
+  for (const context of toCheck) {
+    const later: FileRule[] = [];
+    for (const rule of fileRules) {
+      if (rule.ahead && (later.length || !readyAhead(rule, context))) later.push(rule);
+      else runRules(context, [rule]);
+    }
+    if (later.length) waiting.push({ context, rules: later });
+    else finish(context);
+    while (waiting.length && (waiting.length > filesWaitingAtMost || ready(waiting[0]))) {
+      const entry = waiting.shift()!;
+      runRules(entry.context, entry.rules);
+      finish(entry.context);
+    }
+  }
+  for (const entry of waiting.splice(0)) {
+    runRules(entry.context, entry.rules);
+    finish(entry.context);
   }
 
   // Every file the rules check has been read: the cross-file rules read any other file on this thread.
@@ -259,6 +284,18 @@ function runManualRules(
 interface LazyFileContext extends FileContext {
   summary?: FileSummary;
   releaseSource(): void;
+}
+
+/** How many files' rules may wait for work ahead at a time (each keeps its analyses until its rules are done). */
+const filesWaitingAtMost = 16;
+
+/** Whether the rule can check the file now without waiting; a rule whose question fails says so when it checks. */
+function readyAhead(rule: FileRule, context: FileContext): boolean {
+  try {
+    return rule.ahead?.ready(context) ?? true;
+  } catch {
+    return true;
+  }
 }
 
 function lazyFileContext(

@@ -147,6 +147,22 @@ function take(ticket: Ticket): { ok: true; value: unknown } | undefined {
   return answer;
 }
 
+/**
+ * Whether the answer to a question sent earlier can be taken without waiting (or the thread is gone, so that the
+ * caller will not wait either). Reads what has come in off the port; never blocks.
+ */
+export function answered(ticket: Ticket): boolean {
+  const thread = slots[slot];
+  if (!thread) return true;
+  for (;;) {
+    if (thread.early.has(ticket)) return true;
+    const message = receiveMessageOnPort(thread.port)?.message as Answer | undefined;
+    if (!message) return false;
+    thread.read++;
+    thread.early.set(message.id, message);
+  }
+}
+
 /** Sends a text to be tagged; its sentences come back from `takeTagged`. */
 export function postTagging(text: string): Ticket | undefined {
   return post({ op: 'tag', text });

@@ -6,7 +6,7 @@ import type { Procedure } from '../../model/procedure.ts';
 import { bareNumbers } from './bare-numbers.ts';
 import { chainedImperatives, givesInstruction, startsWithActionVerb } from './imperatives.ts';
 import { proseOf } from './prose-sites.ts';
-import { tagAhead, tagAheadLater } from './word-tags.ts';
+import { tagAhead, tagAheadLater, taggedAheadReady } from './word-tags.ts';
 
 const done = new WeakSet<Procedure>();
 
@@ -40,4 +40,12 @@ export function tagProseAhead(procedure: Procedure): void {
 export function tagProseLater(procedure: Procedure): void {
   if (done.has(procedure)) return;
   tagAheadLater(procedure, askAsTheRulesDo(procedure));
+}
+
+/**
+ * Whether the writing rules can read the procedure's prose now without waiting for the model's thread: its phrases
+ * have been tagged there, or none were sent. The answers are the same either way; only when they come differs.
+ */
+export function proseReady(procedure: Procedure): boolean {
+  return done.has(procedure) || taggedAheadReady(procedure);
 }

@@ -3,7 +3,7 @@
 // cache) never loads it. It is the package's single-file build, the same version and code as its module entry.
 import { dependencyRequire } from '../load-dependency.ts';
 import { modelInfinitives } from './model-infinitives.ts';
-import { modelThreadRunning, postTagging, tagOnThread, takeTagged, type TermData, type Ticket } from './model-thread.ts';
+import { answered, modelThreadRunning, postTagging, tagOnThread, takeTagged, type TermData, type Ticket } from './model-thread.ts';
 
 type Term = { text: string; pre: string; post: string; tags: Set<string> };
 type Tagged = { document: Term[][]; compute(steps: string[]): unknown };
@@ -173,6 +173,16 @@ export function tagAheadLater(key: object, ask: () => void): void {
   posted.push({ key, batch, ticket });
   postedKeys.add(key);
   for (const phrase of batch) postedPhrases.add(phrase);
+}
+
+/**
+ * Whether tagAhead(ask, key) would find the answer sent ahead for `key` without waiting for the thread: true when
+ * it has come, or when nothing was sent for `key` (nothing to wait for). The thread answers in the order asked.
+ */
+export function taggedAheadReady(key: object): boolean {
+  if (!postedKeys.has(key)) return true;
+  const entry = posted.find((e) => e.key === key);
+  return entry === undefined || answered(entry.ticket);
 }
 
 /** Takes the answers sent ahead, in order, up to and including the first entry `until` accepts. */

@@ -1,6 +1,7 @@
 // Reports a safety message whose hazard or consequence text gives an instruction instead of describing the danger.
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
-import { tagProseAhead, tagProseLater } from '../../analysis/prose/tag-ahead.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
+import { proseTaggedAhead } from '../prose-ahead.ts';
 import { givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -40,7 +41,5 @@ avoid: Do not open the jacket drains while H-220 runs`,
     }
   },
   // The procedure's phrases go to the English model's thread before any rule runs.
-  (ctx) => {
-    if (ctx.procedure) tagProseLater(ctx.procedure);
-  },
+  proseTaggedAhead,
 );

@@ -1,6 +1,7 @@
 // Reports a step note that gives an instruction: notes inform, actions belong in steps.
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
-import { tagProseAhead, tagProseLater } from '../../analysis/prose/tag-ahead.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
+import { proseTaggedAhead } from '../prose-ahead.ts';
 import { givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -37,7 +38,5 @@ export default defineFileRule(
     }
   },
   // The procedure's phrases go to the English model's thread before any rule runs.
-  (ctx) => {
-    if (ctx.procedure) tagProseLater(ctx.procedure);
-  },
+  proseTaggedAhead,
 );

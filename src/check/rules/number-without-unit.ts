@@ -1,6 +1,7 @@
 // Reports numbers in prose that carry no unit ("Set TIC-210 to 45"), so the operator cannot tell 45 what.
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
-import { tagProseAhead, tagProseLater } from '../../analysis/prose/tag-ahead.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
+import { proseTaggedAhead } from '../prose-ahead.ts';
 import { bareNumbers } from '../../analysis/prose/bare-numbers.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -38,7 +39,5 @@ ranges whose second value carries the unit (*40 to 50 degC*), pH values, times o
     }
   },
   // The procedure's phrases go to the English model's thread before any rule runs.
-  (ctx) => {
-    if (ctx.procedure) tagProseLater(ctx.procedure);
-  },
+  proseTaggedAhead,
 );

@@ -1,6 +1,7 @@
 // Reports a step action that chains several imperatives ("Open XV-2101 and start P-211").
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
-import { tagProseAhead, tagProseLater } from '../../analysis/prose/tag-ahead.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
+import { proseTaggedAhead } from '../prose-ahead.ts';
 import { chainedImperatives, givesInstruction } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -57,7 +58,5 @@ XV-2101 is open*) are not chained instructions.`,
     }
   },
   // The procedure's phrases go to the English model's thread before any rule runs.
-  (ctx) => {
-    if (ctx.procedure) tagProseLater(ctx.procedure);
-  },
+  proseTaggedAhead,
 );

@@ -1,6 +1,7 @@
 // Reports a step action that does not start with an action verb ("The valve is opened", "Opening XV-2101").
 import { proseOf } from '../../analysis/prose/prose-sites.ts';
-import { tagProseAhead, tagProseLater } from '../../analysis/prose/tag-ahead.ts';
+import { tagProseAhead } from '../../analysis/prose/tag-ahead.ts';
+import { proseTaggedAhead } from '../prose-ahead.ts';
 import { mainClauseStart, startsWithActionVerb } from '../../analysis/prose/imperatives.ts';
 import { defineFileRule } from '../define-rule.ts';
 
@@ -38,9 +39,7 @@ Passive or descriptive wording (*The valve is opened*, *Opening of XV-2101*) hid
     }
   },
   // The procedure's phrases go to the English model's thread before any rule runs.
-  (ctx) => {
-    if (ctx.procedure) tagProseLater(ctx.procedure);
-  },
+  proseTaggedAhead,
 );
 
 function truncate(text: string): string {

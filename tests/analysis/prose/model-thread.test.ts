@@ -98,6 +98,31 @@ describe('the English model on its own thread', () => {
     expect(fresh.tags.tagAhead(alone, procedures[0])).toBe(6);
   }, 60_000);
 
+  it('says, without waiting, whether the answer sent ahead has come', async () => {
+    const { tags, thread } = await freshModules();
+    thread.startModelThread();
+    const key = {};
+    const ask = () => plantPhrases.forEach((p) => tags.tagsAt(p, 0));
+    // Nothing sent for a key: nothing to wait for.
+    expect(tags.taggedAheadReady({})).toBe(true);
+    tags.tagAheadLater(key, ask);
+    // Just sent, while the thread still loads the model: not there yet, and asking does not wait for it.
+    const asked = performance.now();
+    expect(tags.taggedAheadReady(key)).toBe(false);
+    expect(performance.now() - asked).toBeLessThan(50);
+    // The answer comes in time while the main thread goes on; once it has, taking it tags nothing more.
+    const deadline = Date.now() + 30_000;
+    while (!tags.taggedAheadReady(key) && Date.now() < deadline) await new Promise((r) => setTimeout(r, 20));
+    expect(tags.taggedAheadReady(key)).toBe(true);
+    expect(tags.tagAhead(ask, key)).toBe(0);
+    expect(thread.modelThreadRunning()).toBe(true);
+    // A stopped thread keeps no one waiting.
+    const other = {};
+    tags.tagAheadLater(other, () => ['Start the pump', 'Stop the pump'].forEach((p) => tags.tagsAt(p, 0)));
+    thread.stopModelThread();
+    expect(tags.taggedAheadReady(other)).toBe(true);
+  }, 60_000);
+
   it('once stopped, leaves the work to the main thread with the same answers', async () => {
     const { tags, thread } = await freshModules();
     thread.startModelThread();

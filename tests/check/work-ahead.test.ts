@@ -1,0 +1,99 @@
+// A rule whose work ahead (the English model's tagging on its own thread) is not done for a file is left for later:
+// the other rules check that file and the next ones meanwhile. The findings are the same, and few files wait.
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
+import { defineFileRule, type FileContext, type RuleMeta, type WorkAhead } from '../../src/check/define-rule.ts';
+import { openResultCache } from '../../src/check/result-cache.ts';
+import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
+
+const today = '2026-12-01';
+const demo = readProcedureFiles(['procedures'], process.cwd()).filter((i): i is Extract<SourceInput, { text: string }> => 'text' in i);
+
+const meta = (id: string): RuleMeta => ({ id, category: 'writing', defaultSeverity: 'warning', summary: `${id} for the test`, docs: 'A rule of this test.' });
+
+/** Two rules that log the order they check files in: one plain, one with work ahead whose readiness the test sets. */
+function rules(ready: (file: string) => boolean) {
+  const order: string[] = [];
+  const name = (context: FileContext) => context.file.replace(/.*\//, '');
+  const plain = defineFileRule(meta('test-plain'), (context) => {
+    order.push(`plain ${name(context)}`);
+    context.report({ message: 'plain finding', hint: 'none' });
+  });
+  const prepared: string[] = [];
+  const ahead: WorkAhead = {
+    prepare: (context) => void prepared.push(name(context)),
+    ready: (context) => ready(name(context)),
+  };
+  const waiting = defineFileRule(meta('test-ahead'), (context) => {
+    order.push(`ahead ${name(context)}`);
+    context.report({ message: `ahead finding in ${name(context)}`, hint: 'none' });
+  }, ahead);
+  return { order, prepared, list: [plain, waiting] };
+}
+
+const three = demo.slice(0, 3);
+const names = three.map((i) => i.file.replace(/.*\//, ''));
+
+describe('work ahead', () => {
+  it('prepares every file before any rule runs', () => {
+    const { order, prepared, list } = rules(() => true);
+    checkSources(three, { today, rules: list });
+    expect(prepared).toEqual(names);
+    expect(order).toEqual(names.flatMap((n) => [`plain ${n}`, `ahead ${n}`]));
+  });
+
+  it('checks the next files while a file waits, then comes back to it, with the same findings', () => {
+    const ran = { plain: 0 };
+    // Ready only once the plain rule has checked all three files.
+    const waited = rules(() => ran.plain >= 3);
+    const counting = waited.list.map((rule) => (rule.meta.id === 'test-plain' && rule.scope === 'file'
+      ? { ...rule, check: (c: FileContext) => { ran.plain++; rule.check(c); } }
+      : rule));
+    const late = checkSources(three, { today, rules: counting });
+    // The third file's rule finds its work done at once; the two that waited follow, in the order they came.
+    expect(waited.order).toEqual([
+      `plain ${names[0]}`, `plain ${names[1]}`, `plain ${names[2]}`, `ahead ${names[2]}`, `ahead ${names[0]}`, `ahead ${names[1]}`,
+    ]);
+    const prompt = checkSources(three, { today, rules: rules(() => true).list });
+    expect(late.diagnostics).toEqual(prompt.diagnostics);
+    expect(late.diagnostics.filter((d) => d.rule === 'test-ahead')).toHaveLength(3);
+  });
+
+  it('lets at most 16 files wait: the oldest is finished, waiting, before a 17th joins', () => {
+    const inputs: SourceInput[] = Array.from({ length: 20 }, (_, i) => ({ ...demo[i % demo.length], file: `copies/p${String(i).padStart(2, '0')}.md` }));
+    const { order, list } = rules(() => false);
+    checkSources(inputs, { today, rules: list });
+    // The first file's waiting rule runs as soon as 17 files wait, i.e. right after the 17th file's plain rule.
+    expect(order.indexOf('ahead p00.md')).toBe(order.indexOf('plain p16.md') + 1);
+    expect(order.filter((o) => o.startsWith('ahead'))).toEqual(inputs.map((i) => `ahead ${i.file.replace(/.*\//, '')}`));
+  });
+
+  it('keeps a waiting rule\'s findings with its file in the result cache', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'stepwright-ahead-'));
+    try {
+      let ready = false;
+      const first = rules(() => ready);
+      const cold = checkSources(three, { today, rules: first.list, cache: { store: openResultCache(dir), salt: 't' } });
+      ready = true;
+      const second = rules(() => true);
+      const warm = checkSources(three, { today, rules: second.list, cache: { store: openResultCache(dir), salt: 't' } });
+      // Every file came from the cache (no rule ran), with the waiting rule's findings.
+      expect(second.order).toEqual([]);
+      expect(warm.diagnostics).toEqual(cold.diagnostics);
+      expect(warm.diagnostics.filter((d) => d.rule === 'test-ahead')).toHaveLength(3);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('runs a rule whose readiness question fails at once, as if ready', () => {
+    const { order, list } = rules(() => {
+      throw new Error('broken');
+    });
+    checkSources(three.slice(0, 1), { today, rules: list });
+    expect(order).toEqual([`plain ${names[0]}`, `ahead ${names[0]}`]);
+  });
+});
