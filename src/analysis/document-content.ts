@@ -21,6 +21,8 @@ const areaOrder: ContentArea[] = ['id', 'title', 'kind', 'equipment', 'ppe', 'si
 
 /** The content areas that differ between two versions of one procedure, in reading order. */
 export function changedContentAreas(before: Pick<Procedure, 'data' | 'bodyText'>, after: Pick<Procedure, 'data' | 'bodyText'>): ContentArea[] {
+  // A file unchanged since the commit is compared with its own reading (the check reads it once).
+  if (before === after) return [];
   const changed = new Set<ContentArea>();
   const control = new Set<string>(documentControlKeys);
   const keys = new Set([...Object.keys(before.data), ...Object.keys(after.data)]);
@@ -36,7 +38,8 @@ export function changedContentAreas(before: Pick<Procedure, 'data' | 'bodyText'>
 export function canonical(value: unknown): string {
   return JSON.stringify(value, (_key, v: unknown) => {
     if (v && typeof v === 'object' && !Array.isArray(v) && !(v instanceof Date)) {
-      return Object.fromEntries(Object.entries(v as Record<string, unknown>).sort(([a], [b]) => a.localeCompare(b)));
+      // Any fixed order will do for telling equal from different; code-unit order needs no collation tables.
+      return Object.fromEntries(Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)));
     }
     return v;
   }) ?? 'undefined';
