@@ -77,6 +77,9 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
     const imported = [...bundle.matchAll(/^import\s[^'"]*?from\s*['"]([^'"]+)['"]/gm)].map((m) => m[1]);
     expect(imported.filter((name) => !name.startsWith('node:') && !builtinModules.includes(name))).toEqual([]);
     expect(imported.length).toBeGreaterThan(0);
+    // zod's messages in English only (scripts/compile.mjs): none of its other languages is in the bundle.
+    expect(bundle).toContain('// node_modules/zod/v4/locales/en.js');
+    expect(bundle.match(/^\/\/ node_modules\/zod\/v4\/locales\/\S+/gm)?.sort()).toEqual(['// node_modules/zod/v4/locales/en.js', '// node_modules/zod/v4/locales/index.js']);
     const licences = readFileSync(join(installed, 'lib', 'cli', 'check-command.LICENSES.txt'), 'utf8');
     for (const library of ['yaml', 'zod', 'micromark', '@babel/code-frame']) expect(licences).toMatch(new RegExp(`^${library} \\d+\\.\\d+\\.\\d+ \\(`, 'm'));
   });
