@@ -128,19 +128,24 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     if ('text' in input) toRead.push({ file: input.file, text: input.text });
   }
   reader = options.readAhead === false ? undefined : startSourceReader(toRead);
-  // Work the rules can start ahead for every file (the English model tags on its own thread) is started before any
-  // rule runs, so that it goes on while the rules check the first files. It only ever changes when work is done.
+  // Work the rules can start ahead (the English model tags on its own thread) is started for the first files before
+  // any rule runs, and then for each file a stretch ahead of the one being checked: it goes on while the rules check,
+  // and a large run neither reads every file at once to start it nor holds every file's prose until its rules run.
+  // It only ever changes when work is done.
   const fileRules = rules.filter((r): r is FileRule => r.scope === 'file');
-  for (const rule of fileRules) {
-    if (!rule.ahead) continue;
-    for (const context of toCheck) {
-      try {
-        rule.ahead.prepare(context);
-      } catch {
-        // the rule does the work itself when it checks the file, and reports what goes wrong there
+  const aheadRules = fileRules.filter((r) => r.ahead);
+  let prepared = 0;
+  const prepareUpTo = (count: number) => {
+    for (; prepared < Math.min(count, toCheck.length); prepared++) {
+      for (const rule of aheadRules) {
+        try {
+          rule.ahead!.prepare(toCheck[prepared]);
+        } catch {
+          // the rule does the work itself when it checks the file, and reports what goes wrong there
+        }
       }
     }
-  }
+  };
   const runRules = (context: LazyFileContext, list: FileRule[]) => {
     for (const rule of list) {
       setCurrent.get(context)!(rule.meta);
@@ -160,7 +165,8 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   // findings are the same, sorted as always.
   const waiting: Array<{ context: LazyFileContext; rules: FileRule[] }> = [];
   const ready = (entry: (typeof waiting)[number]) => entry.rules.every((rule) => readyAhead(rule, entry.context));
-  for (const context of toCheck) {
+  toCheck.forEach((context, index) => {
+    prepareUpTo(index + preparedAhead);
     const later: FileRule[] = [];
     for (const rule of fileRules) {
       if (rule.ahead && (later.length || !readyAhead(rule, context))) later.push(rule);
@@ -173,7 +179,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       runRules(entry.context, entry.rules);
       finish(entry.context);
     }
-  }
+  });
   for (const entry of waiting.splice(0)) {
     runRules(entry.context, entry.rules);
     finish(entry.context);
@@ -285,6 +291,9 @@ interface LazyFileContext extends FileContext {
   summary?: FileSummary;
   releaseSource(): void;
 }
+
+/** How many files ahead of the one being checked have their work ahead started (all of a small run at once). */
+const preparedAhead = 64;
 
 /** How many files' rules may wait for work ahead at a time (each keeps its analyses until its rules are done). */
 const filesWaitingAtMost = 16;

@@ -17,21 +17,27 @@ const meta = (id: string): RuleMeta => ({ id, category: 'writing', defaultSeveri
 /** Two rules that log the order they check files in: one plain, one with work ahead whose readiness the test sets. */
 function rules(ready: (file: string) => boolean) {
   const order: string[] = [];
+  // Both kinds of call, in the order they came.
+  const events: string[] = [];
   const name = (context: FileContext) => context.file.replace(/.*\//, '');
   const plain = defineFileRule(meta('test-plain'), (context) => {
     order.push(`plain ${name(context)}`);
+    events.push(`plain ${name(context)}`);
     context.report({ message: 'plain finding', hint: 'none' });
   });
   const prepared: string[] = [];
   const ahead: WorkAhead = {
-    prepare: (context) => void prepared.push(name(context)),
+    prepare: (context) => {
+      prepared.push(name(context));
+      events.push(`prepare ${name(context)}`);
+    },
     ready: (context) => ready(name(context)),
   };
   const waiting = defineFileRule(meta('test-ahead'), (context) => {
     order.push(`ahead ${name(context)}`);
     context.report({ message: `ahead finding in ${name(context)}`, hint: 'none' });
   }, ahead);
-  return { order, prepared, list: [plain, waiting] };
+  return { order, prepared, events, list: [plain, waiting] };
 }
 
 const three = demo.slice(0, 3);
@@ -43,6 +49,19 @@ describe('work ahead', () => {
     checkSources(three, { today, rules: list });
     expect(prepared).toEqual(names);
     expect(order).toEqual(names.flatMap((n) => [`plain ${n}`, `ahead ${n}`]));
+  });
+
+  it('starts the work ahead a stretch of 64 files ahead of the file being checked, once for each file', () => {
+    const inputs: SourceInput[] = Array.from({ length: 100 }, (_, i) => ({ ...demo[i % demo.length], file: `copies/p${String(i).padStart(2, '0')}.md` }));
+    const { events, prepared, list } = rules(() => true);
+    checkSources(inputs, { today, rules: list });
+    const at = (event: string) => events.indexOf(`${event}.md`);
+    // The first 64 before any rule runs; then one more before each file is checked.
+    expect(at('prepare p63')).toBeLessThan(at('plain p00'));
+    expect(at('prepare p64')).toBeGreaterThan(at('plain p00'));
+    expect(at('prepare p64')).toBe(at('plain p01') - 1);
+    expect(at('prepare p99')).toBe(at('plain p36') - 1);
+    expect(prepared).toEqual(inputs.map((i) => i.file.replace(/.*\//, '')));
   });
 
   it('checks the next files while a file waits, then comes back to it, with the same findings', () => {
