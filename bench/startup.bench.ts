@@ -84,6 +84,9 @@ try {
     const limit = goal ? Number(goal.replace(/\D/g, '')) : undefined;
     record(key, { value: Math.round(m.ms), unit: 'ms', ...(goal ? { goal, met: m.ms <= limit! } : {}), note: `${label}; ${ratio.toFixed(1)}x node -e 0${m.cpuMs === undefined ? '' : `; CPU (user + system, all threads) ${Math.round(m.cpuMs)} ms`}${m.mb ? `; peak ${Math.round(m.mb)} MB` : ''}` });
     if (m.mb) record(`${key}-memory`, { value: Math.round(m.mb), unit: 'MB', note: `peak resident memory of ${label}` });
+    // The same time as a multiple of starting Node itself, measured in the same run: what a busier or slower machine
+    // changes less than the milliseconds.
+    if (key !== 'startup/node-floor') record(`${key}-floor-ratio`, { value: Number(ratio.toFixed(1)), unit: 'x', note: `${label} against node -e 0 (${Math.round(floor.ms)} ms) in the same run` });
   }
   console.log('\nGoals are for a quiet 2-core machine; on a busy one compare the ratios to node -e 0.');
 } finally {
