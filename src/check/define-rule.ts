@@ -85,7 +85,10 @@ export interface ManualContext {
  * It never reports and never changes what `check` finds; it only changes when the work is done.
  */
 export interface WorkAhead {
-  /** Starts the work for one file: the engine calls it for every file it will check before any rule runs. */
+  /**
+   * Starts the work for one file. The engine calls it for each file it will check, a stretch of files ahead of the
+   * one being checked (for a small run, every file before any rule runs).
+   */
   prepare(context: FileContext): void;
   /**
    * Whether `check` can run on the file now without waiting for that work. When it cannot, the engine may check the

@@ -1,7 +1,7 @@
 // Tags ahead, in one reading of the English model, the phrases the writing rules will ask about in one
 // procedure's prose (see tagAhead). Each writing rule that asks the model calls this first; the work is done
-// once per procedure, and the rules' answers are the same as without it. With the model on its own thread, the
-// phrases of every procedure are sent to it before the rules run (tagProseLater), so that it tags while they run.
+// once per procedure, and the rules' answers are the same as without it. With the model on its own thread, a
+// procedure's phrases are sent to it before its rules run (tagProseLater), so that it tags while other rules run.
 import type { Procedure } from '../../model/procedure.ts';
 import { bareNumbers } from './bare-numbers.ts';
 import { chainedImperatives, givesInstruction, startsWithActionVerb } from './imperatives.ts';
