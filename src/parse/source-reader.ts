@@ -12,6 +12,8 @@ import type { SourceParts } from './read-source.ts';
 export interface SourceReader {
   /** The parts the thread read for `file`, or undefined: then read the file here (the thread passes over it). */
   take(file: string): SourceParts | undefined;
+  /** How many files the thread has read that have not been taken yet (never waits). */
+  readAhead(): number;
   /** Ends the thread; later `take`s answer undefined. */
   stop(): void;
 }
@@ -79,14 +81,17 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
   };
   worker.on('error', stop);
   const read = new Map<number, SourceParts | null>();
+  const receive = () => {
+    for (let message = receiveMessageOnPort(port!); message; message = receiveMessageOnPort(port!)) {
+      const [i, parts] = message.message as [number, SourceParts | null];
+      read.set(i, parts);
+    }
+  };
   return {
     take(file) {
       const index = indexOf.get(file);
       if (index === undefined || !running) return undefined;
-      for (let message = receiveMessageOnPort(port!); message; message = receiveMessageOnPort(port!)) {
-        const [i, parts] = message.message as [number, SourceParts | null];
-        read.set(i, parts);
-      }
+      receive();
       const parts = read.get(index);
       // Files are asked for in order: what was sent for this file and those before it is no longer wanted.
       for (const i of read.keys()) if (i <= index) read.delete(i);
@@ -94,6 +99,11 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
       // Not read yet (or the thread could not): read here, and the thread passes over it and everything before it.
       if (Atomics.load(passed, 0) < index) Atomics.store(passed, 0, index);
       return undefined;
+    },
+    readAhead() {
+      if (!running) return 0;
+      receive();
+      return read.size;
     },
     stop,
   };

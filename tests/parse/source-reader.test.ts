@@ -28,8 +28,10 @@ describe('source reader', () => {
     const files = copies(readerThreshold + 20);
     const reader = startSourceReader(files)!;
     expect(reader).toBeDefined();
-    // Give the thread time to read ahead, then take every file in order.
-    await sleep(1500);
+    // Let the thread read ahead (however busy the machine is), then take every file in order.
+    const deadline = Date.now() + 30_000;
+    while (reader.readAhead() < 20 && Date.now() < deadline) await sleep(50);
+    expect(reader.readAhead()).toBeGreaterThanOrEqual(20);
     let taken = 0;
     for (const { file, text } of files) {
       const parts = reader.take(file);
