@@ -7,23 +7,36 @@ import { isMap, isNode, isScalar, isSeq, type Document } from 'yaml';
 /** One step of a path into a front-matter: a map's key or a sequence's index. */
 export type PathKey = string | number;
 
-/** A node: its range (null without one), its scalar style, and for a map or a sequence where its parts lead. */
+/** A node as a lookup answers it: its range (null without one) and its scalar style. */
 export interface PositionNode {
   /** [start, end) in the YAML text, or null. */
   r: [number, number] | null;
   /** 0 not a scalar, 1 a plain scalar, 2 a quoted one, 3 a block scalar. */
   t: 0 | 1 | 2 | 3;
-  /** A map's pairs: the key as text, the key node (-1: none), the value node (-1: not a node; -2: the value is null). */
-  m?: Array<[string, number, number]>;
-  /** A sequence's items (-1: not a node). */
-  s?: number[];
 }
 
+/**
+ * The nodes in flat arrays of numbers, which a reading thread sends in one copy and which hold no object per node: a
+ * large manual keeps one table per file for as long as its check runs.
+ */
 export interface PositionTable {
-  nodes: PositionNode[];
+  /** How many nodes. */
+  count: number;
+  /** Per node, `cellWidth` numbers: start and end (-1 without a range), style, kind, where its parts start in `links`, how many. */
+  cells: Int32Array;
+  /** A map's pairs, three numbers each: the key's text (an index into `keys`), the key node (-1: none), the value node
+   * (-1: not a node; -2: the value is null). A sequence's items, one number each (-1: not a node). */
+  links: Int32Array;
+  /** The maps' keys as text. */
+  keys: string[];
   /** The document's top node (-1 when it has none). */
   root: number;
 }
+
+const cellWidth = 6;
+const leaf = 0;
+const mapKind = 1;
+const seqKind = 2;
 
 function style(node: unknown): PositionNode['t'] {
   if (!isScalar(node)) return 0;
@@ -34,32 +47,53 @@ function style(node: unknown): PositionNode['t'] {
 
 /** The table of a parsed document (walked without recursion: a front-matter may nest deeply). */
 export function positionTable(doc: Document.Parsed): PositionTable {
-  const nodes: PositionNode[] = [];
+  const cells: number[] = [];
+  const links: number[] = [];
+  const keys: string[] = [];
   const pending: Array<[unknown, number]> = [];
   const idOf = (node: unknown): number => {
     if (!isNode(node)) return -1;
-    nodes.push({ r: null, t: 0 });
-    pending.push([node, nodes.length - 1]);
-    return nodes.length - 1;
+    const id = cells.length / cellWidth;
+    cells.push(-1, -1, 0, leaf, 0, 0);
+    pending.push([node, id]);
+    return id;
   };
   const root = idOf(doc.contents);
   while (pending.length) {
     const [node, id] = pending.pop()!;
-    const entry = nodes[id];
+    const at = id * cellWidth;
     const range = (node as { range?: [number, number, number] }).range;
-    entry.r = range ? [range[0], range[1]] : null;
-    entry.t = style(node);
+    if (range) {
+      cells[at] = range[0];
+      cells[at + 1] = range[1];
+    }
+    cells[at + 2] = style(node);
     if (isMap(node)) {
-      entry.m = node.items.map((pair) => [
-        isScalar(pair.key) ? String(pair.key.value) : String(pair.key),
+      // The parts' ids are taken first (each takes a cell), then written in one run of `links`.
+      const pairs = node.items.map((pair) => [
+        keys.push(isScalar(pair.key) ? String(pair.key.value) : String(pair.key)) - 1,
         idOf(pair.key),
         pair.value === null ? -2 : idOf(pair.value),
       ]);
+      cells[at + 3] = mapKind;
+      cells[at + 4] = links.length;
+      cells[at + 5] = pairs.length;
+      for (const pair of pairs) links.push(pair[0], pair[1], pair[2]);
     } else if (isSeq(node)) {
-      entry.s = node.items.map((item) => idOf(item));
+      const items = node.items.map((item) => idOf(item));
+      cells[at + 3] = seqKind;
+      cells[at + 4] = links.length;
+      cells[at + 5] = items.length;
+      for (const item of items) links.push(item);
     }
   }
-  return { nodes, root };
+  return { count: cells.length / cellWidth, cells: Int32Array.from(cells), links: Int32Array.from(links), keys, root };
+}
+
+function nodeAt(table: PositionTable, id: number): PositionNode {
+  const at = id * cellWidth;
+  const start = table.cells[at];
+  return { r: start < 0 ? null : [start, table.cells[at + 1]], t: table.cells[at + 2] as PositionNode['t'] };
 }
 
 /**
@@ -67,25 +101,38 @@ export function positionTable(doc: Document.Parsed): PositionTable {
  * part 'key', the key it was reached by: the walk a check has always made over the document itself.
  */
 export function locateIn(table: PositionTable, path: readonly PathKey[], part: 'key' | 'value'): { node: PositionNode | null; key: PositionNode | null } {
+  const { cells, links, keys } = table;
   let current = table.root;
   let lastKey = -1;
   for (const segment of path) {
-    const entry = current >= 0 ? table.nodes[current] : undefined;
-    if (entry?.m) {
-      const pair = entry.m.find(([key]) => key === String(segment));
-      if (!pair) break;
-      lastKey = pair[1];
-      if (pair[2] === -2) {
-        current = pair[1];
+    if (current < 0) break;
+    const at = current * cellWidth;
+    const kind = cells[at + 3];
+    const first = cells[at + 4];
+    const count = cells[at + 5];
+    if (kind === mapKind) {
+      const wanted = String(segment);
+      let pair = -1;
+      for (let i = 0; i < count; i++) {
+        if (keys[links[first + 3 * i]] === wanted) {
+          pair = first + 3 * i;
+          break;
+        }
+      }
+      if (pair < 0) break;
+      lastKey = links[pair + 1];
+      if (links[pair + 2] === -2) {
+        current = links[pair + 1];
         break;
       }
-      current = pair[2];
-    } else if (entry?.s) {
-      const item = entry.s[Number(segment)];
-      if (item === undefined) break;
+      current = links[pair + 2];
+    } else if (kind === seqKind) {
+      const index = Number(segment);
+      // What an array index would find: a whole number within the items ('01' and '1.0' read as 1, as they always have).
+      if (!Number.isInteger(index) || index < 0 || index >= count) break;
       lastKey = -1;
-      current = item;
+      current = links[first + index];
     } else break;
   }
-  return { node: current >= 0 ? table.nodes[current] : null, key: part === 'key' && lastKey >= 0 ? table.nodes[lastKey] : null };
+  return { node: current >= 0 ? nodeAt(table, current) : null, key: part === 'key' && lastKey >= 0 ? nodeAt(table, lastKey) : null };
 }

@@ -95,7 +95,7 @@ describe('the table of positions', () => {
     const depth = 1000;
     const text = `${'['.repeat(depth)}1${']'.repeat(depth)}`;
     const table = positionTable(parseDocument(text, { prettyErrors: false }));
-    expect(table.nodes.length).toBe(depth + 1);
+    expect(table.count).toBe(depth + 1);
     expect(locateIn(table, Array(depth).fill(0), 'value').node?.t).toBe(1);
   });
 
