@@ -52,7 +52,9 @@ export function repoPath(repo: Repository, file: string): string {
 /** The real path of `path`, or of its nearest existing folder with the rest appended (a deleted file). */
 function realPath(path: string): string {
   try {
-    return realpathSync(path);
+    // The system's own realpath: one call a file, where Node's walks the path a folder at a time (11 ms for the
+    // demo manual's 13 files, cold).
+    return realpathSync.native(path);
   } catch {
     const parent = dirname(path);
     return parent === path ? path : join(realPath(parent), basename(path));

@@ -1,10 +1,10 @@
 // The repository that holds the procedures, found with one git process that also resolves the base ref.
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { openRepository, previousFromGit } from '../../src/engine/repository.ts';
+import { openRepository, previousFromGit, repoPath } from '../../src/engine/repository.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'stepwright-repository-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -49,6 +49,24 @@ describe('previousFromGit', () => {
     expect(previous?.('a.md')?.text).toBe('first\n');
     expect(previous?.('c.md')?.text).toBe('a procedure long enough for git to see it moved\nline two\nline three\nline four\n');
     expect(previous?.('d.md')).toBeUndefined();
+  });
+
+  it('reads the files when the working folder is reached through symbolic links, and names deleted ones', async () => {
+    // The repository through a link, and the file through a linked folder inside it: git names paths by the real ones.
+    const outside = mkdtempSync(join(tmpdir(), 'stepwright-linked-'));
+    try {
+      symlinkSync(dir, join(outside, 'plant'));
+      mkdirSync(join(dir, 'real-folder'), { recursive: true });
+      symlinkSync(join(dir, 'real-folder'), join(dir, 'linked-folder'));
+      const cwd = join(outside, 'plant');
+      const { previous, repo } = await previousFromGit([{ file: 'a.md', text: 'second\n' }], { cwd }, 'main');
+      expect(previous?.('a.md')?.text).toBe('first\n');
+      expect(repoPath(repo!, 'linked-folder/x.md')).toBe('real-folder/x.md');
+      // A file that is not there (deleted): its folder's real path, and its own name.
+      expect(repoPath(repo!, 'linked-folder/gone/x.md')).toBe('real-folder/gone/x.md');
+    } finally {
+      rmSync(outside, { recursive: true, force: true });
+    }
   });
 
   it('says how to fetch a base that is not in the clone', async () => {
