@@ -146,12 +146,11 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       }
     }
   };
-  const runRules = (context: LazyFileContext, list: FileRule[]) => {
-    for (const rule of list) {
-      setCurrent.get(context)!(rule.meta);
-      runGuarded(rule, () => rule.check(context), context, emit);
-    }
+  const runRule = (context: LazyFileContext, rule: FileRule) => {
+    setCurrent.get(context)!(rule.meta);
+    runGuarded(rule, () => rule.check(context), context, emit);
   };
+  const runRules = (context: LazyFileContext, list: FileRule[]) => list.forEach((rule) => runRule(context, rule));
   const finish = (context: LazyFileContext) => {
     context.summary = summarise(context.procedure);
     // What only this file's rules read (its prose, sequence, decisions and plant state) is made again should a later
@@ -170,7 +169,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     const later: FileRule[] = [];
     for (const rule of fileRules) {
       if (rule.ahead && (later.length || !readyAhead(rule, context))) later.push(rule);
-      else runRules(context, [rule]);
+      else runRule(context, rule);
     }
     if (later.length) waiting.push({ context, rules: later });
     else finish(context);

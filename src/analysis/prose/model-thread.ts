@@ -131,12 +131,7 @@ function take(ticket: Ticket): { ok: true; value: unknown } | undefined {
   if (!thread) return undefined;
   const started = Date.now();
   while (!thread.early.has(ticket)) {
-    const message = receiveMessageOnPort(thread.port)?.message as Answer | undefined;
-    if (message) {
-      thread.read++;
-      thread.early.set(message.id, message);
-      continue;
-    }
+    if (receiveAnswer(thread)) continue;
     const left = answerLimitMs - (Date.now() - started);
     const sent = Atomics.load(thread.flag, 0);
     // An answer counted but not yet readable is a moment away; otherwise wait for the counter to move.
@@ -161,13 +156,17 @@ function take(ticket: Ticket): { ok: true; value: unknown } | undefined {
 export function answered(ticket: Ticket): boolean {
   const thread = slots[slot];
   if (!thread) return true;
-  for (;;) {
-    if (thread.early.has(ticket)) return true;
-    const message = receiveMessageOnPort(thread.port)?.message as Answer | undefined;
-    if (!message) return false;
-    thread.read++;
-    thread.early.set(message.id, message);
-  }
+  while (!thread.early.has(ticket)) if (!receiveAnswer(thread)) return false;
+  return true;
+}
+
+/** Reads one answer that has come in off the port, if any, and keeps it until it is taken. Never blocks. */
+function receiveAnswer(thread: Thread): boolean {
+  const message = receiveMessageOnPort(thread.port)?.message as Answer | undefined;
+  if (!message) return false;
+  thread.read++;
+  thread.early.set(message.id, message);
+  return true;
 }
 
 /** Sends a text to be tagged; its sentences come back from `takeTagged`. */
