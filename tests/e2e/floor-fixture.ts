@@ -2,7 +2,8 @@
 import { existsSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
 import { join } from 'node:path';
-import { chromium, type Browser } from 'playwright-core';
+import type { Browser } from 'playwright-core';
+import { launchBrowser } from './chromium.ts';
 import { ensureBuiltSite } from './site-build.ts';
 
 export { serveSite, type SiteServer } from './static-server.ts';
@@ -23,8 +24,5 @@ export async function builtSite(): Promise<string> {
 
 export async function launchChromium(): Promise<Browser> {
   await mkdir(artifactsDir, { recursive: true });
-  return chromium.launch({
-    executablePath: '/usr/bin/chromium',
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-  });
+  return launchBrowser();
 }

@@ -3,8 +3,9 @@
 import { existsSync, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Server } from 'node:http';
+import { chromiumPath, launchBrowser } from './chromium.ts';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { loadManual } from '../../src/site-data/manual.ts';
 import { startStaticServer } from '../../src/cli/serve-command.ts';
 import { compileStepGraph, type StepGraph } from '../../src/analysis/step-graph.ts';
@@ -15,7 +16,6 @@ import { ensureBuiltSite } from './site-build.ts';
 // A browser on a busy 2-core machine: give each test room; the build itself is shared and runs once.
 vi.setConfig({ testTimeout: 120_000, hookTimeout: 400_000 });
 
-const chromiumPath = '/usr/bin/chromium';
 const haveChromium = existsSync(chromiumPath);
 if (!haveChromium) console.warn(`Skipping the browser tests: ${chromiumPath} is missing. Install it with: apt-get install -y chromium`);
 
@@ -42,10 +42,7 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     server = started.server;
     base = started.url.replace(/\/$/, '');
     mkdirSync(artifacts, { recursive: true });
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-    });
+    browser = await launchBrowser();
     context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
   });
 

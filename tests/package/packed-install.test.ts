@@ -78,8 +78,9 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
     expect(imported.filter((name) => !name.startsWith('node:') && !builtinModules.includes(name))).toEqual([]);
     expect(imported.length).toBeGreaterThan(0);
     // zod's messages in English only (scripts/compile.mjs): none of its other languages is in the bundle.
-    expect(bundle).toContain('// node_modules/zod/v4/locales/en.js');
-    expect(bundle.match(/^\/\/ node_modules\/zod\/v4\/locales\/\S+/gm)?.sort()).toEqual(['// node_modules/zod/v4/locales/en.js', '// node_modules/zod/v4/locales/index.js']);
+    // (esbuild names each module by its path from the project, ../ first when node_modules is a link elsewhere.)
+    const locales = bundle.match(/^\/\/ \S*node_modules\/zod\/v4\/locales\/\S+/gm)?.map((line) => line.replace(/^.*node_modules\//, ''));
+    expect(locales?.sort()).toEqual(['zod/v4/locales/en.js', 'zod/v4/locales/index.js']);
     const licences = readFileSync(join(installed, 'lib', 'cli', 'check-command.LICENSES.txt'), 'utf8');
     for (const library of ['yaml', 'zod', 'micromark', '@babel/code-frame']) expect(licences).toMatch(new RegExp(`^${library} \\d+\\.\\d+\\.\\d+ \\(`, 'm'));
   });

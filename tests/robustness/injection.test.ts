@@ -4,7 +4,8 @@ import { existsSync, mkdirSync, mkdtempSync, readdirSync, rmSync, statSync, writ
 import type { Server } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
-import { chromium, type Browser } from 'playwright-core';
+import type { Browser } from 'playwright-core';
+import { chromiumPath, launchBrowser } from '../e2e/chromium.ts';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkSources } from '../../src/check/run-checks.ts';
 import { readSource } from '../../src/parse/read-source.ts';
@@ -13,7 +14,6 @@ import { attacker, injectionProcedures, payloads } from './injection-payloads.ts
 import { build } from './run-build.ts';
 import { runCli } from '../cli/run-cli.ts';
 
-const chromiumPath = '/usr/bin/chromium';
 const haveChromium = existsSync(chromiumPath);
 if (!haveChromium) console.warn(`Skipping the injection browser test: ${chromiumPath} is missing. Install it with: apt-get install -y chromium`);
 
@@ -101,10 +101,7 @@ describe.skipIf(!haveChromium)('the published manual in Chromium', () => {
     const started = await startStaticServer(site, 0, '127.0.0.1');
     server = started.server;
     base = started.url.replace(/\/$/, '');
-    browser = await chromium.launch({
-      executablePath: chromiumPath,
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
-    });
+    browser = await launchBrowser();
   });
 
   afterAll(async () => {
