@@ -154,7 +154,8 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     const withDanger = view.procedures.find((x) => x.hazards.some((h) => h.level === 'danger'))!;
     const stopped = view.procedures.find((x) => x.banner)!;
     const tag = view.tags.find((t) => t.roles.includes('interlock'))!;
-    return [['home', '/'], ['procedure', withDanger.url], ['procedure with a status banner', stopped.url], ['tag index', '/tags/'], ['where-used', tag.url]];
+    // The home page and the tag index are scanned in both themes at this size by floor-tablet.test.ts.
+    return [['procedure', withDanger.url], ['procedure with a status banner', stopped.url], ['where-used', tag.url]];
   };
   it.each(axePages())('has no serious or critical accessibility violations: %s page', async (name, path) => {
     const page = await open(path);

@@ -191,9 +191,11 @@ describe('the demo manual', () => {
     expect(areas).toContain('Hot-oil heater H-220');
     for (const a of areas) expect(a).not.toMatch(/^[a-z0-9]+(-[a-z0-9]+)+$/);
     await shot(home, 'home-800x1280');
-    await shot(await open(demo, '/', desk), 'home-1280x900');
+    const wide = await open(demo, '/', desk);
+    await shot(wide, 'home-1280x900');
     await page.context().close();
     await home.context().close();
+    await wide.context().close();
   });
 
   it.each([['u2-k210-esd-001'], ['u2-h220-em-001']])('%s leads with conditions, responsibility and the immediate actions on the first screen', async (slug) => {
@@ -255,7 +257,9 @@ describe('the demo manual', () => {
         const chart = await page.locator('#sequence .chart-scroll').evaluate((el) => ({ box: el.clientWidth, svg: el.querySelector('svg')!.getBoundingClientRect().width }));
         expect(chart.svg).toBeLessThanOrEqual(chart.box);
         await shot(page, 'batch-800x1280');
-        await shot(await open(demo, path, desk), 'batch-1280x900');
+        const wide = await open(demo, path, desk);
+        await shot(wide, 'batch-1280x900');
+        await wide.context().close();
       }
       await page.context().close();
     }
