@@ -7,6 +7,7 @@ import { GitError, pathInRepository, runCheckRun } from '../engine/check-run.ts'
 import { UsageError, useColour, type CliIo } from './io.ts';
 import { packageVersion } from './version.ts';
 import { checkHelp } from './command-help.ts';
+import { withCompilersForSize } from './compile-tiers.ts';
 
 export { checkHelp };
 
@@ -28,10 +29,10 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
   if (format !== 'human' && format !== 'json' && format !== 'github' && format !== 'sarif') throw new UsageError(`Unknown format '${format}'; use human, json, github or sarif.`);
   let run;
   try {
-    run = await runCheckRun({
+    run = await withCompilersForSize((sized) => runCheckRun({
       cwd: io.cwd, env: io.env, now: io.now, stdin: io.stdin, paths: positionals, procedures: values.procedures, config: values.config,
-      history: values['no-history'] ? false : { base: values.base },
-    });
+      history: values['no-history'] ? false : { base: values.base }, sized,
+    }));
   } catch (error) {
     if (!(error instanceof GitError)) throw error;
     io.stderr.write(`stepwright check: ${error.message}\n`);

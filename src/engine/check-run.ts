@@ -44,6 +44,8 @@ export interface CheckRunRequest {
   cache?: boolean;
   /** Reads standard input whole, for the path '-'. */
   stdin?: () => Promise<string>;
+  /** Told how many files were found, before any is read. */
+  sized?: (files: number) => void;
 }
 
 export interface SkippedFile {
@@ -80,6 +82,7 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     ? [...request.paths, ...(request.procedures ? [request.procedures] : [])]
     : [proceduresFolder(request, { procedures: request.procedures, config: request.config })];
   const found = await findWithStdin(paths, request);
+  request.sized?.(found.length);
   const partial = request.paths?.length ? manualLeftOut(request, found) : undefined;
   const skipped: SkippedFile[] = [];
   const inputs: SourceInput[] = [];
