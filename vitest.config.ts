@@ -11,6 +11,8 @@ export default defineConfig({
     // Browser tests wait in their setup for the one shared demo build, which takes minutes on a busy 2-core machine.
     hookTimeout: 900_000,
     pool: 'forks',
+    // Temporary folders made with tests/temp-folder.ts go when their test file ends.
+    setupFiles: ['tests/remove-temp-folders.ts'],
     // The longest files start first (see tests/slow-files-first.ts).
     sequence: { sequencer: SlowFilesFirst },
     // Two test processes: the browser and build tests wait on child processes much of the time (whole suite

@@ -1,6 +1,5 @@
 // `stepwright export`: JSON of the model and mermaid flowcharts that mermaid's own parser accepts.
-import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
@@ -8,6 +7,7 @@ import type { CliIo } from '../../src/cli/io.ts';
 import { findProcedureFiles } from '../../src/cli/read-procedure-files.ts';
 import { readProcedure } from '../../src/read/read-procedure.ts';
 import { readFileSync } from 'node:fs';
+import { tempFolder } from '../temp-folder.ts';
 // jsdom ships no type declarations; type the one constructor used here.
 const { JSDOM } = (await import('jsdom' as string)) as { JSDOM: new (html: string, options?: { contentType?: string }) => { window: Window & typeof globalThis } };
 
@@ -35,7 +35,7 @@ const demoIds = findProcedureFiles([join(root, 'procedures')], root)
   .filter((id): id is string => Boolean(id));
 
 function manual(files: Record<string, string>): string {
-  const dir = mkdtempSync(join(tmpdir(), 'sw-export-'));
+  const dir = tempFolder('sw-export-');
   mkdirSync(join(dir, 'procedures'));
   for (const [name, text] of Object.entries(files)) writeFileSync(join(dir, 'procedures', name), text);
   return dir;

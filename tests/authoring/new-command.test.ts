@@ -1,6 +1,5 @@
 // `stepwright new`: scaffolds that check clean apart from their TODO placeholders, and never overwrite.
-import { mkdtempSync, readFileSync, writeFileSync, mkdirSync, existsSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, writeFileSync, mkdirSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
@@ -8,6 +7,7 @@ import type { CliIo } from '../../src/cli/io.ts';
 import { checkSources } from '../../src/check/run-checks.ts';
 import { kinds } from '../../src/model/schema.ts';
 import { scaffoldProcedure } from '../../src/render/procedure-scaffold.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 function fakeIo(cwd: string) {
   const out: string[] = [];
@@ -49,7 +49,7 @@ describe('scaffolded procedures', () => {
 
 describe('stepwright new', () => {
   it('writes the file with a schema modeline relative to it', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'sw-new-'));
+    const dir = tempFolder('sw-new-');
     mkdirSync(join(dir, 'schema'));
     writeFileSync(join(dir, 'schema', 'procedure.schema.json'), '{}');
     const { io, out } = fakeIo(dir);
@@ -61,7 +61,7 @@ describe('stepwright new', () => {
   });
 
   it('never overwrites an existing file', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'sw-new-'));
+    const dir = tempFolder('sw-new-');
     mkdirSync(join(dir, 'procedures'));
     const file = join(dir, 'procedures', 'u2-x-001.md');
     writeFileSync(file, 'my work');
@@ -72,7 +72,7 @@ describe('stepwright new', () => {
   });
 
   it('refuses an id another file of the manual already uses', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'sw-new-'));
+    const dir = tempFolder('sw-new-');
     mkdirSync(join(dir, 'procedures', 'area'), { recursive: true });
     writeFileSync(join(dir, 'procedures', 'area', 'other-name.md'), scaffoldProcedure({ kind: 'normal', id: 'U2-X-002' }));
     const { io, err } = fakeIo(dir);
@@ -87,7 +87,7 @@ describe('stepwright new', () => {
     [['new', 'normal']],
     [['new', 'normal', 'U2-X-003', 'extra']],
   ])('rejects bad arguments %j with exit 2 and no stack trace', async (argv) => {
-    const dir = mkdtempSync(join(tmpdir(), 'sw-new-'));
+    const dir = tempFolder('sw-new-');
     const { io, err } = fakeIo(dir);
     expect(await main(argv, io)).toBe(2);
     expect(err()).not.toMatch(/\n\s+at /);

@@ -1,14 +1,12 @@
 // Call expansion as an engine pass: a caller is checked once more with its calls expanded; findings are told
 // apart by rule and place (the path with call-site prefixes removed), and the call step to report at is found
 // from the path, whatever the underlying rule's message says.
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
 import { openResultCache } from '../../src/check/result-cache.ts';
 import { findingKey, placeOf, type RawFinding } from '../../src/check/call-expansion.ts';
 import { readProcedure } from '../../src/read/read-procedure.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 const today = '2026-12-01';
 const signal = '  PI-1: { text: Line pressure (absolute), unit: kPa, range: [0, 600] }';
@@ -97,7 +95,7 @@ describe('call expansion pass', () => {
   });
 
   it('gives the same findings when the files come from the result cache (the pass reruns what it needs)', () => {
-    const store = openResultCache(mkdtempSync(join(tmpdir(), 'stepwright-expansion-cache-')));
+    const store = openResultCache(tempFolder('stepwright-expansion-cache-'));
     const cache = { store, salt: 'test' };
     const first = checkSources(inputs, { today, cache }).diagnostics;
     const second = checkSources(inputs, { today, cache }).diagnostics;

@@ -1,11 +1,11 @@
 // `stepwright build` refuses a manual with check errors (with check's own report) and never damages the last good site.
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { removeStaleTemporaries } from '../../src/cli/build-command.ts';
 import { modelThreadRunning } from '../../src/analysis/prose/model-thread.ts';
 import { runCli } from './run-cli.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 const broken = `---
 id: U9-BAD-001
@@ -21,7 +21,7 @@ steps:
 `;
 
 function project(): string {
-  const dir = mkdtempSync(join(tmpdir(), 'stepwright-build-'));
+  const dir = tempFolder('stepwright-build-');
   mkdirSync(join(dir, 'procedures'));
   writeFileSync(join(dir, 'procedures', 'bad.md'), broken);
   mkdirSync(join(dir, 'dist'));
@@ -71,7 +71,7 @@ describe('left-overs of killed builds', () => {
   });
 
   it('puts the old site back when a build died between its two renames', () => {
-    const dir = mkdtempSync(join(tmpdir(), 'stepwright-build-'));
+    const dir = tempFolder('stepwright-build-');
     mkdirSync(join(dir, `dist.old-${dead}`));
     writeFileSync(join(dir, `dist.old-${dead}`, 'index.html'), 'last good site');
     removeStaleTemporaries(join(dir, 'dist'));

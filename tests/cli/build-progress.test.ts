@@ -1,11 +1,11 @@
 // A build on a terminal shows its progress: one line per phase, with a count when there is one; piped or in CI
 // it writes nothing extra, so logs and tests see the same output as before.
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
 import { buildProgress } from '../../src/cli/progress.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 const plain = (text: string) => text.replace(/\r\x1b\[K/g, '\n').replace(/\(\d+\.\d s\)/g, '(t)');
 
@@ -37,7 +37,7 @@ describe('build progress', () => {
   });
 
   it('stepwright build on a terminal shows the check phase with its count before it stops', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'stepwright-progress-'));
+    const dir = tempFolder('stepwright-progress-');
     mkdirSync(join(dir, 'procedures'));
     writeFileSync(join(dir, 'procedures', 'bad.md'), '---\nid: U9-BAD-001\ntitle: Broken\nkind: normal\nrevision: 0\nstatus: draft\nsteps:\n  - step: open\n    do: Open the valve\n    until: TI-9 >= 5 degC\n---\n');
     let stderr = '';

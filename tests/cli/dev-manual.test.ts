@@ -1,15 +1,15 @@
 // Live preview support: a saved file changes the stamp; a manual with check errors still gets its pages.
-import { mkdtempSync, mkdirSync, writeFileSync, utimesSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, writeFileSync, utimesSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { procedureStamp, tolerantManualView } from '../../src/site-data/dev-manual.ts';
 import { checkSources } from '../../src/check/run-checks.ts';
 import { scaffoldProcedure } from '../../src/render/procedure-scaffold.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 describe('procedureStamp', () => {
   it('changes when a procedure is saved, added or removed', () => {
-    const dir = mkdtempSync(join(tmpdir(), 'sw-dev-'));
+    const dir = tempFolder('sw-dev-');
     mkdirSync(join(dir, 'procedures'));
     const file = join(dir, 'procedures', 'a.md');
     writeFileSync(file, 'one');

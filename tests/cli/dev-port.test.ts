@@ -1,15 +1,15 @@
 // `stepwright dev` on a port another program holds: exit 2 with a message naming --port, the same as `serve`,
 // never a preview quietly started on some other port and never an "internal failure".
-import { mkdirSync, mkdtempSync } from 'node:fs';
+import { mkdirSync } from 'node:fs';
 import { createServer } from 'node:net';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runCli } from './run-cli.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 describe('stepwright dev on a busy port', () => {
   it('exits 2 and names --port', { timeout: 120_000 }, async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'stepwright-dev-port-'));
+    const dir = tempFolder('stepwright-dev-port-');
     mkdirSync(join(dir, 'procedures'));
     const blocker = createServer();
     await new Promise<void>((done) => blocker.listen(0, '127.0.0.1', () => done()));

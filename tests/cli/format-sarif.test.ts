@@ -1,13 +1,13 @@
 // `check --format sarif`: one SARIF 2.1.0 log with the properties the standard requires.
-import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runCli } from './run-cli.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 describe('stepwright check --format sarif', () => {
   it('writes a SARIF 2.1.0 log with every required property', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'stepwright-sarif-'));
+    const dir = tempFolder('stepwright-sarif-');
     mkdirSync(join(dir, 'procedures'));
     writeFileSync(join(dir, 'procedures', 'bad.md'), '---\nid: U2-BAD-001\ntitle: Broken\nkind: batch\nrevision: 1\nstatus: draft\nsteps:\n  - step: one\n    do: Open the valve\n---\n');
     const r = await runCli(['check', '--format', 'sarif', 'procedures'], dir);

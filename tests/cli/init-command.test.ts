@@ -1,13 +1,13 @@
 // `stepwright init` sets up a plant repository and never overwrites what is there.
 import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, readdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'yaml';
 import { runCli } from './run-cli.ts';
+import { tempFolder } from '../temp-folder.ts';
 
-const fresh = () => mkdtempSync(join(tmpdir(), 'sw-init-'));
+const fresh = () => tempFolder('sw-init-');
 
 describe('stepwright init', () => {
   it('writes config, an example procedure that checks clean, ignore entries, editor settings and a workflow', async () => {

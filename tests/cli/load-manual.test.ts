@@ -1,8 +1,7 @@
 // The build date never comes from the clock: STEPWRIGHT_TODAY, the last commit, or dates that have happened.
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { describe, expect, it } from 'vitest';
 import { buildDate } from '../../src/site-data/manual.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 const text = `---\nid: X\neffective: 2026-03-01\nreview-by: 2028-01-01\napprovals:\n  - { role: a, name: b, date: 2026-02-20, meaning: c }\n---\n`;
 
@@ -12,7 +11,7 @@ describe('build date', () => {
   });
 
   it('outside git, takes the newest effective or approval date, never a review-by date', () => {
-    const outside = mkdtempSync(`${tmpdir()}/stepwright-date-`);
+    const outside = tempFolder('stepwright-date-');
     expect(buildDate({ cwd: outside, env: {} }, [{ file: 'a.md', text }])).toEqual({ today: '2026-03-01', source: 'procedure dates' });
   });
 

@@ -1,16 +1,16 @@
 // Any folder, any repository: the configuration is found upward to the repository top, the procedures folder
 // is decided in one place, and history comes from the repository that holds the procedures.
-import { mkdirSync, mkdtempSync, realpathSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, realpathSync, writeFileSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { findConfigFile, proceduresFolder, projectRoot } from '../../src/cli/project.ts';
 import { buildDate } from '../../src/site-data/manual.ts';
 import { ada, bram, createTempRepo, procedureText, stepsV1 } from '../history/temp-repo.ts';
 import { runCli } from './run-cli.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 describe('the configuration file', () => {
-  const top = realpathSync(mkdtempSync(join(tmpdir(), 'sw-project-')));
+  const top = realpathSync(tempFolder('sw-project-'));
   mkdirSync(join(top, 'repo', '.git'), { recursive: true });
   mkdirSync(join(top, 'repo', 'area', 'unit'), { recursive: true });
 

@@ -1,15 +1,15 @@
 // `stepwright serve --base /manual/`: the built folder is served under the base the site was built with, as a
 // plant's web server would; the root and the bare base lead to it, anything else outside it is not found.
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { builtFor, startStaticServer } from '../../src/cli/serve-command.ts';
 import { writeOfflineCopy } from '../../src/cli/write-offline-copy.ts';
 import { runCli } from './run-cli.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 describe('serving under a base', () => {
-  const dir = mkdtempSync(join(tmpdir(), 'stepwright-serve-base-'));
+  const dir = tempFolder('stepwright-serve-base-');
   mkdirSync(join(dir, 'tags'));
   writeFileSync(join(dir, 'index.html'), '<!doctype html><title>home</title>');
   writeFileSync(join(dir, 'tags', 'index.html'), '<!doctype html><title>tags</title>');
@@ -43,7 +43,7 @@ describe('serving under a base', () => {
   });
 
   it('takes the base a build recorded for its site, so a site built under /manual/ is served there', async () => {
-    const site = mkdtempSync(join(tmpdir(), 'stepwright-serve-record-'));
+    const site = tempFolder('stepwright-serve-record-');
     writeFileSync(join(site, 'index.html'), '<!doctype html><title>home</title>');
     expect(await builtFor(site)).toBeUndefined();
     await writeOfflineCopy(site, { now: new Date('2026-12-01T00:00:00Z'), publishedUnder: '/manual/' });

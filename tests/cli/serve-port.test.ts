@@ -1,14 +1,14 @@
 // A port already in use is the user's to change: exit 2 with a message naming --port, never "internal failure".
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { createServer } from 'node:net';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { runCli } from './run-cli.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 describe('stepwright serve on a busy port', () => {
   it('exits 2 and names --port', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'stepwright-port-'));
+    const dir = tempFolder('stepwright-port-');
     mkdirSync(join(dir, 'dist'));
     writeFileSync(join(dir, 'dist', 'index.html'), '<!doctype html><title>x</title>');
     const blocker = createServer();

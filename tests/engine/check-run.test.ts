@@ -1,7 +1,6 @@
 // One engine for every command: what fails `check` stops `build` with the same report — configuration
 // problems, history rules against the last commit — and markdown that is not a procedure is skipped with a note.
-import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCheckRun } from '../../src/engine/check-run.ts';
@@ -10,11 +9,12 @@ import { loadManual, formatCheckFailure } from '../../src/site-data/manual.ts';
 import { formatHuman, summarize } from '../../src/render/format-diagnostics.ts';
 import { runCli } from '../cli/run-cli.ts';
 import { ada, createTempRepo, procedureText, stepsV1, type TempRepo } from '../history/temp-repo.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 const env = { STEPWRIGHT_TODAY: '2026-12-01' };
 
 function folderWith(files: Record<string, string>): string {
-  const dir = mkdtempSync(join(tmpdir(), 'stepwright-engine-'));
+  const dir = tempFolder('stepwright-engine-');
   for (const [name, text] of Object.entries(files)) {
     mkdirSync(join(dir, name, '..'), { recursive: true });
     writeFileSync(join(dir, name), text);

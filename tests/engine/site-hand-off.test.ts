@@ -1,16 +1,16 @@
 // The build checks once and hands the run to the pages in the same process: the pages never check again.
-import { mkdtempSync, mkdirSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
 import { clearHandOff, handOffManual, loadManual, runIdVariable, siteManual } from '../../src/site-data/manual.ts';
 import { procedureText, stepsV1 } from '../history/temp-repo.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 describe('hand-off of the check run to the pages', () => {
   afterEach(() => clearHandOff());
 
   it('gives the pages the very run the build made, without checking again', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'stepwright-handoff-'));
+    const dir = tempFolder('stepwright-handoff-');
     mkdirSync(join(dir, 'procedures'));
     writeFileSync(join(dir, 'procedures', 'a.md'), procedureText({ revision: 1, status: 'draft', steps: stepsV1 }));
     const loaded = await loadManual({ cwd: dir, env: { STEPWRIGHT_TODAY: '2026-12-01', STEPWRIGHT_PROCEDURES: 'procedures' }, history: false });
