@@ -6,11 +6,16 @@ import { existsSync, lstatSync, readlinkSync, symlinkSync, unlinkSync } from 'no
 import { basename, dirname, join } from 'node:path';
 import { siteFolder } from '../site/astro-config.ts';
 
-/** The node_modules folder holding the installed package; undefined in a development checkout. */
+/**
+ * The node_modules folder holding the installed package; in a development checkout, the checkout's own
+ * (so a checkout can build a folder anywhere); undefined when neither exists.
+ */
 export function packagesHolder(): string | undefined {
   const packageRoot = dirname(dirname(siteFolder.replace(/[\\/]+$/, '')));
   const holder = dirname(packageRoot);
-  return basename(holder) === 'node_modules' ? holder : undefined;
+  if (basename(holder) === 'node_modules') return holder;
+  const own = join(packageRoot, 'node_modules');
+  return existsSync(join(own, 'astro', 'package.json')) ? own : undefined;
 }
 
 /** Whether modules written into `folder` find the packages the site needs, from there upward. */
