@@ -3,7 +3,7 @@
 // misses. An entry that is unreadable, cut short, altered or written for another key is ignored, never trusted;
 // the folder may be deleted at any time.
 import { createHash } from 'node:crypto';
-import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { Worker } from 'node:worker_threads';
 
@@ -207,7 +207,10 @@ export function stepwrightStamp(): string {
     codeStamp = `unknown-${process.pid}-${Date.now()}-${Math.random()}`;
     return codeStamp;
   }
-  for (const folder of ['src', 'lib', 'dist']) {
+  // The code that runs: a development checkout runs its sources (bin/stepwright.mjs), whatever a compile left in
+  // lib/ meanwhile; an installed package runs lib/.
+  const running = existsSync(join(root, 'src', 'cli', 'main.ts')) ? ['src'] : ['lib', 'dist'];
+  for (const folder of running) {
     const walk = (dir: string) => {
       let names: string[];
       try {
