@@ -20,6 +20,10 @@ import { buildProgress } from './progress.ts';
 import { compactHeap } from './compact-heap.ts';
 import { linkPackages, packagesHolder, packagesReachableFrom } from './package-links.ts';
 import { buildHelp } from './command-help.ts';
+import { resultCacheFolder } from '../engine/cache-folder.ts';
+import { procedurePageKeys } from '../site-data/page-keys.ts';
+import { copyReusedPages, pageCodeStamp, reusedPaths, pageRecordPath, planReuse, readPageRecord, reusedPagesAltered, writePageRecord, type ReusePlan } from './page-reuse.ts';
+import type { HashedFile } from '../render/offline-manifest.ts';
 
 export { buildHelp };
 
@@ -93,6 +97,12 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
 
   const tmp = `${outDir}.tmp-${process.pid}`;
   let offline: OfflineCopySummary | undefined;
+  // What each procedure's pages are made from, kept next to the result cache: a rebuild draws only what changed.
+  const cacheFolder = resultCacheFolder(io);
+  const recordFile = cacheFolder ? pageRecordPath(cacheFolder, outDir) : undefined;
+  let keys: Map<string, string> | undefined;
+  let plan: ReusePlan | undefined;
+  let pages: Map<string, HashedFile> | undefined;
   // Astro keeps its intermediate files inside the output folder only when that folder is inside the
   // project; elsewhere it would share <project>/.astro with any other build running at the same time.
   const scratch = join(io.cwd, '.stepwright');
@@ -124,11 +134,17 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     for (const key of ['DEV', 'PROD', 'MODE', 'SSR', 'BASE_URL', 'SITE', 'ASSETS_PREFIX']) delete process.env[key];
     // The pages take this run instead of checking again (same process, keyed by folder and date).
     handOffManual(loaded);
+    if (recordFile) {
+      keys = await procedurePageKeys(loaded, pageCodeStamp());
+      plan = planReuse(readPageRecord(recordFile, outDir), keys, outDir);
+    }
+    loaded.reusedPages = new Set(plan?.reused.keys() ?? []);
     progress.phase('building pages');
     const { build } = await import('astro');
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
     await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base }), { sync: false } as Parameters<typeof build>[1]);
-    progress.done(`${loaded.view.procedures.length} procedures`);
+    if (plan) copyReusedPages(plan, outDir, work);
+    progress.done(`${loaded.view.procedures.length} procedures${plan?.reused.size ? `, ${plan.reused.size} kept from the last build` : ''}`);
     // Under a sub-path, a link that leaves it is a broken page on the plant's server: the build stops.
     const leaving = await linksLeavingBase(work, base);
     if (leaving.length) {
@@ -137,8 +153,10 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // One pass over the pages: tags, ids and dates never break across lines, on every page, and the search
     // index reads the pages as kept.
     if (!values['no-index']) progress.phase('indexing for search');
-    const pages = await finishPages(work, { index: !values['no-index'] });
+    pages = await finishPages(work, { index: !values['no-index'], finished: plan ? reusedPaths(plan) : undefined });
     if (!values['no-index']) progress.done();
+    const altered = plan ? reusedPagesAltered(plan, work, pages) : [];
+    if (altered.length) throw new Error(`pages of the last build changed while this build ran (${altered.slice(0, 3).join(', ')}${altered.length > 3 ? ', …' : ''}); run the build again`);
     progress.phase('writing the offline copy');
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
@@ -148,6 +166,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     writeSiteManifest(work, { privateKey, known: offline.hashes });
     if (work !== tmp) moveFolder(work, tmp);
     publishSite(tmp, outDir);
+    if (recordFile && keys) writePageRecord(recordFile, outDir, keys, pages);
     progress.done();
   } catch (error) {
     progress.fail();
@@ -161,8 +180,15 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   }
   const seconds = (performance.now() - started) / 1000;
   io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${loaded.view.tags.length} tag pages into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
+  if (plan?.hadRecord) io.stdout.write(reuseReport(plan, loaded.view.procedures.length));
   if (offline) io.stdout.write(offlineReport(offline));
   return 0;
+}
+
+/** One line on what the build took from the last one. */
+function reuseReport(plan: ReusePlan, procedures: number): string {
+  const kept = plan.reused.size;
+  return `Pages: ${kept} procedure${kept === 1 ? '' : 's'} unchanged since the last build kept, ${procedures - kept} drawn.\n`;
 }
 
 /** Moves a folder by renaming it; copies it only when the two places are on different file systems. */

@@ -24,8 +24,10 @@ export async function indexSite(dir: string): Promise<void> {
  * pages) are not sent to it at all; when no page has the mark, every page is indexed as before.
  * Returns the SHA-256 and size of every page as it was left, by path in the site: later steps of the same build
  * (the offline copy's list, the site manifest) take them instead of reading every page again.
+ * Pages in `finished` (taken over from an earlier build, which kept their tokens whole already) are indexed and
+ * hashed as they are: keeping tokens whole a second time could wrap a token the first pass left alone.
  */
-export async function finishPages(dir: string, options: { index: boolean }): Promise<Map<string, HashedFile>> {
+export async function finishPages(dir: string, options: { index: boolean; finished?: ReadonlySet<string> }): Promise<Map<string, HashedFile>> {
   const pages = new Map<string, HashedFile>();
   const digests: Array<Promise<void>> = [];
   const pagefind = options.index ? await import('pagefind') : undefined;
@@ -58,7 +60,7 @@ export async function finishPages(dir: string, options: { index: boolean }): Pro
     for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
       const file = join(dir, ...path.split('/'));
       const page = readFileSync(file);
-      const kept = keepTokensWholeInBytes(page);
+      const kept = options.finished?.has(path) ? page : keepTokensWholeInBytes(page);
       if (kept !== page) writeFileSync(file, kept);
       // Hashed on the thread pool while this thread goes on with the next page; all are in before the pages are returned.
       const hashed: HashedFile = { path, sha256: '', size: kept.byteLength };

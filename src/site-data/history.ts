@@ -5,7 +5,7 @@ import { buildHistoryView, type HistoryView, type RevisionEntry } from '../histo
 import { revisionInForce } from '../history/in-force.ts';
 import { readHistories } from '../history/revisions.ts';
 import { buildProcedureView, type ProcedureView } from '../render/manual.ts';
-import { siteManual } from './manual.ts';
+import { sharedOn, siteManual, type LoadedManual } from './manual.ts';
 import { openRepository, repoPath } from '../engine/repository.ts';
 
 let cached: { key: string; histories: Promise<Map<string, HistoryView>> } | undefined;
@@ -18,7 +18,17 @@ export function siteHistory(): Promise<Map<string, HistoryView>> {
 }
 
 async function loadHistories(): Promise<Map<string, HistoryView>> {
-  const { loaded, view } = await siteManual();
+  const { loaded } = await siteManual();
+  return historiesOf(loaded);
+}
+
+/** Every procedure's history for this loaded manual, read from git once whoever asks first. */
+export function historiesOf(loaded: LoadedManual): Promise<Map<string, HistoryView>> {
+  return sharedOn(loaded, 'histories', () => readAllHistories(loaded));
+}
+
+async function readAllHistories(loaded: LoadedManual): Promise<Map<string, HistoryView>> {
+  const view = loaded.view!;
   const io = { cwd: loaded.cwd, env: process.env };
   // History comes from the repository that holds the procedures (the check run has opened it already).
   const repo = loaded.run.repo ?? openRepository(io, loaded.root);

@@ -31,6 +31,33 @@ export interface LoadedManual {
   base: SiteBase;
   /** Present when the check found no errors. */
   view?: ManualView;
+  /**
+   * Procedures (by slug) whose pages the build takes from its last output instead of drawing them again, because
+   * nothing they are made from has changed (see cli/page-reuse.ts). Their pages are left out of the page lists.
+   */
+  reusedPages?: ReadonlySet<string>;
+  /** Data worked out once per run for every page, whichever copy of the site's modules asks first (see `sharedOn`). */
+  shared?: Map<string, Promise<unknown>>;
+}
+
+/**
+ * Worked out once per loaded manual, whether the build command or the pages ask first: Astro runs the pages from
+ * its own bundle of this folder, so a module's own memo would read git or build views a second time.
+ */
+export function sharedOn<T>(loaded: LoadedManual, name: string, make: () => Promise<T>): Promise<T> {
+  loaded.shared ??= new Map();
+  let made = loaded.shared.get(name) as Promise<T> | undefined;
+  if (!made) {
+    made = make();
+    loaded.shared.set(name, made);
+  }
+  return made;
+}
+
+/** The items whose pages this build draws: all but those of procedures whose pages it reuses. */
+export function pagesToDraw<T>(loaded: LoadedManual, items: T[], slugOf: (item: T) => string): T[] {
+  const reused = loaded.reusedPages;
+  return reused && reused.size > 0 ? items.filter((item) => !reused.has(slugOf(item))) : items;
 }
 
 export interface LoadOptions {

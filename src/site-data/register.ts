@@ -6,8 +6,8 @@ import { openRepository } from '../engine/repository.ts';
 import { registerHistory, revisedSince, type RegisterEntryRevision } from '../history/register-history.ts';
 import { buildRegisterView, type RegisterView } from '../render/register-view.ts';
 import { siteUrl } from '../render/site-url.ts';
-import { siteManual } from './manual.ts';
-import { siteHistory } from './history.ts';
+import { sharedOn, siteManual, type LoadedManual } from './manual.ts';
+import { historiesOf } from './history.ts';
 
 export interface SiteRegister {
   view: RegisterView;
@@ -35,7 +35,17 @@ export function siteRegister(): Promise<SiteRegister | undefined> {
 }
 
 async function load(): Promise<SiteRegister | undefined> {
-  const { loaded, view: manual } = await siteManual();
+  const { loaded } = await siteManual();
+  return registerOf(loaded);
+}
+
+/** The register's pages' data for this loaded manual, worked out once whoever asks first. */
+export function registerOf(loaded: LoadedManual): Promise<SiteRegister | undefined> {
+  return sharedOn(loaded, 'register', () => readRegister(loaded));
+}
+
+async function readRegister(loaded: LoadedManual): Promise<SiteRegister | undefined> {
+  const manual = loaded.view!;
   const register = loaded.run.register;
   if (!register) return undefined;
   const view = buildRegisterView(register, loaded.result.files, manual, { href: (path) => siteUrl(loaded.base, path) });
@@ -49,7 +59,7 @@ async function load(): Promise<SiteRegister | undefined> {
     return { view, history: new Map(), commits: 0, uncommitted: false, impact: new Map(), historyNotice: `The register folder is outside the git repository at ${repo.root}, so its earlier versions are not available.` };
   }
   const history = await registerHistory(place, register);
-  const procedureHistories = await siteHistory();
+  const procedureHistories = await historiesOf(loaded);
   const impact = new Map<string, Array<{ id: string; revised: boolean }>>();
   for (const entry of view.entries) {
     const newest = history.byEntry.get(entry.id)?.[0];

@@ -28,7 +28,7 @@ export async function siteTemporaries(): Promise<SiteTemporaries> {
   return temporaries;
 }
 
-function temporariesOf(loaded: Awaited<ReturnType<typeof siteManual>>['loaded'], view: Awaited<ReturnType<typeof siteManual>>['view']): SiteTemporaries {
+export function temporariesOf(loaded: Awaited<ReturnType<typeof siteManual>>['loaded'], view: Awaited<ReturnType<typeof siteManual>>['view']): SiteTemporaries {
   const procedures = loaded.result.files.flatMap((f) => (f.procedure ? [f.procedure] : []));
   const inForce = temporaryProceduresInForce(procedures, loaded.today);
   const viewOf = new Map(view.procedures.map((p) => [p.id, p]));

@@ -1,0 +1,226 @@
+// A rebuild draws again only the pages of procedures whose inputs changed; the others are taken from the last
+// output. What each procedure's pages were made from is kept as one key per procedure (site-data/page-keys.ts)
+// in a record in the cache folder, with the size, time and SHA-256 of every file under its folder, as published.
+//
+// A page is taken over only when its key is unchanged and its file in the output is, byte for byte (SHA-256), the
+// one the record describes. The built assets (`_astro/…`, named by their content) the old pages link to are
+// carried over when the new build did not make them. A record that cannot be read or was written for something
+// else is ignored; the folder may be deleted at any time (STEPWRIGHT_CACHE=off: no reuse).
+import { createHash } from 'node:crypto';
+import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
+import { dirname, join } from 'node:path';
+import { stepwrightStamp } from '../check/result-cache.ts';
+import type { HashedFile } from '../render/offline-manifest.ts';
+
+const recordFormat = 'stepwright-page-record-1';
+
+export interface RecordedFile {
+  /** Path in the site, with '/' (e.g. "procedures/r-101/index.html"). */
+  path: string;
+  size: number;
+  mtimeMs: number;
+  sha256: string;
+}
+
+export interface PageRecord {
+  format: typeof recordFormat;
+  /** The output path the record describes. */
+  site: string;
+  /** The built assets (`_astro/…`) the recorded pages may link to. */
+  assets: string[];
+  /** Procedure slug → its pages' key and files. */
+  procedures: Record<string, { key: string; files: RecordedFile[] }>;
+}
+
+export interface ReusePlan {
+  /** Slug → the files to take from the last output. */
+  reused: Map<string, RecordedFile[]>;
+  /** The record's assets: the reused pages may link to any of them. */
+  assets: string[];
+  /** Procedures that had a record entry but changed (or whose old files were not as recorded). */
+  redrawn: number;
+  /** True when a record of the last build was found and could be read. */
+  hadRecord: boolean;
+}
+
+/** Where the record for one output path lives in the cache folder. */
+export function pageRecordPath(cacheFolder: string, outDir: string): string {
+  return join(cacheFolder, 'pages', `${createHash('sha256').update(outDir).digest('hex').slice(0, 24)}.json`);
+}
+
+/** The record, or undefined when there is none or it cannot be trusted. */
+export function readPageRecord(file: string, outDir: string): PageRecord | undefined {
+  try {
+    const raw = JSON.parse(readFileSync(file, 'utf8')) as { sum?: unknown; body?: unknown };
+    if (typeof raw.body !== 'string' || raw.sum !== sha256(raw.body)) return undefined;
+    const record = JSON.parse(raw.body) as PageRecord;
+    if (record.format !== recordFormat || record.site !== outDir || !Array.isArray(record.assets) || typeof record.procedures !== 'object' || !record.procedures) return undefined;
+    return record;
+  } catch {
+    return undefined;
+  }
+}
+
+/** Which procedures' pages can be taken from the output as it is now: same key, files as recorded. */
+export function planReuse(record: PageRecord | undefined, keys: Map<string, string>, outDir: string): ReusePlan {
+  const reused = new Map<string, RecordedFile[]>();
+  let redrawn = 0;
+  if (!record) return { reused, assets: [], redrawn, hadRecord: false };
+  // Without every asset the old pages may link to, no old page is whole.
+  if (!record.assets.every((asset) => typeof asset === 'string' && /^_astro\/[^]+$/.test(asset) && !asset.split('/').includes('..') && existsSync(join(outDir, ...asset.split('/'))))) {
+    return { reused, assets: [], redrawn: Object.keys(record.procedures).length, hadRecord: true };
+  }
+  for (const [slug, key] of keys) {
+    const entry = record.procedures[slug];
+    if (!entry) continue;
+    if (entry.key !== key || !Array.isArray(entry.files) || entry.files.length === 0 || !entry.files.every((f) => unchangedOnDisk(outDir, slug, f))) {
+      redrawn++;
+      continue;
+    }
+    reused.set(slug, entry.files);
+  }
+  return { reused, assets: record.assets, redrawn, hadRecord: true };
+}
+
+function unchangedOnDisk(outDir: string, slug: string, file: RecordedFile): boolean {
+  if (typeof file.path !== 'string' || !file.path.startsWith(`procedures/${slug}/`) || file.path.split('/').includes('..')) return false;
+  const stat = statSync(join(outDir, ...file.path.split('/')), { throwIfNoEntry: false });
+  if (stat === undefined || !stat.isFile() || stat.size !== file.size || stat.mtimeMs !== file.mtimeMs) return false;
+  return sha256(readFileSync(join(outDir, ...file.path.split('/')))) === file.sha256;
+}
+
+/**
+ * Copies the reused procedures' files from the last output into the new site, and the assets they may link to
+ * that the new build did not make.
+ */
+export function copyReusedPages(plan: ReusePlan, outDir: string, site: string): void {
+  if (plan.reused.size === 0) return;
+  for (const asset of plan.assets) {
+    const to = join(site, ...asset.split('/'));
+    if (existsSync(to)) continue;
+    mkdirSync(dirname(to), { recursive: true });
+    copyFileSync(join(outDir, ...asset.split('/')), to);
+  }
+  for (const files of plan.reused.values()) {
+    for (const file of files) {
+      const to = join(site, ...file.path.split('/'));
+      // A page the new build drew for the same path would mean the plan and the pages disagree: never overwrite it.
+      if (existsSync(to)) throw new Error(`${file.path} was drawn although its procedure's pages were to be reused`);
+      mkdirSync(dirname(to), { recursive: true });
+      takeOver(join(outDir, ...file.path.split('/')), to);
+    }
+  }
+}
+
+/**
+ * A second name for a published file (nothing writes to a published page; a build writes new files), else a copy
+ * (another file system, or one without links).
+ */
+function takeOver(from: string, to: string): void {
+  try {
+    linkSync(from, to);
+  } catch {
+    copyFileSync(from, to);
+  }
+}
+
+/** The site paths of every reused file. */
+export function reusedPaths(plan: ReusePlan): Set<string> {
+  return new Set([...plan.reused.values()].flatMap((files) => files.map((f) => f.path)));
+}
+
+/**
+ * The reused pages that did not come through the pages' final pass as recorded (it hashes every page it reads):
+ * none, unless a file changed while the build ran.
+ */
+export function reusedPagesAltered(plan: ReusePlan, site: string, hashed: Map<string, HashedFile>): string[] {
+  const altered: string[] = [];
+  for (const files of plan.reused.values()) {
+    for (const file of files) {
+      const sum = hashed.get(file.path)?.sha256 ?? sha256(readFileSync(join(site, ...file.path.split('/'))));
+      if (sum !== file.sha256) altered.push(file.path);
+    }
+  }
+  return altered;
+}
+
+/**
+ * Writes the record of a published site: every procedure's key with the files under its folder as they are in
+ * the output now. Hashes come from the build's final pass where it has them. A record that cannot be written
+ * only means the next build draws every page.
+ */
+export function writePageRecord(file: string, outDir: string, keys: Map<string, string>, hashed: Map<string, HashedFile>): void {
+  try {
+    const procedures: PageRecord['procedures'] = {};
+    for (const [slug, key] of keys) {
+      const folder = join(outDir, 'procedures', slug);
+      if (!existsSync(folder)) continue;
+      const files: RecordedFile[] = [];
+      for (const entry of readdirSync(folder, { recursive: true, withFileTypes: true })) {
+        if (!entry.isFile()) continue;
+        const full = join(entry.parentPath, entry.name);
+        const path = `procedures/${slug}/${full.slice(folder.length + 1).split(/[\\/]/).join('/')}`;
+        const stat = statSync(full);
+        files.push({ path, size: stat.size, mtimeMs: stat.mtimeMs, sha256: hashed.get(path)?.sha256 ?? sha256(readFileSync(full)) });
+      }
+      files.sort((a, b) => a.path.localeCompare(b.path));
+      procedures[slug] = { key, files };
+    }
+    const assetFolder = join(outDir, '_astro');
+    const assets = existsSync(assetFolder)
+      ? readdirSync(assetFolder, { recursive: true, withFileTypes: true }).filter((e) => e.isFile())
+        .map((e) => `_astro/${join(e.parentPath, e.name).slice(assetFolder.length + 1).split(/[\\/]/).join('/')}`).sort()
+      : [];
+    const record: PageRecord = { format: recordFormat, site: outDir, assets, procedures };
+    const body = JSON.stringify(record);
+    mkdirSync(dirname(file), { recursive: true });
+    const temporary = `${file}.tmp-${process.pid}`;
+    writeFileSync(temporary, JSON.stringify({ sum: sha256(body), body }));
+    renameSync(temporary, file);
+  } catch {
+    // Not written: the next build draws every page, as the first one did.
+  }
+}
+
+let salt: string | undefined;
+
+/** Names the code that draws the pages: Stepwright's own, and the version of every package it depends on. */
+export function pageCodeStamp(): string {
+  if (salt !== undefined) return salt;
+  const parts = [stepwrightStamp()];
+  const root = ownPackageRoot();
+  try {
+    const manifest = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { dependencies?: Record<string, string> };
+    for (const name of Object.keys(manifest.dependencies ?? {}).sort()) parts.push(`${name}@${installedVersion(root, name) ?? 'missing'}`);
+  } catch {
+    parts.push(`unknown-${process.pid}-${Date.now()}`);
+  }
+  salt = parts.join('\n');
+  return salt;
+}
+
+function ownPackageRoot(): string {
+  for (let dir = import.meta.dirname; ; dir = dirname(dir)) {
+    if (existsSync(join(dir, 'package.json'))) return dir;
+    if (dirname(dir) === dir) return dir;
+  }
+}
+
+/** The version of a package as Node would find it from our package's folder. */
+function installedVersion(from: string, name: string): string | undefined {
+  for (let dir = from; ; dir = dirname(dir)) {
+    const file = join(dir, 'node_modules', ...name.split('/'), 'package.json');
+    if (existsSync(file)) {
+      try {
+        return String((JSON.parse(readFileSync(file, 'utf8')) as { version?: unknown }).version);
+      } catch {
+        return undefined;
+      }
+    }
+    if (dirname(dir) === dir) return undefined;
+  }
+}
+
+function sha256(data: string | Buffer): string {
+  return createHash('sha256').update(data).digest('hex');
+}

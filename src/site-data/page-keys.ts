@@ -1,0 +1,106 @@
+// What each procedure's pages are made from, as one hash per procedure: the page, next/, audit/ and rev/ pages
+// under its folder come out the same whenever its key does, so a build may keep them from its last output
+// (cli/page-reuse.ts). The key errs towards drawing again: it holds everything those pages read, and for the
+// parts that come from other procedures (calls, callers, required procedures, temporary procedures, register
+// entries, tag pages) their whole source text, not only the few words shown.
+import { createHash } from 'node:crypto';
+import { callSitesOf } from '../analysis/inline-calls.ts';
+import type { Procedure } from '../model/procedure.ts';
+import { manualIndex } from './manual-index.ts';
+import type { LoadedManual } from './manual.ts';
+import { historiesOf } from './history.ts';
+import { registerOf } from './register.ts';
+import { temporariesOf } from './temporary.ts';
+
+/** Bumped when what goes into a key changes. */
+const keyFormat = 'stepwright-page-key-2';
+
+/** JSON for hashing: maps and sets as lists, functions left out, parsed models (`procedure`) left to their text. */
+function stableJson(value: unknown): string {
+  return JSON.stringify(value, (key, v: unknown) => {
+    if (key === 'procedure' && v && typeof v === 'object' && 'steps' in v) return undefined;
+    if (v instanceof Map) return [...v.entries()];
+    if (v instanceof Set) return [...v.values()];
+    return v;
+  }) ?? 'undefined';
+}
+
+function digest(parts: string[]): string {
+  const hash = createHash('sha256');
+  hash.update(keyFormat);
+  for (const part of parts) {
+    // Framed by length, so no part can run into the next.
+    hash.update(`\u0000${part.length}\u0000`);
+    hash.update(part);
+  }
+  return hash.digest('hex');
+}
+
+/**
+ * Procedure slug → the key of its pages. `salt` names the code that draws the pages (Stepwright and the packages
+ * it draws with); the rest comes from the manual the build has loaded (and hands to the pages).
+ */
+export async function procedurePageKeys(loaded: LoadedManual, salt: string): Promise<Map<string, string>> {
+  const view = loaded.view;
+  if (!view) throw new Error('the manual has check errors; no page is drawn');
+  const index = manualIndex(loaded.result, view);
+  const histories = await historiesOf(loaded);
+  const register = await registerOf(loaded);
+  const temporaries = temporariesOf(loaded, view);
+  const texts = new Map<string, string>();
+  for (const input of loaded.inputs) if ('text' in input) texts.set(input.file, input.text);
+  const procedureFiles = new Set(texts.keys());
+  // The same on every page: the code, where and when the manual is built, the configuration and the register's
+  // own files, the register's pages and the list of tag pages (a tag's page name can depend on other tags).
+  const others = [...loaded.run.texts.entries()].filter(([file]) => !procedureFiles.has(file)).sort(([a], [b]) => a.localeCompare(b));
+  const shared = digest([
+    salt, loaded.root, loaded.today, loaded.todaySource, loaded.base, stableJson(loaded.run.config),
+    stableJson(others), stableJson(register?.view.urlOf ?? []), stableJson(view.tags.map((t) => [t.tag, t.url])),
+  ]);
+  const textOf = (id: string) => {
+    const file = index.fileOf(id)?.file;
+    return file === undefined ? '\u0000not in the manual' : `${file}\u0000${texts.get(file) ?? ''}`;
+  };
+  const keys = new Map<string, string>();
+  for (const p of view.procedures) {
+    const checked = index.fileOf(p.id);
+    const history = histories.get(p.id);
+    // Everything a call can reach, in every revision the pages show (a revision in force may call what the
+    // newest text no longer does), and every procedure that calls this one or that it requires.
+    const models: Procedure[] = [];
+    if (checked?.procedure) models.push(checked.procedure);
+    for (const entry of history?.revisions ?? []) if (entry.procedure) models.push(entry.procedure);
+    const related = new Set<string>();
+    const reach = (procedure: Procedure) => {
+      for (const site of callSitesOf(procedure)) {
+        if (related.has(site.callee)) continue;
+        related.add(site.callee);
+        const callee = index.procedureOf(site.callee);
+        if (callee) reach(callee);
+      }
+    };
+    for (const model of models) reach(model);
+    for (const site of index.calls.callers.get(p.id) ?? []) related.add(site.caller);
+    for (const required of p.requires) related.add(required.id);
+    const ownNotices = temporaries.byProcedure.get(p.id) ?? [];
+    for (const notice of ownNotices) {
+      related.add(notice.id);
+      for (const m of notice.modifies) related.add(m.id);
+    }
+    related.delete(p.id);
+    const neighbours = [...related].sort().map((id) => `${id}\u0000${textOf(id)}\u0000${index.viewOf(id)?.url ?? ''}`);
+    keys.set(p.slug, digest([
+      shared, p.slug, stableJson(p), textOf(p.id),
+      stableJson(checked?.diagnostics ?? []), stableJson(checked?.waived ?? []),
+      stableJson(history ?? null), stableJson(ownNotices),
+      // The register entries it uses, each with its own uses only: another procedure's use of an entry is not shown here.
+      stableJson(register?.view.indexUrl ?? ''),
+      stableJson(register?.view.entries.flatMap((e) => {
+        const own = e.usedBy.filter((u) => u.procedure.id === p.id);
+        return own.length ? [{ ...e, usedBy: own }] : [];
+      }) ?? []),
+      ...neighbours,
+    ]));
+  }
+  return keys;
+}

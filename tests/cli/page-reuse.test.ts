@@ -1,0 +1,103 @@
+// The record of a built site's pages: what may be taken from it, and what never is.
+import { createHash } from 'node:crypto';
+import { mkdirSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { copyReusedPages, pageRecordPath, planReuse, readPageRecord, reusedPagesAltered, writePageRecord } from '../../src/cli/page-reuse.ts';
+import { tempFolder } from '../temp-folder.ts';
+
+const sha = (data: string | Buffer) => createHash('sha256').update(data).digest('hex');
+
+/** A published site with two procedures' pages and one asset, and its record. */
+function publishedSite(): { site: string; cache: string; record: string; keys: Map<string, string> } {
+  const root = tempFolder('stepwright-page-reuse-');
+  const site = join(root, 'site');
+  for (const [path, text] of [
+    ['procedures/a-1/index.html', '<p>A</p>'], ['procedures/a-1/audit/index.html', '<p>A audit</p>'],
+    ['procedures/b-2/index.html', '<p>B</p>'], ['_astro/manual.X1.css', 'p{}'], ['index.html', '<p>home</p>'],
+  ]) {
+    mkdirSync(join(site, path, '..'), { recursive: true });
+    writeFileSync(join(site, path), text);
+  }
+  const keys = new Map([['a-1', 'key-a'], ['b-2', 'key-b']]);
+  const cache = join(root, 'cache');
+  const record = pageRecordPath(cache, site);
+  writePageRecord(record, site, keys, new Map());
+  return { site, cache, record, keys };
+}
+
+describe('page reuse', () => {
+  it('takes over the pages of a procedure whose key is unchanged, with every file under its folder', () => {
+    const { site, record, keys } = publishedSite();
+    const plan = planReuse(readPageRecord(record, site), keys, site);
+    expect([...plan.reused.keys()].sort()).toEqual(['a-1', 'b-2']);
+    expect(plan.reused.get('a-1')!.map((f) => f.path)).toEqual(['procedures/a-1/audit/index.html', 'procedures/a-1/index.html']);
+    expect(plan.reused.get('a-1')![1].sha256).toBe(sha('<p>A</p>'));
+    expect(plan.assets).toEqual(['_astro/manual.X1.css']);
+  });
+
+  it('draws again a procedure whose key changed, and one that is new', () => {
+    const { site, record } = publishedSite();
+    const plan = planReuse(readPageRecord(record, site), new Map([['a-1', 'key-a'], ['b-2', 'changed'], ['c-3', 'new']]), site);
+    expect([...plan.reused.keys()]).toEqual(['a-1']);
+    expect(plan.redrawn).toBe(1);
+  });
+
+  it('never takes a page changed in the output since it was recorded, even with its size and time put back', () => {
+    const { site, record, keys } = publishedSite();
+    const page = join(site, 'procedures', 'b-2', 'index.html');
+    const before = statSync(page);
+    writeFileSync(page, '<p>C</p>');
+    utimesSync(page, before.atime, before.mtime);
+    expect(statSync(page).size).toBe(before.size);
+    const plan = planReuse(readPageRecord(record, site), keys, site);
+    expect([...plan.reused.keys()]).toEqual(['a-1']);
+  });
+
+  it('takes over nothing when an asset the old pages link to is gone', () => {
+    const { site, record, keys } = publishedSite();
+    writeFileSync(join(site, '_astro', 'manual.X1.css'), '');
+    expect(planReuse(readPageRecord(record, site), keys, site).reused.size).toBe(2);
+    rmSync(join(site, '_astro', 'manual.X1.css'));
+    expect(planReuse(readPageRecord(record, site), keys, site).reused.size).toBe(0);
+  });
+
+  it('ignores a record that was altered, cut short, or written for another output folder', () => {
+    const { site, record } = publishedSite();
+    const text = readFileSync(record, 'utf8');
+    expect(readPageRecord(record, site)).toBeDefined();
+    expect(readPageRecord(record, join(site, '..', 'other'))).toBeUndefined();
+    writeFileSync(record, text.replace('key-a', 'key-z'));
+    expect(readPageRecord(record, site)).toBeUndefined();
+    writeFileSync(record, text.slice(0, text.length / 2));
+    expect(readPageRecord(record, site)).toBeUndefined();
+    writeFileSync(record, 'not json');
+    expect(readPageRecord(record, site)).toBeUndefined();
+    expect(planReuse(undefined, new Map([['a-1', 'key-a']]), site)).toMatchObject({ hadRecord: false, redrawn: 0 });
+  });
+
+  it('refuses a record that names files outside a procedure\'s own folder', () => {
+    const { site, record, keys } = publishedSite();
+    const outer = JSON.parse(readFileSync(record, 'utf8')) as { sum: string; body: string };
+    const body = JSON.parse(outer.body) as { procedures: Record<string, { files: Array<{ path: string }> }> };
+    body.procedures['a-1'].files[0].path = 'procedures/a-1/../b-2/index.html';
+    body.procedures['b-2'].files[0].path = 'index.html';
+    const text = JSON.stringify(body);
+    writeFileSync(record, JSON.stringify({ sum: sha(text), body: text }));
+    expect(planReuse(readPageRecord(record, site), keys, site).reused.size).toBe(0);
+  });
+
+  it('copies the taken pages and the old assets the new build lacks, and never over a page the build drew', () => {
+    const { site, record, keys } = publishedSite();
+    const plan = planReuse(readPageRecord(record, site), keys, site);
+    const next = join(tempFolder('stepwright-page-reuse-next-'), 'site');
+    mkdirSync(next, { recursive: true });
+    copyReusedPages(plan, site, next);
+    expect(readFileSync(join(next, 'procedures', 'a-1', 'audit', 'index.html'), 'utf8')).toBe('<p>A audit</p>');
+    expect(readFileSync(join(next, '_astro', 'manual.X1.css'), 'utf8')).toBe('p{}');
+    expect(reusedPagesAltered(plan, next, new Map())).toEqual([]);
+    writeFileSync(join(next, 'procedures', 'b-2', 'index.html'), 'changed');
+    expect(reusedPagesAltered(plan, next, new Map())).toEqual(['procedures/b-2/index.html']);
+    expect(() => copyReusedPages(plan, site, next)).toThrow(/was drawn although/);
+  });
+});
