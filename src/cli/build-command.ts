@@ -156,7 +156,10 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     pages = await finishPages(work, { index: !values['no-index'], finished: plan ? reusedPaths(plan) : undefined });
     if (!values['no-index']) progress.done();
     const altered = plan ? reusedPagesAltered(plan, work, pages) : [];
-    if (altered.length) throw new Error(`pages of the last build changed while this build ran (${altered.slice(0, 3).join(', ')}${altered.length > 3 ? ', …' : ''}); run the build again`);
+    if (altered.length) {
+      rmSync(recordFile!, { force: true });
+      throw new Error(`pages of the last build are not as recorded (${altered.slice(0, 3).join(', ')}${altered.length > 3 ? ', …' : ''}); their record is forgotten, and the next build draws every page`);
+    }
     progress.phase('writing the offline copy');
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.

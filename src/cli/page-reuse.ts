@@ -2,8 +2,10 @@
 // output. What each procedure's pages were made from is kept as one key per procedure (site-data/page-keys.ts)
 // in a record in the cache folder, with the size, time and SHA-256 of every file under its folder, as published.
 //
-// A page is taken over only when its key is unchanged and its file in the output is, byte for byte (SHA-256), the
-// one the record describes. The built assets (`_astro/…`, named by their content) the old pages link to are
+// A page is taken over only when its key is unchanged and its file in the output is the one the record describes:
+// the same file (inode), size, modification time and change time before the build (the kernel sets the change time
+// on every write and no one can set it back), and the same SHA-256 when the build's final pass reads it; should that
+// differ, the build stops and forgets the record, so the next build draws every page. The built assets (`_astro/…`, named by their content) the old pages link to are
 // carried over when the new build did not make them. A record that cannot be read or was written for something
 // else is ignored; the folder may be deleted at any time (STEPWRIGHT_CACHE=off: no reuse).
 import { createHash } from 'node:crypto';
@@ -12,13 +14,16 @@ import { dirname, join } from 'node:path';
 import { stepwrightStamp } from '../check/result-cache.ts';
 import type { HashedFile } from '../render/offline-manifest.ts';
 
-const recordFormat = 'stepwright-page-record-1';
+const recordFormat = 'stepwright-page-record-2';
 
 export interface RecordedFile {
   /** Path in the site, with '/' (e.g. "procedures/r-101/index.html"). */
   path: string;
   size: number;
   mtimeMs: number;
+  /** Change time and inode: a file written in place, or replaced, no longer matches. */
+  ctimeMs: number;
+  ino: number;
   sha256: string;
 }
 
@@ -85,8 +90,8 @@ export function planReuse(record: PageRecord | undefined, keys: Map<string, stri
 function unchangedOnDisk(outDir: string, slug: string, file: RecordedFile): boolean {
   if (typeof file.path !== 'string' || !file.path.startsWith(`procedures/${slug}/`) || file.path.split('/').includes('..')) return false;
   const stat = statSync(join(outDir, ...file.path.split('/')), { throwIfNoEntry: false });
-  if (stat === undefined || !stat.isFile() || stat.size !== file.size || stat.mtimeMs !== file.mtimeMs) return false;
-  return sha256(readFileSync(join(outDir, ...file.path.split('/')))) === file.sha256;
+  return stat !== undefined && stat.isFile() && stat.size === file.size && stat.mtimeMs === file.mtimeMs
+    && stat.ctimeMs === file.ctimeMs && stat.ino === file.ino && typeof file.sha256 === 'string';
 }
 
 /**
@@ -161,7 +166,7 @@ export function writePageRecord(file: string, outDir: string, keys: Map<string, 
         const full = join(entry.parentPath, entry.name);
         const path = `procedures/${slug}/${full.slice(folder.length + 1).split(/[\\/]/).join('/')}`;
         const stat = statSync(full);
-        files.push({ path, size: stat.size, mtimeMs: stat.mtimeMs, sha256: hashed.get(path)?.sha256 ?? sha256(readFileSync(full)) });
+        files.push({ path, size: stat.size, mtimeMs: stat.mtimeMs, ctimeMs: stat.ctimeMs, ino: stat.ino, sha256: hashed.get(path)?.sha256 ?? sha256(readFileSync(full)) });
       }
       files.sort((a, b) => a.path.localeCompare(b.path));
       procedures[slug] = { key, files };

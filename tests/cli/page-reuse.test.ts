@@ -1,6 +1,6 @@
 // The record of a built site's pages: what may be taken from it, and what never is.
 import { createHash } from 'node:crypto';
-import { mkdirSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, renameSync, rmSync, statSync, utimesSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { copyReusedPages, pageRecordPath, planReuse, readPageRecord, reusedPagesAltered, writePageRecord } from '../../src/cli/page-reuse.ts';
@@ -52,6 +52,18 @@ describe('page reuse', () => {
     expect(statSync(page).size).toBe(before.size);
     const plan = planReuse(readPageRecord(record, site), keys, site);
     expect([...plan.reused.keys()]).toEqual(['a-1']);
+  });
+
+  it('never takes a page replaced by another file, even one with the same bytes and times', () => {
+    const { site, record, keys } = publishedSite();
+    const page = join(site, 'procedures', 'a-1', 'index.html');
+    const before = statSync(page);
+    const copy = `${page}.copy`;
+    writeFileSync(copy, readFileSync(page));
+    utimesSync(copy, before.atime, before.mtime);
+    renameSync(copy, page);
+    expect(readFileSync(page, 'utf8')).toBe('<p>A</p>');
+    expect([...planReuse(readPageRecord(record, site), keys, site).reused.keys()]).toEqual(['b-2']);
   });
 
   it('takes over nothing when an asset the old pages link to is gone', () => {
