@@ -98,6 +98,8 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   const toCheck: LazyFileContext[] = [];
   // A large run's files are read on a thread of their own as well (parse/source-reader.ts), in the order below.
   const toRead: Array<{ file: string; text: string }> = [];
+  // Files the cache answered for, in order: read only should the cross-file rules run.
+  const answered: Array<{ file: string; text: string }> = [];
   let reader: SourceReader | undefined;
   const partsOf = (file: string) => reader?.take(file);
   const setCurrent = new Map<FileContext, (meta: RuleMeta) => void>();
@@ -117,6 +119,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     sink.set(context, []);
     contexts.push(context);
     if (known) {
+      if ('text' in input) answered.push({ file: input.file, text: input.text });
       context.summary = known.summary;
       sink.get(context)!.push(...known.diagnostics);
       continue;
@@ -126,6 +129,15 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     if (key) fileKeys.set(context, key);
     toCheck.push(context);
     if ('text' in input) toRead.push({ file: input.file, text: input.text });
+  }
+  // The cross-file rules and the engine's passes read every file; their findings are kept under the keys of all
+  // files together, so a run in which no file, register, configuration or date changed reads no file at all.
+  const manualKey = store && keys.length === inputs.length ? cacheKey([shared, 'manual', options.today, options.partial ? `${options.partial.folder}\0${options.partial.left}` : '', ...keys]) : undefined;
+  const knownManual = manualKey ? cachedManual(store!, manualKey, contexts) : undefined;
+  // When they will run, the files the cache answered for are read on the thread as well, after the files the rules
+  // check, in the order the passes ask for them (a rebuild after one edit reads every other file only for them).
+  if (!knownManual) {
+    toRead.push(...answered);
   }
   reader = options.readAhead === false ? undefined : startSourceReader(toRead);
   // Work the rules can start ahead (the English model tags on its own thread) is started for the first files before
@@ -184,16 +196,8 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     finish(entry.context);
   }
 
-  // Every file the rules check has been read: the cross-file rules read any other file on this thread.
-  reader?.stop();
-  reader = undefined;
-
   const registerDiagnostics: Diagnostic[] = [];
   const register = options.register;
-  // The cross-file rules and the engine's passes read every file; their findings are kept under the keys of all
-  // files together, so a run in which no file, register, configuration or date changed reads no file at all.
-  const manualKey = store && keys.length === inputs.length ? cacheKey([shared, 'manual', options.today, options.partial ? `${options.partial.folder}\0${options.partial.left}` : '', ...keys]) : undefined;
-  const knownManual = manualKey ? cachedManual(store!, manualKey, contexts) : undefined;
   const byName = new Map(contexts.map((c) => [c.file, c]));
   let manualFindings: CachedManual['files'] = [];
   if (knownManual) {
@@ -201,10 +205,16 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     registerDiagnostics.push(...knownManual.register);
   } else {
     const before = new Map(contexts.map((c) => [c, sink.get(c)!.length]));
+    // The passes read every file, first to last; the thread reads those the cache answered for from the first, and
+    // this thread from the last, until they meet.
+    if (reader) for (let i = contexts.length - 1; i >= 0; i--) void contexts[i].procedure;
     runEnginePasses(rules, contexts, ownFindings, emit);
     runManualRules(rules, contexts, options, emit, registerDiagnostics);
     manualFindings = contexts.flatMap((c) => sink.get(c)!.slice(before.get(c)).map((diagnostic) => ({ file: c.file, diagnostic })));
   }
+  // Every file the rules and passes read has been read: anything read later is read on this thread.
+  reader?.stop();
+  reader = undefined;
 
   // Waivers are looked up only where there is something to waive and the file has waivers at all; what they set
   // aside is kept with the cross-file findings, so a run that changed nothing does not read those files either.

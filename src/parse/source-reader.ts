@@ -1,7 +1,9 @@
 // Reads procedure files on a thread of its own while the main thread builds their models and checks them: a large
 // run's reading (YAML with positions, the markdown body) is split between two cores. The thread reads the files in
-// the order the main thread will ask for them; a file it has not read yet when asked is read on the main thread,
-// which tells the thread to pass over it. What the thread sends is plain data (SourceParts); the main thread reads
+// the order the main thread will ask for them. Each file is claimed once, by whichever gets to it first: a file the
+// thread has not started when asked is read on the main thread (the thread then passes over it), and one it is
+// reading is waited for. So the main thread may also read from the other end (`readFromEnd`) and meet the thread in
+// the middle. What the thread sends is plain data (SourceParts); the main thread reads
 // a file's YAML document again only when a position in it is asked for. Anything that goes wrong with the thread
 // only means the main thread reads the file itself: the answers are the same either way.
 import { existsSync } from 'node:fs';
@@ -31,14 +33,20 @@ function readingModule(): string | undefined {
   return undefined;
 }
 
+/** A file's claim: nobody's yet, the thread's (being read), the main thread's, or read and sent by the thread. */
+const free = 0;
+const thread = 1;
+const main = 2;
+const sent = 3;
+
 const threadSource = `
 const { workerData } = require('node:worker_threads');
-const { files, url, passed, port } = workerData;
-const last = new Int32Array(passed);
+const { files, url, claims, port } = workerData;
+const claim = new Int32Array(claims);
 import(url).then(({ readSourceParts }) => {
   for (let i = 0; i < files.length; i++) {
-    // The main thread has read this file (or gone past it) itself.
-    if (Atomics.load(last, 0) >= i) continue;
+    // The main thread has taken this file itself.
+    if (Atomics.compareExchange(claim, i, ${free}, ${thread}) !== ${free}) continue;
     let parts = null;
     try {
       parts = readSourceParts(files[i].file, files[i].text);
@@ -46,9 +54,14 @@ import(url).then(({ readSourceParts }) => {
       // The main thread reads it and reports what went wrong.
     }
     port.postMessage([i, parts]);
+    Atomics.store(claim, i, ${sent});
+    Atomics.notify(claim, i);
   }
 }, () => port.close());
 `;
+
+/** The longest the main thread waits for a file the thread is reading before it reads the file itself. */
+const longestWaitMs = 2000;
 
 export function startSourceReader(files: Array<{ file: string; text: string }>): SourceReader | undefined {
   const url = readingModule();
@@ -57,14 +70,13 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
   files.forEach(({ file }, i) => {
     if (!indexOf.has(file)) indexOf.set(file, i);
   });
-  const passed = new Int32Array(new SharedArrayBuffer(4));
-  Atomics.store(passed, 0, -1);
+  const claims = new Int32Array(new SharedArrayBuffer(4 * files.length));
   let port: MessagePort | undefined;
   let worker: Worker | undefined;
   try {
     const channel = new MessageChannel();
     port = channel.port1;
-    worker = new Worker(threadSource, { eval: true, workerData: { files, url, passed: passed.buffer, port: channel.port2 }, transferList: [channel.port2] });
+    worker = new Worker(threadSource, { eval: true, workerData: { files, url, claims: claims.buffer, port: channel.port2 }, transferList: [channel.port2] });
   } catch {
     port?.close();
     return undefined;
@@ -91,14 +103,16 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
     take(file) {
       const index = indexOf.get(file);
       if (index === undefined || !running) return undefined;
+      // Not started by the thread: read here, and the thread passes over it.
+      const claim = Atomics.compareExchange(claims, index, free, main);
+      if (claim === free || claim === main) return undefined;
+      // Being read on the thread: wait for it (a moment; a file takes milliseconds).
+      if (claim === thread && Atomics.wait(claims, index, thread, longestWaitMs) === 'timed-out') return undefined;
       receive();
       const parts = read.get(index);
-      // Files are asked for in order: what was sent for this file and those before it is no longer wanted.
-      for (const i of read.keys()) if (i <= index) read.delete(i);
-      if (parts) return parts;
-      // Not read yet (or the thread could not): read here, and the thread passes over it and everything before it.
-      if (Atomics.load(passed, 0) < index) Atomics.store(passed, 0, index);
-      return undefined;
+      read.delete(index);
+      // Undefined when the thread could not read it: read here, and report what goes wrong.
+      return parts ?? undefined;
     },
     readAhead() {
       if (!running) return 0;

@@ -5,6 +5,8 @@ import { readSource, readSourceParts } from '../../src/parse/read-source.ts';
 import { readerThreshold, startSourceReader } from '../../src/parse/source-reader.ts';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
 import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
+import { openResultCache } from '../../src/check/result-cache.ts';
+import { tempFolder } from '../temp-folder.ts';
 
 const demo = readProcedureFiles(['procedures'], process.cwd()).flatMap((i) => ('text' in i ? [i] : []));
 
@@ -53,6 +55,37 @@ describe('source reader', () => {
     reader.stop();
     expect(reader.take(files[files.length - 1].file)).toBeUndefined();
   }, 60_000);
+
+  it('hands each file once: read on the thread, or here when the thread has not started it', async () => {
+    const files = copies(readerThreshold + 20);
+    const reader = startSourceReader(files)!;
+    const deadline = Date.now() + 30_000;
+    while (reader.readAhead() < 5 && Date.now() < deadline) await sleep(20);
+    // From the last file back, as a warm check's passes do: the thread reads from the first on, and they meet.
+    const fromThread = new Set<string>();
+    for (const { file, text } of [...files].reverse()) {
+      const parts = reader.take(file);
+      if (parts) {
+        fromThread.add(file);
+        expect(parts).toEqual(readSourceParts(file, text));
+      }
+      // Taken once: asked again, the file is read here.
+      expect(reader.take(file)).toBeUndefined();
+    }
+    expect(fromThread.has(files[0].file)).toBe(true);
+    reader.stop();
+  }, 60_000);
+
+  it('gives a warm check after one edit (the files the cache answered for read from both ends) the findings of a check without cache', () => {
+    const dir = tempFolder('stepwright-reader-cache-');
+    const inputs: SourceInput[] = copies(readerThreshold + 30);
+    checkSources(inputs, { today: '2026-12-01', cache: { store: openResultCache(dir), salt: 'reader' } });
+    const edited = inputs.map((input, i) => (i === 40 && 'text' in input ? { ...input, text: input.text.replace(/\bdo: /, 'do: Check the valve as necessary. ') } : input));
+    const store = openResultCache(dir);
+    const warm = checkSources(edited, { today: '2026-12-01', cache: { store, salt: 'reader' } });
+    expect(store.stats.hits).toBe(inputs.length - 1);
+    expect(warm.diagnostics).toEqual(checkSources(edited, { today: '2026-12-01', readAhead: false }).diagnostics);
+  }, 120_000);
 
   it('gives a check the same findings with it as without it', () => {
     const inputs: SourceInput[] = copies(readerThreshold + 30);
