@@ -168,8 +168,10 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // Very last: the SHA-256 of every file, signed when a key is given.
     writeSiteManifest(work, { privateKey, known: offline.hashes });
     if (work !== tmp) moveFolder(work, tmp);
-    publishSite(tmp, outDir);
-    if (recordFile && keys) writePageRecord(recordFile, outDir, keys, pages);
+    const published = publishSite(tmp, outDir);
+    // The record describes this build's own version folder: another build publishing meanwhile cannot slip its
+    // files under this build's keys.
+    if (recordFile && keys) writePageRecord(recordFile, outDir, keys, pages, published);
     progress.done();
   } catch (error) {
     progress.fail();

@@ -151,14 +151,14 @@ export function reusedPagesAltered(plan: ReusePlan, site: string, hashed: Map<st
 
 /**
  * Writes the record of a published site: every procedure's key with the files under its folder as they are in
- * the output now. Hashes come from the build's final pass where it has them. A record that cannot be written
- * only means the next build draws every page.
+ * the folder the build published (`site`, by default the output path itself). Hashes come from the build's final
+ * pass where it has them. A record that cannot be written only means the next build draws every page.
  */
-export function writePageRecord(file: string, outDir: string, keys: Map<string, string>, hashed: Map<string, HashedFile>): void {
+export function writePageRecord(file: string, outDir: string, keys: Map<string, string>, hashed: Map<string, HashedFile>, site = outDir): void {
   try {
     const procedures: PageRecord['procedures'] = {};
     for (const [slug, key] of keys) {
-      const folder = join(outDir, 'procedures', slug);
+      const folder = join(site, 'procedures', slug);
       if (!existsSync(folder)) continue;
       const files: RecordedFile[] = [];
       for (const entry of readdirSync(folder, { recursive: true, withFileTypes: true })) {
@@ -171,7 +171,7 @@ export function writePageRecord(file: string, outDir: string, keys: Map<string, 
       files.sort((a, b) => a.path.localeCompare(b.path));
       procedures[slug] = { key, files };
     }
-    const assetFolder = join(outDir, '_astro');
+    const assetFolder = join(site, '_astro');
     const assets = existsSync(assetFolder)
       ? readdirSync(assetFolder, { recursive: true, withFileTypes: true }).filter((e) => e.isFile())
         .map((e) => `_astro/${join(e.parentPath, e.name).slice(assetFolder.length + 1).split(/[\\/]/).join('/')}`).sort()
