@@ -30,6 +30,10 @@ Options:
 The output path is a link to the newest complete build in <out>.versions/, replaced in one step, so it
 holds a complete site at every moment, even when a build is killed.
 
+A rebuild draws again only the pages of procedures whose sources, history, related procedures, register,
+configuration or date changed, and keeps the others from the last build once each file is found to be the
+one it published. The record is kept in .stepwright/cache/ ($STEPWRIGHT_CACHE; 'off' draws every page).
+
 Exit codes: 0 built, 1 check errors or a failed build, 2 usage or internal failure.
 `;
 
