@@ -27,6 +27,7 @@ const rows: Array<{ what: string; size: string; time: RegExp; ratio?: RegExp }> 
   { what: 'check, cold, CPU time vs the same floor', size: '1,001', time: /^check\/\d+\/cold$/, ratio: /^check\/\d+\/cold-cpu-ratio$/ },
   { what: 'check, warm cache, whole process', size: '1,001', time: /^check\/\d+\/warm$/ },
   { what: 'check, warm cache, vs the same floor', size: '1,001', time: /^check\/\d+\/warm$/, ratio: /^check\/\d+\/warm-ratio$/ },
+  { what: 'check after editing one file, the others in the cache, vs the same floor', size: '1,001', time: /^check\/\d+\/one-edit$/, ratio: /^check\/\d+\/one-edit-ratio$/ },
   { what: '`stepwright --version` (installed package); ratio to `node -e 0`', size: '—', time: /^startup\/version$/, ratio: /^startup\/version-floor-ratio$/ },
   { what: '`stepwright check` of the demo manual, cold, first run: no compile cache yet (installed package); ratio to `node -e 0`', size: '13', time: /^startup\/check-demo-first-run$/, ratio: /^startup\/check-demo-first-run-floor-ratio$/ },
   { what: '`stepwright check` of the demo manual, cold: no result cache, compile cache of an earlier run (installed package); ratio to `node -e 0`', size: '13', time: /^startup\/check-demo$/, ratio: /^startup\/check-demo-floor-ratio$/ },
