@@ -232,7 +232,8 @@ export function stepwrightStamp(): string {
   return codeStamp;
 }
 
-function packageRoot(from: string | undefined): string {
+/** The nearest folder at or above `from` that holds a package.json. */
+export function packageRoot(from: string | undefined): string {
   let dir = from ?? '/';
   for (;;) {
     if (statSync(join(dir, 'package.json'), { throwIfNoEntry: false })?.isFile()) return dir;

@@ -11,7 +11,7 @@
 import { createHash } from 'node:crypto';
 import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
-import { stepwrightStamp } from '../check/result-cache.ts';
+import { packageRoot, stepwrightStamp } from '../check/result-cache.ts';
 import type { HashedFile } from '../render/offline-manifest.ts';
 
 const recordFormat = 'stepwright-page-record-2';
@@ -193,7 +193,7 @@ let salt: string | undefined;
 export function pageCodeStamp(): string {
   if (salt !== undefined) return salt;
   const parts = [stepwrightStamp()];
-  const root = ownPackageRoot();
+  const root = packageRoot(import.meta.dirname);
   try {
     const manifest = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { dependencies?: Record<string, string> };
     for (const name of Object.keys(manifest.dependencies ?? {}).sort()) parts.push(`${name}@${installedVersion(root, name) ?? 'missing'}`);
@@ -202,13 +202,6 @@ export function pageCodeStamp(): string {
   }
   salt = parts.join('\n');
   return salt;
-}
-
-function ownPackageRoot(): string {
-  for (let dir = import.meta.dirname; ; dir = dirname(dir)) {
-    if (existsSync(join(dir, 'package.json'))) return dir;
-    if (dirname(dir) === dir) return dir;
-  }
 }
 
 /** The version of a package as Node would find it from our package's folder. */

@@ -2,10 +2,11 @@
 // run's reading (YAML with positions, the markdown body) is split between two cores. The thread reads the files in
 // the order the main thread will ask for them. Each file is claimed once, by whichever gets to it first: a file the
 // thread has not started when asked is read on the main thread (the thread then passes over it), and one it is
-// reading is waited for. So the main thread may also read from the other end (`readFromEnd`) and meet the thread in
-// the middle. What the thread sends is plain data (SourceParts); the main thread reads
-// a file's YAML document again only when a position in it is asked for. Anything that goes wrong with the thread
-// only means the main thread reads the file itself: the answers are the same either way.
+// reading is waited for. So the main thread may also take files from the other end of the list and meet the thread
+// in the middle (check/run-checks.ts does, for the files the cache answered for). What the thread sends is plain
+// data (SourceParts); the main thread reads a file's YAML document again only when a position in it is asked for.
+// Anything that goes wrong with the thread only means the main thread reads the file itself: the answers are the
+// same either way.
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { MessageChannel, receiveMessageOnPort, Worker, type MessagePort } from 'node:worker_threads';

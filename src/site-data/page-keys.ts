@@ -3,7 +3,6 @@
 // (cli/page-reuse.ts). The key errs towards drawing again: it holds everything those pages read, and for the
 // parts that come from other procedures (calls, callers, required procedures, temporary procedures, register
 // entries, tag pages) their whole source text, not only the few words shown.
-import { createHash } from 'node:crypto';
 import { callSitesOf } from '../analysis/inline-calls.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { manualIndex } from './manual-index.ts';
@@ -11,6 +10,7 @@ import type { LoadedManual } from './manual.ts';
 import { historiesOf } from './history.ts';
 import { registerOf } from './register.ts';
 import { temporariesOf } from './temporary.ts';
+import { cacheKey } from '../check/result-cache.ts';
 
 /** Bumped when what goes into a key changes. */
 const keyFormat = 'stepwright-page-key-2';
@@ -25,15 +25,9 @@ function stableJson(value: unknown): string {
   }) ?? 'undefined';
 }
 
+/** The hash of the parts, each framed by its length (the cache's own keys). */
 function digest(parts: string[]): string {
-  const hash = createHash('sha256');
-  hash.update(keyFormat);
-  for (const part of parts) {
-    // Framed by length, so no part can run into the next.
-    hash.update(`\u0000${part.length}\u0000`);
-    hash.update(part);
-  }
-  return hash.digest('hex');
+  return cacheKey([keyFormat, ...parts]);
 }
 
 /**
