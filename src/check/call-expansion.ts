@@ -75,6 +75,8 @@ export interface CallExpansionInput {
   ownFindings: Map<FileContext, RawFinding[]>;
   /** Reports a finding of the pass against a file, under the pass's rule id. */
   report(file: FileContext, report: Report): void;
+  /** Callers not to expand (their findings are known from an earlier run). */
+  skip?: (file: FileContext) => boolean;
 }
 
 /** Runs the pass over every procedure that calls others. */
@@ -95,7 +97,7 @@ export function expandCalls(input: CallExpansionInput): void {
   };
 
   for (const file of input.files) {
-    if (!file.procedure) continue;
+    if (input.skip?.(file) || !file.procedure) continue;
     const sites = callSitesOf(file.procedure);
     if (!sites.length) continue;
     const expanded = inlineCalls(file.procedure, lookup);

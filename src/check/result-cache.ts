@@ -14,6 +14,11 @@ export interface ResultCache {
   /** The value stored under the key, or undefined when there is none or it cannot be trusted. */
   get<T>(key: string): T | undefined;
   set(key: string, value: unknown): void;
+  /** Bytes stored under the key with setBytes, or undefined when there are none or they cannot be trusted. */
+  getBytes(key: string): Uint8Array | undefined;
+  setBytes(key: string, bytes: Uint8Array): void;
+  /** Whether bytes are stored under the key (they may still be refused when read). */
+  hasBytes(key: string): boolean;
   /** Waits until every entry set so far is on disk (or given up on): call before the run ends. */
   flush(): Promise<void>;
   /** Entries found and used, missed, and refused as corrupt or stale in this run. */
@@ -36,6 +41,7 @@ export function cacheKey(parts: ReadonlyArray<string | undefined>): string {
 export function openResultCache(dir: string): ResultCache {
   const stats = { hits: 0, misses: 0, refused: 0 };
   const pathOf = (key: string) => join(dir, key.slice(0, 2), `${key}.json`);
+  const bytesPathOf = (key: string) => join(dir, key.slice(0, 2), `${key}.bin`);
   let broken = false;
   let written = 0;
   const writer = entryWriter();
@@ -67,30 +73,65 @@ export function openResultCache(dir: string): ResultCache {
       }
     },
     set(key: string, value: unknown): void {
-      if (broken) return;
-      const path = pathOf(key);
       const body = JSON.stringify(value);
-      const entry = `{"format":${JSON.stringify(entryFormat)},"key":${JSON.stringify(key)},"sum":${JSON.stringify(sumOf(body))},"value":${body}}`;
-      written++;
-      // A large first run (hundreds of files) hands its writes to a thread of their own: the files are opened,
-      // written and renamed there while the rules go on checking. A small one writes them here.
-      if (written > writtenHere && !writer.failed) {
-        writer.write(path, entry);
-        return;
+      store(pathOf(key), `{"format":${JSON.stringify(entryFormat)},"key":${JSON.stringify(key)},"sum":${JSON.stringify(sumOf(body))},"value":${body}}`);
+    },
+    getBytes(key: string): Uint8Array | undefined {
+      let raw: Buffer;
+      try {
+        raw = readFileSync(bytesPathOf(key));
+      } catch {
+        stats.misses++;
+        return undefined;
       }
-      if (!writeEntry(path, entry)) broken = true;
+      // A line that names the format, the key and the sum of the bytes that follow it.
+      const end = raw.indexOf(10);
+      const bytes = end < 0 ? undefined : raw.subarray(end + 1);
+      if (bytes && raw.subarray(0, end).toString('latin1') === bytesHeader(key, sumOf(bytes))) {
+        stats.hits++;
+        return bytes;
+      }
+      stats.refused++;
+      try {
+        rmSync(bytesPathOf(key), { force: true });
+      } catch {
+        // A read-only cache is still only a cache.
+      }
+      return undefined;
+    },
+    hasBytes(key: string): boolean {
+      return existsSync(bytesPathOf(key));
+    },
+    setBytes(key: string, bytes: Uint8Array): void {
+      store(bytesPathOf(key), Buffer.concat([Buffer.from(`${bytesHeader(key, sumOf(bytes))}\n`, 'latin1'), bytes]));
     },
     async flush(): Promise<void> {
       await writer.finish();
     },
   };
+
+  function store(path: string, entry: string | Uint8Array): void {
+    if (broken) return;
+    written++;
+    // A large first run (hundreds of files) hands its writes to a thread of their own: the files are opened,
+    // written and renamed there while the rules go on checking. A small one writes them here.
+    if (written > writtenHere && !writer.failed) {
+      writer.write(path, entry);
+      return;
+    }
+    if (!writeEntry(path, entry)) broken = true;
+  }
+}
+
+function bytesHeader(key: string, sum: string): string {
+  return `${entryFormat} bytes ${key} ${sum}`;
 }
 
 /** Entries a run writes itself before it hands the rest to the writing thread. */
 const writtenHere = 64;
 
 /** Writes an entry aside and renames it into place, so a reader never sees half an entry. False when it could not. */
-function writeEntry(path: string, entry: string): boolean {
+function writeEntry(path: string, entry: string | Uint8Array): boolean {
   const tmp = `${path}.tmp-${process.pid}-${Math.random().toString(36).slice(2)}`;
   try {
     mkdirSync(dirname(path), { recursive: true });
@@ -135,7 +176,7 @@ parentPort.on('message', (message) => {
 interface EntryWriter {
   /** True once the thread could not be started or stopped writing: entries are then not cached. */
   readonly failed: boolean;
-  write(path: string, entry: string): void;
+  write(path: string, entry: string | Uint8Array): void;
   finish(): Promise<void>;
 }
 
@@ -183,7 +224,7 @@ function entryWriter(): EntryWriter {
   };
 }
 
-function sumOf(body: string): string {
+function sumOf(body: string | Uint8Array): string {
   return createHash('sha256').update(body).digest('hex');
 }
 

@@ -1,6 +1,6 @@
 // Runs every rule over a set of procedure sources and returns the diagnostics, sorted by place.
 import { compareDiagnostics, type Diagnostic, type Severity } from '../parse/diagnostic.ts';
-import { readSource, type ParsedSource, type SourceParts } from '../parse/read-source.ts';
+import { partsFromBytes, partsToBytes, readSource, type ParsedSource, type ReadParts } from '../parse/read-source.ts';
 import { startSourceReader, type SourceReader } from '../parse/source-reader.ts';
 import type { Procedure } from '../model/procedure.ts';
 import type { PlantRegister } from '../model/register.ts';
@@ -37,9 +37,10 @@ export interface CheckOptions {
   partial?: { folder: string; left: number };
   /**
    * Per-file results kept between runs. `salt` must name everything the file rules depend on besides the file,
-   * the date and its previous version: the Stepwright code (stepwrightStamp()) and the configuration text.
+   * the date and its previous version: the Stepwright code (stepwrightStamp()) and the configuration text. `code`
+   * names the Stepwright code alone: what a file's reading depends on besides its name and text (`salt` if absent).
    */
-  cache?: { store: ResultCache; salt: string };
+  cache?: { store: ResultCache; salt: string; code?: string };
   /** Read a large run's files on a second thread as well (default true); the results are the same either way. */
   readAhead?: boolean;
 }
@@ -78,6 +79,8 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   // What the rules that call expansion compares with reported on each file alone (files the rules ran on).
   const ownFindings = new Map<FileContext, RawFinding[]>();
   const fileKeys = new Map<FileContext, string>();
+  // Every file's key (not only those checked now), for the keys of what depends on several files.
+  const keyOf = new Map<FileContext, string>();
 
   const emit = (context: FileContext, meta: RuleMeta, report: Report) => {
     const chosen = options.severity?.(meta.id, context.file);
@@ -101,7 +104,31 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   // Files the cache answered for, in order: read only should the cross-file rules run.
   const answered: Array<{ file: string; text: string }> = [];
   let reader: SourceReader | undefined;
-  const partsOf = (file: string) => reader?.take(file);
+  // What reading a file found (its parts: data, markdown tree, reading problems) depends only on its name, its text
+  // and the code, so it is kept in the cache too: a file read for the cross-file rules alone (its own results came
+  // from the cache) is then taken from there instead of being read again. `kept`: files whose parts the cache holds;
+  // `toKeep`: files whose parts are stored once read.
+  const kept = new Map<string, string>();
+  const toKeep = new Map<string, string>();
+  const partsKeyOf = (input: SourceInput) => (store && 'text' in input ? cacheKey([options.cache!.code ?? options.cache!.salt, 'parts', input.file, input.text]) : undefined);
+  const keep = (file: string, bytes: Uint8Array) => {
+    const key = toKeep.get(file);
+    if (key === undefined) return;
+    toKeep.delete(file);
+    store!.setBytes(key, bytes);
+  };
+  const partsOf = (file: string): ReadParts | undefined => {
+    const key = kept.get(file);
+    const bytes = key === undefined ? undefined : store!.getBytes(key);
+    const parts = bytes && partsFromBytes(bytes);
+    if (parts) return parts;
+    const ahead = reader?.take(file);
+    if (ahead) keep(file, ahead.bytes);
+    return ahead?.parts;
+  };
+  const onRead = (file: string, parts: ReadParts) => {
+    if (toKeep.has(file)) keep(file, partsToBytes(parts));
+  };
   const setCurrent = new Map<FileContext, (meta: RuleMeta) => void>();
   for (const input of inputs) {
     const previous = 'text' in input ? options.previous?.(input.file) : undefined;
@@ -115,11 +142,15 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     const context = lazyFileContext(input, previous, options, (report) => {
       if (expansionCategories.has(current.category)) ownFindings.get(context)?.push({ rule: current, report });
       emit(context, current, report);
-    }, !known, partsOf);
+    }, !known, partsOf, onRead);
     sink.set(context, []);
     contexts.push(context);
+    if (key) keyOf.set(context, key);
+    const partsKey = partsKeyOf(input);
+    const partsKept = known && partsKey !== undefined && store!.hasBytes(partsKey);
+    if (partsKey !== undefined) (partsKept ? kept : toKeep).set(input.file, partsKey);
     if (known) {
-      if ('text' in input) answered.push({ file: input.file, text: input.text });
+      if ('text' in input && !partsKept) answered.push({ file: input.file, text: input.text });
       context.summary = known.summary;
       sink.get(context)!.push(...known.diagnostics);
       continue;
@@ -208,7 +239,19 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     // The passes read every file, first to last; the thread reads those the cache answered for from the first, and
     // this thread from the last, until they meet.
     if (reader) for (let i = contexts.length - 1; i >= 0; i--) void contexts[i].procedure;
-    runEnginePasses(rules, contexts, ownFindings, emit);
+    // A caller's findings with its calls expanded depend on it and the procedures it calls, call after call: kept
+    // under the keys of those files, so an edit re-expands only the callers it reaches.
+    const expansion = store && rules.some((r) => r.scope === 'engine') ? expansionKeys(contexts, keyOf, shared) : new Map<FileContext, string>();
+    const knownExpansion = new Map<FileContext, Diagnostic[]>();
+    for (const [context, key] of expansion) {
+      const found = cachedDiagnostics(store!, key, context.file);
+      if (found) knownExpansion.set(context, found);
+    }
+    for (const [context, found] of knownExpansion) sink.get(context)!.push(...found);
+    const beforePasses = new Map<FileContext, number>(contexts.map((c) => [c, sink.get(c)!.length]));
+    if (runEnginePasses(rules, contexts, ownFindings, emit, (c) => knownExpansion.has(c))) {
+      for (const [context, key] of expansion) if (!knownExpansion.has(context)) store!.set(key, sink.get(context)!.slice(beforePasses.get(context)));
+    }
     runManualRules(rules, contexts, options, emit, registerDiagnostics);
     manualFindings = contexts.flatMap((c) => sink.get(c)!.slice(before.get(c)).map((diagnostic) => ({ file: c.file, diagnostic })));
   }
@@ -224,7 +267,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     const found = sink.get(context)!.sort(compareDiagnostics);
     let outcome: { kept: Diagnostic[]; waived: WaivedDiagnostic[] } = { kept: found, waived: [] };
     if (found.length && context.summary?.waivers !== false) {
-      outcome = knownOutcomes.get(context.file) ?? applyWaivers(context.procedure, context.source, found);
+      outcome = knownOutcomes.get(context.file) ?? waiversApplied(context, found, store, keyOf.get(context));
       waiverOutcomes.push({ file: context.file, ...outcome });
     }
     files.push(checkedFile(context, outcome.kept, outcome.waived));
@@ -239,19 +282,50 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   };
 }
 
-/** The engine's own passes: call expansion checks each caller with its calls expanded. */
+/**
+ * The key of each caller's expansion findings: the keys of the caller and of every procedure it calls, call after
+ * call (found by id as the pass finds them: the first file with that id), and of the ids no file has.
+ */
+function expansionKeys(contexts: LazyFileContext[], keyOf: Map<FileContext, string>, shared: string): Map<FileContext, string> {
+  const byId = new Map<string, LazyFileContext>();
+  for (const c of contexts) if (c.summary?.id && !byId.has(c.summary.id)) byId.set(c.summary.id, c);
+  const out = new Map<FileContext, string>();
+  for (const context of contexts) {
+    if (!context.summary?.calls.length) continue;
+    const parts = ['expansion', shared, keyOf.get(context)];
+    const seen = new Set<string>();
+    const queue = [...context.summary.calls];
+    for (let id = queue.shift(); id !== undefined; id = queue.shift()) {
+      if (seen.has(id)) continue;
+      seen.add(id);
+      const callee = byId.get(id);
+      parts.push(id, callee ? keyOf.get(callee) ?? 'unkeyed' : 'absent');
+      if (callee) queue.push(...callee.summary!.calls);
+    }
+    // A file with no key (it could not be read) makes every key it is part of unusable.
+    if (parts.every((p) => p !== undefined && p !== 'unkeyed')) out.set(context, cacheKey(parts));
+  }
+  return out;
+}
+
+/**
+ * The engine's own passes: call expansion checks each caller with its calls expanded (except the callers `known`
+ * holds the findings of). False when a pass could not finish.
+ */
 function runEnginePasses(
   rules: Rule[], contexts: FileContext[], ownFindings: Map<FileContext, RawFinding[]>,
-  emit: (c: FileContext, m: RuleMeta, r: Report) => void,
-): void {
+  emit: (c: FileContext, m: RuleMeta, r: Report) => void, known: (c: FileContext) => boolean,
+): boolean {
+  let finished = true;
   for (const pass of rules) {
     if (pass.scope !== 'engine') continue;
     try {
       expandCalls({
-        files: contexts, rules: rules.filter((r): r is FileRule => r.scope === 'file'), ownFindings,
+        files: contexts, rules: rules.filter((r): r is FileRule => r.scope === 'file'), ownFindings, skip: known,
         report: (ctx, report) => emit(ctx, pass.meta, report),
       });
     } catch (error) {
+      finished = false;
       if (contexts[0]) {
         emit(contexts[0], pass.meta, {
           severity: 'error',
@@ -261,6 +335,7 @@ function runEnginePasses(
       }
     }
   }
+  return finished;
 }
 
 function runManualRules(
@@ -318,7 +393,7 @@ function readyAhead(rule: FileRule, context: FileContext): boolean {
 
 function lazyFileContext(
   input: SourceInput, previous: { text: string; commit: string } | undefined, options: CheckOptions, report: (r: Report) => void, full: boolean,
-  partsOf?: (file: string) => SourceParts | undefined,
+  partsOf?: (file: string) => ReadParts | undefined, onRead?: (file: string, parts: ReadParts) => void,
 ): LazyFileContext {
   let read: (ReturnType<typeof readProcedure> & { readError?: string }) | undefined;
   const reading = () => {
@@ -327,7 +402,7 @@ function lazyFileContext(
     try {
       // A file the rules check takes its table of positions as it is read; a file read for its model alone (its check
       // results came from the cache) makes it only if a position is asked for.
-      read = readProcedure(input.file, input.text, options.register, partsOf?.(input.file), full ? 'now' : 'when-asked');
+      read = readProcedure(input.file, input.text, options.register, partsOf?.(input.file), full ? 'now' : 'when-asked', onRead && ((parts) => onRead(input.file, parts)));
       if (full) void read.facts;
     } catch (error) {
       // Whatever a file holds, the check goes on and the file gets a diagnostic: never a crash of the whole run.
@@ -390,6 +465,28 @@ function cachedFile(store: ResultCache, key: string): CachedFile | undefined {
   const value = store.get<Partial<CachedFile>>(key);
   if (!value || !Array.isArray(value.diagnostics) || !value.diagnostics.every(isDiagnostic) || !isFileSummary(value.summary)) return undefined;
   return value as CachedFile;
+}
+
+/**
+ * A file's findings split by its step waivers. Placing a waiver needs the file's positions (its front-matter read
+ * again), so the split is kept under the file's key and the findings: an edit elsewhere does not redo it.
+ */
+function waiversApplied(context: FileContext, found: Diagnostic[], store: ResultCache | undefined, fileKey: string | undefined): { kept: Diagnostic[]; waived: WaivedDiagnostic[] } {
+  const key = store && fileKey ? cacheKey(['waivers', fileKey, JSON.stringify(found)]) : undefined;
+  const value = key ? store!.get<{ kept?: unknown; waived?: unknown }>(key) : undefined;
+  if (value && Array.isArray(value.kept) && value.kept.every((d) => isDiagnostic(d) && d.file === context.file)
+    && Array.isArray(value.waived) && value.waived.every((w) => isWaived(w) && w.diagnostic.file === context.file)) {
+    return value as { kept: Diagnostic[]; waived: WaivedDiagnostic[] };
+  }
+  const outcome = applyWaivers(context.procedure, context.source, found);
+  if (key) store!.set(key, outcome);
+  return outcome;
+}
+
+/** Diagnostics kept for one file, only when every one is a diagnostic of that file. */
+function cachedDiagnostics(store: ResultCache, key: string, file: string): Diagnostic[] | undefined {
+  const value = store.get<unknown>(key);
+  return Array.isArray(value) && value.every((d) => isDiagnostic(d) && d.file === file) ? value as Diagnostic[] : undefined;
 }
 
 function cachedManual(store: ResultCache, key: string, contexts: FileContext[]): CachedManual | undefined {

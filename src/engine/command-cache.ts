@@ -2,8 +2,8 @@
 import { openResultCache, stepwrightStamp, type ResultCache } from '../check/result-cache.ts';
 import { resultCacheFolder } from './cache-folder.ts';
 
-export function commandCache(io: { cwd: string; env: Record<string, string | undefined> }, configText: string | undefined): { store: ResultCache; salt: string } | undefined {
+export function commandCache(io: { cwd: string; env: Record<string, string | undefined> }, configText: string | undefined): { store: ResultCache; salt: string; code: string } | undefined {
   const dir = resultCacheFolder(io);
   if (dir === undefined) return undefined;
-  return { store: openResultCache(dir), salt: `${stepwrightStamp()}\u0000${configText ?? ''}` };
+  return { store: openResultCache(dir), salt: `${stepwrightStamp()}\u0000${configText ?? ''}`, code: stepwrightStamp() };
 }

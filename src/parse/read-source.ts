@@ -1,4 +1,5 @@
 // Reads a procedure file: the front-matter's data with a table of where each value is written, and an mdast tree of the body.
+import { deserialize, serialize } from 'node:v8';
 import { LineCounter, parseDocument, isMap, isSeq, type Document } from 'yaml';
 import { unified } from 'unified';
 import remarkParse from 'remark-parse';
@@ -9,7 +10,7 @@ import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesti
 import { groupDigits } from './group-digits.ts';
 import { locateIn, positionTable, type PathKey, type PositionTable } from './yaml-positions.ts';
 
-export type { PathKey } from './yaml-positions.ts';
+export type { PathKey, PositionTable } from './yaml-positions.ts';
 
 export interface ParsedSource {
   file: string;
@@ -75,11 +76,19 @@ function positionsIn(text: string): { split: Split; at: At; bodyStartLine: numbe
  */
 export type PositionsWhen = 'now' | 'when-asked';
 
-/** Reads a file; with `given` (the parts another thread read from the same text), only assembles the source. */
-export function readSource(file: string, text: string, given?: SourceParts, positions: PositionsWhen = 'when-asked'): ParsedSource {
+/**
+ * Reads a file; with `given` (the parts another thread read from the same text, or parts kept from an earlier run),
+ * only assembles the source. `onRead` is given the parts when they were read here.
+ */
+export function readSource(file: string, text: string, given?: ReadParts, positions: PositionsWhen = 'when-asked', onRead?: (parts: ReadParts) => void): ParsedSource {
   const where = positionsIn(text);
+  let parts = given;
+  if (!parts) {
+    parts = readParts(file, text, where, positions === 'now');
+    onRead?.(parts);
+  }
   // The document itself is let go at once: positions come from the parts' table.
-  return assemble(file, text, where, given ?? readParts(file, text, where, positions === 'now'));
+  return assemble(file, text, where, parts);
 }
 
 /** The parts of a file as readSource reads them, for sending to another thread. */
@@ -88,7 +97,33 @@ export function readSourceParts(file: string, text: string): SourceParts {
 }
 
 /** Parts whose table of positions may be left to be made when first asked for (undefined). */
-type ReadParts = Omit<SourceParts, 'positions'> & { positions: PositionTable | null | undefined };
+export type ReadParts = Omit<SourceParts, 'positions'> & { positions: PositionTable | null | undefined };
+
+/**
+ * The parts without their table of positions, as bytes (the structured clone that threads send each other), so
+ * that they can be kept between runs: the same text read by the same code gives the same parts. The table is made
+ * again from the text when a position is first asked for.
+ */
+export function partsToBytes(parts: ReadParts): Uint8Array {
+  return serialize({ data: parts.data, body: parts.body, diagnostics: parts.diagnostics, yamlText: parts.yamlText, positions: parts.positions === null ? null : undefined });
+}
+
+/** Parts from partsToBytes, or undefined when the bytes do not hold parts of that shape. */
+export function partsFromBytes(bytes: Uint8Array): ReadParts | undefined {
+  let value: unknown;
+  try {
+    value = deserialize(bytes);
+  } catch {
+    return undefined;
+  }
+  if (!value || typeof value !== 'object' || !('data' in value)) return undefined;
+  const v = value as Record<string, unknown>;
+  const body = v.body as { type?: unknown; children?: unknown } | null;
+  if (!body || typeof body !== 'object' || body.type !== 'root' || !Array.isArray(body.children)) return undefined;
+  if (!Array.isArray(v.diagnostics) || !(v.yamlText === null || typeof v.yamlText === 'string')) return undefined;
+  if (!(v.positions === undefined || (v.positions === null && v.yamlText === null))) return undefined;
+  return value as ReadParts;
+}
 
 function readParts(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, tableNow: boolean): ReadParts {
   const diagnostics: Diagnostic[] = [];

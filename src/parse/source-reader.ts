@@ -4,17 +4,24 @@
 // thread has not started when asked is read on the main thread (the thread then passes over it), and one it is
 // reading is waited for. So the main thread may also take files from the other end of the list and meet the thread
 // in the middle (check/run-checks.ts does, for the files the cache answered for). What the thread sends is plain
-// data (SourceParts); the main thread reads a file's YAML document again only when a position in it is asked for.
+// data: the parts as bytes (partsToBytes, which the caller may keep between runs) and their table of positions; the
+// main thread reads a file's YAML document again only when a position in it is asked for.
 // Anything that goes wrong with the thread only means the main thread reads the file itself: the answers are the
 // same either way.
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { MessageChannel, receiveMessageOnPort, Worker, type MessagePort } from 'node:worker_threads';
-import type { SourceParts } from './read-source.ts';
+import { partsFromBytes, type PositionTable, type SourceParts } from './read-source.ts';
+
+/** What the thread read from a file: its parts, and the same parts (without the table of positions) as bytes. */
+export interface ReadAhead {
+  parts: SourceParts;
+  bytes: Uint8Array;
+}
 
 export interface SourceReader {
   /** The parts the thread read for `file`, or undefined: then read the file here (the thread passes over it). */
-  take(file: string): SourceParts | undefined;
+  take(file: string): ReadAhead | undefined;
   /** How many files the thread has read that have not been taken yet (never waits). */
   readAhead(): number;
   /** Ends the thread; later `take`s answer undefined. */
@@ -44,17 +51,18 @@ const threadSource = `
 const { workerData } = require('node:worker_threads');
 const { files, url, claims, port } = workerData;
 const claim = new Int32Array(claims);
-import(url).then(({ readSourceParts }) => {
+import(url).then(({ readSourceParts, partsToBytes }) => {
   for (let i = 0; i < files.length; i++) {
     // The main thread has taken this file itself.
     if (Atomics.compareExchange(claim, i, ${free}, ${thread}) !== ${free}) continue;
-    let parts = null;
+    let message = [i, null, null];
     try {
-      parts = readSourceParts(files[i].file, files[i].text);
+      const parts = readSourceParts(files[i].file, files[i].text);
+      message = [i, partsToBytes(parts), parts.positions];
     } catch {
       // The main thread reads it and reports what went wrong.
     }
-    port.postMessage([i, parts]);
+    port.postMessage(message);
     Atomics.store(claim, i, ${sent});
     Atomics.notify(claim, i);
   }
@@ -93,11 +101,11 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
     void worker!.terminate();
   };
   worker.on('error', stop);
-  const read = new Map<number, SourceParts | null>();
+  const read = new Map<number, { bytes: Uint8Array | null; positions: PositionTable | null }>();
   const receive = () => {
     for (let message = receiveMessageOnPort(port!); message; message = receiveMessageOnPort(port!)) {
-      const [i, parts] = message.message as [number, SourceParts | null];
-      read.set(i, parts);
+      const [i, bytes, positions] = message.message as [number, Uint8Array | null, PositionTable | null];
+      read.set(i, { bytes, positions });
     }
   };
   return {
@@ -110,10 +118,11 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
       // Being read on the thread: wait for it (a moment; a file takes milliseconds).
       if (claim === thread && Atomics.wait(claims, index, thread, longestWaitMs) === 'timed-out') return undefined;
       receive();
-      const parts = read.get(index);
+      const got = read.get(index);
       read.delete(index);
       // Undefined when the thread could not read it: read here, and report what goes wrong.
-      return parts ?? undefined;
+      const parts = got?.bytes ? partsFromBytes(got.bytes) : undefined;
+      return parts && got?.bytes ? { parts: { ...parts, positions: got.positions }, bytes: got.bytes } : undefined;
     },
     readAhead() {
       if (!running) return 0;

@@ -1,6 +1,6 @@
 // The one front door for reading a procedure: source text → parsed source → model → facts.
 // The checker, the site, the history views and every command read procedures through here.
-import { readSource, type ParsedSource, type PositionsWhen, type SourceParts } from '../parse/read-source.ts';
+import { readSource, type ParsedSource, type PositionsWhen, type ReadParts } from '../parse/read-source.ts';
 import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { validateFrontMatter } from '../model/validate.ts';
@@ -18,20 +18,27 @@ export interface ReadProcedure {
 
 /**
  * Reads one source; with a plant register, the procedure takes its declarations from the entries it uses. `parts`
- * are what another thread read from the same text (parse/source-reader.ts). `positions`: when the table of where
- * each value is written is made (parse/read-source.ts); a file the rules check takes it 'now'.
+ * are what another thread read from the same text (parse/source-reader.ts), or what an earlier run kept. `positions`:
+ * when the table of where each value is written is made (parse/read-source.ts); a file the rules check takes it
+ * 'now'. `onRead` is given the parts when the text was read here.
  */
-export function readProcedure(file: string, text: string, register?: PlantRegister, parts?: SourceParts, positions?: PositionsWhen): ReadProcedure {
-  const source = readSource(file, text, parts, positions);
+export function readProcedure(file: string, text: string, register?: PlantRegister, parts?: ReadParts, positions?: PositionsWhen, onRead?: (parts: ReadParts) => void): ReadProcedure {
+  const source = readSource(file, text, parts, positions, onRead);
   // Data is there only when the front-matter was read without a problem (the YAML document itself is not needed).
   const readable = source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
-  const schemaIssues = readable ? validateFrontMatter(source.data) : [];
+  // The problems the schema finds are found at once for a file the rules check; for a file read for its model
+  // alone, only when asked for (the rules that ask check the file itself).
+  let schemaIssues = positions === 'now' && readable ? validateFrontMatter(source.data) : undefined;
   const procedure = readable ? applyRegister(buildProcedure(file, source.data, source.body, source.bodyText), register) : null;
   // The facts (conditions resolved, units converted, the step graph) are worked out when first asked for: a
   // reader that only needs the model, such as the placing of waived diagnostics, does not pay for them.
   let facts: ProcedureFacts | null | undefined;
   return {
-    source, procedure, schemaIssues,
+    source, procedure,
+    get schemaIssues() {
+      schemaIssues ??= readable ? validateFrontMatter(source.data) : [];
+      return schemaIssues;
+    },
     get facts() {
       if (facts === undefined) facts = procedure ? collectFacts(procedure) : null;
       return facts;

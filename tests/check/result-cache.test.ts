@@ -53,8 +53,9 @@ describe('result cache', () => {
   it('gives the same diagnostics warm as cold, from the cache', () => {
     const inputs = withText(demo, demo[0].file, noisy);
     const cold = check(inputs);
-    // One entry per file, and one for the cross-file rules' findings over all of them.
-    expect(cold.store.stats).toMatchObject({ hits: 0, misses: inputs.length + 1 });
+    // One entry per file, one for the cross-file rules' findings over all of them, one for the one caller's findings
+    // with its calls expanded, and one for the split of the one file that waives a finding.
+    expect(cold.store.stats).toMatchObject({ hits: 0, misses: inputs.length + 3 });
     const warm = check(inputs);
     expect(warm.store.stats).toMatchObject({ hits: inputs.length + 1, misses: 0, refused: 0 });
     expect(warm.result.diagnostics).toEqual(cold.result.diagnostics);
@@ -70,8 +71,10 @@ describe('result cache', () => {
     const second = demo.find((i) => i !== first && 'text' in i)!;
     const edited = withText(demo, second.file, (t) => t.replace(/^id: .+$/m, `id: ${id}`));
     const { store, result } = check(edited);
-    // The edited file and the cross-file findings miss; every other file is found.
-    expect(store.stats).toMatchObject({ hits: demo.length - 1, misses: 2 });
+    // The edited file and the cross-file findings miss; every other file's results are found, and so are its parts
+    // (what reading it found), which the cross-file rules read instead of the file.
+    // The caller's expansion (the edit is not among the procedures it calls) and the waiving file's split are found too.
+    expect(store.stats).toMatchObject({ hits: 2 * (demo.length - 1) + 2, misses: 2 });
     expect(result.diagnostics.filter((d) => d.rule === 'duplicate-procedure-id').length).toBeGreaterThan(0);
     expect(result.diagnostics).toEqual(checkSources(edited, { today }).diagnostics);
   });
@@ -92,7 +95,7 @@ describe('result cache', () => {
     const inputs = withText(demo, demo[0].file, noisy);
     const cold = check(inputs).result.diagnostics;
     const files = entries();
-    expect(files.length).toBe(inputs.length + 1);
+    expect(files.length).toBe(inputs.length + 3);
     const text = readFileSync(files[0], 'utf8');
     writeFileSync(files[0], text.slice(0, Math.floor(text.length / 2)));
     writeFileSync(files[1], '\u0000\u00ff garbage');
@@ -100,15 +103,67 @@ describe('result cache', () => {
     for (const file of files.slice(2)) {
       const entry = JSON.parse(readFileSync(file, 'utf8'));
       const forged = { file: 'x.md', line: 1, column: 1, severity: 'info', rule: 'forged', message: 'forged' };
-      if (Array.isArray(entry.value.diagnostics)) entry.value.diagnostics.unshift(forged);
+      if (Array.isArray(entry.value)) entry.value.unshift(forged);
+      else if (Array.isArray(entry.value.diagnostics)) entry.value.diagnostics.unshift(forged);
+      else if (Array.isArray(entry.value.kept)) entry.value.kept.unshift(forged);
       else entry.value.files.unshift({ file: forged.file, diagnostic: forged });
       writeFileSync(file, JSON.stringify(entry));
     }
     const { store, result } = check(inputs);
-    expect(store.stats).toMatchObject({ hits: 0, refused: inputs.length + 1 });
+    expect(store.stats).toMatchObject({ hits: 0, refused: inputs.length + 3 });
     expect(result.diagnostics).toEqual(cold);
     // The refused entries were replaced with good ones.
     expect(check(inputs).store.stats.hits).toBe(inputs.length + 1);
+  });
+
+  it('refuses kept parts that are cut short, garbled, altered or moved, and reads those files again', () => {
+    const inputs = withText(demo, demo[0].file, noisy);
+    check(inputs);
+    const kept = readdirSync(dir, { recursive: true }).map(String).filter((f) => f.endsWith('.bin')).map((f) => join(dir, f));
+    expect(kept.length).toBe(inputs.length);
+    const bytes = readFileSync(kept[0]);
+    writeFileSync(kept[0], bytes.subarray(0, Math.floor(bytes.length / 2)));
+    writeFileSync(kept[1], '\u0000\u00ff garbage');
+    // One byte of the parts changed: the sum in the first line no longer fits.
+    const altered = readFileSync(kept[2]);
+    altered[altered.length - 5] ^= 1;
+    writeFileSync(kept[2], altered);
+    // Another file's parts under this file's name.
+    writeFileSync(kept[3], readFileSync(kept[4]));
+    // Run as part of a larger manual: every file's own results come from the cache, and the cross-file rules run
+    // again and read every file.
+    const partial = { folder: 'procedures', left: 1 };
+    const store = openResultCache(dir);
+    const result = checkSources(inputs, { today, partial, cache: { store, salt: 'v1' } });
+    // Results and parts of every file (less the four refused), the caller's expansion and the waiving file's split.
+    expect(store.stats).toMatchObject({ hits: 2 * inputs.length - 4 + 2, refused: 4 });
+    expect(result.diagnostics).toEqual(checkSources(inputs, { today, partial }).diagnostics);
+  });
+
+  it('expands a caller again when a procedure it calls changes, and only then', () => {
+    const fixtures = join('tests', 'fixtures', 'rules', 'call-expansion-problem');
+    const caller = { file: 'caller.md', text: readFileSync(join(fixtures, 'invalid-caller.md'), 'utf8').replace('  # expect: call-expansion-problem', '') };
+    const callee200 = readFileSync(join(fixtures, 'valid-callee.md'), 'utf8');
+    // The callee pressurises to 140 kPa: within the caller's 150 kPa limit, nothing to say in combination.
+    const callee140 = callee200.replace('PI-1: 200 kPa', 'PI-1: 140 kPa').replace('PI-1 >= 195 kPa', 'PI-1 >= 135 kPa');
+    const other = demo.find((i) => 'text' in i)!;
+    const run = (callee: string, otherText = (other as { text: string }).text) => {
+      const inputs: SourceInput[] = [caller, { file: 'callee.md', text: callee }, { file: other.file, text: otherText }];
+      const { store, result } = check(inputs);
+      const combined = result.diagnostics.filter((d) => d.rule === 'call-expansion-problem' && d.file === 'caller.md');
+      expect(result.diagnostics).toEqual(checkSources(inputs, { today }).diagnostics);
+      return { store, combined };
+    };
+    expect(run(callee140).combined).toEqual([]);
+    // The caller's own results come from the cache; its expansion must not.
+    const raised = run(callee200);
+    expect(raised.combined).toHaveLength(1);
+    expect(raised.combined[0].message).toContain('150 kPa');
+    expect(run(callee140).combined).toEqual([]);
+    // An edit to a procedure the caller does not call leaves its expansion as it was (taken from the cache).
+    const elsewhere = run(callee200, noisy((other as { text: string }).text));
+    expect(elsewhere.combined).toHaveLength(1);
+    expect(elsewhere.store.stats.misses).toBe(2);
   });
 
   it('refuses an entry moved to another key', () => {

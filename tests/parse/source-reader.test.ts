@@ -36,7 +36,7 @@ describe('source reader', () => {
     expect(reader.readAhead()).toBeGreaterThanOrEqual(20);
     let taken = 0;
     for (const { file, text } of files) {
-      const parts = reader.take(file);
+      const parts = reader.take(file)?.parts;
       if (!parts) continue;
       taken++;
       expect(parts).toEqual(readSourceParts(file, text));
@@ -64,7 +64,7 @@ describe('source reader', () => {
     // From the last file back, as a warm check's passes do: the thread reads from the first on, and they meet.
     const fromThread = new Set<string>();
     for (const { file, text } of [...files].reverse()) {
-      const parts = reader.take(file);
+      const parts = reader.take(file)?.parts;
       if (parts) {
         fromThread.add(file);
         expect(parts).toEqual(readSourceParts(file, text));
@@ -83,7 +83,11 @@ describe('source reader', () => {
     const edited = inputs.map((input, i) => (i === 40 && 'text' in input ? { ...input, text: input.text.replace(/\bdo: /, 'do: Check the valve as necessary. ') } : input));
     const store = openResultCache(dir);
     const warm = checkSources(edited, { today: '2026-12-01', cache: { store, salt: 'reader' } });
-    expect(store.stats.hits).toBe(inputs.length - 1);
+    // The results of every file but the edited one, and the parts of the same files (read for the cross-file rules);
+    // besides, the callers' expansions and the waiving files' splits. Only the edited file's results and the
+    // cross-file findings miss.
+    expect(store.stats.hits).toBeGreaterThan(2 * (inputs.length - 1));
+    expect(store.stats.misses).toBe(2);
     expect(warm.diagnostics).toEqual(checkSources(edited, { today: '2026-12-01', readAhead: false }).diagnostics);
   }, 120_000);
 
