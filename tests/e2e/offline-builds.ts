@@ -1,6 +1,7 @@
-// Two publications of a generated manual of 300 procedures in four areas (some of them emergency procedures),
+// Two publications of a generated manual of 100 procedures in four areas (some of them emergency procedures),
 // the second with one procedure changed: built once and shared between runs through a folder in the temp
-// directory, keyed by the sources' content like the demo site (site-build.ts).
+// directory, keyed by the sources' content like the demo site (site-build.ts). The same update at 2,000 procedures
+// is measured by `npm run bench` (bench/offline-update.ts); the tests check what the tablet does.
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { copyFileSync, cpSync, existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
@@ -8,10 +9,13 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { generateProcedure } from '../../bench/generate-procedures.ts';
 
-export const procedureCount = 300;
+export const procedureCount = 100;
 export const areas = ['area-east', 'area-north', 'area-south', 'area-west'];
-/** The procedure the second publication changes: its title (shown in the lists) and one step's text. */
-export const changedId = 'GEN-0150';
+/** The procedure the second publication changes (the middle one): its title (shown in the lists) and one step's text. */
+const changedNumber = procedureCount / 2;
+export const changedId = `GEN-${String(changedNumber).padStart(4, '0')}`;
+/** Its title in both publications: the first's, and the words the second adds. */
+export const changedTitle = `Generated batch procedure ${changedNumber}`;
 
 export interface GeneratedManual {
   procedures: string;
@@ -21,14 +25,14 @@ export interface GeneratedManual {
   b: string;
 }
 
-/** The generated procedures: small ones (six steps) so that two builds of 300 stay quick; every tenth is an emergency procedure. */
+/** The generated procedures: small ones (six steps) so that two builds stay quick; every tenth is an emergency procedure. */
 export function generatedManual(changed: boolean): Array<{ file: string; text: string }> {
   return Array.from({ length: procedureCount }, (_, i) => {
     const p = generateProcedure(i + 1, 6);
     const id = p.file.slice('generated/'.length);
     let text = i % 10 === 4 ? p.text.replace('kind: batch', 'kind: emergency') : p.text;
     if (changed && p.text.includes(`id: ${changedId}\n`)) {
-      text = text.replace(/^title: .*$/m, 'title: Generated batch procedure 150, second edition')
+      text = text.replace(/^title: .*$/m, `title: ${changedTitle}, second edition`)
         .replace('Generated for benchmarks.', 'Generated for benchmarks. Changed in the second publication: sample the batch twice.');
     }
     return { file: `${areas[i % areas.length]}/${id}`, text };

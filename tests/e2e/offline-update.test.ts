@@ -1,4 +1,4 @@
-// The offline copy at plant scale: two publications of a generated manual of 300 procedures, the second with one
+// The offline copy of a larger manual: two publications of a generated manual of 100 procedures, the second with one
 // procedure changed. A tablet (headless Chromium) updates from the first to the second; the test server's request
 // log shows what it fetched. The network drops halfway through an update; a tablet keeps chosen areas only.
 import { readFile } from 'node:fs/promises';
@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { launchChromium } from './floor-fixture.ts';
 import { serveSite, type SiteServer } from './static-server.ts';
-import { changedId, ensureGeneratedBuilds, procedureCount, type GeneratedManual } from './offline-builds.ts';
+import { changedId, changedTitle, ensureGeneratedBuilds, procedureCount, type GeneratedManual } from './offline-builds.ts';
 import { updateCost, type OfflineFileList, type UpdateCost } from '../../src/render/offline-manifest.ts';
 
 vi.setConfig({ testTimeout: 180_000, hookTimeout: 20 * 60_000 });
@@ -115,7 +115,7 @@ describe('a tablet updating from the first publication to the second', () => {
     reader.on('response', (r) => { if (r.url().startsWith(server.url)) seen.push({ url: r.url(), copy: r.headers()['x-offline-copy'] ?? null }); });
     await reader.goto(`${server.url}/search/`);
     expect((await status(reader))?.page).toBe(listA.version);
-    expect(await searchTitles(reader, changedId)).toEqual([expect.stringContaining('Generated batch procedure 150')]);
+    expect(await searchTitles(reader, changedId)).toEqual([expect.stringContaining(changedTitle)]);
 
     server.serve(built.b);
     server.saved.length = 0;
@@ -179,7 +179,7 @@ describe('a tablet whose network drops halfway through an update', () => {
     await expect(page.locator('body').textContent()).resolves.not.toContain('second edition');
     expect((await status(page))?.page).toBe(listA.version);
     await page.goto(`${server.url}/search/`);
-    expect(await searchTitles(page, changedId)).toEqual([expect.stringContaining('Generated batch procedure 150')]);
+    expect(await searchTitles(page, changedId)).toEqual([expect.stringContaining(changedTitle)]);
     await expect.poll(() => page.locator('[data-offline-status]').textContent(), { timeout: 10_000 }).toMatch(/Update stopped at \d+ of \d+ files/);
     // The offline-copy page says what stopped downloading, and when it last tried to check.
     await page.goto(`${server.url}/offline/`);
