@@ -147,8 +147,11 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     contexts.push(context);
     if (key) keyOf.set(context, key);
     const partsKey = partsKeyOf(input);
-    const partsKept = known && partsKey !== undefined && store!.hasBytes(partsKey);
-    if (partsKey !== undefined) (partsKept ? kept : toKeep).set(input.file, partsKey);
+    // Parts already kept are not written again (a changed date or configuration checks every file once more).
+    const partsThere = partsKey !== undefined && store!.hasBytes(partsKey);
+    const partsKept = !!known && partsThere;
+    if (partsKept) kept.set(input.file, partsKey!);
+    else if (partsKey !== undefined && !partsThere) toKeep.set(input.file, partsKey);
     if (known) {
       if ('text' in input && !partsKept) answered.push({ file: input.file, text: input.text });
       context.summary = known.summary;

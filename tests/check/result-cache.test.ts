@@ -1,6 +1,6 @@
 // The per-file result cache: a warm check says exactly what a cold one says; an edited file, another config or
 // another Stepwright misses; a corrupt or stale entry is refused, never trusted; cross-file rules always run.
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
@@ -164,6 +164,20 @@ describe('result cache', () => {
     const elsewhere = run(callee200, noisy((other as { text: string }).text));
     expect(elsewhere.combined).toHaveLength(1);
     expect(elsewhere.store.stats.misses).toBe(2);
+  });
+
+  it('does not write kept parts again when every file is checked again (another date)', async () => {
+    const store = openResultCache(dir);
+    checkSources(demo, { today, cache: { store, salt: 'v1' } });
+    await store.flush();
+    const kept = () => new Map(readdirSync(dir, { recursive: true }).map(String).filter((f) => f.endsWith('.bin'))
+      .map((f) => [f, statSync(join(dir, f)).mtimeMs]));
+    const before = kept();
+    expect(before.size).toBe(demo.length);
+    const next = openResultCache(dir);
+    checkSources(demo, { today: '2026-12-02', cache: { store: next, salt: 'v1' } });
+    await next.flush();
+    expect(kept()).toEqual(before);
   });
 
   it('refuses an entry moved to another key', () => {
