@@ -72,16 +72,17 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // never read prose with it, and its memory is the build's.
     stopModelThread();
   }
+  const outDir = resolve(io.cwd, values.out);
+  // What each procedure's pages are made from, kept next to the result cache: a rebuild draws only what changed.
+  const cacheFolder = resultCacheFolder(io);
+  const recordFile = cacheFolder ? pageRecordPath(cacheFolder, outDir) : undefined;
   // What the check made and dropped is given back before the pages are built on top of it (see compact-heap.ts). A
   // rebuild (a record of the last build's pages exists) first learns how many pages it will draw: one that keeps
   // nearly all of them builds little on top of the heap, and is spared the collection (about a second at 2,000).
-  const cacheFolder = resultCacheFolder(io);
-  const recordFile = cacheFolder ? pageRecordPath(cacheFolder, outDirOf(io, values.out)) : undefined;
   const rebuilding = recordFile !== undefined && existsSync(recordFile);
   if (loaded.view && !rebuilding) compactHeap();
   progress.done(`${loaded.inputs.length} checked`);
   if (loaded.run.diagnostics.length > 0) io.stdout.write(formatCheckFailure(loaded, useColour(io, io.stdout)));
-  const outDir = outDirOf(io, values.out);
   // A build killed while publishing can leave the output path without a site: put the newest back first.
   const recovered = recoverSite(outDir);
   if (recovered) io.stderr.write(`stepwright build: ${recovered}.\n`);
@@ -102,8 +103,6 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
 
   const tmp = `${outDir}.tmp-${process.pid}`;
   let offline: OfflineCopySummary | undefined;
-  // What each procedure's pages are made from, kept next to the result cache (recordFile): a rebuild draws only what
-  // changed.
   let keys: Map<string, string> | undefined;
   let plan: ReusePlan | undefined;
   let pages: Map<string, HashedFile> | undefined;
@@ -195,18 +194,13 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   return 0;
 }
 
-/** One line on what the build took from the last one. */
-/** The output folder the build publishes to. */
-function outDirOf(io: CliIo, out: string): string {
-  return resolve(io.cwd, out);
-}
-
 /**
  * A rebuild that keeps at least this share of the procedures' pages from the last build skips compacting the heap
  * (it draws few pages on top of it; see compact-heap.ts).
  */
 const keptMostly = 0.9;
 
+/** One line on what the build took from the last one. */
 function reuseReport(plan: ReusePlan, procedures: number): string {
   const kept = plan.reused.size;
   return `Pages: ${kept} procedure${kept === 1 ? '' : 's'} unchanged since the last build kept, ${procedures - kept} drawn.\n`;

@@ -122,7 +122,7 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
       read.delete(index);
       // Undefined when the thread could not read it: read here, and report what goes wrong.
       const parts = got?.bytes ? partsFromBytes(got.bytes) : undefined;
-      return parts && got?.bytes ? { parts: { ...parts, positions: got.positions }, bytes: got.bytes } : undefined;
+      return parts ? { parts: { ...parts, positions: got!.positions }, bytes: got!.bytes! } : undefined;
     },
     readAhead() {
       if (!running) return 0;
