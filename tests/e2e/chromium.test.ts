@@ -1,5 +1,5 @@
 // The tests' Chromium launch: it keeps every feature playwright-core turns off, and it opens no hidden page of
-// the browser's own with each new context.
+// the browser's own with each new context, nor a spare renderer process.
 import { existsSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
@@ -32,6 +32,23 @@ describe('the tests\' Chromium', () => {
       const { targetInfos } = await cdp.send('Target.getTargets', {});
       expect(targetInfos.map((t) => `${t.type} ${t.url}`)).toEqual(['page about:blank']);
       await context.close();
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it.skipIf(!existsSync(chromiumPath))('starts one renderer process per open page, with no spare waiting beside them', async () => {
+    const browser = await launchBrowser();
+    try {
+      const cdp = await browser.newBrowserCDPSession();
+      const renderers: number[] = [];
+      for (let i = 0; i < 3; i++) {
+        const page = await (await browser.newContext()).newPage();
+        await page.setContent('<!doctype html><title>Step</title><h1>Charge kettle K-210</h1>');
+        const { processInfo } = (await cdp.send('SystemInfo.getProcessInfo')) as { processInfo: Array<{ type: string }> };
+        renderers.push(processInfo.filter((p) => p.type === 'renderer').length);
+      }
+      expect(renderers).toEqual([1, 2, 3]);
     } finally {
       await browser.close();
     }
