@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { artifactsDir, launchChromium, builtSite, serveSite, type SiteServer } from './floor-fixture.ts';
 import { seriousViolations } from './accessibility-scan.ts';
+import { PagePool } from './page-pool.ts';
 
 let site: string;
 let browser: Browser;
@@ -17,6 +18,7 @@ const pages = {
 };
 const viewports = [{ width: 1280, height: 800 }, { width: 800, height: 1280 }];
 const measured: string[] = [];
+const pool = new PagePool(() => browser);
 
 beforeAll(async () => {
   site = await builtSite();
@@ -30,8 +32,7 @@ afterAll(async () => {
 });
 
 async function open(path: string, options: { viewport: { width: number; height: number }; colorScheme?: 'light' | 'dark'; javaScriptEnabled?: boolean }): Promise<Page> {
-  const context = await browser.newContext({ ...options, hasTouch: true, serviceWorkers: 'block' });
-  const page = await context.newPage();
+  const page = await pool.page({ ...options, hasTouch: true, serviceWorkers: 'block' });
   const response = await page.goto(server.url + path);
   expect(response?.status()).toBe(200);
   return page;
@@ -92,7 +93,6 @@ describe('on a 10-inch tablet', () => {
         measured.push(`${name} ${size}: ${held.length} targets measured (smallest side ${smallest} px), ${found.length - held.length} inline links in text exempt, ${equivalent.length} smaller links with a 44 px equivalent to the same place; too small: ${small.map((t) => `${t.what} ${t.width}×${t.height}`).join('; ') || 'none'}`);
         expect(held.length).toBeGreaterThan(3);
         expect(small).toEqual([]);
-        await page.context().close();
       });
     }
   }
@@ -111,7 +111,6 @@ describe('placekeeping screenshots', () => {
         await page.screenshot({ path: join(artifactsDir, `floor-placekeeping-${viewport.width}x${viewport.height}-${scheme}.png`) });
       }
       await expect(page.locator('.pk-card-title').textContent()).resolves.toBe('Step 3A.1');
-      await page.context().close();
     });
   }
 });
@@ -136,7 +135,6 @@ describe('themes', () => {
     await expect(page.locator('[data-theme-choice="dark"]').getAttribute('aria-pressed')).resolves.toBe('true');
     await page.locator('[data-theme-choice="auto"]').click();
     expect(await background()).toBe(light);
-    await page.context().close();
   });
 
   for (const scheme of ['light', 'dark'] as const) {
@@ -148,7 +146,6 @@ describe('themes', () => {
           await page.locator('.pk-dock .pk-next').click();
         }
         expect(await seriousViolations(page)).toEqual([]);
-        await page.context().close();
       }, 120_000);
     }
   }
@@ -166,6 +163,5 @@ describe('with JavaScript off', () => {
     await expect(page.locator('[data-theme-toggle]').isVisible()).resolves.toBe(false);
     await expect(page.locator('.pk').count()).resolves.toBe(0);
     await page.screenshot({ path: join(artifactsDir, 'floor-procedure-800x1280-no-js.png') });
-    await page.context().close();
   });
 });

@@ -2,7 +2,8 @@
 // an in-review revision 5), emergencies first, 800 px tablet fit, whole tags and dates, 44 px targets, dark
 // charts, print (page count, blank pages, "continued" marks, light header), search excerpts, area names, safety
 // alert symbols, chart and table numbering, redline with context. Screenshots go to test-artifacts/.
-import { spawnSync } from 'node:child_process';
+import { execFile } from 'node:child_process';
+import { promisify } from 'node:util';
 import { existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
@@ -10,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { PDFParse } from 'pdf-parse';
 import { artifactsDir, builtSite, launchChromium, serveSite, type SiteServer } from './floor-fixture.ts';
+import { PagePool } from './page-pool.ts';
 import { ada, bram, createTempRepo, procedureText, type TempRepo } from '../history/temp-repo.ts';
 
 vi.setConfig({ testTimeout: 240_000, hookTimeout: 600_000 });
@@ -22,6 +24,7 @@ let demo: SiteServer;
 let fixture: SiteServer;
 let repo: TempRepo;
 let fixtureOut: string;
+const pool = new PagePool(() => browser);
 
 /** Sixteen steps; revision 5 changes step 8 only, so the redline has one changed step in sixteen. */
 function longSteps(changed: boolean): string[] {
@@ -60,9 +63,12 @@ beforeAll(async () => {
   const bin = resolve('bin/stepwright.mjs');
   const env: NodeJS.ProcessEnv = { ...process.env, NO_COLOR: '1' };
   for (const key of Object.keys(env)) if (/^(NODE_ENV|DEV|PROD|MODE|SSR|BASE_URL|TEST|VITEST.*)$/.test(key)) delete env[key];
-  const [demoDir] = await Promise.all([builtSite()]);
-  const run = spawnSync(process.execPath, [bin, 'build', '--out', join(fixtureOut, 'site')], { cwd: repo.dir, encoding: 'utf8', env, timeout: 8 * 60_000 });
-  if (run.status !== 0) throw new Error(`The fixture manual did not build (exit ${run.status}):\n${run.stdout}\n${run.stderr}`);
+  // The fixture manual builds while the shared demo build runs (or is waited for): two processes for two cores.
+  const fixtureBuild = promisify(execFile)(process.execPath, [bin, 'build', '--out', join(fixtureOut, 'site')], { cwd: repo.dir, encoding: 'utf8', env, timeout: 8 * 60_000, maxBuffer: 64 * 1024 * 1024 })
+    .catch((error: { code?: number; stdout?: string; stderr?: string }) => {
+      throw new Error(`The fixture manual did not build (exit ${error.code}):\n${error.stdout}\n${error.stderr}`);
+    });
+  const [demoDir] = await Promise.all([builtSite(), fixtureBuild]);
   demo = await serveSite(demoDir);
   fixture = await serveSite(join(fixtureOut, 'site'));
   browser = await launchChromium();
@@ -77,8 +83,7 @@ afterAll(async () => {
 });
 
 async function open(server: SiteServer, path: string, viewport = desk, colorScheme: 'light' | 'dark' = 'light'): Promise<Page> {
-  const context = await browser.newContext({ viewport, colorScheme });
-  const page = await context.newPage();
+  const page = await pool.page({ viewport, colorScheme, serviceWorkers: 'block' });
   const response = await page.goto(`${server.url}${path}`);
   expect(response?.status(), path).toBe(200);
   return page;
@@ -111,7 +116,6 @@ describe('the revision in force', () => {
       // The step table is revision 4's: step 8 checks the valve.
       expect(await page.locator('tr#step-s8').innerText()).toContain('Check valve XV-2108');
       await shot(page, `in-force-${viewport.width}x${viewport.height}`);
-      await page.context().close();
     }
   });
 
@@ -125,7 +129,6 @@ describe('the revision in force', () => {
       expect(await page.locator('[data-revision-notice] a').getAttribute('href')).toBe('/procedures/u2-test-001/');
       expect(await page.locator('tr#step-s8').innerText()).toContain('Open valve XV-2108');
       await shot(page, `in-review-${viewport.width}x${viewport.height}`);
-      await page.context().close();
     }
   });
 
@@ -139,7 +142,6 @@ describe('the revision in force', () => {
     expect(await item.locator('.proc-link').getAttribute('href')).toBe('/procedures/u2-test-001/');
     // Area names from data, not the folder name.
     expect(await page.locator('section[data-area] h2').allInnerTexts()).toEqual(['K-210 resin']);
-    await page.context().close();
   });
 
   it('search finds the revision in force, never the revision in review', async () => {
@@ -149,7 +151,6 @@ describe('the revision in force', () => {
     expect(links.length).toBeGreaterThan(0);
     for (const l of links) expect(l).not.toContain('/next/');
     expect(links).toContain('/procedures/u2-test-001/');
-    await page.context().close();
   });
 
   it('redline shows the one changed step of sixteen with context, and every step on request, without JSON quotes', async () => {
@@ -162,7 +163,6 @@ describe('the revision in force', () => {
     const text = await page.locator('.redline').innerText();
     expect(text).not.toMatch(/"[a-z-]+"\s*:/);
     await shot(page, 'redline-800x1280');
-    await page.context().close();
   });
 
   it('keeps every date in the audit and revision tables on one line at 800 px', async () => {
@@ -171,7 +171,6 @@ describe('the revision in force', () => {
       const broken = await page.locator('.history-table .nb, .history-table time').evaluateAll((els) => els.filter((e) => e.getClientRects().length > 1 || (e as HTMLElement).getBoundingClientRect().height > 40).map((e) => e.textContent));
       expect(broken, path).toEqual([]);
       expect(await page.locator('.history-table .nb').count(), path).toBeGreaterThan(0);
-      await page.context().close();
     }
   });
 });
@@ -193,9 +192,6 @@ describe('the demo manual', () => {
     await shot(home, 'home-800x1280');
     const wide = await open(demo, '/', desk);
     await shot(wide, 'home-1280x900');
-    await page.context().close();
-    await home.context().close();
-    await wide.context().close();
   });
 
   it.each([['u2-k210-esd-001'], ['u2-h220-em-001']])('%s leads with conditions, responsibility and the immediate actions on the first screen', async (slug) => {
@@ -213,7 +209,6 @@ describe('the demo manual', () => {
       expect((await box('#approvals')).y).toBeGreaterThan(steps.y);
       expect((await box('#history')).y).toBeGreaterThan(steps.y);
       await shot(page, `emergency-${slug}-${viewport.width}x${viewport.height}`);
-      await page.context().close();
     }
   });
 
@@ -223,7 +218,6 @@ describe('the demo manual', () => {
     expect(until).toContain('Until Agitator M-210 running agitator-on == true');
     expect(until).toContain('Until Charge chute valve XV-2107 closed XV-2107 == closed');
     expect(until).toContain('Until Kettle temperature TI-210 at or above 205 degC TI-210 >= 205 degC');
-    await page.context().close();
   });
 
   it('fits 800 px without hidden clipping: wraps, stacks, or scrolls in an area that says so', async () => {
@@ -259,9 +253,7 @@ describe('the demo manual', () => {
         await shot(page, 'batch-800x1280');
         const wide = await open(demo, path, desk);
         await shot(wide, 'batch-1280x900');
-        await wide.context().close();
       }
-      await page.context().close();
     }
   });
 
@@ -271,7 +263,6 @@ describe('the demo manual', () => {
       const counts = await page.locator('.nb').evaluateAll((els) => ({ all: els.length, broken: els.filter((e) => e.getClientRects().length > 1).map((e) => e.textContent) }));
       expect(counts.all, path).toBeGreaterThan(10);
       expect(counts.broken, path).toEqual([]);
-      await page.context().close();
     }
   });
 
@@ -289,7 +280,6 @@ describe('the demo manual', () => {
       });
       expect(small, path).toEqual([]);
       if (path === '/tags/') expect(await page.locator('main a').count()).toBeGreaterThan(100);
-      await page.context().close();
     }
   });
 
@@ -319,7 +309,6 @@ describe('the demo manual', () => {
     if (colours.timelineText !== null) expect(colours.timelineText).toBeGreaterThan(0.5);
     await page.locator('#sequence').scrollIntoViewIfNeeded();
     await shot(page, 'batch-dark-800x1280');
-    await page.context().close();
   });
 
   it('draws the safety alert symbol with DANGER, WARNING and CAUTION everywhere, never with NOTICE', async () => {
@@ -332,7 +321,6 @@ describe('the demo manual', () => {
       const chart = await page.locator('.chart-scroll .sfc-alert').evaluateAll((els) => els.map((e) => e.getAttribute('data-level')));
       expect(chart.length).toBeGreaterThan(0);
       expect(chart).not.toContain('notice');
-      await page.context().close();
     }
   });
 
@@ -345,7 +333,6 @@ describe('the demo manual', () => {
     const branches = await page.locator('.chart-scroll text.sfc-branch').allTextContents();
     expect(decisions.length).toBeGreaterThan(0);
     for (const d of decisions) expect(branches.filter((b) => b.startsWith(d!)).length, `decision ${d}`).toBeGreaterThanOrEqual(2);
-    await page.context().close();
   });
 
   it('draws every step, the sign-off step included, with the same thin outline (double only for the initial step)', async () => {
@@ -359,7 +346,6 @@ describe('the demo manual', () => {
     expect(steps.length).toBeGreaterThan(5);
     for (const s of steps) for (const w of s.widths) expect(w, `step ${s.step}`).toBeLessThanOrEqual(2);
     expect(steps.filter((s) => s.widths.length >= 2).length, 'steps drawn with a double outline').toBe(1);
-    await page.context().close();
   });
 
   it('keeps table headings out of search excerpts', async () => {
@@ -368,7 +354,6 @@ describe('the demo manual', () => {
     const excerpts = await page.locator('.search-result .excerpt').allInnerTexts();
     for (const e of excerpts) expect(e).not.toMatch(/RolePrinted|Printed nameDate|DateMeaning|No\.ActionSetpoints/);
     await shot(page, 'search-1280x900');
-    await page.context().close();
   });
 
   it('uses one 24-hour time format on the placekeeping card, with the alert symbol on its signal words', async () => {
@@ -380,7 +365,6 @@ describe('the demo manual', () => {
     expect(progress).not.toMatch(/\b(AM|PM|am|pm)\b/);
     const words = await page.locator('.pk-signal-word').evaluateAll((els) => els.map((e) => ({ word: e.textContent!.trim(), symbol: !!e.querySelector('svg.alert-symbol') })));
     for (const w of words) expect(w.symbol, w.word).toBe(w.word !== 'NOTICE');
-    await page.context().close();
   });
 });
 
@@ -418,6 +402,5 @@ describe('printing', () => {
       expect(all).toContain(`Continued on the next page (part 2 of ${parts})`);
       expect(all).toContain(`continued from the previous page (part ${parts} of ${parts})`);
     }
-    await page.context().close();
   });
 });

@@ -8,6 +8,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { PDFParse } from 'pdf-parse';
 import { artifactsDir, builtSite, launchChromium, serveSite, type SiteServer } from './floor-fixture.ts';
+import { PagePool } from './page-pool.ts';
 import { loadRegister } from '../../src/engine/load-register.ts';
 
 vi.setConfig({ testTimeout: 120_000, hookTimeout: 600_000 });
@@ -21,6 +22,7 @@ const register = loadRegister(process.cwd(), undefined, undefined)!;
 
 let browser: Browser;
 let server: SiteServer;
+const pool = new PagePool(() => browser);
 
 beforeAll(async () => {
   const site = await builtSite();
@@ -33,8 +35,7 @@ afterAll(async () => {
 });
 
 async function open(path: string, viewport = desk, options: { serviceWorkers?: 'block' } = {}): Promise<Page> {
-  const context = await browser.newContext({ viewport, serviceWorkers: options.serviceWorkers ?? 'block' });
-  const page = await context.newPage();
+  const page = await pool.page({ viewport, serviceWorkers: options.serviceWorkers ?? 'block' });
   const response = await page.goto(server.url + path);
   expect(response?.status(), path).toBe(200);
   return page;
@@ -65,7 +66,6 @@ describe('register pages', () => {
       expect(r.status(), href).toBe(200);
     }
     await shot(page, 'index-1280x900');
-    await page.context().close();
   });
 
   it('shows where a trip is used, with links that land on real step rows, and its changes from git', async () => {
@@ -88,18 +88,15 @@ describe('register pages', () => {
     await expect(page.locator('.register-history li').count()).resolves.toBeGreaterThan(0);
     await expect(page.locator('.register-history li').first().textContent()).resolves.toMatch(/(Added|Changed|First seen) on \d{4}-\d{2}-\d{2}/);
     await shot(page, 'tshh-210-1280x900', true);
-    await page.context().close();
   });
 
   it('keeps the safety data sheet caution on a chemical and reaches the shutdown function through its trips', async () => {
     const chemical = await open('/register/xylene/');
     await expect(chemical.locator('.register-caution').textContent()).resolves.toContain("supplier's current safety data sheet");
     await expect(chemical.locator('ul.where-used > li[data-procedure="U2-K210-BATCH-001"]').count()).resolves.toBe(1);
-    await chemical.context().close();
     const shutdown = await open('/register/esd-210/');
     const how = await shutdown.locator('ul.where-used > li[data-procedure="U2-K210-ESD-001"]').textContent();
     expect(how).toMatch(/Through .*HS-2190/);
-    await shutdown.context().close();
   });
 
   it('is linked from procedure pages: interlocks, limits, the area and the list of entries used', async () => {
@@ -110,7 +107,6 @@ describe('register pages', () => {
     await expect(page.locator('#identity dd a[href="/register/k-210-resin/"]').count()).resolves.toBe(1);
     const used = await page.locator('[data-register-entries] a.register-link').evaluateAll((els) => els.map((e) => e.textContent));
     expect(used).toEqual(expect.arrayContaining(['TSHH-210', 'xylene', 'ESD-210']));
-    await page.context().close();
   });
 
   for (const path of ['/register/', '/register/ti-210/', '/register/esd-210/', '/register/k-210-resin/']) {
@@ -119,7 +115,6 @@ describe('register pages', () => {
       const [scroll, width] = await page.evaluate(() => [document.documentElement.scrollWidth, innerWidth]);
       expect(scroll).toBeLessThanOrEqual(width);
       await shot(page, `${path.replaceAll('/', '_')}-800x1280`);
-      await page.context().close();
     });
   }
 
@@ -130,7 +125,6 @@ describe('register pages', () => {
     expect(text).toContain('245 degC');
     expect(text).toContain('Where it is used');
     expect(text).toContain('THIS MANUAL SUPPORTS');
-    await page.context().close();
   });
 });
 
@@ -146,10 +140,8 @@ describe('temporary procedure in force', () => {
       return Boolean(n.compareDocumentPosition(document.querySelector('#steps')!) & Node.DOCUMENT_POSITION_FOLLOWING);
     });
     expect(before).toBe(true);
-    await page.context().close();
     const other = await open('/procedures/u2-k210-sd-001/');
     await expect(other.locator('[data-temporary-notice]').count()).resolves.toBe(0);
-    await other.context().close();
   });
 
   it('is listed on the home page with what it changes and its end date', async () => {
@@ -159,7 +151,6 @@ describe('temporary procedure in force', () => {
     expect(summary).toContain('2027-01-15');
     expect(summary).toContain('U2-K210-BATCH-001');
     await expect(page.locator('[data-procedure="U2-T230-CIP-002"] .temporary-mark').count()).resolves.toBe(1);
-    await page.context().close();
   });
 });
 
@@ -178,7 +169,6 @@ describe('step table, chart and placekeeping: contingencies, performers, checks 
     const chart = await page.locator('#sequence .chart-scroll > svg').textContent();
     expect(chart).toContain('BY: Board operator');
     expect(chart).toContain('SECOND-PERSON SIGN-OFF:');
-    await page.context().close();
   });
 
   it('stacks the new columns with labels on an 800 px tablet, without sideways scrolling', async () => {
@@ -191,7 +181,6 @@ describe('step table, chart and placekeeping: contingencies, performers, checks 
     await expect(page.locator('#step-announce td.contingency').isVisible()).resolves.toBe(false);
     await page.locator('#step-check-cooling-open').scrollIntoViewIfNeeded();
     await shot(page, 'esd-steps-800x1280');
-    await page.context().close();
   });
 
   it('puts the line-up checklist before the chart; placekeeping keeps its ticks and reminds of open items', async () => {
@@ -214,7 +203,6 @@ describe('step table, chart and placekeeping: contingencies, performers, checks 
     await expect(page.locator('[data-pk-line-up]').getAttribute('data-pk-line-up')).resolves.toBe('0');
     await page.locator('#line-up').scrollIntoViewIfNeeded();
     await shot(page, 'line-up-800x1280');
-    await page.context().close();
   });
 
   it('offers a step\'s contingency jump in placekeeping and moves the place there', async () => {
@@ -229,7 +217,6 @@ describe('step table, chart and placekeeping: contingencies, performers, checks 
     await jump.click();
     await expect(page.locator('.pk-card-title').textContent()).resolves.toBe('Step 5');
     await expect(page.locator('tr#step-read-temperature').getAttribute('aria-current')).resolves.toBe('step');
-    await page.context().close();
   });
 
   it('prints the line-up with empty boxes and the contingency column', async () => {
@@ -241,6 +228,5 @@ describe('step table, chart and placekeeping: contingencies, performers, checks 
     const text = (await pdfText(await page.pdf({ format: 'A4', printBackground: true }))).join('\n');
     expect(text).toContain('Line-up before step 1');
     expect(text.toLowerCase()).toContain('if it does not happen');
-    await page.context().close();
   });
 });
