@@ -51,8 +51,10 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     await new Promise((done) => (server ? server.close(done) : done(null)));
   });
 
+  // One page, taken from page to page as a reader does: a new page started a renderer process for each test.
+  let reader: Page | undefined;
   const open = async (path: string): Promise<Page> => {
-    const page = await context.newPage();
+    const page = reader ??= await context.newPage();
     const response = await page.goto(`${base}${path}`);
     expect(response?.status(), path).toBe(200);
     return page;
@@ -81,7 +83,6 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     await result.first().click();
     await page.waitForURL(`${base}${target.url}`);
     expect(await page.locator('h1').innerText()).toContain(target.id);
-    await page.close();
   });
 
   it('leaves superseded procedures out of search results unless asked', async () => {
@@ -97,7 +98,6 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     expect(text).toContain(old.status);
     expect(text).toMatch(/revision \d+/);
     await expectNoSeriousViolations(page, 'search');
-    await page.close();
   }, 240_000);
 
   it('shows the hazards above the chart, DANGER before WARNING', async () => {
@@ -111,11 +111,10 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     expect(hazardsBox!.y + hazardsBox!.height).toBeLessThanOrEqual(chartBox!.y);
     for (const word of ['DANGER', 'WARNING']) await expect(page.locator('#before-you-start .signal-word', { hasText: word }).first().isVisible()).resolves.toBe(true);
     await page.screenshot({ path: join(artifacts, `manual-${p.slug}.png`), fullPage: true });
-    await page.close();
   });
 
   it('draws one chart node per step and one bar per transition on every procedure page', async () => {
-    const page = await context.newPage();
+    const page = reader ??= await context.newPage();
     for (const p of view.procedures) {
       await page.goto(`${base}${p.url}`);
       // The procedure's own page shows the revision in force; the file's newer text has its own page.
@@ -129,7 +128,6 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
       const missing = await page.locator('#sequence .chart-scroll a.sfc-step').evaluateAll((els) => els.map((e) => e.getAttribute('href')!).filter((h) => !document.querySelector(`tr${h}`)));
       expect(missing, p.id).toEqual([]);
     }
-    await page.close();
   }, 240_000);
 
   it('lands every step link of the chart on its table row', async () => {
@@ -147,7 +145,6 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
       expect(box!.y).toBeGreaterThanOrEqual(-1);
       expect(box!.y).toBeLessThan(viewport.height);
     }
-    await page.close();
   });
 
   const axePages = (): Array<[string, string]> => {
@@ -164,7 +161,6 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
       expect(await page.locator('.where-used li a').count()).toBeGreaterThan(0);
       await page.screenshot({ path: join(artifacts, 'manual-where-used.png'), fullPage: true });
     }
-    await page.close();
   }, 240_000);
 
   it('shows draft, in-review and superseded procedures with an unmistakable banner', async () => {
@@ -177,7 +173,6 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
       const bannerBox = await banner.boundingBox();
       const h1Box = await page.locator('h1').boundingBox();
       expect(bannerBox!.y).toBeLessThan(h1Box!.y);
-      await page.close();
     }
   });
 });
