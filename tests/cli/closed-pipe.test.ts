@@ -1,14 +1,20 @@
 // A reader that stops early (`stepwright check --explain | head`) closes the pipe: the command stops quietly,
 // with no stack trace on the terminal.
 import { spawn } from 'node:child_process';
+import { cpSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { tempFolder } from '../temp-folder.ts';
 
 const root = join(import.meta.dirname, '..', '..');
 
 describe('a closed output pipe', () => {
   it('ends the command without an error trace when the reader stops after the first lines', async () => {
-    const child = spawn(process.execPath, ['bin/stepwright.mjs', 'check', '--explain', '--no-history', 'procedures', 'tests/fixtures'], {
+    // Four copies of the demo procedures (each id then found four times): far more output than a pipe holds (64 KiB
+    // on Linux), so the command is still writing when the reader goes.
+    const copies = tempFolder('stepwright-closed-pipe-');
+    for (let i = 1; i <= 4; i++) cpSync(join(root, 'procedures'), join(copies, `copy-${i}`), { recursive: true });
+    const child = spawn(process.execPath, ['bin/stepwright.mjs', 'check', '--explain', '--no-history', copies], {
       cwd: root, env: { ...process.env, NO_COLOR: '1', STEPWRIGHT_CACHE: 'off' }, stdio: ['ignore', 'pipe', 'pipe'],
     });
     let stderr = '';
