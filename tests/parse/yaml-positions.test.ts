@@ -2,7 +2,7 @@
 // the same node for any path (missing keys and items, odd path segments, null values, aliases, every scalar style).
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { isMap, isNode, isPair, isScalar, isSeq, parseDocument, type Node, type Pair } from 'yaml';
+import { isMap, isNode, isPair, isScalar, isSeq, parseDocument, YAMLSeq, type Node, type Pair } from 'yaml';
 import { locateIn, positionTable } from '../../src/parse/yaml-positions.ts';
 import { readSource, type PathKey } from '../../src/parse/read-source.ts';
 
@@ -91,13 +91,39 @@ describe('the table of positions', () => {
     expect(doc.errors).toEqual([]);
   });
 
-  it('walks a deeply nested document without running out of stack', () => {
-    const depth = 1000;
+  it('walks a document nested deeper than a source may be, as the parser placed it', () => {
+    // Twice the 200 levels a source may nest (deeper sources are refused before they are walked, read-source.ts).
+    // Not 1,000: the YAML parser itself recurses, and ran out of stack at 370 to 770 levels of this text (measured
+    // with 0 to 6,000 frames already on the stack), so at 1,000 the test passed or failed with what ran before it.
+    const depth = 400;
     const text = `${'['.repeat(depth)}1${']'.repeat(depth)}`;
-    const table = positionTable(parseDocument(text, { prettyErrors: false }));
+    const doc = parseDocument(text, { prettyErrors: false });
+    expect(doc.errors.map((e) => e.message)).toEqual([]);
+    const table = positionTable(doc);
     expect(table.count).toBe(depth + 1);
     expect(locateIn(table, Array(depth).fill(0), 'value').node?.t).toBe(1);
   });
+
+  it('walks and searches a document of 50,000 levels without running out of stack', () => {
+    // Built node by node (the parser would not reach such a depth): a walk that called itself for every level
+    // would run out of stack long before.
+    const depth = 50_000;
+    const doc = parseDocument('1');
+    let inner: Node = doc.contents as Node;
+    inner.range = [depth, depth + 1, depth + 1];
+    for (let level = depth - 1; level >= 0; level--) {
+      const seq = new YAMLSeq();
+      seq.items.push(inner);
+      seq.range = [level, 2 * depth + 1 - level, 2 * depth + 1 - level];
+      inner = seq;
+    }
+    doc.contents = inner as typeof doc.contents;
+    const table = positionTable(doc);
+    expect(table.count).toBe(depth + 1);
+    const found = locateIn(table, Array(depth).fill(0), 'value');
+    expect(found.node?.t).toBe(1);
+  });
+
 
   it('answers the same when the table is made as the file is read, when a position is first asked for, or again after it was let go (property)', () => {
     // Whole files: front-matter (valid or not) and a body; ranges in the file, scalars' inner ranges included.
