@@ -16,7 +16,8 @@ beforeAll(async () => {
   site = await builtSite();
   server = await serveSite(site);
   browser = await launchChromium();
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, hasTouch: true });
+  // Placekeeping keeps its place in the page's own storage: no service worker saving the manual in the background.
+  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, hasTouch: true, serviceWorkers: 'block' });
   page = await context.newPage();
   await page.goto(server.url + '/');
   const href = await page.locator(`a[href*="${id.toLowerCase()}"]`).first().getAttribute('href');

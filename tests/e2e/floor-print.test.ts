@@ -27,7 +27,8 @@ beforeAll(async () => {
 afterAll(async () => { await browser?.close(); await server?.close(); });
 
 async function open(javaScriptEnabled: boolean): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, javaScriptEnabled });
+  // The offline copy is not printed: no service worker saving the manual in the background.
+  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, javaScriptEnabled, serviceWorkers: 'block' });
   const page = await context.newPage();
   const response = await page.goto(batchUrl);
   expect(response?.status()).toBe(200);
