@@ -43,7 +43,8 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
     base = started.url.replace(/\/$/, '');
     mkdirSync(artifacts, { recursive: true });
     browser = await launchBrowser();
-    context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    // Search, charts and banners, read from the server: the offline copy is tested on its own (floor-offline).
+    context = await browser.newContext({ viewport: { width: 1280, height: 800 }, serviceWorkers: 'block' });
   });
 
   afterAll(async () => {
