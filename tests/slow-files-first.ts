@@ -1,9 +1,10 @@
 // The order in which the test runner starts the test files: the files that take longest first, so that the two
 // test processes finish together instead of one of them starting a two-minute browser file near the end. On a
 // fresh machine the runner has no record of durations and would start the largest files first. Measured on the
-// 2-core machine (whole suite, seconds per file): floor-tablet 139 (the first to need the shared demo build, so it
-// builds it for the other browser files), operator-pages 106, packed-install 97, injection 79, register-pages 63,
-// offline-update 62, manual-site 66, build-safety 28, floor-offline 19, floor-print 14. The rest keep the runner's order.
+// 2-core machine (whole suite from a fresh clone, seconds per file, not counting setup): packed-install 79 (after
+// about 25 s of packing and installing), floor-tablet 48 (the first to need the shared demo build, so it builds it
+// for the other browser files), offline-update 40 (after building its two manuals), operator-pages 38, injection 30,
+// register-pages 27, manual-site 27, floor-offline 25, build-safety 17, floor-print 7. The rest keep the runner's order.
 import { BaseSequencer, type TestSpecification } from 'vitest/node';
 
 export const slowFiles = [
