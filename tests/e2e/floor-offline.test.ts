@@ -80,11 +80,9 @@ describe('offline copy', () => {
   });
 
   it('warns when the published manual it last saw is newer, and updates when it can reach it', async () => {
-    // A fresh server has a new port, so a new origin: the copy is saved again there first.
-    server = await serveSite(site);
-    await context.close();
-    context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
-    page = await context.newPage();
+    // The server is back on its port (the same origin, so the tablet keeps the copy it saved) and so is the network.
+    server = await serveSite(site, Number(new URL(server.url).port));
+    await context.setOffline(false);
     await page.goto(server.url + '/');
     await page.waitForFunction(() => navigator.serviceWorker.controller !== null, undefined, { timeout: 30_000 });
     await expect.poll(() => page.locator('[data-offline-status]').textContent(), { timeout: 60_000 }).toMatch(/^Offline copy: manual of/);

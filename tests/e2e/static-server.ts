@@ -27,7 +27,8 @@ export interface SiteServer {
   close(): Promise<void>;
 }
 
-export async function serveSite(first: string): Promise<SiteServer> {
+/** Serves `first`; on `port` when given (the same origin as an earlier server there), else on a free port. */
+export async function serveSite(first: string, port = 0): Promise<SiteServer> {
   let dir = first;
   const state: SiteServer = {
     url: '', override: new Map(), requests: [], saved: [], dropAfter: null, down: false,
@@ -65,7 +66,10 @@ export async function serveSite(first: string): Promise<SiteServer> {
     }
   };
   const server: Server = createServer((req, res) => { void handle(req, res); });
-  await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(port, '127.0.0.1', resolve);
+  });
   const address = server.address();
   // localhost, not 127.0.0.1: service workers need a secure context, and localhost counts as one.
   state.url = `http://localhost:${typeof address === 'object' && address ? address.port : 0}`;
