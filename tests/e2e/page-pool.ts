@@ -41,7 +41,9 @@ export class PagePool {
   releaseAll(): void {
     for (const { key, page } of this.#handedOut) {
       if (page.isClosed()) continue;
-      this.#idle.set(key, [...(this.#idle.get(key) ?? []), page]);
+      const idle = this.#idle.get(key) ?? [];
+      idle.push(page);
+      this.#idle.set(key, idle);
     }
     this.#handedOut = [];
   }
