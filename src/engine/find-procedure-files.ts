@@ -236,7 +236,11 @@ function describeError(error: unknown): string {
   }
 }
 
-function displayPath(absolute: string, cwd: string): string {
+/**
+ * How a file or folder is named in diagnostics and in the manual: relative to the working folder when inside it
+ * (with `/`), else absolute. A folder given as `procedures` or as `/plant/procedures` is named the same way.
+ */
+export function displayPath(absolute: string, cwd: string): string {
   const rel = relative(cwd, absolute);
   return rel && !rel.startsWith('..') ? rel.split('\\').join('/') : absolute;
 }

@@ -4,9 +4,11 @@
 // `stepwright build` runs the check once, then hands the result to the pages in the same process
 // (handOffManual): the pages never check again. Only the dev server without a build (live preview) runs the
 // check itself, again after every save.
+import { resolve } from 'node:path';
 import type { CheckResult, SourceInput } from '../check/run-checks.ts';
 import { runCheckRun, type CheckRun } from '../engine/check-run.ts';
 import { proceduresFolder } from '../engine/project.ts';
+import { displayPath } from '../engine/find-procedure-files.ts';
 import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from '../render/format-diagnostics.ts';
 import { normalizeBase, rootBase, type SiteBase } from '../render/site-url.ts';
@@ -71,7 +73,9 @@ export interface LoadOptions {
 
 /** The procedures folder of a build (`stepwright build` hands its choice to the pages in $STEPWRIGHT_PROCEDURES and $STEPWRIGHT_CONFIG). */
 export function manualFolder(options: { cwd: string; env: Record<string, string | undefined> }): string {
-  return proceduresFolder(options, { config: options.env.STEPWRIGHT_CONFIG || undefined });
+  // Named as the check names its files (relative inside the working folder, else absolute): the pages take a
+  // procedure's area from its path under this folder, the same whether the folder was given relative or absolute.
+  return displayPath(resolve(options.cwd, proceduresFolder(options, { config: options.env.STEPWRIGHT_CONFIG || undefined })), options.cwd);
 }
 
 /** Reads and checks the procedures folder for a site build: the engine's check run, dated by the build date. */
