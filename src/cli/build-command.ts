@@ -8,7 +8,7 @@ import { UsageError, useColour, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
 import { linksOutsideBase, type SiteBase } from '../render/site-url.ts';
-import { finishPages } from './index-site.ts';
+import { finishPages, type FinishedPage } from './index-site.ts';
 import { publishSite, recoverSite } from './publish-site.ts';
 import { readPrivateKey, writeSiteManifest } from './site-manifest.ts';
 import { siteConfig } from '../site/astro-config.ts';
@@ -22,8 +22,7 @@ import { linkPackages, packagesHolder, packagesReachableFrom } from './package-l
 import { buildHelp } from './command-help.ts';
 import { resultCacheFolder } from '../engine/cache-folder.ts';
 import { procedurePageKeys } from '../site-data/page-keys.ts';
-import { copyReusedPages, pageCodeStamp, reusedPaths, pageRecordPath, planReuse, readPageRecord, reusedPagesAltered, writePageRecord, type ReusePlan } from './page-reuse.ts';
-import type { HashedFile } from '../render/offline-manifest.ts';
+import { copyReusedPages, pageCodeStamp, pageRecordPath, planReuse, readPageRecord, recordedPages, ReusedPageChanged, reusedPagesAltered, writePageRecord, type ReusePlan } from './page-reuse.ts';
 
 export { buildHelp };
 
@@ -105,7 +104,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   let offline: OfflineCopySummary | undefined;
   let keys: Map<string, string> | undefined;
   let plan: ReusePlan | undefined;
-  let pages: Map<string, HashedFile> | undefined;
+  let pages: Map<string, FinishedPage> | undefined;
   // Astro keeps its intermediate files inside the output folder only when that folder is inside the
   // project; elsewhere it would share <project>/.astro with any other build running at the same time.
   const scratch = join(io.cwd, '.stepwright');
@@ -147,7 +146,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     const { build } = await import('astro');
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
     await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base }), { sync: false } as Parameters<typeof build>[1]);
-    if (plan) copyReusedPages(plan, outDir, work);
+    const taken = plan ? copyReusedPages(plan, outDir, work) : new Map();
     progress.done(`${loaded.view.procedures.length} procedures${plan?.reused.size ? `, ${plan.reused.size} kept from the last build` : ''}`);
     // Under a sub-path, a link that leaves it is a broken page on the plant's server: the build stops.
     const leaving = await linksLeavingBase(work, base);
@@ -157,13 +156,10 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // One pass over the pages: tags, ids and dates never break across lines, on every page, and the search
     // index reads the pages as kept.
     if (!values['no-index']) progress.phase('indexing for search');
-    pages = await finishPages(work, { index: !values['no-index'], finished: plan ? reusedPaths(plan) : undefined });
+    pages = await finishPages(work, { index: !values['no-index'], finished: plan ? recordedPages(plan) : undefined });
     if (!values['no-index']) progress.done();
-    const altered = plan ? reusedPagesAltered(plan, work, pages) : [];
-    if (altered.length) {
-      rmSync(recordFile!, { force: true });
-      throw new Error(`pages of the last build are not as recorded (${altered.slice(0, 3).join(', ')}${altered.length > 3 ? ', …' : ''}); their record is forgotten, and the next build draws every page`);
-    }
+    const altered = plan ? reusedPagesAltered(plan, work, pages, taken) : [];
+    if (altered.length) throw new ReusedPageChanged(altered);
     progress.phase('writing the offline copy');
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
@@ -179,6 +175,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     progress.done();
   } catch (error) {
     progress.fail();
+    if (error instanceof ReusedPageChanged && recordFile) rmSync(recordFile, { force: true });
     rmSync(work, { recursive: true, force: true });
     rmSync(tmp, { recursive: true, force: true });
     io.stderr.write(`stepwright build: the site could not be built: ${(error as Error)?.message ?? String(error)}\n${existsSync(outDir) ? `The last good site in ${relative(io.cwd, outDir) || '.'}/ is unchanged.\n` : ''}`);

@@ -13,6 +13,22 @@ const pagesInFlight = 16;
 /** The attribute that marks a page's searchable part. */
 const bodyMark = 'data-pagefind-body';
 
+/** True when a page's bytes carry the mark of a searchable part (a page the search index is sent). */
+export function marksSearchablePart(page: Buffer): boolean {
+  return page.includes(bodyMark, 0, 'latin1');
+}
+
+/** A page as the final pass left it. */
+export interface FinishedPage extends HashedFile {
+  /** The page carries the mark of a searchable part. */
+  marked: boolean;
+  /** Taken as the last build recorded it (an unchanged file it published), not read by this pass. */
+  asRecorded?: true;
+}
+
+/** A page taken over from the last build, as that build's final pass recorded it. */
+export type RecordedPage = Pick<FinishedPage, 'sha256' | 'size' | 'marked'>;
+
 export async function indexSite(dir: string): Promise<void> {
   await finishPages(dir, { index: true });
 }
@@ -25,10 +41,12 @@ export async function indexSite(dir: string): Promise<void> {
  * Returns the SHA-256 and size of every page as it was left, by path in the site: later steps of the same build
  * (the offline copy's list, the site manifest) take them instead of reading every page again.
  * Pages in `finished` (taken over from an earlier build, which kept their tokens whole already) are indexed and
- * hashed as they are: keeping tokens whole a second time could wrap a token the first pass left alone.
+ * hashed as they are: keeping tokens whole a second time could wrap a token the first pass left alone. One the
+ * search index is not sent is not even read: its hash and size are the recorded ones (the build has checked that
+ * the file is the one recorded; see page-reuse.ts).
  */
-export async function finishPages(dir: string, options: { index: boolean; finished?: ReadonlySet<string> }): Promise<Map<string, HashedFile>> {
-  const pages = new Map<string, HashedFile>();
+export async function finishPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage> }): Promise<Map<string, FinishedPage>> {
+  const pages = new Map<string, FinishedPage>();
   const digests: Array<Promise<void>> = [];
   const pagefind = options.index ? await import('pagefind') : undefined;
   try {
@@ -59,17 +77,23 @@ export async function finishPages(dir: string, options: { index: boolean; finish
     let marked = 0;
     for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
       const file = join(dir, ...path.split('/'));
+      const recorded = options.finished?.get(path);
+      if (recorded && !recorded.marked) {
+        pages.set(path, { path, sha256: recorded.sha256, size: recorded.size, marked: false, asRecorded: true });
+        unmarked.push(path);
+        continue;
+      }
       const page = readFileSync(file);
-      const kept = options.finished?.has(path) ? page : keepTokensWholeInBytes(page);
+      const kept = recorded ? page : keepTokensWholeInBytes(page);
       if (kept !== page) writeFileSync(file, kept);
       // Hashed on the thread pool while this thread goes on with the next page; all are in before the pages are returned.
-      const hashed: HashedFile = { path, sha256: '', size: kept.byteLength };
+      const hashed: FinishedPage = { path, sha256: '', size: kept.byteLength, marked: marksSearchablePart(kept) };
       pages.set(path, hashed);
       digests.push(webcrypto.subtle.digest('SHA-256', kept).then((digest) => { hashed.sha256 = Buffer.from(digest).toString('hex'); }));
       if (!index) continue;
       // A mention of the attribute in a page's text only sends one page more: pagefind still decides. Only the
       // pages sent are decoded.
-      if (kept.includes(bodyMark, 0, 'latin1')) {
+      if (hashed.marked) {
         marked++;
         await add(path, kept.toString('utf8'));
       } else {

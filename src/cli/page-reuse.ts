@@ -3,18 +3,21 @@
 // in a record in the cache folder, with the size, time and SHA-256 of every file under its folder, as published.
 //
 // A page is taken over only when its key is unchanged and its file in the output is the one the record describes:
-// the same file (inode), size, modification time and change time before the build (the kernel sets the change time
-// on every write and no one can set it back), and the same SHA-256 when the build's final pass reads it; should that
-// differ, the build stops and forgets the record, so the next build draws every page. The built assets (`_astro/…`, named by their content) the old pages link to are
+// the same file (inode), size, modification time and change time (the kernel sets the change time on every write and
+// no one can set it back), checked when the build plans and again just before it links the file into the new site.
+// From there on the new name is watched the same way: the build's final pass reads the pages the search index is
+// sent and compares their SHA-256 with the record, and checks that every other one is still the file it linked
+// (linking sets the change time, so its own stat after linking is the reference). Should either differ, the build
+// stops and forgets the record, so the next build draws every page. The built assets (`_astro/…`, named by their content) the old pages link to are
 // carried over when the new build did not make them. A record that cannot be read or was written for something
 // else is ignored; the folder may be deleted at any time (STEPWRIGHT_CACHE=off: no reuse).
 import { createHash } from 'node:crypto';
 import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { packageRoot, stepwrightStamp } from '../check/result-cache.ts';
-import type { HashedFile } from '../render/offline-manifest.ts';
+import { marksSearchablePart, type FinishedPage, type RecordedPage } from './index-site.ts';
 
-const recordFormat = 'stepwright-page-record-2';
+const recordFormat = 'stepwright-page-record-3';
 
 export interface RecordedFile {
   /** Path in the site, with '/' (e.g. "procedures/r-101/index.html"). */
@@ -25,6 +28,8 @@ export interface RecordedFile {
   ctimeMs: number;
   ino: number;
   sha256: string;
+  /** The page carries the mark of a searchable part: the final pass reads it for the search index. */
+  marked: boolean;
 }
 
 export interface PageRecord {
@@ -46,6 +51,14 @@ export interface ReusePlan {
   redrawn: number;
   /** True when a record of the last build was found and could be read. */
   hadRecord: boolean;
+}
+
+/** A file as it was right after it was linked into the new site. */
+export interface TakenFile {
+  size: number;
+  mtimeMs: number;
+  ctimeMs: number;
+  ino: number;
 }
 
 /** Where the record for one output path lives in the cache folder. */
@@ -90,16 +103,26 @@ export function planReuse(record: PageRecord | undefined, keys: Map<string, stri
 function unchangedOnDisk(outDir: string, slug: string, file: RecordedFile): boolean {
   if (typeof file.path !== 'string' || !file.path.startsWith(`procedures/${slug}/`) || file.path.split('/').includes('..')) return false;
   const stat = statSync(join(outDir, ...file.path.split('/')), { throwIfNoEntry: false });
-  return stat !== undefined && stat.isFile() && stat.size === file.size && stat.mtimeMs === file.mtimeMs
-    && stat.ctimeMs === file.ctimeMs && stat.ino === file.ino && typeof file.sha256 === 'string';
+  return stat !== undefined && stat.isFile() && sameFile(stat, file) && typeof file.sha256 === 'string' && typeof file.marked === 'boolean';
+}
+
+function sameFile(stat: TakenFile, expected: TakenFile): boolean {
+  return stat.size === expected.size && stat.mtimeMs === expected.mtimeMs && stat.ctimeMs === expected.ctimeMs && stat.ino === expected.ino;
+}
+
+function takenFile(path: string): TakenFile | undefined {
+  const stat = statSync(path, { throwIfNoEntry: false });
+  return stat?.isFile() ? { size: stat.size, mtimeMs: stat.mtimeMs, ctimeMs: stat.ctimeMs, ino: stat.ino } : undefined;
 }
 
 /**
  * Copies the reused procedures' files from the last output into the new site, and the assets they may link to
- * that the new build did not make.
+ * that the new build did not make. Each file is checked against the record once more just before it is taken (it
+ * may have changed since the plan). Returns every taken file as it was right after it was taken.
  */
-export function copyReusedPages(plan: ReusePlan, outDir: string, site: string): void {
-  if (plan.reused.size === 0) return;
+export function copyReusedPages(plan: ReusePlan, outDir: string, site: string): Map<string, TakenFile> {
+  const taken = new Map<string, TakenFile>();
+  if (plan.reused.size === 0) return taken;
   for (const asset of plan.assets) {
     const to = join(site, ...asset.split('/'));
     if (existsSync(to)) continue;
@@ -112,8 +135,24 @@ export function copyReusedPages(plan: ReusePlan, outDir: string, site: string): 
       // A page the new build drew for the same path would mean the plan and the pages disagree: never overwrite it.
       if (existsSync(to)) throw new Error(`${file.path} was drawn although its procedure's pages were to be reused`);
       mkdirSync(dirname(to), { recursive: true });
-      takeOver(join(outDir, ...file.path.split('/')), to);
+      const from = join(outDir, ...file.path.split('/'));
+      const before = takenFile(from);
+      if (!before || !sameFile(before, file)) throw new ReusedPageChanged([file.path]);
+      takeOver(from, to);
+      const after = takenFile(to);
+      if (!after) throw new ReusedPageChanged([file.path]);
+      taken.set(file.path, after);
     }
+  }
+  return taken;
+}
+
+/** Pages of the last build changed while this build ran: the build stops, and its record is forgotten. */
+export class ReusedPageChanged extends Error {
+  readonly paths: string[];
+  constructor(paths: string[]) {
+    super(`pages of the last build are not as recorded (${paths.slice(0, 3).join(', ')}${paths.length > 3 ? ', …' : ''}); their record is forgotten, and the next build draws every page`);
+    this.paths = paths;
   }
 }
 
@@ -129,21 +168,29 @@ function takeOver(from: string, to: string): void {
   }
 }
 
-/** The site paths of every reused file. */
-export function reusedPaths(plan: ReusePlan): Set<string> {
-  return new Set([...plan.reused.values()].flatMap((files) => files.map((f) => f.path)));
+/** The reused pages as the final pass takes them: recorded hash, size and search mark, by path in the site. */
+export function recordedPages(plan: ReusePlan): Map<string, RecordedPage> {
+  return new Map([...plan.reused.values()].flatMap((files) => files.map((f) => [f.path, { sha256: f.sha256, size: f.size, marked: f.marked }] as const)));
 }
 
 /**
- * The reused pages that did not come through the pages' final pass as recorded (it hashes every page it reads):
- * none, unless a file changed while the build ran.
+ * The reused pages that did not come through the pages' final pass as recorded: a page it read must hash as
+ * recorded; a page it took as recorded without reading, or never saw (not a page), must still be the file taken.
+ * None, unless a file changed while the build ran.
  */
-export function reusedPagesAltered(plan: ReusePlan, site: string, hashed: Map<string, HashedFile>): string[] {
+export function reusedPagesAltered(plan: ReusePlan, site: string, hashed: ReadonlyMap<string, FinishedPage>, taken: ReadonlyMap<string, TakenFile>): string[] {
   const altered: string[] = [];
   for (const files of plan.reused.values()) {
     for (const file of files) {
-      const sum = hashed.get(file.path)?.sha256 ?? sha256(readFileSync(join(site, ...file.path.split('/'))));
-      if (sum !== file.sha256) altered.push(file.path);
+      const page = hashed.get(file.path);
+      const full = join(site, ...file.path.split('/'));
+      if (page && !page.asRecorded) {
+        if (page.sha256 !== file.sha256) altered.push(file.path);
+        continue;
+      }
+      const then = taken.get(file.path);
+      const now = takenFile(full);
+      if (!then || !now || !sameFile(now, then)) altered.push(file.path);
     }
   }
   return altered;
@@ -154,7 +201,7 @@ export function reusedPagesAltered(plan: ReusePlan, site: string, hashed: Map<st
  * the folder the build published (`site`, by default the output path itself). Hashes come from the build's final
  * pass where it has them. A record that cannot be written only means the next build draws every page.
  */
-export function writePageRecord(file: string, outDir: string, keys: Map<string, string>, hashed: Map<string, HashedFile>, site = outDir): void {
+export function writePageRecord(file: string, outDir: string, keys: Map<string, string>, hashed: ReadonlyMap<string, FinishedPage>, site = outDir): void {
   try {
     const procedures: PageRecord['procedures'] = {};
     for (const [slug, key] of keys) {
@@ -166,7 +213,12 @@ export function writePageRecord(file: string, outDir: string, keys: Map<string, 
         const full = join(entry.parentPath, entry.name);
         const path = `procedures/${slug}/${full.slice(folder.length + 1).split(/[\\/]/).join('/')}`;
         const stat = statSync(full);
-        files.push({ path, size: stat.size, mtimeMs: stat.mtimeMs, ctimeMs: stat.ctimeMs, ino: stat.ino, sha256: hashed.get(path)?.sha256 ?? sha256(readFileSync(full)) });
+        const page = hashed.get(path);
+        const bytes = page ? undefined : readFileSync(full);
+        files.push({
+          path, size: stat.size, mtimeMs: stat.mtimeMs, ctimeMs: stat.ctimeMs, ino: stat.ino,
+          sha256: page?.sha256 ?? sha256(bytes!), marked: page?.marked ?? (path.endsWith('.html') && marksSearchablePart(bytes!)),
+        });
       }
       files.sort((a, b) => a.path.localeCompare(b.path));
       procedures[slug] = { key, files };

@@ -80,7 +80,7 @@ describe('finishPages', () => {
     for (const path of html) {
       // The bytes on disk after the pass (tags wrapped), not the bytes Astro wrote.
       const bytes = readFileSync(join(dir, path));
-      expect(pages.get(path)).toEqual({ path, sha256: createHash('sha256').update(bytes).digest('hex'), size: bytes.byteLength });
+      expect(pages.get(path)).toEqual({ path, sha256: createHash('sha256').update(bytes).digest('hex'), size: bytes.byteLength, marked: path === 'procedures/p-00/index.html' });
     }
     expect(pages.get('tags/t-00/index.html')!.size).toBeGreaterThan(Buffer.byteLength(unmarked['tags/t-00/index.html']));
   }, 60_000);

@@ -3,7 +3,8 @@ import { createHash } from 'node:crypto';
 import { mkdirSync, readFileSync, renameSync, rmSync, statSync, utimesSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { copyReusedPages, pageRecordPath, planReuse, readPageRecord, reusedPagesAltered, writePageRecord } from '../../src/cli/page-reuse.ts';
+import { copyReusedPages, pageRecordPath, planReuse, readPageRecord, recordedPages, ReusedPageChanged, reusedPagesAltered, writePageRecord } from '../../src/cli/page-reuse.ts';
+import { finishPages } from '../../src/cli/index-site.ts';
 import { tempFolder } from '../temp-folder.ts';
 
 const sha = (data: string | Buffer) => createHash('sha256').update(data).digest('hex');
@@ -104,12 +105,61 @@ describe('page reuse', () => {
     const plan = planReuse(readPageRecord(record, site), keys, site);
     const next = join(tempFolder('stepwright-page-reuse-next-'), 'site');
     mkdirSync(next, { recursive: true });
-    copyReusedPages(plan, site, next);
+    const taken = copyReusedPages(plan, site, next);
     expect(readFileSync(join(next, 'procedures', 'a-1', 'audit', 'index.html'), 'utf8')).toBe('<p>A audit</p>');
     expect(readFileSync(join(next, '_astro', 'manual.X1.css'), 'utf8')).toBe('p{}');
-    expect(reusedPagesAltered(plan, next, new Map())).toEqual([]);
+    expect([...taken.keys()].sort()).toEqual(['procedures/a-1/audit/index.html', 'procedures/a-1/index.html', 'procedures/b-2/index.html']);
+    expect(reusedPagesAltered(plan, next, new Map(), taken)).toEqual([]);
     writeFileSync(join(next, 'procedures', 'b-2', 'index.html'), 'changed');
-    expect(reusedPagesAltered(plan, next, new Map())).toEqual(['procedures/b-2/index.html']);
+    expect(reusedPagesAltered(plan, next, new Map(), taken)).toEqual(['procedures/b-2/index.html']);
     expect(() => copyReusedPages(plan, site, next)).toThrow(/was drawn although/);
+  });
+
+  it('watches a taken page it does not read: written in place, even with its bytes, size and time put back, it is altered', async () => {
+    const { site, record, keys } = publishedSite();
+    const plan = planReuse(readPageRecord(record, site), keys, site);
+    const next = join(tempFolder('stepwright-page-reuse-next-'), 'site');
+    mkdirSync(next, { recursive: true });
+    const taken = copyReusedPages(plan, site, next);
+    // The final pass takes the unmarked pages as recorded, without reading them.
+    const pages = await finishPages(next, { index: false, finished: recordedPages(plan) });
+    expect(pages.get('procedures/a-1/index.html')).toMatchObject({ sha256: sha('<p>A</p>'), asRecorded: true, marked: false });
+    expect(reusedPagesAltered(plan, next, pages, taken)).toEqual([]);
+    const page = join(next, 'procedures', 'a-1', 'index.html');
+    const before = statSync(page);
+    writeFileSync(page, '<p>A</p>');
+    utimesSync(page, before.atime, before.mtime);
+    expect(reusedPagesAltered(plan, next, pages, taken)).toEqual(['procedures/a-1/index.html']);
+  });
+
+  it('reads a taken page the search index is sent, and finds it altered by its hash', async () => {
+    const root = tempFolder('stepwright-page-reuse-marked-');
+    const site = join(root, 'site');
+    mkdirSync(join(site, 'procedures', 'm-1'), { recursive: true });
+    writeFileSync(join(site, 'procedures', 'm-1', 'index.html'), '<main data-pagefind-body><p>M</p></main>');
+    const record = pageRecordPath(join(root, 'cache'), site);
+    const keys = new Map([['m-1', 'key-m']]);
+    writePageRecord(record, site, keys, new Map());
+    const plan = planReuse(readPageRecord(record, site), keys, site);
+    expect(plan.reused.get('m-1')![0].marked).toBe(true);
+    const next = join(root, 'next');
+    mkdirSync(next);
+    const taken = copyReusedPages(plan, site, next);
+    const pages = await finishPages(next, { index: false, finished: recordedPages(plan) });
+    expect(pages.get('procedures/m-1/index.html')).toMatchObject({ marked: true, sha256: sha('<main data-pagefind-body><p>M</p></main>') });
+    expect(pages.get('procedures/m-1/index.html')!.asRecorded).toBeUndefined();
+    expect(reusedPagesAltered(plan, next, pages, taken)).toEqual([]);
+    // A hash that differs from the record is an altered page, whatever its file's times say.
+    pages.set('procedures/m-1/index.html', { ...pages.get('procedures/m-1/index.html')!, sha256: '0'.repeat(64) });
+    expect(reusedPagesAltered(plan, next, pages, taken)).toEqual(['procedures/m-1/index.html']);
+  });
+
+  it('refuses to take a page changed after the plan, just before it is linked', () => {
+    const { site, record, keys } = publishedSite();
+    const plan = planReuse(readPageRecord(record, site), keys, site);
+    writeFileSync(join(site, 'procedures', 'b-2', 'index.html'), '<p>X</p>');
+    const next = join(tempFolder('stepwright-page-reuse-next-'), 'site');
+    mkdirSync(next, { recursive: true });
+    expect(() => copyReusedPages(plan, site, next)).toThrow(ReusedPageChanged);
   });
 });

@@ -59,7 +59,7 @@ describe('writeOfflineCopy', () => {
     expect(fromPass.list).toEqual(fromFiles.list);
     expect(fromPass.hashes).toEqual(fromFiles.hashes);
     // A hash handed over is taken as it is: the page is not read again (a wrong one would show in the list).
-    const wrong = new Map(known);
+    const wrong = new Map<string, { path: string; sha256: string; size: number }>(known);
     wrong.set('index.html', { path: 'index.html', sha256: '0'.repeat(64), size: 1 });
     const taken = await writeOfflineCopy(handed, { now: new Date('2026-12-01T00:00:00Z'), places, known: wrong });
     expect(taken.hashes.get('index.html')).toBe('0'.repeat(64));
