@@ -76,10 +76,15 @@ export interface ProcedureView {
    */
   chart(): ChartDrawing;
   stepCount: number;
-  rows: TableRow[];
-  bodyHtml: string;
+  /**
+   * The step table, the body as HTML and the emergency lead are made when a page first reads them (and kept): only
+   * the pages of the procedure itself show them, and a rebuild draws the pages of few procedures. They follow from
+   * the procedure's text and the code alone (see withoutDrawnParts).
+   */
+  readonly rows: TableRow[];
+  readonly bodyHtml: string;
   /** Emergency and emergency-shutdown procedures: what to do first, shown before everything else. */
-  lead?: EmergencyLead;
+  readonly lead?: EmergencyLead;
   tags: Array<{ tag: string; url: string }>;
   /** The line-up: plant states required at the start, each in plant words where the signals have texts. */
   lineUp: Array<{ condition: string; words?: string }>;
@@ -197,7 +202,9 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
   });
   const tagNames = [...new Set([...p.equipment, ...p.interlocks.map((i) => i.tag), ...Object.keys(p.signals)])];
   const steps = file.facts?.steps.length ?? 0;
-  const rows = buildStepTable(p, numbers);
+  let rows: TableRow[] | undefined;
+  let bodyHtml: string | undefined;
+  let lead: { value?: EmergencyLead } | undefined;
   return {
     id: p.id, slug, url: siteUrl(base, pagePath.procedure(slug)), file: p.file, area: areaName(areaOf(p.file, root), p.equipment, register), areaId: areaOf(p.file, root),
     title: p.title, kind: String(p.kind), kindLabel: kindLabel(String(p.kind)), revision: p.revision, status: String(p.status),
@@ -210,9 +217,15 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     limits,
     chart: () => drawChart(p, numbers, steps),
     stepCount: steps,
-    rows,
-    bodyHtml: renderBodyHtml(p.body),
-    ...(emergencyKinds.has(String(p.kind)) ? { lead: emergencyLead(p.body, rows) } : {}),
+    get rows() {
+      return (rows ??= buildStepTable(p, numbers));
+    },
+    get bodyHtml() {
+      return (bodyHtml ??= renderBodyHtml(p.body));
+    },
+    get lead() {
+      return (lead ??= emergencyKinds.has(String(p.kind)) ? { value: emergencyLead(p.body, this.rows) } : {}).value;
+    },
     tags: tagNames.map((t) => ({ tag: t, url: siteUrl(base, pagePath.tag(slugOf(t))) })),
     lineUp: p.lineUp.map((l) => ({ condition: l.value, ...withWords(conditionInWords(l.value, p.signals)) })),
     requires: p.requires.map((r) => ({ id: r.value })),
@@ -229,6 +242,17 @@ function drawChart(p: Procedure, numbers: StepNumbers, steps: number): ChartDraw
       return (printParts ??= chartLayoutPrintParts(layout, `Sequence chart of ${p.id}`).map((part) => part.svg));
     },
   };
+}
+
+/**
+ * The view without its parts drawn on demand (the step table, the body, the lead): what follows from the
+ * procedure's text and the code only, which every key of its pages holds already. Reading them here would make them
+ * for every procedure of the manual.
+ */
+export function withoutDrawnParts(view: ProcedureView): Partial<ProcedureView> {
+  const out: Record<string, unknown> = {};
+  for (const [key, property] of Object.entries(Object.getOwnPropertyDescriptors(view))) if ('value' in property) out[key] = property.value;
+  return out as Partial<ProcedureView>;
 }
 
 function withWords(words: string | undefined): { words?: string } {

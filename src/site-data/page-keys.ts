@@ -2,10 +2,13 @@
 // under its folder come out the same whenever its key does, so a build may keep them from its last output
 // (cli/page-reuse.ts). The key errs towards drawing again: it holds everything those pages read, and for the
 // parts that come from other procedures (calls, callers, required procedures, temporary procedures, register
-// entries, tag pages) their whole source text, not only the few words shown.
+// entries, tag pages) their whole source text, not only the few words shown. The procedure's own view goes in without
+// the parts made on demand (step table, body, emergency lead): those follow from its text and the code, both in the
+// key, and making them here would make them for every procedure of a rebuild that draws few.
 import { callSitesOf } from '../analysis/inline-calls.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { manualIndex } from './manual-index.ts';
+import { withoutDrawnParts } from '../render/manual.ts';
 import type { LoadedManual } from './manual.ts';
 import { historiesOf } from './history.ts';
 import { registerOf } from './register.ts';
@@ -84,7 +87,7 @@ export async function procedurePageKeys(loaded: LoadedManual, salt: string): Pro
     related.delete(p.id);
     const neighbours = [...related].sort().map((id) => `${id}\u0000${textOf(id)}\u0000${index.viewOf(id)?.url ?? ''}`);
     keys.set(p.slug, digest([
-      shared, p.slug, stableJson(p), textOf(p.id),
+      shared, p.slug, stableJson(withoutDrawnParts(p)), textOf(p.id),
       stableJson(checked?.diagnostics ?? []), stableJson(checked?.waived ?? []),
       stableJson(history ?? null), stableJson(ownNotices),
       // The register entries it uses, each with its own uses only: another procedure's use of an entry is not shown here.

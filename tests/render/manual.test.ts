@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkSources } from '../../src/check/run-checks.ts';
 import { renderBodyHtml } from '../../src/render/body-html.ts';
-import { buildManualView, reviewMark, slugOf, statusBanner } from '../../src/render/manual.ts';
+import { buildManualView, reviewMark, slugOf, statusBanner, withoutDrawnParts } from '../../src/render/manual.ts';
 import { mentionsTag } from '../../src/render/where-used.ts';
 import { readTestProcedure, procedureText } from './procedure-text.ts';
 
@@ -93,6 +93,21 @@ describe('manual view', () => {
     expect(pa.bodyHtml).toContain('<h3>Purpose</h3>');
     expect(pa.bodyHtml).not.toContain('<script');
     expect(pa.bodyHtml).not.toContain('<b>');
+  });
+
+  it('makes the step table, the body and the lead when a page first reads them, once, and keys pages without them', () => {
+    const fresh = buildManualView({ files: result.files, root: 'procedures', today: '2026-01-01' }).procedures.find((p) => p.id === 'U9-A-001')!;
+    const eager = withoutDrawnParts(fresh);
+    expect(eager).not.toHaveProperty('rows');
+    expect(eager).not.toHaveProperty('bodyHtml');
+    expect(eager).not.toHaveProperty('lead');
+    expect(eager).toMatchObject({ id: 'U9-A-001', stepCount: 2, hazards: pa.hazards });
+    // Read on demand, they are the same as the view read in full, and kept.
+    expect(fresh.rows).toEqual(pa.rows);
+    expect(fresh.rows).toBe(fresh.rows);
+    expect(fresh.rows.flatMap((r) => (r.kind === 'step' ? [r.number] : []))).toEqual(['1', '2']);
+    expect(fresh.bodyHtml).toBe(pa.bodyHtml);
+    expect(fresh.lead).toBeUndefined();
   });
 });
 
