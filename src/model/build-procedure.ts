@@ -74,8 +74,8 @@ function buildLimit(signal: string, value: unknown, path: PathKey[]): Limit {
   const l = asRecord(value);
   return {
     signal,
-    low: located(l.low, [...path, 'low']),
-    high: located(l.high, [...path, 'high']),
+    low: located(l.low, path, 'low'),
+    high: located(l.high, path, 'high'),
     consequence: asText(l.consequence),
     correction: asText(l.correction),
     path,
@@ -86,7 +86,7 @@ function buildInterlock(value: unknown, path: PathKey[]): Interlock {
   const l = asRecord(value);
   return {
     tag: asText(l.tag) ?? '',
-    tripsWhen: located(l['trips-when'], [...path, 'trips-when']) ?? { value: '', path: [...path, 'trips-when'] },
+    tripsWhen: located(l['trips-when'], path, 'trips-when') ?? { value: '', path: [...path, 'trips-when'] },
     action: asText(l.action) ?? '',
     latches: l.latches === true,
     holds: stateEntries(l.holds, [...path, 'holds']),
@@ -103,7 +103,7 @@ function buildHazard(value: unknown, path: PathKey[]): Hazard {
     consequence: asText(h.consequence),
     avoid: asText(h.avoid),
     at: at.map((s, i) => ({ value: String(s), path: Array.isArray(h.at) ? [...path, 'at', i] : [...path, 'at'] })),
-    when: located(h.when, [...path, 'when']),
+    when: located(h.when, path, 'when'),
     path,
   };
 }
@@ -133,24 +133,24 @@ function buildStep(r: Data, path: PathKey[]): Step {
     params: Object.entries(asRecord(r.params)).map(([name, v]) => ({
       name, value: typeof v === 'number' || typeof v === 'boolean' ? v : String(v), path: [...path, 'params', name],
     })),
-    until: located(r.until, [...path, 'until']),
-    confirm: located(r.confirm, [...path, 'confirm']),
-    expect: located(r.expect, [...path, 'expect']),
+    until: located(r.until, path, 'until'),
+    confirm: located(r.confirm, path, 'confirm'),
+    expect: located(r.expect, path, 'expect'),
     signOff: asText(r['sign-off']),
     note: asText(r.note),
     waivers: asArray(r.waive).map((w, i) => {
       const wr = asRecord(w);
       return { rule: asText(wr.rule) ?? '', reason: asText(wr.reason), path: [...path, 'waive', i] };
     }),
-    state: stateActions(r.state, [...path, 'state']),
-    needs: located(r.needs, [...path, 'needs']),
-    trips: locatedList(r.trips, [...path, 'trips']),
-    resets: locatedList(r.resets, [...path, 'resets']),
+    state: r.state === undefined ? [] : stateActions(r.state, [...path, 'state']),
+    needs: located(r.needs, path, 'needs'),
+    trips: r.trips === undefined ? [] : locatedList(r.trips, [...path, 'trips']),
+    resets: r.resets === undefined ? [] : locatedList(r.resets, [...path, 'resets']),
     performer: asText(r.performer),
     verify: r.verify && typeof r.verify === 'object' && !Array.isArray(r.verify)
       ? { kind: asText(asRecord(r.verify).kind) ?? '', role: asText(asRecord(r.verify).role) ?? '', path: [...path, 'verify'] } : undefined,
-    timeLimit: timeLimitOf(r['time-limit'], [...path, 'time-limit']),
-    ifNot: ifNotOf(r['if-not'], [...path, 'if-not']),
+    timeLimit: r['time-limit'] === undefined ? undefined : timeLimitOf(r['time-limit'], [...path, 'time-limit']),
+    ifNot: r['if-not'] === undefined ? undefined : ifNotOf(r['if-not'], [...path, 'if-not']),
     path,
     extra,
   };
@@ -175,10 +175,10 @@ function buildChoose(r: Data, path: PathKey[]): ChooseBlock {
       const extra: Record<string, unknown> = {};
       for (const [k, v] of Object.entries(br)) if (!branchKeys.has(k)) extra[k] = v;
       return {
-        when: located(br.when, [...bp, 'when']),
+        when: located(br.when, bp, 'when'),
         otherwise: br.otherwise === true,
         items: 'steps' in br ? buildSequence(br.steps, [...bp, 'steps']) : undefined,
-        goto: located(br.goto, [...bp, 'goto']),
+        goto: located(br.goto, bp, 'goto'),
         path: bp,
         extra,
       };
@@ -202,26 +202,26 @@ function stateActions(value: unknown, path: PathKey[]): StateAction[] {
     const to = asText(o.to);
     if (to === undefined) return [];
     const lasts = asText(o.lasts);
-    const after = located(o.after, [...at, 'after']);
+    const after = located(o.after, at, 'after');
     if (after) return [{ signal, value: to, lasts: 'delayed', duration: after, whileActive: lasts === 'step', path: at }];
     if (lasts === 'step') return [{ signal, value: to, lasts: 'step', path: at }];
-    if (lasts !== undefined) return [{ signal, value: to, lasts: 'limited', duration: located(o.lasts, [...at, 'lasts']), path: at }];
+    if (lasts !== undefined) return [{ signal, value: to, lasts: 'limited', duration: located(o.lasts, at, 'lasts'), path: at }];
     return [{ signal, value: to, lasts: 'stored', path: at }];
   });
 }
 
 function timeLimitOf(value: unknown, path: PathKey[]): Step['timeLimit'] {
   const t = asRecord(value);
-  const max = located(t.max, [...path, 'max']);
+  const max = located(t.max, path, 'max');
   if (!max) return undefined;
-  return { max, then: asText(t.then) ?? '', goto: located(t.goto, [...path, 'goto']), path };
+  return { max, then: asText(t.then) ?? '', goto: located(t.goto, path, 'goto'), path };
 }
 
 function ifNotOf(value: unknown, path: PathKey[]): Step['ifNot'] {
   if (value === undefined || value === null || typeof value !== 'object' || Array.isArray(value)) return undefined;
   const o = asRecord(value);
   const actions = Array.isArray(o.do) ? o.do.map(String) : o.do === undefined ? [] : [String(o.do)];
-  return { actions, goto: located(o.goto, [...path, 'goto']), path };
+  return { actions, goto: located(o.goto, path, 'goto'), path };
 }
 
 function locatedList(value: unknown, path: PathKey[]): Located<string>[] {
@@ -230,10 +230,11 @@ function locatedList(value: unknown, path: PathKey[]): Located<string>[] {
   return list.flatMap((v, i) => located(v, Array.isArray(value) ? [...path, i] : path) ?? []);
 }
 
-function located(value: unknown, path: PathKey[]): Located<string> | undefined {
+/** The value with its path (`base` and then `keys`); the path is made only for a value that is there. */
+function located(value: unknown, base: PathKey[], ...keys: PathKey[]): Located<string> | undefined {
   if (value === undefined || value === null) return undefined;
   if (typeof value === 'object') return undefined;
-  return { value: String(value), path };
+  return { value: String(value), path: keys.length ? [...base, ...keys] : base };
 }
 
 function asRecord(value: unknown): Data {
