@@ -9,7 +9,7 @@ import { proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
 import { linksOutsideBase, type SiteBase } from '../render/site-url.ts';
 import { finishPages, type FinishedPage } from './index-site.ts';
-import { publishSite, recoverSite, removeSetAsideVersions } from './publish-site.ts';
+import { publishSite, recoverSite } from './publish-site.ts';
 import { readPrivateKey, writeSiteManifest } from './site-manifest.ts';
 import { siteConfig } from '../site/astro-config.ts';
 import { offlineReport } from './offline-report.ts';
@@ -55,9 +55,6 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   const config = values.config ? resolve(io.cwd, values.config) : '';
   const base = siteBase(io, values);
   const env = { ...io.env, STEPWRIGHT_PROCEDURES: folder, STEPWRIGHT_CONFIG: config };
-  const outDir = resolve(io.cwd, values.out);
-  // The version the last build set aside is deleted while this one checks (see publish-site.ts).
-  const setAsideRemoved = removeSetAsideVersions(outDir);
   // The same check run as `stepwright check` (configuration, waivers, history, call expansion): whatever fails
   // the check stops the build here, with the same report.
   progress.phase('checking procedures');
@@ -74,6 +71,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // never read prose with it, and its memory is the build's.
     stopModelThread();
   }
+  const outDir = resolve(io.cwd, values.out);
   // What each procedure's pages are made from, kept next to the result cache: a rebuild draws only what changed.
   const cacheFolder = resultCacheFolder(io);
   const recordFile = cacheFolder ? pageRecordPath(cacheFolder, outDir) : undefined;
@@ -170,7 +168,6 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // Very last: the SHA-256 of every file, signed when a key is given.
     writeSiteManifest(work, { privateKey, known: offline.hashes });
     if (work !== tmp) moveFolder(work, tmp);
-    await setAsideRemoved;
     const published = publishSite(tmp, outDir);
     // The record describes this build's own version folder: another build publishing meanwhile cannot slip its
     // files under this build's keys.

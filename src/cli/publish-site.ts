@@ -4,18 +4,10 @@
 // either the old link or the new one; `recoverSite` repairs the one case a kill can leave behind (an output
 // folder from before links were used, moved aside but not yet replaced).
 import { existsSync, lstatSync, mkdirSync, readdirSync, readlinkSync, renameSync, rmSync, symlinkSync } from 'node:fs';
-import { readdir, rm } from 'node:fs/promises';
 import { basename, dirname, join, resolve } from 'node:path';
 
 /** How many published versions are kept: the one in use and the one before it (a reader may still be on it). */
 const keptVersions = 2;
-
-/**
- * An older version is set aside under this prefix when a build publishes (one rename), and deleted while the next
- * build checks its procedures (removeSetAsideVersions): deleting thousands of files is the file system's work, done
- * on Node's thread pool beside the check instead of after the new site is published.
- */
-const setAsidePrefix = '.set-aside-';
 
 export function versionsFolder(outDir: string): string {
   return `${outDir}.versions`;
@@ -98,34 +90,13 @@ export function publishSite(staged: string, outDir: string): string {
   return target;
 }
 
-/** Sets aside versions older than the kept ones, never the one the output path points at. */
+/** Removes versions older than the kept ones, never the one the output path points at. */
 function pruneVersions(outDir: string): void {
   const inUse = linkedVersion(outDir);
   const all = completeVersions(outDir);
   for (const name of all.slice(0, Math.max(0, all.length - keptVersions))) {
-    if (name === inUse) continue;
-    const version = join(versionsFolder(outDir), name);
-    try {
-      renameSync(version, join(versionsFolder(outDir), `${setAsidePrefix}${name}`));
-    } catch {
-      rmSync(version, { recursive: true, force: true });
-    }
+    if (name !== inUse) rmSync(join(versionsFolder(outDir), name), { recursive: true, force: true });
   }
-}
-
-/**
- * Deletes the versions earlier builds set aside. Runs on Node's thread pool while the caller goes on; never fails
- * (what cannot be deleted now is tried again by the next build).
- */
-export async function removeSetAsideVersions(outDir: string): Promise<void> {
-  let names: string[];
-  try {
-    names = await readdir(versionsFolder(outDir));
-  } catch {
-    return;
-  }
-  await Promise.all(names.filter((n) => n.startsWith(setAsidePrefix))
-    .map((n) => rm(join(versionsFolder(outDir), n), { recursive: true, force: true }).catch(() => undefined)));
 }
 
 /** The version folder name the output path links to, if it is such a link. */
