@@ -57,14 +57,17 @@ function unknownCommand(name: string, io: CliIo, context = ''): number {
 /**
  * A check with no result cache to answer from (none yet, or STEPWRIGHT_CACHE=off) reads every file's prose with the
  * English model: its load starts now on a second thread, beside loading the checker and reading the files. A check
- * that finds a cache may find every answer there and need no model, so it loads the model only when asked, as before.
- * `build` checks first in the same way (and stops the thread once the check is done, before the pages are built).
+ * that finds a cache may find every answer there and need no model, so it loads the model only when asked, as before:
+ * a quick check of an unchanged manual is not slowed by a thread it does not use. `build` starts the thread in any
+ * case: a rebuild after an edit reads the edited file's prose, and the main thread is busy for seconds reading the
+ * others for the cross-file rules while the second core would wait (it stops the thread once the check is done,
+ * before the pages are built).
  */
-async function startEnglishModelEarly(io: CliIo): Promise<void> {
+async function startEnglishModelEarly(io: CliIo, command: string): Promise<void> {
   const { existsSync } = await import('node:fs');
   const { resultCacheFolder } = await import('../engine/cache-folder.ts');
   const folder = resultCacheFolder(io);
-  if (folder !== undefined && existsSync(folder)) return;
+  if (command !== 'build' && folder !== undefined && existsSync(folder)) return;
   (await import('../analysis/prose/model-thread.ts')).startModelThread();
 }
 
@@ -96,7 +99,7 @@ export async function main(argv: string[], io: CliIo): Promise<number> {
     return 0;
   }
   try {
-    if (name === 'check' || name === 'build') await startEnglishModelEarly(io);
+    if (name === 'check' || name === 'build') await startEnglishModelEarly(io, name);
     const run = await command.load();
     return await run(rest, io);
   } catch (error) {
