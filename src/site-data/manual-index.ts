@@ -5,6 +5,7 @@ import type { CheckedFile } from '../check/run-checks.ts';
 import type { Procedure } from '../model/procedure.ts';
 import type { ManualView, ProcedureView } from '../render/manual.ts';
 import { indexCalls, type CallIndex } from '../render/call-links-view.ts';
+import { sharedOn, type LoadedManual } from './manual.ts';
 
 export interface ManualIndex {
   /** The checked file of a procedure id (the first, as a scan would find it). */
@@ -17,17 +18,16 @@ export interface ManualIndex {
   calls: CallIndex;
 }
 
-// On globalThis, not in a module variable: the pages run from Astro's own bundle of this module, and the build works
-// out which pages to draw with this one; both take the same index of one run (at 2,000 procedures it takes a fifth
-// of a second to make).
-const builtSlot = Symbol.for('stepwright.site-data.manual-index');
-const built: WeakMap<object, { view: ManualView; index: ManualIndex }> = ((globalThis as Record<symbol, unknown>)[builtSlot] as WeakMap<object, { view: ManualView; index: ManualIndex }> | undefined)
-  ?? ((globalThis as Record<symbol, unknown>)[builtSlot] = new WeakMap());
+/**
+ * The index of one loaded manual and its view, made once whether the build (keying its pages) or the pages ask
+ * first (at 2,000 procedures it takes a fifth of a second to make).
+ */
+export function manualIndex(loaded: Pick<LoadedManual, 'result' | 'shared'>, view: ManualView): ManualIndex {
+  const known = sharedOn(loaded, 'manual-index', () => ({ view, index: indexOf(loaded.result, view) }));
+  return known.view === view ? known.index : indexOf(loaded.result, view);
+}
 
-/** The index of one check run and its view; the same objects give the same index. */
-export function manualIndex(result: { files: CheckedFile[] }, view: ManualView): ManualIndex {
-  const known = built.get(result);
-  if (known && known.view === view) return known.index;
+function indexOf(result: { files: CheckedFile[] }, view: ManualView): ManualIndex {
   const files = new Map<string, CheckedFile>();
   const procedures: Procedure[] = [];
   const byId = new Map<string, Procedure>();
@@ -40,13 +40,11 @@ export function manualIndex(result: { files: CheckedFile[] }, view: ManualView):
   }
   const views = new Map<string, ProcedureView>();
   for (const v of view.procedures) if (!views.has(v.id)) views.set(v.id, v);
-  const index: ManualIndex = {
+  return {
     fileOf: (id) => files.get(id),
     procedureOf: (id) => byId.get(id),
     viewOf: (id) => views.get(id),
     procedures,
     calls: indexCalls(procedures),
   };
-  built.set(result, { view, index });
-  return index;
 }

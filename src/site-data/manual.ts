@@ -39,16 +39,16 @@ export interface LoadedManual {
    */
   reusedPages?: ReadonlySet<string>;
   /** Data worked out once per run for every page, whichever copy of the site's modules asks first (see `sharedOn`). */
-  shared?: Map<string, Promise<unknown>>;
+  shared?: Map<string, unknown>;
 }
 
 /**
  * Worked out once per loaded manual, whether the build command or the pages ask first: Astro runs the pages from
  * its own bundle of this folder, so a module's own memo would read git or build views a second time.
  */
-export function sharedOn<T>(loaded: LoadedManual, name: string, make: () => Promise<T>): Promise<T> {
+export function sharedOn<T>(loaded: Pick<LoadedManual, 'shared'>, name: string, make: () => T): T {
   loaded.shared ??= new Map();
-  let made = loaded.shared.get(name) as Promise<T> | undefined;
+  let made = loaded.shared.get(name) as T | undefined;
   if (!made) {
     made = make();
     loaded.shared.set(name, made);

@@ -40,7 +40,7 @@ function digest(parts: string[]): string {
 export async function procedurePageKeys(loaded: LoadedManual, salt: string): Promise<Map<string, string>> {
   const view = loaded.view;
   if (!view) throw new Error('the manual has check errors; no page is drawn');
-  const index = manualIndex(loaded.result, view);
+  const index = manualIndex(loaded, view);
   const histories = await historiesOf(loaded);
   const register = await registerOf(loaded);
   const temporaries = temporariesOf(loaded, view);
