@@ -230,11 +230,11 @@ function locatedList(value: unknown, path: PathKey[]): Located<string>[] {
   return list.flatMap((v, i) => located(v, Array.isArray(value) ? [...path, i] : path) ?? []);
 }
 
-/** The value with its path (`base` and then `keys`); the path is made only for a value that is there. */
-function located(value: unknown, base: PathKey[], ...keys: PathKey[]): Located<string> | undefined {
+/** The value with its path (`base`, then `key` when given); the path is made only for a value that is there. */
+function located(value: unknown, base: PathKey[], key?: PathKey): Located<string> | undefined {
   if (value === undefined || value === null) return undefined;
   if (typeof value === 'object') return undefined;
-  return { value: String(value), path: keys.length ? [...base, ...keys] : base };
+  return { value: String(value), path: key === undefined ? base : [...base, key] };
 }
 
 function asRecord(value: unknown): Data {
