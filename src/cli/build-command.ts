@@ -21,7 +21,7 @@ import { compactHeap } from './compact-heap.ts';
 import { linkPackages, packagesHolder, packagesReachableFrom } from './package-links.ts';
 import { buildHelp } from './command-help.ts';
 import { resultCacheFolder } from '../engine/cache-folder.ts';
-import { procedurePageKeys } from '../site-data/page-keys.ts';
+import { pageKeys } from '../site-data/page-keys.ts';
 import { copyReusedPages, pageCodeStamp, pageRecordPath, planReuse, readPageRecord, recordedPages, ReusedPageChanged, reusedPagesAltered, writePageRecord, type ReusePlan } from './page-reuse.ts';
 
 export { buildHelp };
@@ -137,17 +137,18 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // The pages take this run instead of checking again (same process, keyed by folder and date).
     handOffManual(loaded);
     if (recordFile) {
-      keys = await procedurePageKeys(loaded, pageCodeStamp());
+      keys = await pageKeys(loaded, pageCodeStamp());
       plan = planReuse(readPageRecord(recordFile, outDir), keys, outDir);
     }
     loaded.reusedPages = new Set(plan?.reused.keys() ?? []);
-    if (rebuilding && loaded.reusedPages.size < keptMostly * loaded.view.procedures.length) compactHeap();
+    const keptProcedures = plan ? keptProcedureCount(plan) : 0;
+    if (rebuilding && keptProcedures < keptMostly * loaded.view.procedures.length) compactHeap();
     progress.phase('building pages');
     const { build } = await import('astro');
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
     await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base }), { sync: false } as Parameters<typeof build>[1]);
     const taken = plan ? copyReusedPages(plan, outDir, work) : new Map();
-    progress.done(`${loaded.view.procedures.length} procedures${plan?.reused.size ? `, ${plan.reused.size} kept from the last build` : ''}`);
+    progress.done(`${loaded.view.procedures.length} procedures${keptProcedures ? `, ${keptProcedures} kept from the last build` : ''}`);
     // Under a sub-path, a link that leaves it is a broken page on the plant's server: the build stops.
     const leaving = await linksLeavingBase(work, base);
     if (leaving.length) {
@@ -186,7 +187,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   }
   const seconds = (performance.now() - started) / 1000;
   io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${loaded.view.tags.length} tag pages into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
-  if (plan?.hadRecord) io.stdout.write(reuseReport(plan, loaded.view.procedures.length));
+  if (plan?.hadRecord && keys) io.stdout.write(reuseReport(plan, loaded.view.procedures.length, keys.size));
   if (offline) io.stdout.write(offlineReport(offline));
   return 0;
 }
@@ -197,10 +198,17 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
  */
 const keptMostly = 0.9;
 
+/** How many procedures' page folders the plan takes from the last build. */
+function keptProcedureCount(plan: ReusePlan): number {
+  let kept = 0;
+  for (const folder of plan.reused.keys()) if (folder.startsWith('procedures/')) kept++;
+  return kept;
+}
+
 /** One line on what the build took from the last one. */
-function reuseReport(plan: ReusePlan, procedures: number): string {
-  const kept = plan.reused.size;
-  return `Pages: ${kept} procedure${kept === 1 ? '' : 's'} unchanged since the last build kept, ${procedures - kept} drawn.\n`;
+function reuseReport(plan: ReusePlan, procedures: number, folders: number): string {
+  const kept = keptProcedureCount(plan);
+  return `Pages: ${kept} procedure${kept === 1 ? '' : 's'} unchanged since the last build kept, ${procedures - kept} drawn; ${plan.reused.size - kept} of ${folders - procedures} tag and rule pages kept.\n`;
 }
 
 /** Moves a folder by renaming it; copies it only when the two places are on different file systems. */

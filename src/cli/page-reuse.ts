@@ -1,6 +1,7 @@
-// A rebuild draws again only the pages of procedures whose inputs changed; the others are taken from the last
-// output. What each procedure's pages were made from is kept as one key per procedure (site-data/page-keys.ts)
-// in a record in the cache folder, with the size, time and SHA-256 of every file under its folder, as published.
+// A rebuild draws again only the pages whose inputs changed; the others are taken from the last output. The pages
+// come in folders (a procedure's folder with its next/, audit/ and rev/ pages; one tag's page; one rule's page), and
+// what each folder's pages were made from is kept as one key per folder (site-data/page-keys.ts) in a record in the
+// cache folder, with the size, time and SHA-256 of every file under the folder, as published.
 //
 // A page is taken over only when its key is unchanged and its file in the output is the one the record describes:
 // the same file (inode), size, modification time and change time (the kernel sets the change time on every write and
@@ -17,7 +18,7 @@ import { dirname, join } from 'node:path';
 import { packageRoot, stepwrightStamp } from '../check/result-cache.ts';
 import { marksSearchablePart, type FinishedPage, type RecordedPage } from './index-site.ts';
 
-const recordFormat = 'stepwright-page-record-3';
+const recordFormat = 'stepwright-page-record-4';
 
 export interface RecordedFile {
   /** Path in the site, with '/' (e.g. "procedures/r-101/index.html"). */
@@ -38,16 +39,16 @@ export interface PageRecord {
   site: string;
   /** The built assets (`_astro/…`) the recorded pages may link to. */
   assets: string[];
-  /** Procedure slug → its pages' key and files. */
-  procedures: Record<string, { key: string; files: RecordedFile[] }>;
+  /** Page folder in the site (e.g. "procedures/r-101", "tags/k-210") → its pages' key and files. */
+  folders: Record<string, { key: string; files: RecordedFile[] }>;
 }
 
 export interface ReusePlan {
-  /** Slug → the files to take from the last output. */
+  /** Page folder → the files to take from the last output. */
   reused: Map<string, RecordedFile[]>;
   /** The record's assets: the reused pages may link to any of them. */
   assets: string[];
-  /** Procedures that had a record entry but changed (or whose old files were not as recorded). */
+  /** Page folders that had a record entry but changed (or whose old files were not as recorded). */
   redrawn: number;
   /** True when a record of the last build was found and could be read. */
   hadRecord: boolean;
@@ -72,36 +73,41 @@ export function readPageRecord(file: string, outDir: string): PageRecord | undef
     const raw = JSON.parse(readFileSync(file, 'utf8')) as { sum?: unknown; body?: unknown };
     if (typeof raw.body !== 'string' || raw.sum !== sha256(raw.body)) return undefined;
     const record = JSON.parse(raw.body) as PageRecord;
-    if (record.format !== recordFormat || record.site !== outDir || !Array.isArray(record.assets) || typeof record.procedures !== 'object' || !record.procedures) return undefined;
+    if (record.format !== recordFormat || record.site !== outDir || !Array.isArray(record.assets) || typeof record.folders !== 'object' || !record.folders) return undefined;
     return record;
   } catch {
     return undefined;
   }
 }
 
-/** Which procedures' pages can be taken from the output as it is now: same key, files as recorded. */
+/** Which page folders can be taken from the output as it is now: same key, files as recorded. */
 export function planReuse(record: PageRecord | undefined, keys: Map<string, string>, outDir: string): ReusePlan {
   const reused = new Map<string, RecordedFile[]>();
   let redrawn = 0;
   if (!record) return { reused, assets: [], redrawn, hadRecord: false };
   // Without every asset the old pages may link to, no old page is whole.
   if (!record.assets.every((asset) => typeof asset === 'string' && /^_astro\/[^]+$/.test(asset) && !asset.split('/').includes('..') && existsSync(join(outDir, ...asset.split('/'))))) {
-    return { reused, assets: [], redrawn: Object.keys(record.procedures).length, hadRecord: true };
+    return { reused, assets: [], redrawn: Object.keys(record.folders).length, hadRecord: true };
   }
-  for (const [slug, key] of keys) {
-    const entry = record.procedures[slug];
+  for (const [folder, key] of keys) {
+    const entry = Object.hasOwn(record.folders, folder) ? record.folders[folder] : undefined;
     if (!entry) continue;
-    if (entry.key !== key || !Array.isArray(entry.files) || entry.files.length === 0 || !entry.files.every((f) => unchangedOnDisk(outDir, slug, f))) {
+    if (entry.key !== key || !isPageFolder(folder) || !Array.isArray(entry.files) || entry.files.length === 0 || !entry.files.every((f) => unchangedOnDisk(outDir, folder, f))) {
       redrawn++;
       continue;
     }
-    reused.set(slug, entry.files);
+    reused.set(folder, entry.files);
   }
   return { reused, assets: record.assets, redrawn, hadRecord: true };
 }
 
-function unchangedOnDisk(outDir: string, slug: string, file: RecordedFile): boolean {
-  if (typeof file.path !== 'string' || !file.path.startsWith(`procedures/${slug}/`) || file.path.split('/').includes('..')) return false;
+/** A folder inside the site, named with '/': no empty, "." or ".." part. */
+function isPageFolder(folder: string): boolean {
+  return folder.split('/').every((part) => part !== '' && part !== '.' && part !== '..' && !part.includes('\\'));
+}
+
+function unchangedOnDisk(outDir: string, folder: string, file: RecordedFile): boolean {
+  if (typeof file.path !== 'string' || !file.path.startsWith(`${folder}/`) || file.path.split('/').includes('..')) return false;
   const stat = statSync(join(outDir, ...file.path.split('/')), { throwIfNoEntry: false });
   return stat !== undefined && stat.isFile() && sameFile(stat, file) && typeof file.sha256 === 'string' && typeof file.marked === 'boolean';
 }
@@ -116,7 +122,7 @@ function takenFile(path: string): TakenFile | undefined {
 }
 
 /**
- * Copies the reused procedures' files from the last output into the new site, and the assets they may link to
+ * Copies the reused folders' files from the last output into the new site, and the assets they may link to
  * that the new build did not make. Each file is checked against the record once more just before it is taken (it
  * may have changed since the plan). Returns every taken file as it was right after it was taken.
  */
@@ -133,7 +139,7 @@ export function copyReusedPages(plan: ReusePlan, outDir: string, site: string): 
     for (const file of files) {
       const to = join(site, ...file.path.split('/'));
       // A page the new build drew for the same path would mean the plan and the pages disagree: never overwrite it.
-      if (existsSync(to)) throw new Error(`${file.path} was drawn although its procedure's pages were to be reused`);
+      if (existsSync(to)) throw new Error(`${file.path} was drawn although its folder's pages were to be reused`);
       mkdirSync(dirname(to), { recursive: true });
       const from = join(outDir, ...file.path.split('/'));
       const before = takenFile(from);
@@ -197,21 +203,22 @@ export function reusedPagesAltered(plan: ReusePlan, site: string, hashed: Readon
 }
 
 /**
- * Writes the record of a published site: every procedure's key with the files under its folder as they are in
+ * Writes the record of a published site: every page folder's key with the files under it as they are in
  * the folder the build published (`site`, by default the output path itself). Hashes come from the build's final
  * pass where it has them. A record that cannot be written only means the next build draws every page.
  */
 export function writePageRecord(file: string, outDir: string, keys: Map<string, string>, hashed: ReadonlyMap<string, FinishedPage>, site = outDir): void {
   try {
-    const procedures: PageRecord['procedures'] = {};
-    for (const [slug, key] of keys) {
-      const folder = join(site, 'procedures', slug);
+    const folders: PageRecord['folders'] = {};
+    for (const [name, key] of keys) {
+      if (!isPageFolder(name)) continue;
+      const folder = join(site, ...name.split('/'));
       if (!existsSync(folder)) continue;
       const files: RecordedFile[] = [];
       for (const entry of readdirSync(folder, { recursive: true, withFileTypes: true })) {
         if (!entry.isFile()) continue;
         const full = join(entry.parentPath, entry.name);
-        const path = `procedures/${slug}/${full.slice(folder.length + 1).split(/[\\/]/).join('/')}`;
+        const path = `${name}/${full.slice(folder.length + 1).split(/[\\/]/).join('/')}`;
         const stat = statSync(full);
         const page = hashed.get(path);
         const bytes = page ? undefined : readFileSync(full);
@@ -221,14 +228,14 @@ export function writePageRecord(file: string, outDir: string, keys: Map<string, 
         });
       }
       files.sort((a, b) => a.path.localeCompare(b.path));
-      procedures[slug] = { key, files };
+      folders[name] = { key, files };
     }
     const assetFolder = join(site, '_astro');
     const assets = existsSync(assetFolder)
       ? readdirSync(assetFolder, { recursive: true, withFileTypes: true }).filter((e) => e.isFile())
         .map((e) => `_astro/${join(e.parentPath, e.name).slice(assetFolder.length + 1).split(/[\\/]/).join('/')}`).sort()
       : [];
-    const record: PageRecord = { format: recordFormat, site: outDir, assets, procedures };
+    const record: PageRecord = { format: recordFormat, site: outDir, assets, folders };
     const body = JSON.stringify(record);
     mkdirSync(dirname(file), { recursive: true });
     const temporary = `${file}.tmp-${process.pid}`;

@@ -15,7 +15,7 @@ export interface RuleReference {
   defaultSeverity: string;
   /** Shown when the rule reports with a severity that follows the procedure's status. */
   severityNote?: string;
-  docsHtml: string;
+  readonly docsHtml: string;
   source?: string;
   examples?: { good: string; bad: string };
 }
@@ -34,20 +34,36 @@ const categoryTitles: Record<RuleCategory, string> = {
 
 const parser = unified().use(remarkParse);
 
+const made = new Map<string, RuleReference[]>();
+
+/**
+ * Every rule's reference, made once per base. The docs are turned into HTML when a page first reads them: the list of
+ * rules shows only the summaries, and a rebuild draws few rule pages, or none.
+ */
 export function ruleReferences(base: SiteBase = rootBase): RuleReference[] {
-  return Object.entries(rules)
-    .map(([id, rule]) => ({
-      id,
-      url: siteUrl(base, pagePath.rule(id)),
-      summary: rule.meta.summary,
-      category: rule.meta.category,
-      defaultSeverity: rule.meta.defaultSeverity,
-      severityNote: /\*\*warning\*\* while the procedure is a `draft`/.test(rule.meta.docs) ? 'warning in draft, error from in-review on' : undefined,
-      docsHtml: renderBodyHtml(parser.parse(rule.meta.docs) as Root, 1),
-      source: rule.meta.source,
-      examples: rule.meta.examples,
-    }))
+  const known = made.get(base);
+  if (known) return known;
+  const references = Object.entries(rules)
+    .map(([id, rule]): RuleReference => {
+      let docsHtml: string | undefined;
+      return {
+        id,
+        url: siteUrl(base, pagePath.rule(id)),
+        summary: rule.meta.summary,
+        category: rule.meta.category,
+        defaultSeverity: rule.meta.defaultSeverity,
+        severityNote: /\*\*warning\*\* while the procedure is a `draft`/.test(rule.meta.docs) ? 'warning in draft, error from in-review on' : undefined,
+        get docsHtml() {
+          docsHtml ??= renderBodyHtml(parser.parse(rule.meta.docs) as Root, 1);
+          return docsHtml;
+        },
+        source: rule.meta.source,
+        examples: rule.meta.examples,
+      };
+    })
     .sort((a, b) => a.id.localeCompare(b.id));
+  made.set(base, references);
+  return references;
 }
 
 export function rulesByCategory(base: SiteBase = rootBase): Array<{ category: RuleCategory; title: string; rules: RuleReference[] }> {

@@ -28,6 +28,11 @@ export const pagePath = {
   offline: () => '/offline/',
 };
 
+/** The folder in the site that holds a page and the pages under it: a page path without its slashes ("procedures/r-101"). */
+export function pageFolder(path: string): string {
+  return path.replace(/^\/+|\/+$/g, '');
+}
+
 /**
  * Links in a built page that start with "/" but leave the base (a page that forgot `siteUrl`).
  * Looks at href, src, action and srcset attributes and at `import('/…')` in inline scripts.

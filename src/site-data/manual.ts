@@ -11,7 +11,7 @@ import { proceduresFolder } from '../engine/project.ts';
 import { displayPath } from '../engine/find-procedure-files.ts';
 import { buildManualView, type ManualView } from '../render/manual.ts';
 import { formatHuman, summarize } from '../render/format-diagnostics.ts';
-import { normalizeBase, rootBase, type SiteBase } from '../render/site-url.ts';
+import { normalizeBase, pageFolder, rootBase, type SiteBase } from '../render/site-url.ts';
 import { procedureStamp, tolerantManualView } from './dev-manual.ts';
 import { forgetRuleAnalyses } from '../analysis/rule-memo.ts';
 
@@ -34,8 +34,9 @@ export interface LoadedManual {
   /** Present when the check found no errors. */
   view?: ManualView;
   /**
-   * Procedures (by slug) whose pages the build takes from its last output instead of drawing them again, because
-   * nothing they are made from has changed (see cli/page-reuse.ts). Their pages are left out of the page lists.
+   * Page folders ("procedures/r-101", "tags/k-210", "rules/…") whose pages the build takes from its last output instead
+   * of drawing them again, because nothing they are made from has changed (see cli/page-reuse.ts). Their pages are
+   * left out of the page lists.
    */
   reusedPages?: ReadonlySet<string>;
   /** Data worked out once per run for every page, whichever copy of the site's modules asks first (see `sharedOn`). */
@@ -56,10 +57,10 @@ export function sharedOn<T>(loaded: Pick<LoadedManual, 'shared'>, name: string, 
   return made;
 }
 
-/** The items whose pages this build draws: all but those of procedures whose pages it reuses. */
-export function pagesToDraw<T>(loaded: LoadedManual, items: T[], slugOf: (item: T) => string): T[] {
+/** The items whose pages this build draws: all but those whose page folder (a site path, e.g. "/tags/k-210/") it reuses. */
+export function pagesToDraw<T>(loaded: Pick<LoadedManual, 'reusedPages'>, items: T[], pathOf: (item: T) => string): T[] {
   const reused = loaded.reusedPages;
-  return reused && reused.size > 0 ? items.filter((item) => !reused.has(slugOf(item))) : items;
+  return reused && reused.size > 0 ? items.filter((item) => !reused.has(pageFolder(pathOf(item)))) : items;
 }
 
 export interface LoadOptions {

@@ -1,6 +1,6 @@
-// What each procedure's pages are made from, as one hash per procedure: the page, next/, audit/ and rev/ pages
-// under its folder come out the same whenever its key does, so a build may keep them from its last output
-// (cli/page-reuse.ts). The key errs towards drawing again: it holds everything those pages read, and for the
+// What each folder of pages is made from, as one hash per folder: a procedure's page with the next/, audit/ and rev/
+// pages under its folder, one tag's page, one rule's page. They come out the same whenever their key does, so a
+// build may keep them from its last output (cli/page-reuse.ts). The key errs towards drawing again: it holds everything those pages read, and for the
 // parts that come from other procedures (calls, callers, required procedures, temporary procedures, register
 // entries, tag pages) their whole source text, not only the few words shown. The procedure's own view goes in without
 // the parts made on demand (step table, body, emergency lead): those follow from its text and the code, both in the
@@ -14,9 +14,11 @@ import { historiesOf } from './history.ts';
 import { registerOf } from './register.ts';
 import { temporariesOf } from './temporary.ts';
 import { cacheKey } from '../check/result-cache.ts';
+import { rules } from '../check/rules/index.ts';
+import { pageFolder, pagePath } from '../render/site-url.ts';
 
 /** Bumped when what goes into a key changes. */
-const keyFormat = 'stepwright-page-key-2';
+const keyFormat = 'stepwright-page-key-3';
 
 /** JSON for hashing: maps and sets as lists, functions left out, parsed models (`procedure`) left to their text. */
 function stableJson(value: unknown): string {
@@ -34,10 +36,10 @@ function digest(parts: string[]): string {
 }
 
 /**
- * Procedure slug → the key of its pages. `salt` names the code that draws the pages (Stepwright and the packages
+ * Page folder → the key of its pages. `salt` names the code that draws the pages (Stepwright and the packages
  * it draws with); the rest comes from the manual the build has loaded (and hands to the pages).
  */
-export async function procedurePageKeys(loaded: LoadedManual, salt: string): Promise<Map<string, string>> {
+export async function pageKeys(loaded: LoadedManual, salt: string): Promise<Map<string, string>> {
   const view = loaded.view;
   if (!view) throw new Error('the manual has check errors; no page is drawn');
   const index = manualIndex(loaded, view);
@@ -86,7 +88,7 @@ export async function procedurePageKeys(loaded: LoadedManual, salt: string): Pro
     }
     related.delete(p.id);
     const neighbours = [...related].sort().map((id) => `${id}\u0000${textOf(id)}\u0000${index.viewOf(id)?.url ?? ''}`);
-    keys.set(p.slug, digest([
+    keys.set(pageFolder(pagePath.procedure(p.slug)), digest([
       shared, p.slug, stableJson(withoutDrawnParts(p)), textOf(p.id),
       stableJson(checked?.diagnostics ?? []), stableJson(checked?.waived ?? []),
       stableJson(history ?? null), stableJson(ownNotices),
@@ -99,5 +101,9 @@ export async function procedurePageKeys(loaded: LoadedManual, salt: string): Pro
       ...neighbours,
     ]));
   }
+  // A tag's page shows the tag's uses: each procedure's id, title, status and revision, and the steps that touch it.
+  for (const t of view.tags) keys.set(pageFolder(pagePath.tag(t.slug)), digest([shared, 'tag', stableJson(t)]));
+  // A rule's page shows the rule as the code defines it.
+  for (const id of Object.keys(rules)) keys.set(pageFolder(pagePath.rule(id)), digest([shared, 'rule', id]));
   return keys;
 }

@@ -20,7 +20,7 @@ function publishedSite(): { site: string; cache: string; record: string; keys: M
     mkdirSync(join(site, path, '..'), { recursive: true });
     writeFileSync(join(site, path), text);
   }
-  const keys = new Map([['a-1', 'key-a'], ['b-2', 'key-b']]);
+  const keys = new Map([['procedures/a-1', 'key-a'], ['procedures/b-2', 'key-b']]);
   const cache = join(root, 'cache');
   const record = pageRecordPath(cache, site);
   writePageRecord(record, site, keys, new Map());
@@ -31,16 +31,16 @@ describe('page reuse', () => {
   it('takes over the pages of a procedure whose key is unchanged, with every file under its folder', () => {
     const { site, record, keys } = publishedSite();
     const plan = planReuse(readPageRecord(record, site), keys, site);
-    expect([...plan.reused.keys()].sort()).toEqual(['a-1', 'b-2']);
-    expect(plan.reused.get('a-1')!.map((f) => f.path)).toEqual(['procedures/a-1/audit/index.html', 'procedures/a-1/index.html']);
-    expect(plan.reused.get('a-1')![1].sha256).toBe(sha('<p>A</p>'));
+    expect([...plan.reused.keys()].sort()).toEqual(['procedures/a-1', 'procedures/b-2']);
+    expect(plan.reused.get('procedures/a-1')!.map((f) => f.path)).toEqual(['procedures/a-1/audit/index.html', 'procedures/a-1/index.html']);
+    expect(plan.reused.get('procedures/a-1')![1].sha256).toBe(sha('<p>A</p>'));
     expect(plan.assets).toEqual(['_astro/manual.X1.css']);
   });
 
   it('draws again a procedure whose key changed, and one that is new', () => {
     const { site, record } = publishedSite();
-    const plan = planReuse(readPageRecord(record, site), new Map([['a-1', 'key-a'], ['b-2', 'changed'], ['c-3', 'new']]), site);
-    expect([...plan.reused.keys()]).toEqual(['a-1']);
+    const plan = planReuse(readPageRecord(record, site), new Map([['procedures/a-1', 'key-a'], ['procedures/b-2', 'changed'], ['procedures/c-3', 'new']]), site);
+    expect([...plan.reused.keys()]).toEqual(['procedures/a-1']);
     expect(plan.redrawn).toBe(1);
   });
 
@@ -52,7 +52,7 @@ describe('page reuse', () => {
     utimesSync(page, before.atime, before.mtime);
     expect(statSync(page).size).toBe(before.size);
     const plan = planReuse(readPageRecord(record, site), keys, site);
-    expect([...plan.reused.keys()]).toEqual(['a-1']);
+    expect([...plan.reused.keys()]).toEqual(['procedures/a-1']);
   });
 
   it('never takes a page replaced by another file, even one with the same bytes and times', () => {
@@ -64,7 +64,7 @@ describe('page reuse', () => {
     utimesSync(copy, before.atime, before.mtime);
     renameSync(copy, page);
     expect(readFileSync(page, 'utf8')).toBe('<p>A</p>');
-    expect([...planReuse(readPageRecord(record, site), keys, site).reused.keys()]).toEqual(['b-2']);
+    expect([...planReuse(readPageRecord(record, site), keys, site).reused.keys()]).toEqual(['procedures/b-2']);
   });
 
   it('takes over nothing when an asset the old pages link to is gone', () => {
@@ -86,15 +86,15 @@ describe('page reuse', () => {
     expect(readPageRecord(record, site)).toBeUndefined();
     writeFileSync(record, 'not json');
     expect(readPageRecord(record, site)).toBeUndefined();
-    expect(planReuse(undefined, new Map([['a-1', 'key-a']]), site)).toMatchObject({ hadRecord: false, redrawn: 0 });
+    expect(planReuse(undefined, new Map([['procedures/a-1', 'key-a']]), site)).toMatchObject({ hadRecord: false, redrawn: 0 });
   });
 
-  it('refuses a record that names files outside a procedure\'s own folder', () => {
+  it('refuses a record that names files outside a folder\'s own pages', () => {
     const { site, record, keys } = publishedSite();
     const outer = JSON.parse(readFileSync(record, 'utf8')) as { sum: string; body: string };
-    const body = JSON.parse(outer.body) as { procedures: Record<string, { files: Array<{ path: string }> }> };
-    body.procedures['a-1'].files[0].path = 'procedures/a-1/../b-2/index.html';
-    body.procedures['b-2'].files[0].path = 'index.html';
+    const body = JSON.parse(outer.body) as { folders: Record<string, { files: Array<{ path: string }> }> };
+    body.folders['procedures/a-1'].files[0].path = 'procedures/a-1/../b-2/index.html';
+    body.folders['procedures/b-2'].files[0].path = 'index.html';
     const text = JSON.stringify(body);
     writeFileSync(record, JSON.stringify({ sum: sha(text), body: text }));
     expect(planReuse(readPageRecord(record, site), keys, site).reused.size).toBe(0);
@@ -138,10 +138,10 @@ describe('page reuse', () => {
     mkdirSync(join(site, 'procedures', 'm-1'), { recursive: true });
     writeFileSync(join(site, 'procedures', 'm-1', 'index.html'), '<main data-pagefind-body><p>M</p></main>');
     const record = pageRecordPath(join(root, 'cache'), site);
-    const keys = new Map([['m-1', 'key-m']]);
+    const keys = new Map([['procedures/m-1', 'key-m']]);
     writePageRecord(record, site, keys, new Map());
     const plan = planReuse(readPageRecord(record, site), keys, site);
-    expect(plan.reused.get('m-1')![0].marked).toBe(true);
+    expect(plan.reused.get('procedures/m-1')![0].marked).toBe(true);
     const next = join(root, 'next');
     mkdirSync(next);
     const taken = copyReusedPages(plan, site, next);
@@ -161,5 +161,24 @@ describe('page reuse', () => {
     const next = join(tempFolder('stepwright-page-reuse-next-'), 'site');
     mkdirSync(next, { recursive: true });
     expect(() => copyReusedPages(plan, site, next)).toThrow(ReusedPageChanged);
+  });
+
+  it('keeps tag and rule pages by their own folder, and only the pages under it', () => {
+    const root = tempFolder('stepwright-page-reuse-');
+    const site = join(root, 'site');
+    for (const [path, text] of [['tags/k-210/index.html', '<p>K-210</p>'], ['tags/index.html', '<p>tags</p>'], ['rules/no-exit/index.html', '<p>rule</p>']]) {
+      mkdirSync(join(site, path, '..'), { recursive: true });
+      writeFileSync(join(site, path), text);
+    }
+    const keys = new Map([['tags/k-210', 'key-tag'], ['rules/no-exit', 'key-rule'], ['tags/../rules', 'key-odd']]);
+    const record = pageRecordPath(join(root, 'cache'), site);
+    writePageRecord(record, site, keys, new Map());
+    const plan = planReuse(readPageRecord(record, site), keys, site);
+    // A folder named with ".." is never recorded; the list of tags beside the tag's folder is not part of it.
+    expect([...plan.reused.keys()].sort()).toEqual(['rules/no-exit', 'tags/k-210']);
+    expect(plan.reused.get('tags/k-210')!.map((f) => f.path)).toEqual(['tags/k-210/index.html']);
+    const changed = planReuse(readPageRecord(record, site), new Map([['tags/k-210', 'key-tag-2'], ['rules/no-exit', 'key-rule']]), site);
+    expect([...changed.reused.keys()]).toEqual(['rules/no-exit']);
+    expect(changed.redrawn).toBe(1);
   });
 });

@@ -1,7 +1,7 @@
 // A rebuild takes over the pages of procedures an edit does not reach, and its site is byte for byte the site a
 // build from nothing makes of the same sources: a kept page never shows what its sources no longer say.
 import { createHash } from 'node:crypto';
-import { appendFileSync, cpSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { appendFileSync, cpSync, existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { join, relative } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -54,6 +54,10 @@ describe('a rebuild after an edit', () => {
 
   it('draws again what the edit reaches (callers, procedures that require it or show its title) and keeps the rest', () => {
     const before = { inert: inode(page('u2-k210-inert-001')), caller: inode(page('u2-k210-tar-su-001')), other: inode(page('u2-unl-xyl-001')) };
+    const tagPages = () => readdirSync(join(plant, 'site', 'tags')).map((tag) => join(plant, 'site', 'tags', tag, 'index.html')).filter((f) => existsSync(f));
+    const tagsBefore = new Map(tagPages().map((f) => [f, inode(f)]));
+    const rulePage = join(plant, 'site', 'rules', 'missing-front-matter', 'index.html');
+    const ruleBefore = inode(rulePage);
     // A step of a called, required procedure, and the title of the temporary procedure that modifies two others.
     const inert = join(plant, 'procedures', 'k-210-resin', 'u2-k210-inert-001.md');
     const text = readFileSync(inert, 'utf8');
@@ -69,6 +73,12 @@ describe('a rebuild after an edit', () => {
     expect(inode(page('u2-k210-tar-su-001'))).not.toBe(before.caller);
     expect(inode(page('u2-unl-xyl-001'))).toBe(before.other);
     expect(readFileSync(page('u2-k210-inert-001'), 'utf8')).toContain('Edited for the rebuild.');
+    // The tag pages that show the edited step are drawn again; the others, and the rule pages, are kept.
+    const showingEdit = tagPages().filter((f) => readFileSync(f, 'utf8').includes('Edited for the rebuild.'));
+    expect(showingEdit.length).toBeGreaterThan(0);
+    for (const f of showingEdit) expect(inode(f)).not.toBe(tagsBefore.get(f));
+    expect(tagPages().filter((f) => inode(f) === tagsBefore.get(f)).length).toBeGreaterThan(tagsBefore.size / 2);
+    expect(inode(rulePage)).toBe(ruleBefore);
 
     // The same sources built with no cache and no last site.
     build(plant, 'clean', 'off');
@@ -78,9 +88,14 @@ describe('a rebuild after an edit', () => {
   it('draws again a page changed by hand in the output, and nothing else', () => {
     const touched = page('u2-n2-su-001');
     appendFileSync(touched, '<!-- changed by hand -->');
+    const tag = join(plant, 'site', 'tags', readdirSync(join(plant, 'site', 'tags')).find((name) => !name.endsWith('.html'))!, 'index.html');
+    appendFileSync(tag, '<!-- changed by hand -->');
     const rebuilt = build(plant, 'site', 'cache');
     expect(kept(rebuilt)).toBe(12);
+    const others = /; (\d+) of (\d+) tag and rule pages kept/.exec(rebuilt)!;
+    expect(Number(others[1])).toBe(Number(others[2]) - 1);
     expect(readFileSync(touched, 'utf8')).not.toContain('changed by hand');
+    expect(readFileSync(tag, 'utf8')).not.toContain('changed by hand');
     expect(differences(snapshot(join(plant, 'site')), snapshot(join(plant, 'clean')))).toEqual([]);
   }, 180_000);
 
