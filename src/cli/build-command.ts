@@ -208,7 +208,7 @@ function keptProcedureCount(plan: ReusePlan): number {
 /** One line on what the build took from the last one. */
 function reuseReport(plan: ReusePlan, procedures: number, folders: number): string {
   const kept = keptProcedureCount(plan);
-  return `Pages: ${kept} procedure${kept === 1 ? '' : 's'} unchanged since the last build kept, ${procedures - kept} drawn; ${plan.reused.size - kept} of ${folders - procedures} tag and rule pages kept.\n`;
+  return `Pages: ${kept} procedure${kept === 1 ? '' : 's'} unchanged since the last build kept, ${procedures - kept} drawn; ${plan.reused.size - kept} of ${folders - procedures} tag, register and rule pages kept.\n`;
 }
 
 /** Moves a folder by renaming it; copies it only when the two places are on different file systems. */

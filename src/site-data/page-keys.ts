@@ -1,5 +1,5 @@
 // What each folder of pages is made from, as one hash per folder: a procedure's page with the next/, audit/ and rev/
-// pages under its folder, one tag's page, one rule's page. They come out the same whenever their key does, so a
+// pages under its folder, one tag's page, one register entry's page, one rule's page. They come out the same whenever their key does, so a
 // build may keep them from its last output (cli/page-reuse.ts). The key errs towards drawing again: it holds everything those pages read, and for the
 // parts that come from other procedures (calls, callers, required procedures, temporary procedures, register
 // entries, tag pages) their whole source text, not only the few words shown. The procedure's own view goes in without
@@ -16,6 +16,7 @@ import { temporariesOf } from './temporary.ts';
 import { cacheKey } from '../check/result-cache.ts';
 import { rules } from '../check/rules/index.ts';
 import { pageFolder, pagePath } from '../render/site-url.ts';
+import { registerEntryUrl } from '../render/register-view.ts';
 
 /** Bumped when what goes into a key changes. */
 const keyFormat = 'stepwright-page-key-3';
@@ -103,6 +104,12 @@ export async function pageKeys(loaded: LoadedManual, salt: string): Promise<Map<
   }
   // A tag's page shows the tag's uses: each procedure's id, title, status and revision, and the steps that touch it.
   for (const t of view.tags) keys.set(pageFolder(pagePath.tag(t.slug)), digest([shared, 'tag', stableJson(t)]));
+  // A register entry's page shows the entry, where it is used, its changes in git and whether each user was revised since.
+  for (const e of register?.view.entries ?? []) {
+    keys.set(pageFolder(registerEntryUrl(e.id, e.slug)), digest([
+      shared, 'register', stableJson(e), stableJson(register!.history.get(e.id) ?? []), stableJson(register!.impact.get(e.id) ?? null), register!.historyNotice ?? '',
+    ]));
+  }
   // A rule's page shows the rule as the code defines it.
   for (const id of Object.keys(rules)) keys.set(pageFolder(pagePath.rule(id)), digest([shared, 'rule', id]));
   return keys;

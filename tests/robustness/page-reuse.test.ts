@@ -92,7 +92,7 @@ describe('a rebuild after an edit', () => {
     appendFileSync(tag, '<!-- changed by hand -->');
     const rebuilt = build(plant, 'site', 'cache');
     expect(kept(rebuilt)).toBe(12);
-    const others = /; (\d+) of (\d+) tag and rule pages kept/.exec(rebuilt)!;
+    const others = /; (\d+) of (\d+) tag, register and rule pages kept/.exec(rebuilt)!;
     expect(Number(others[1])).toBe(Number(others[2]) - 1);
     expect(readFileSync(touched, 'utf8')).not.toContain('changed by hand');
     expect(readFileSync(tag, 'utf8')).not.toContain('changed by hand');
