@@ -4,6 +4,7 @@ import { cpSync, existsSync, mkdirSync, readdirSync, renameSync, rmSync } from '
 import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { clearHandOff, formatCheckFailure, handOffManual, loadManual } from '../site-data/manual.ts';
+import { livePreviewVariable, siteBaseVariable } from '../site-data/site-mode.ts';
 import { UsageError, useColour, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
@@ -127,6 +128,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     process.env.STEPWRIGHT_CONFIG = config;
     process.env.STEPWRIGHT_TODAY = loaded.today;
     process.env.STEPWRIGHT_TODAY_SOURCE = loaded.todaySource;
+    process.env[siteBaseVariable] = base;
+    delete process.env[livePreviewVariable];
     process.env.ASTRO_TELEMETRY_DISABLED = '1';
     // A published manual is a production build even when started from a test runner (NODE_ENV=test
     // would turn on development-only parts of the pages).

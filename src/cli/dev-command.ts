@@ -5,6 +5,7 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { createServer } from 'node:net';
 import { parseArgs } from 'node:util';
 import { siteConfig, siteFolder } from '../site/astro-config.ts';
+import { livePreviewVariable, siteBaseVariable } from '../site-data/site-mode.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
 import { listenProblem } from './serve-command.ts';
@@ -40,6 +41,8 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
   // The pages read the procedures folder and the configuration from the environment.
   process.env.STEPWRIGHT_PROCEDURES = folder;
   process.env.STEPWRIGHT_CONFIG = values.config ? resolve(io.cwd, values.config) : '';
+  process.env[siteBaseVariable] = base;
+  process.env[livePreviewVariable] = '1';
   process.env.ASTRO_TELEMETRY_DISABLED = '1';
   const { dev } = await import('astro');
   // Astro's project root is a folder of the user's: its `.astro/` (types, data store, lock file) and the

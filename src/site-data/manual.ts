@@ -14,6 +14,7 @@ import { formatHuman, summarize } from '../render/format-diagnostics.ts';
 import { normalizeBase, pageFolder, rootBase, type SiteBase } from '../render/site-url.ts';
 import { procedureStamp, tolerantManualView } from './dev-manual.ts';
 import { forgetRuleAnalyses } from '../analysis/rule-memo.ts';
+import { livePreviewVariable, siteBaseVariable } from './site-mode.ts';
 
 export { buildDate } from '../engine/check-run.ts';
 
@@ -127,10 +128,8 @@ export function clearHandOff(): void {
 /** The manual for the site's pages: the build's hand-off, else one check run per process (per save in dev). */
 export async function siteManual(): Promise<{ loaded: LoadedManual; view: ManualView }> {
   // The dev server (live preview) re-reads on every save and shows check errors on the pages instead of failing.
-  const env = (import.meta as { env?: { DEV?: boolean; BASE_URL?: string } }).env;
-  const dev = env?.DEV === true;
-  // The base Astro builds the pages with (the same as src/site/lib/url.ts uses for the pages' own links).
-  const base = normalizeBase(env?.BASE_URL);
+  const dev = process.env[livePreviewVariable] === '1';
+  const base = normalizeBase(process.env[siteBaseVariable]);
   const stamp = dev ? procedureStamp(manualFolder({ cwd: process.cwd(), env: process.env }), process.cwd()) : '';
   const handed = process.env[runIdVariable];
   const key = handed ? `run:${handed}` : `${base}\u0000${process.cwd()}\u0000${process.env.STEPWRIGHT_PROCEDURES ?? ''}\u0000${process.env.STEPWRIGHT_CONFIG ?? ''}\u0000${process.env.STEPWRIGHT_TODAY ?? ''}\u0000${stamp}`;

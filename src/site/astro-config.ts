@@ -6,6 +6,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AstroInlineConfig } from 'astro';
 import { watchProcedures } from './watch-procedures.ts';
+import { engineOutside } from './engine-outside.ts';
 
 /** The site's own folder inside the package (src/site in a checkout, its compiled copy in the package). */
 export const siteFolder = fileURLToPath(new URL('.', import.meta.url));
@@ -67,7 +68,7 @@ export function siteConfig(options: SiteConfigOptions): AstroInlineConfig {
     markdown: {},
     vite: {
       cacheDir: join(options.cacheDir, 'vite'),
-      plugins: [watchProcedures(options.procedures)],
+      plugins: [watchProcedures(options.procedures), engineOutside(siteFolder)],
       // Under a root of the user's, the site is reached through a link: modules keep the linked paths so
       // Astro sees them inside its root.
       ...(options.root ? { server: { fs: { allow: servedFolders(options.root) } }, resolve: { preserveSymlinks: true } } : {}),
