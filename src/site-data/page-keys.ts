@@ -1,10 +1,11 @@
 // What each folder of pages is made from, as one hash per folder: a procedure's page with the next/, audit/ and rev/
-// pages under its folder, one tag's page, one register entry's page, one rule's page. They come out the same whenever their key does, so a
-// build may keep them from its last output (cli/page-reuse.ts). The key errs towards drawing again: it holds everything those pages read, and for the
-// parts that come from other procedures (calls, callers, required procedures, temporary procedures, register
-// entries, tag pages) their whole source text, not only the few words shown. The procedure's own view goes in without
-// the parts made on demand (step table, body, emergency lead): those follow from its text and the code, both in the
-// key, and making them here would make them for every procedure of a rebuild that draws few.
+// pages under its folder, one tag's page, one register entry's page, one rule's page. They come out the same whenever
+// their key does, so a build may keep them from its last output (cli/page-reuse.ts). The key errs towards drawing
+// again: it holds everything those pages read, and for the parts that come from other procedures (calls, callers,
+// required procedures, temporary procedures, register entries, tag pages) their whole source text, not only the few
+// words shown. The procedure's own view goes in without the parts made on demand (step table, body, emergency lead):
+// those follow from its text and the code, both in the key, and making them here would make them for every procedure
+// of a rebuild that draws few.
 import { callSitesOf } from '../analysis/inline-calls.ts';
 import type { Procedure } from '../model/procedure.ts';
 import { manualIndex } from './manual-index.ts';
