@@ -86,8 +86,9 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   const partial = request.paths?.length ? manualLeftOut(request, found) : undefined;
   const skipped: SkippedFile[] = [];
   const inputs: SourceInput[] = [];
+  const discoveredFiles = new Set(found.filter((f) => f.discovered).map((f) => f.file));
   for (const input of readFoundFiles(found)) {
-    const discovered = found.find((f) => f.file === input.file)?.discovered;
+    const discovered = discoveredFiles.has(input.file);
     if (discovered && 'text' in input && isNotAProcedure(input.text)) skipped.push({ file: input.file, reason: notAProcedureReason });
     else inputs.push(input);
   }

@@ -15,9 +15,24 @@ const keyLine = new RegExp(`^(?:${procedureKeys.map((k) => k.replace(/[.*+?^${}(
 
 export function isNotAProcedure(text: string): boolean {
   const body = text.startsWith('\uFEFF') ? text.slice(1) : text;
-  const firstLine = body.split(/\r?\n/).find((line) => line.trim() !== '');
+  const firstLine = firstNonBlankLine(body);
   if (firstLine !== undefined && fenceLine.test(firstLine.trimEnd())) return false;
   return !keyLine.test(body);
+}
+
+/**
+ * The first line (split at \n; a \r before it is white space to `trim`) with more than white space on it, found
+ * without splitting the whole text.
+ */
+function firstNonBlankLine(text: string): string | undefined {
+  for (let start = 0; start <= text.length;) {
+    const newline = text.indexOf('\n', start);
+    const end = newline === -1 ? text.length : newline;
+    const line = text.slice(start, end);
+    if (line.trim() !== '') return line;
+    start = end + 1;
+  }
+  return undefined;
 }
 
 export const notAProcedureReason = 'it has no front-matter and no procedure keys';
