@@ -16,8 +16,8 @@ export type ParsedQuantity = { ok: true; value: number; unit: string } | UnitErr
 export type ParsedDuration = { ok: true; min: number; max: number } | UnitError;
 
 // The library instance is made on first use: commands and files that convert no unit never load it. It is kept
-// once per process (on globalThis): the site's pages run a bundled copy of this module next to the command's
-// own, and both must use the one instance that has the units below, defined once.
+// once per process (on globalThis): the live preview runs the pages from Vite's copy of this module next to the
+// command's own, and both must use the one instance that has the units below, defined once.
 const instanceSlot = Symbol.for('stepwright.units.mathjs');
 /** The library instance with Stepwright's units (for the script that writes unit-table.ts, and its test). */
 export function unitLibrary(): MathJsInstance {

@@ -45,8 +45,9 @@ export interface LoadedManual {
 }
 
 /**
- * Worked out once per loaded manual, whether the build command or the pages ask first: Astro runs the pages from
- * its own bundle of this folder, so a module's own memo would read git or build views a second time.
+ * Worked out once per loaded manual, whether the build command or the pages ask first. A build's pages import this
+ * folder as it is (site/engine-outside.ts), but the live preview runs them from Vite's own copy of it, where a
+ * module's own memo would read git or build views a second time.
  */
 export function sharedOn<T>(loaded: Pick<LoadedManual, 'shared'>, name: string, make: () => T): T {
   loaded.shared ??= new Map();
@@ -106,7 +107,7 @@ export function formatCheckFailure(loaded: LoadedManual, colour: boolean): strin
   return formatHuman(loaded.run.diagnostics, loaded.run.texts, colour) + summarize(loaded.run.diagnostics, loaded.inputs.length);
 }
 
-// On globalThis, not in a module variable: the pages run from Astro's own bundle of this module.
+// On globalThis, not in a module variable: the live preview runs the pages from Vite's own copy of this module.
 const handOffSlot = Symbol.for('stepwright.site-data.manual');
 type Slot = { key: string; loaded: Promise<LoadedManual> };
 const slots = globalThis as unknown as Record<symbol, Slot | undefined>;
