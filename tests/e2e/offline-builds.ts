@@ -1,6 +1,6 @@
-// Two publications of a generated manual of 100 procedures in four areas (some of them emergency procedures),
+// Two publications of a generated manual of 300 procedures in four areas (some of them emergency procedures),
 // the second with one procedure changed: built once and shared between runs through a folder in the temp
-// directory, keyed by the sources' content like the demo site (site-build.ts). The same update at 2,000 procedures
+// directory, keyed by the sources' content like the demo site (site-build.ts). The same update at 1,000 procedures
 // is measured by `npm run bench` (bench/offline-update.ts); the tests check what the tablet does.
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { generateProcedure } from '../../bench/generate-procedures.ts';
 
-export const procedureCount = 100;
+export const procedureCount = 300;
 export const areas = ['area-east', 'area-north', 'area-south', 'area-west'];
 /** The procedure the second publication changes (the middle one): its title (shown in the lists) and one step's text. */
 const changedNumber = procedureCount / 2;
@@ -54,9 +54,9 @@ function buildEnv(): NodeJS.ProcessEnv {
   return { ...env, NO_COLOR: '1', STEPWRIGHT_TODAY: '2026-12-01' };
 }
 
-function build(cwd: string, procedures: string, out: string): string {
+function build(cwd: string, procedures: string, out: string, cache: string): string {
   const run = spawnSync(process.execPath, ['bin/stepwright.mjs', 'build', procedures, '--out', out], {
-    cwd, encoding: 'utf8', env: buildEnv(), timeout: 8 * 60_000,
+    cwd, encoding: 'utf8', env: { ...buildEnv(), STEPWRIGHT_CACHE: cache }, timeout: 8 * 60_000,
   });
   if (run.status !== 0) throw new Error(`The generated manual did not build (exit ${run.status}):\n${run.stdout}\n${run.stderr}`);
   return run.stdout;
@@ -90,9 +90,9 @@ function withCurrentWorker(cwd: string, built: GeneratedManual): GeneratedManual
 }
 
 /**
- * Both publications, built from the same folder (the pages name their source file) into two output folders.
- * The second build goes over a copy of the first, as a plant republishes into the same folder, so its report
- * says what the update costs (kept in b-build.txt).
+ * Both publications, built from the same folder (the pages name their source file). The second is built into the
+ * first one's output folder, as a plant republishes: its report says what the update costs (kept in b-build.txt),
+ * and it takes the unchanged pages from the first build. A copy of the first publication is kept aside to serve.
  */
 export async function ensureGeneratedBuilds(cwd = process.cwd()): Promise<GeneratedManual> {
   // Both publications built beforehand (a folder holding procedures/, a/ and b/), like STEPWRIGHT_SITE_DIR.
@@ -119,10 +119,10 @@ export async function ensureGeneratedBuilds(cwd = process.cwd()): Promise<Genera
       rmSync(dir, { recursive: true, force: true });
       mkdirSync(dir, { recursive: true });
       write(result.procedures, false);
-      writeFileSync(join(dir, 'a-build.txt'), build(cwd, result.procedures, result.a));
+      writeFileSync(join(dir, 'a-build.txt'), build(cwd, result.procedures, result.b, join(dir, 'cache')));
+      cpSync(result.b, result.a, { recursive: true, dereference: true });
       write(result.procedures, true);
-      cpSync(result.a, result.b, { recursive: true });
-      writeFileSync(join(dir, 'b-build.txt'), build(cwd, result.procedures, result.b));
+      writeFileSync(join(dir, 'b-build.txt'), build(cwd, result.procedures, result.b, join(dir, 'cache')));
       writeFileSync(done, '');
       return withCurrentWorker(cwd, result);
     } finally {

@@ -1,4 +1,4 @@
-// The offline copy of a larger manual: two publications of a generated manual of 100 procedures, the second with one
+// The offline copy at plant scale: two publications of a generated manual of 300 procedures, the second with one
 // procedure changed. A tablet (headless Chromium) updates from the first to the second; the test server's request
 // log shows what it fetched. The network drops halfway through an update; a tablet keeps chosen areas only.
 import { readFile } from 'node:fs/promises';
