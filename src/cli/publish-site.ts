@@ -9,6 +9,14 @@ import { basename, dirname, join, resolve } from 'node:path';
 /** How many published versions are kept: the one in use and the one before it (a reader may still be on it). */
 const keptVersions = 2;
 
+/**
+ * How long a version is kept at least once a newer one replaced it. A reader that looked up the output path just
+ * before a publication may still be on its way into the version it found when the next ones are published (two
+ * publications a few milliseconds apart on a loaded machine were seen to overtake one file lookup); ten seconds is
+ * far beyond any lookup.
+ */
+export const replacedVersionKeptMs = 10_000;
+
 export function versionsFolder(outDir: string): string {
   return `${outDir}.versions`;
 }
@@ -63,7 +71,7 @@ function pointAt(outDir: string, version: string): void {
  * Moves a complete staged site into place. Returns the version folder it now lives in. Falls back to two
  * renames where links cannot be made (the old site then stays in `<out>.old-<pid>` until the second rename).
  */
-export function publishSite(staged: string, outDir: string): string {
+export function publishSite(staged: string, outDir: string, now = Date.now()): string {
   const versions = versionsFolder(outDir);
   mkdirSync(versions, { recursive: true });
   const name = versionName(versions);
@@ -86,17 +94,27 @@ export function publishSite(staged: string, outDir: string): string {
     renameSync(target, outDir);
     return outDir;
   }
-  pruneVersions(outDir);
+  pruneVersions(outDir, now);
   return target;
 }
 
-/** Removes versions older than the kept ones, never the one the output path points at. */
-function pruneVersions(outDir: string): void {
+/**
+ * Removes versions older than the kept ones once the version after each was published `replacedVersionKeptMs` ago
+ * (by `now`), never the one the output path points at.
+ */
+function pruneVersions(outDir: string, now: number): void {
   const inUse = linkedVersion(outDir);
   const all = completeVersions(outDir);
-  for (const name of all.slice(0, Math.max(0, all.length - keptVersions))) {
-    if (name !== inUse) rmSync(join(versionsFolder(outDir), name), { recursive: true, force: true });
+  for (let i = 0; i < all.length - keptVersions; i++) {
+    const replacedAt = versionTime(all[i + 1]);
+    if (all[i] === inUse || now - replacedAt < replacedVersionKeptMs) continue;
+    rmSync(join(versionsFolder(outDir), all[i]), { recursive: true, force: true });
   }
+}
+
+/** When a version was published, from its name (milliseconds; 0 for a folder taken over from before links). */
+function versionTime(name: string): number {
+  return Number(/^site-(\d{15})-\d+$/.exec(name)?.[1] ?? 0);
 }
 
 /** The version folder name the output path links to, if it is such a link. */

@@ -6,7 +6,7 @@ import { lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, renameSyn
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { describeSite, publishSite, recoverSite, versionsFolder } from '../../src/cli/publish-site.ts';
+import { describeSite, publishSite, recoverSite, replacedVersionKeptMs, versionsFolder } from '../../src/cli/publish-site.ts';
 
 let dir: string;
 beforeEach(() => (dir = mkdtempSync(join(tmpdir(), 'stepwright-publish-'))));
@@ -45,13 +45,18 @@ function publisher(out: string, count: number) {
 }
 
 describe('publishing a site', () => {
-  it('makes the output path a link to a complete version, and keeps only the last two versions', () => {
+  it('makes the output path a link to a complete version, and keeps the last two versions and those replaced moments ago', () => {
     const out = join(dir, 'site');
     for (let i = 0; i < 4; i++) publishSite(stage(`s${i}`, String(i)), out);
     expect(lstatSync(out).isSymbolicLink()).toBe(true);
     expect(readFileSync(join(out, 'index.html'), 'utf8')).toBe('site 3');
-    expect(readdirSync(versionsFolder(out))).toHaveLength(2);
+    // Replaced within the last seconds: a reader may still be on its way into any of them.
+    expect(readdirSync(versionsFolder(out))).toHaveLength(4);
     expect(describeSite(out).text).toMatch(/site links to the published version site-/);
+    // A publication once they were replaced long enough ago removes them, and keeps the one it replaced.
+    publishSite(stage('s4', '4'), out, Date.now() + replacedVersionKeptMs + 1000);
+    expect(readdirSync(versionsFolder(out))).toHaveLength(2);
+    expect(readFileSync(join(out, 'index.html'), 'utf8')).toBe('site 4');
   });
 
   it('takes over an output folder from before links were used', () => {
