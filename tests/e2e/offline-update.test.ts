@@ -149,6 +149,9 @@ describe('a tablet updating from the first publication to the second', () => {
   });
 });
 
+/** A tablet holding the whole second publication, left by the update test for the one after it. */
+let holdingWhole: { context: BrowserContext; page: Page } | undefined;
+
 describe('a tablet whose network drops halfway through an update', () => {
   it('keeps its complete old copy, then finishes the update where it stopped', async () => {
     server.serve(built.a);
@@ -199,7 +202,8 @@ describe('a tablet whose network drops halfway through an update', () => {
     expect([...new Set([...before, ...after])].sort()).toEqual(expected);
     await page.goto(`${server.url}/procedures/${changedSlug}/`);
     await expect(page.locator('body').textContent()).resolves.toContain('second edition');
-    await context.close();
+    // This tablet now holds the whole second publication: the next test goes on with it instead of saving it again.
+    holdingWhole = { context, page };
   });
 });
 
@@ -207,8 +211,14 @@ describe('a tablet that keeps chosen areas', () => {
   it('keeps its areas and every emergency procedure, keeps pages once opened, and remembers the choice', async () => {
     server ??= await serveSite(built.b);
     server.serve(built.b);
-    const context = await browser.newContext({ viewport: { width: 800, height: 1280 } });
-    const page = await context.newPage();
+    // The tablet of the test above when it ran (it holds the whole second publication), turned upright; else a new
+    // one, which saves the whole second publication first.
+    const { context, page } = holdingWhole ?? await (async () => {
+      const fresh = await browser.newContext({ viewport: { width: 800, height: 1280 } });
+      return { context: fresh, page: await fresh.newPage() };
+    })();
+    holdingWhole = undefined;
+    await page.setViewportSize({ width: 800, height: 1280 });
     await page.goto(`${server.url}/offline/`);
     await waitForCopy(page, listB.version);
     const whole = (await status(page))!.copy!.keptFiles;
