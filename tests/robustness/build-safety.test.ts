@@ -105,30 +105,24 @@ describe('building the manual', () => {
     expect(differences(firstSite, snapshot(site))).toEqual([]);
   }, 180_000);
 
-  // One build for two promises (a build costs seconds of both cores): the second site goes where no folder is yet.
-  it('writes byte-identical sites from the same sources, into an output folder whose parent folders do not exist yet', async () => {
-    const again = join(work, 'new', 'deeper', 'again');
-    expect(existsSync(join(work, 'new'))).toBe(false);
-    await build(procedures, again);
-    const second = snapshot(again);
-    expect(Object.keys(second).length).toBeGreaterThan(10);
-    expect(differences(firstSite, second)).toEqual([]);
+  // One build for three promises where the machine has a second file system (a build costs seconds of both cores):
+  // the same sources give the same bytes, into an output folder whose parent folders do not exist yet, on the other
+  // file system. Issue 17, finding 10: builds on ext4 and on tmpfs differed in 13 files (search index, offline file
+  // list). The sources stay where they are (a page names its source file).
+  const otherFileSystem = existsSync('/dev/shm') && statSync('/dev/shm').dev !== statSync(tmpdir()).dev;
+  it(`writes byte-identical sites from the same sources, into an output folder whose parent folders do not exist yet${otherFileSystem ? ', onto another file system' : ''}`, async () => {
+    const root = otherFileSystem ? mkdtempSync(join('/dev/shm', 'stepwright-build-safety-')) : work;
+    try {
+      const again = join(root, 'new', 'deeper', 'again');
+      expect(existsSync(join(root, 'new'))).toBe(false);
+      await build(procedures, again);
+      const second = snapshot(again);
+      expect(Object.keys(second).length).toBeGreaterThan(10);
+      expect(differences(firstSite, second)).toEqual([]);
+    } finally {
+      if (root !== work) rmSync(root, { recursive: true, force: true });
+    }
   }, 180_000);
-
-  // Issue 17, finding 10: builds on ext4 and on tmpfs differed in 13 files (search index, offline file list).
-  // The same sources (a page names its source file, so they stay where they are), built onto tmpfs.
-  it.runIf(existsSync('/dev/shm') && statSync('/dev/shm').dev !== statSync(tmpdir()).dev)(
-    'writes a byte-identical site onto another file system', async () => {
-      const other = mkdtempSync(join('/dev/shm', 'stepwright-build-safety-'));
-      try {
-        await build(procedures, join(other, 'site'));
-        const there = snapshot(join(other, 'site'));
-        expect(Object.keys(there).length).toBeGreaterThan(10);
-        expect(differences(firstSite, there)).toEqual([]);
-      } finally {
-        rmSync(other, { recursive: true, force: true });
-      }
-    }, 180_000);
 
   it('never writes to the procedures folder, in check or build', async () => {
     const checked = await runCli(['check', procedures], work);
