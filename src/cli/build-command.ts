@@ -8,7 +8,7 @@ import { livePreviewVariable, siteBaseVariable } from '../site-data/site-mode.ts
 import { UsageError, useColour, type CliIo } from './io.ts';
 import { proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
-import { linksOutsideBase, type SiteBase } from '../render/site-url.ts';
+import { linksOutsideBase, pageFolder, pagePath, type SiteBase } from '../render/site-url.ts';
 import { finishPages, type FinishedPage } from './index-site.ts';
 import { publishSite, recoverSite } from './publish-site.ts';
 import { readPrivateKey, writeSiteManifest } from './site-manifest.ts';
@@ -105,6 +105,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   let offline: OfflineCopySummary | undefined;
   let keys: Map<string, string> | undefined;
   let plan: ReusePlan | undefined;
+  let keptProcedures = 0;
   let pages: Map<string, FinishedPage> | undefined;
   // Astro keeps its intermediate files inside the output folder only when that folder is inside the
   // project; elsewhere it would share <project>/.astro with any other build running at the same time.
@@ -144,7 +145,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
       plan = planReuse(readPageRecord(recordFile, outDir), keys, outDir);
     }
     loaded.reusedPages = new Set(plan?.reused.keys() ?? []);
-    const keptProcedures = plan ? keptProcedureCount(plan) : 0;
+    keptProcedures = plan ? keptProcedureCount(plan, loaded.view.procedures) : 0;
     if (rebuilding && keptProcedures < keptMostly * loaded.view.procedures.length) compactHeap();
     progress.phase('building pages');
     const { build } = await import('astro');
@@ -190,7 +191,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   }
   const seconds = (performance.now() - started) / 1000;
   io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${loaded.view.tags.length} tag pages into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
-  if (plan?.hadRecord && keys) io.stdout.write(reuseReport(plan, loaded.view.procedures.length, keys.size));
+  if (plan?.hadRecord && keys) io.stdout.write(reuseReport(plan, keptProcedures, loaded.view.procedures.length, keys.size));
   if (offline) io.stdout.write(offlineReport(offline));
   return 0;
 }
@@ -201,16 +202,13 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
  */
 const keptMostly = 0.9;
 
-/** How many procedures' page folders the plan takes from the last build. */
-function keptProcedureCount(plan: ReusePlan): number {
-  let kept = 0;
-  for (const folder of plan.reused.keys()) if (folder.startsWith('procedures/')) kept++;
-  return kept;
+/** How many of the procedures' page folders the plan takes from the last build. */
+function keptProcedureCount(plan: ReusePlan, procedures: Array<{ slug: string }>): number {
+  return procedures.filter((p) => plan.reused.has(pageFolder(pagePath.procedure(p.slug)))).length;
 }
 
-/** One line on what the build took from the last one. */
-function reuseReport(plan: ReusePlan, procedures: number, folders: number): string {
-  const kept = keptProcedureCount(plan);
+/** One line on what the build took from the last one: `kept` of the `procedures`, and the other page folders. */
+function reuseReport(plan: ReusePlan, kept: number, procedures: number, folders: number): string {
   return `Pages: ${kept} procedure${kept === 1 ? '' : 's'} unchanged since the last build kept, ${procedures - kept} drawn; ${plan.reused.size - kept} of ${folders - procedures} tag, register and rule pages kept.\n`;
 }
 

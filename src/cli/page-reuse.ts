@@ -9,8 +9,8 @@
 // From there on the new name is watched the same way: the build's final pass reads the pages the search index is
 // sent and compares their SHA-256 with the record, and checks that every other one is still the file it linked
 // (linking sets the change time, so its own stat after linking is the reference). Should either differ, the build
-// stops and forgets the record, so the next build draws every page. The built assets (`_astro/…`, named by their content) the old pages link to are
-// carried over when the new build did not make them. A record that cannot be read or was written for something
+// stops and forgets the record, so the next build draws every page. The built assets (`_astro/…`, named by their
+// content) the old pages link to are carried over when the new build did not make them. A record that cannot be read or was written for something
 // else is ignored; the folder may be deleted at any time (STEPWRIGHT_CACHE=off: no reuse).
 import { createHash } from 'node:crypto';
 import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';

@@ -51,12 +51,8 @@ export interface LoadedManual {
  */
 export function sharedOn<T>(loaded: Pick<LoadedManual, 'shared'>, name: string, make: () => T): T {
   loaded.shared ??= new Map();
-  let made = loaded.shared.get(name) as T | undefined;
-  if (!made) {
-    made = make();
-    loaded.shared.set(name, made);
-  }
-  return made;
+  if (!loaded.shared.has(name)) loaded.shared.set(name, make());
+  return loaded.shared.get(name) as T;
 }
 
 /** The items whose pages this build draws: all but those whose page folder (a site path, e.g. "/tags/k-210/") it reuses. */

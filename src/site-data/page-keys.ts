@@ -106,10 +106,12 @@ export async function pageKeys(loaded: LoadedManual, salt: string): Promise<Map<
   // A tag's page shows the tag's uses: each procedure's id, title, status and revision, and the steps that touch it.
   for (const t of view.tags) keys.set(pageFolder(pagePath.tag(t.slug)), digest([shared, 'tag', stableJson(t)]));
   // A register entry's page shows the entry, where it is used, its changes in git and whether each user was revised since.
-  for (const e of register?.view.entries ?? []) {
-    keys.set(pageFolder(registerEntryUrl(e.id, e.slug)), digest([
-      shared, 'register', stableJson(e), stableJson(register!.history.get(e.id) ?? []), stableJson(register!.impact.get(e.id) ?? null), register!.historyNotice ?? '',
-    ]));
+  if (register) {
+    for (const e of register.view.entries) {
+      keys.set(pageFolder(registerEntryUrl(e.id, e.slug)), digest([
+        shared, 'register', stableJson(e), stableJson(register.history.get(e.id) ?? []), stableJson(register.impact.get(e.id) ?? null), register.historyNotice ?? '',
+      ]));
+    }
   }
   // A rule's page shows the rule as the code defines it.
   for (const id of Object.keys(rules)) keys.set(pageFolder(pagePath.rule(id)), digest([shared, 'rule', id]));
