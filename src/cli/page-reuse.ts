@@ -1,7 +1,8 @@
 // A rebuild draws again only the pages whose inputs changed; the others are taken from the last output. The pages
-// come in folders (a procedure's folder with its next/, audit/ and rev/ pages; one tag's page; one rule's page), and
-// what each folder's pages were made from is kept as one key per folder (site-data/page-keys.ts) in a record in the
-// cache folder, with the size, time and SHA-256 of every file under the folder, as published.
+// come in folders (a procedure's folder with its next/, audit/ and rev/ pages; one tag's page; one later part of a
+// tag's list, a folder inside the tag's; one rule's page), and what each folder's pages were made from is kept as one
+// key per folder (site-data/page-keys.ts) in a record in the cache folder, with the size, time and SHA-256 of every
+// file under the folder but not under a folder inside it that has a key of its own, as published.
 //
 // A page is taken over only when its key is unchanged and its file in the output is the one the record describes:
 // the same file (inode), size, modification time and change time (the kernel sets the change time on every write and
@@ -99,6 +100,14 @@ export function planReuse(record: PageRecord | undefined, keys: Map<string, stri
     reused.set(folder, entry.files);
   }
   return { reused, assets: record.assets, redrawn, hadRecord: true };
+}
+
+/** Whether `path`, a file under page folder `name`, lies in a folder between the two that has a key of its own. */
+function inFolderOfItsOwn(path: string, name: string, keys: ReadonlyMap<string, string>): boolean {
+  for (let end = path.lastIndexOf('/'); end > name.length; end = path.lastIndexOf('/', end - 1)) {
+    if (keys.has(path.slice(0, end))) return true;
+  }
+  return false;
 }
 
 /** A folder inside the site, named with '/': no empty, "." or ".." part. */
@@ -219,6 +228,8 @@ export function writePageRecord(file: string, outDir: string, keys: Map<string, 
         if (!entry.isFile()) continue;
         const full = join(entry.parentPath, entry.name);
         const path = `${name}/${full.slice(folder.length + 1).split(/[\\/]/).join('/')}`;
+        // A folder under this one with a key of its own (a tag's later parts) is recorded as that folder.
+        if (inFolderOfItsOwn(path, name, keys)) continue;
         const stat = statSync(full);
         const page = hashed.get(path);
         const bytes = page ? undefined : readFileSync(full);

@@ -15,6 +15,7 @@ import { numberSteps, type StepNumbers } from './step-numbers.ts';
 import { buildStepTable, type TableRow } from './step-table.ts';
 import { tagUsesIn, type TagRole, type TagUse } from './where-used.ts';
 import { pagePath, rootBase, siteUrl, type SiteBase } from './site-url.ts';
+import { procedureIdsOf, tagPartLinks, type TagPartLink } from './tag-parts.ts';
 
 export interface ManualInput {
   files: CheckedFile[];
@@ -104,6 +105,8 @@ export interface TagView {
   url: string;
   roles: TagRole[];
   uses: Array<TagUse & { procedure: Pick<ProcedureView, 'id' | 'title' | 'url' | 'status' | 'revision' | 'current'> }>;
+  /** The parts its where-used list is shown in (render/tag-parts.ts): one for all but the most used tags. */
+  parts: TagPartLink[];
 }
 
 export interface ManualView {
@@ -291,7 +294,7 @@ export function buildManualView(input: ManualInput): ManualView {
         let slug = slugOf(tag);
         for (let n = 2; usedSlugs.has(slug); n++) slug = `${slugOf(tag)}-${n}`;
         usedSlugs.add(slug);
-        entry = { tag, slug, url: siteUrl(input.base ?? rootBase, pagePath.tag(slug)), roles: [], uses: [] };
+        entry = { tag, slug, url: siteUrl(input.base ?? rootBase, pagePath.tag(slug)), roles: [], uses: [], parts: [] };
         tagMap.set(tag, entry);
       }
       for (const use of list) {
@@ -305,6 +308,7 @@ export function buildManualView(input: ManualInput): ManualView {
   for (const t of tags) {
     t.roles.sort((a, b) => roleOrder.indexOf(a) - roleOrder.indexOf(b));
     t.uses.sort((a, b) => roleOrder.indexOf(a.role) - roleOrder.indexOf(b.role) || a.procedureId.localeCompare(b.procedureId));
+    t.parts = tagPartLinks(procedureIdsOf(t.uses).length, (n) => siteUrl(input.base ?? rootBase, pagePath.tagPart(t.slug, n)));
   }
   // Each procedure links its tags to the page that really exists (slugs may carry a suffix).
   for (const p of procedures) p.requires = p.requires.map(({ id }) => (byId.has(id) ? { id, url: byId.get(id)!.url, title: byId.get(id)!.title } : { id }));

@@ -23,6 +23,8 @@ export const pagePath = {
   home: () => '/',
   procedure: (slug: string) => `/procedures/${slug}/`,
   tag: (slug: string) => `/tags/${slug}/`,
+  /** Part `number` of a tag's where-used list (render/tag-parts.ts): the first part is the tag's own page. */
+  tagPart: (slug: string, number: number) => (number <= 1 ? `/tags/${slug}/` : `/tags/${slug}/${number}/`),
   rule: (id: string) => `/rules/${id}/`,
   search: () => '/search/',
   offline: () => '/offline/',

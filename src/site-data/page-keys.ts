@@ -1,6 +1,7 @@
 // What each folder of pages is made from, as one hash per folder: a procedure's page with the next/, audit/ and rev/
-// pages under its folder, one tag's page, one register entry's page, one rule's page. They come out the same whenever
-// their key does, so a build may keep them from its last output (cli/page-reuse.ts). The key errs towards drawing
+// pages under its folder, one tag's page or one later part of its list, one register entry's page, one rule's page.
+// They come out the same whenever their key does, so a build may keep them from its last output (cli/page-reuse.ts).
+// A folder inside another one with a key of its own (a tag's later parts) is its own folder. The key errs towards drawing
 // again: it holds everything those pages read, and for the parts that come from other procedures (calls, callers,
 // required procedures, temporary procedures, register entries, tag pages) their whole source text, not only the few
 // words shown. The procedure's own view goes in without the parts made on demand (step table, body, emergency lead):
@@ -18,9 +19,10 @@ import { cacheKey } from '../check/result-cache.ts';
 import { rules } from '../check/rules/index.ts';
 import { pageFolder, pagePath } from '../render/site-url.ts';
 import { registerEntryUrl } from '../render/register-view.ts';
+import { tagParts } from '../render/tag-parts.ts';
 
 /** Bumped when what goes into a key changes. */
-const keyFormat = 'stepwright-page-key-3';
+const keyFormat = 'stepwright-page-key-4';
 
 /** JSON for hashing: maps and sets as lists, functions left out, parsed models (`procedure`) left to their text. */
 function stableJson(value: unknown): string {
@@ -103,8 +105,11 @@ export async function pageKeys(loaded: LoadedManual, salt: string): Promise<Map<
       ...neighbours,
     ]));
   }
-  // A tag's page shows the tag's uses: each procedure's id, title, status and revision, and the steps that touch it.
-  for (const t of view.tags) keys.set(pageFolder(pagePath.tag(t.slug)), digest([shared, 'tag', stableJson(t)]));
+  // A tag's page, and each later part of its list, shows the tag's roles, how many procedures use it, the links to
+  // the parts and the part's own uses: each procedure's id, title, status and revision, and the steps that touch it.
+  for (const t of view.tags) {
+    for (const part of tagParts(t)) keys.set(pageFolder(pagePath.tagPart(t.slug, part.number)), digest([shared, 'tag', stableJson(part)]));
+  }
   // A register entry's page shows the entry, where it is used, its changes in git and whether each user was revised since.
   if (register) {
     for (const e of register.view.entries) {

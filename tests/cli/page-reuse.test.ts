@@ -181,4 +181,34 @@ describe('page reuse', () => {
     expect([...changed.reused.keys()]).toEqual(['rules/no-exit']);
     expect(changed.redrawn).toBe(1);
   });
+
+  it('records a later part of a tag\'s list as a folder of its own, not with the tag\'s page above it', () => {
+    const root = tempFolder('stepwright-page-reuse-');
+    const site = join(root, 'site');
+    for (const [path, text] of [['tags/k-210/index.html', '<p>part 1</p>'], ['tags/k-210/2/index.html', '<p>part 2</p>'], ['tags/k-210/3/index.html', '<p>part 3</p>']]) {
+      mkdirSync(join(site, path, '..'), { recursive: true });
+      writeFileSync(join(site, path), text);
+    }
+    const keys = new Map([['tags/k-210', 'key-1'], ['tags/k-210/2', 'key-2'], ['tags/k-210/3', 'key-3']]);
+    const record = pageRecordPath(join(root, 'cache'), site);
+    writePageRecord(record, site, keys, new Map());
+    const all = planReuse(readPageRecord(record, site), keys, site);
+    expect(all.reused.get('tags/k-210')!.map((f) => f.path)).toEqual(['tags/k-210/index.html']);
+    expect(all.reused.get('tags/k-210/2')!.map((f) => f.path)).toEqual(['tags/k-210/2/index.html']);
+    // Part 2 changed: it alone is drawn again; the tag's page and part 3 are taken, and copying them never meets
+    // the part the new build drew.
+    const plan = planReuse(readPageRecord(record, site), new Map([...keys, ['tags/k-210/2', 'key-2b']]), site);
+    expect([...plan.reused.keys()].sort()).toEqual(['tags/k-210', 'tags/k-210/3']);
+    const next = join(tempFolder('stepwright-page-reuse-next-'), 'site');
+    mkdirSync(join(next, 'tags', 'k-210', '2'), { recursive: true });
+    writeFileSync(join(next, 'tags', 'k-210', '2', 'index.html'), '<p>part 2, drawn again</p>');
+    copyReusedPages(plan, site, next);
+    expect(readFileSync(join(next, 'tags', 'k-210', 'index.html'), 'utf8')).toBe('<p>part 1</p>');
+    expect(readFileSync(join(next, 'tags', 'k-210', '2', 'index.html'), 'utf8')).toBe('<p>part 2, drawn again</p>');
+    expect(readFileSync(join(next, 'tags', 'k-210', '3', 'index.html'), 'utf8')).toBe('<p>part 3</p>');
+    // A tag whose list is one part again: its folder holds every page under it once more (no key names the parts).
+    writePageRecord(record, site, new Map([['tags/k-210', 'key-1']]), new Map());
+    const whole = planReuse(readPageRecord(record, site), new Map([['tags/k-210', 'key-1']]), site);
+    expect(whole.reused.get('tags/k-210')!.map((f) => f.path)).toEqual(['tags/k-210/2/index.html', 'tags/k-210/3/index.html', 'tags/k-210/index.html']);
+  });
 });

@@ -7,6 +7,8 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { launchChromium } from './floor-fixture.ts';
 import { serveSite, type SiteServer } from './static-server.ts';
+import { seriousViolations } from './accessibility-scan.ts';
+import { proceduresPerTagPart } from '../../src/render/tag-parts.ts';
 import { changedId, changedTitle, ensureGeneratedBuilds, procedureCount, type GeneratedManual } from './offline-builds.ts';
 import { updateCost, type OfflineFileList, type UpdateCost } from '../../src/render/offline-manifest.ts';
 
@@ -89,6 +91,50 @@ describe('two publications of a generated manual', () => {
     expect(index.filter((u) => u.startsWith('pagefind/fragment/'))).toHaveLength(1);
     for (const url of index) expect(url).toMatch(/^pagefind\/(fragment\/|index\/|pagefind-entry\.json$|pagefind\.[\w-]+\.pf_meta$)/);
     expect(cost.fetched).toBeLessThan(listB.files.length / 20);
+  });
+
+  it('lists a tag every procedure uses in parts, and the update takes the one part of each tag that lists the change', async () => {
+    // Every generated procedure uses the same tags: each tag's list is cut in parts, the first being the tag's page.
+    const partCount = Math.ceil(procedureCount / proceduresPerTagPart);
+    const parts = listB.files.map((f) => /^tags\/([^/]+)\/(\d+)\/$/.exec(f.url)).filter((m) => m !== null);
+    expect(parts.length).toBeGreaterThan(0);
+    for (const [, , number] of parts) expect(Number(number)).toBeLessThanOrEqual(partCount);
+    const changedTags = cost.urls.filter((u) => u.startsWith('tags/'));
+    expect(changedTags.length).toBeGreaterThan(0);
+    const slugs = changedTags.map((u) => /^tags\/([^/]+)\/(?:\d+\/)?$/.exec(u)?.[1]);
+    expect(slugs).not.toContain(undefined);
+    // One part per tag, and it is the part that lists the changed procedure with its new title.
+    expect(new Set(slugs).size).toBe(changedTags.length);
+    for (const url of changedTags) {
+      const html = await readFile(join(built.b, url, 'index.html'), 'utf8');
+      expect(html).toContain(`data-procedure="${changedId}"`);
+      expect(html).toContain(`${changedTitle}, second edition`);
+    }
+  });
+
+  it('shows a part with links to every part of the list, the one shown marked, and no serious accessibility finding', async () => {
+    const partCount = Math.ceil(procedureCount / proceduresPerTagPart);
+    const site = await serveSite(built.b);
+    // No offline copy here: the tablet tests below save one.
+    const context = await browser.newContext({ serviceWorkers: 'block' });
+    const page = await context.newPage();
+    try {
+      const slug = /^tags\/([^/]+)\//.exec(cost.urls.find((u) => u.startsWith('tags/'))!)![1];
+      await page.goto(`${site.url}/tags/${slug}/2/`);
+      await expect.poll(() => page.locator('h1').textContent()).toMatch(new RegExp(`where used, part 2 of ${partCount}$`));
+      const nav = page.locator('nav.list-parts');
+      await expect.poll(() => nav.locator('li').count()).toBe(partCount);
+      await expect.poll(() => nav.locator('[aria-current="page"]').textContent()).toBe(`${proceduresPerTagPart + 1}–${2 * proceduresPerTagPart}`);
+      expect(await page.locator('ul.where-used > li').evaluateAll((items) => items.map((li) => li.getAttribute('data-procedure')))).toContain(`GEN-${String(proceduresPerTagPart + 1).padStart(4, '0')}`);
+      expect(await seriousViolations(page)).toEqual([]);
+      // The first part's link leads to the tag's own page.
+      await nav.getByRole('link', { name: `Part 1, procedures 1–${proceduresPerTagPart}` }).click();
+      await expect.poll(() => new URL(page.url()).pathname).toBe(`/tags/${slug}/`);
+      await expect.poll(() => page.locator('h1').textContent()).toMatch(new RegExp(`where used, part 1 of ${partCount}$`));
+    } finally {
+      await context.close();
+      await site.close();
+    }
   });
 });
 
