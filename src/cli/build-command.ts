@@ -10,7 +10,7 @@ import { proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
 import { linksOutsideBase, pageFolder, pagePath, type SiteBase } from '../render/site-url.ts';
 import { finishPages, type FinishedPage } from './index-site.ts';
-import { publishSite, recoverSite } from './publish-site.ts';
+import { isAlive, publishSite, recoverSite, startRetiring } from './publish-site.ts';
 import { readPrivateKey, writeSiteManifest } from './site-manifest.ts';
 import { siteConfig } from '../site/astro-config.ts';
 import { offlineReport } from './offline-report.ts';
@@ -123,6 +123,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   removeStaleTemporaries(outDir);
   removeStaleTemporaries(join(scratch, 'site'));
   removeStaleTemporaries(join(scratch, 'astro-cache'));
+  let retiring: Promise<void> | undefined;
   try {
     // The pages read the same folder and the same build date as the check above.
     process.env.STEPWRIGHT_PROCEDURES = folder;
@@ -165,6 +166,11 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     if (!values['no-index']) progress.done();
     const altered = plan ? reusedPagesAltered(plan, work, pages, taken) : [];
     if (altered.length) throw new ReusedPageChanged(altered);
+    // Old versions of the site go on a thread of their own while the offline copy and the manifest are written, and
+    // not before: removing a version's names changes the change time of the pages it shares with the newer ones,
+    // which the checks above compare with the record. Done before publishing, which removes any that became old
+    // enough meanwhile, and before the record of this build's pages is written.
+    retiring = startRetiring(outDir);
     progress.phase('writing the offline copy');
     // Last, so the offline copy's list and version cover the pages and the search index.
     // The build date, not the wall clock: the same sources give the same bytes.
@@ -172,6 +178,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     offline = await writeOfflineCopy(work, { now: new Date(`${loaded.today}T00:00:00Z`), places, previousSite: outDir, publishedUnder: base, known: pages });
     // Very last: the SHA-256 of every file, signed when a key is given.
     writeSiteManifest(work, { privateKey, known: offline.hashes });
+    await retiring;
     if (work !== tmp) moveFolder(work, tmp);
     const published = publishSite(tmp, outDir);
     // The record describes this build's own version folder: another build publishing meanwhile cannot slip its
@@ -188,9 +195,12 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   } finally {
     clearHandOff();
     rmSync(cacheDir, { recursive: true, force: true });
+    await retiring;
   }
   const seconds = (performance.now() - started) / 1000;
-  io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${loaded.view.tags.length} tag pages into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
+  const tagPages = loaded.view.tags.reduce((n, t) => n + t.parts.length, 0);
+  const tagWords = tagPages === loaded.view.tags.length ? `${tagPages} tag pages` : `${loaded.view.tags.length} tags on ${tagPages} pages`;
+  io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${tagWords} into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
   if (plan?.hadRecord && keys) io.stdout.write(reuseReport(plan, keptProcedures, loaded.view.procedures.length, keys.size));
   if (offline) io.stdout.write(offlineReport(offline));
   return 0;
@@ -248,15 +258,6 @@ export function removeStaleTemporaries(outDir: string): void {
       continue;
     }
     rmSync(join(parent, name), { recursive: true, force: true });
-  }
-}
-
-function isAlive(pid: number): boolean {
-  try {
-    process.kill(pid, 0);
-    return true;
-  } catch (error) {
-    return (error as NodeJS.ErrnoException).code === 'EPERM';
   }
 }
 

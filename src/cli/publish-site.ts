@@ -5,6 +5,7 @@
 // folder from before links were used, moved aside but not yet replaced).
 import { existsSync, lstatSync, mkdirSync, readdirSync, readlinkSync, renameSync, rmSync, symlinkSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
+import { Worker } from 'node:worker_threads';
 
 /** How many published versions are kept: the one in use and the one before it (a reader may still be on it). */
 const keptVersions = 2;
@@ -109,6 +110,71 @@ function pruneVersions(outDir: string, now: number): void {
     const replacedAt = versionTime(all[i + 1]);
     if (all[i] === inUse || now - replacedAt < replacedVersionKeptMs) continue;
     rmSync(join(versionsFolder(outDir), all[i]), { recursive: true, force: true });
+  }
+}
+
+/**
+ * Starts removing the versions a publication now would remove (each replaced `replacedVersionKeptMs` ago or more,
+ * never the one the output path points at, never the newest), on a thread of its own: a build does it while it
+ * writes its last files instead of after publishing (removing a large manual's version takes seconds of file system
+ * calls). Removing a version's names changes the change time of the files it shares with newer versions (page
+ * reuse links them): a build must not do it while it checks the pages it takes over (cli/page-reuse.ts). Each
+ * is first renamed out of the versions' names, in one step, so that nothing takes it for a version meanwhile; what a
+ * kill leaves of one is removed by the next build that starts this. Resolves when done; never rejects.
+ */
+export function startRetiring(outDir: string, now = Date.now()): Promise<void> {
+  const versions = versionsFolder(outDir);
+  const inUse = linkedVersion(outDir);
+  const all = completeVersions(outDir);
+  const retired: string[] = [];
+  for (let i = 0; i < all.length - 1; i++) {
+    if (all[i] === inUse || now - versionTime(all[i + 1]) < replacedVersionKeptMs) continue;
+    const to = join(versions, `retired-${process.pid}-${all[i]}`);
+    try {
+      renameSync(join(versions, all[i]), to);
+      retired.push(to);
+    } catch {
+      // Another build took it first; publishing removes what is left.
+    }
+  }
+  let names: string[] = [];
+  try {
+    names = readdirSync(versions);
+  } catch {
+    // No versions yet.
+  }
+  for (const name of names) {
+    const pid = Number(/^retired-(\d+)-/.exec(name)?.[1]);
+    if (pid && pid !== process.pid && !isAlive(pid)) retired.push(join(versions, name));
+  }
+  if (!retired.length) return Promise.resolve();
+  const removeHere = () => {
+    for (const folder of retired) rmSync(folder, { recursive: true, force: true });
+  };
+  return new Promise((done) => {
+    let worker: Worker;
+    try {
+      worker = new Worker(`const { rmSync } = require('node:fs');
+for (const folder of require('node:worker_threads').workerData) rmSync(folder, { recursive: true, force: true });`, { eval: true, workerData: retired });
+    } catch {
+      // No thread: removed here, as publishing did before.
+      removeHere();
+      done();
+      return;
+    }
+    // A folder the thread could not remove stays under a name no one reads; the next build tries again.
+    worker.on('error', () => undefined);
+    worker.on('exit', () => done());
+  });
+}
+
+/** Whether a process with this id runs (one that is not ours to signal runs too). */
+export function isAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (error) {
+    return (error as NodeJS.ErrnoException).code === 'EPERM';
   }
 }
 

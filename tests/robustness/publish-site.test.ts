@@ -1,12 +1,12 @@
 // The output path holds a complete site at every instant: a reader polling it while another process publishes
 // over and over never finds it missing or half-written, and a kill at any moment leaves a complete site (or one
 // that start-up recovery puts back, which `verify` reports).
-import { spawn } from 'node:child_process';
-import { lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { spawn, spawnSync } from 'node:child_process';
+import { lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, renameSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { describeSite, publishSite, recoverSite, replacedVersionKeptMs, versionsFolder } from '../../src/cli/publish-site.ts';
+import { describeSite, publishSite, recoverSite, replacedVersionKeptMs, startRetiring, versionsFolder } from '../../src/cli/publish-site.ts';
 
 let dir: string;
 beforeEach(() => (dir = mkdtempSync(join(tmpdir(), 'stepwright-publish-'))));
@@ -57,6 +57,31 @@ describe('publishing a site', () => {
     publishSite(stage('s4', '4'), out, Date.now() + replacedVersionKeptMs + 1000);
     expect(readdirSync(versionsFolder(out))).toHaveLength(2);
     expect(readFileSync(join(out, 'index.html'), 'utf8')).toBe('site 4');
+  });
+
+  it('retires, on a thread, what a publication now would remove: never the version in use, the newest or one replaced moments ago', async () => {
+    const out = join(dir, 'site');
+    for (let i = 0; i < 4; i++) publishSite(stage(`s${i}`, String(i)), out);
+    const versions = versionsFolder(out);
+    const before = readdirSync(versions).sort();
+    // Replaced moments ago: nothing goes.
+    await startRetiring(out);
+    expect(readdirSync(versions).sort()).toEqual(before);
+    // What a kill left of a retired version (its build is gone) goes too; one of a running build is left to it.
+    const dead = spawnSync(process.execPath, ['-e', 'process.stdout.write(String(process.pid))'], { encoding: 'utf8' }).stdout;
+    mkdirSync(join(versions, `retired-${dead}-site-000000000000001-1`, 'procedures'), { recursive: true });
+    mkdirSync(join(versions, `retired-${process.ppid}-site-000000000000002-1`));
+    // Later: every version but the newest, which the output path links to, goes; the site reads the same throughout.
+    await startRetiring(out, Date.now() + replacedVersionKeptMs + 1000);
+    expect(readdirSync(versions).sort()).toEqual([`retired-${process.ppid}-site-000000000000002-1`, before.at(-1)]);
+    expect(readFileSync(join(out, 'index.html'), 'utf8')).toBe('site 3');
+    // Never the version in use, even when it is not the newest.
+    publishSite(stage('s5', '5'), out);
+    const newest = readdirSync(versions).filter((n) => n.startsWith('site-')).sort().at(-1)!;
+    rmSync(out);
+    symlinkSync(join(`${out.split('/').at(-1)}.versions`, before.at(-1)!), out);
+    await startRetiring(out, Date.now() + replacedVersionKeptMs + 1000);
+    expect(readdirSync(versions).filter((n) => n.startsWith('site-')).sort()).toEqual([before.at(-1), newest]);
   });
 
   it('takes over an output folder from before links were used', () => {
