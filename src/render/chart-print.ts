@@ -2,7 +2,7 @@
 // label) into parts that each fit one printed page, each part saying where it continues.
 import type { Procedure } from '../model/procedure.ts';
 import { layoutChart, type ChartLayout, type Rect, type Shape } from './chart-layout.ts';
-import { chartLayoutToSvg } from './chart-svg.ts';
+import { chartLayoutToSvg, chartSvgOpening, escapeXml } from './chart-svg.ts';
 import type { StepNumbers } from './step-numbers.ts';
 
 export interface PrintPageBox {
@@ -69,16 +69,24 @@ export function renderChartPrintParts(procedure: Pick<Procedure, 'steps' | 'haza
   return chartLayoutPrintParts(layoutChart(procedure, numbers), title, box);
 }
 
-/** The print parts of a chart already laid out (the page's screen chart uses the same layout). */
-export function chartLayoutPrintParts(layout: ChartLayout, title: string, box: PrintPageBox = defaultPrintBox): ChartPart[] {
+/**
+ * The print parts of a chart already laid out (the page's screen chart uses the same layout). With `shapesId`, the id
+ * of the screen chart's group of shapes on the same page (chartLayoutToSvg), each part shows that group through its
+ * own window instead of holding a copy of the shapes: the page carries the chart's drawing once, not twice.
+ */
+export function chartLayoutPrintParts(layout: ChartLayout, title: string, box: PrintPageBox = defaultPrintBox, shapesId?: string): ChartPart[] {
   const plan = planParts(layout, box);
   if (plan.length < 2) return [];
+  if (shapesId !== undefined) {
+    return plan.map(([y0, y1], i) => ({
+      y0, y1, svg: `${chartSvgOpening(layout.width, y0, y1 - y0, `${title}, part ${i + 1} of ${plan.length}`)}<use href="#${escapeXml(shapesId)}"/></svg>`,
+    }));
+  }
   return plan.map(([y0, y1], i) => {
     const shapes = layout.shapes.filter((s) => intersects(s, y0, y1));
     const svg = chartLayoutToSvg({ width: layout.width, height: layout.height, shapes }, { title: `${title}, part ${i + 1} of ${plan.length}` })
       .replace(`viewBox="0 0 ${layout.width} ${layout.height}"`, `viewBox="0 ${y0} ${layout.width} ${y1 - y0}"`)
-      .replace(`height="${layout.height}"`, `height="${y1 - y0}"`)
-      .replace(/sfc-arrow/g, `sfc-arrow-part${i + 1}`);
+      .replace(`height="${layout.height}"`, `height="${y1 - y0}"`);
     return { y0, y1, svg };
   });
 }

@@ -16,6 +16,8 @@ export interface ChartSvgOptions {
   title: string;
   /** Builds the link target of a step; defaults to the step table row `#step-<id>`. */
   hrefOf?: (stepId: string) => string;
+  /** An id for the group of all its shapes, for other drawings on the page to show by reference (print parts). */
+  shapesId?: string;
 }
 
 export function renderChartSvg(procedure: Pick<Procedure, 'steps' | 'hazards'>, options: ChartSvgOptions, numbers?: StepNumbers): string {
@@ -25,15 +27,19 @@ export function renderChartSvg(procedure: Pick<Procedure, 'steps' | 'hazards'>, 
 export function chartLayoutToSvg(layout: ChartLayout, options: ChartSvgOptions): string {
   const hrefOf = options.hrefOf ?? ((id: string) => `#step-${id}`);
   const parts: string[] = [];
-  parts.push(
-    `<svg xmlns="http://www.w3.org/2000/svg" class="sfc-chart" viewBox="0 0 ${layout.width} ${layout.height}" width="${layout.width}" height="${layout.height}" role="group" aria-label="${escapeXml(options.title)}" font-family="${escapeXml(fontFamily)}" font-size="${chartFont.size}" fill="${ink}">`,
-  );
-  parts.push(`<defs><marker id="sfc-arrow" viewBox="0 0 10 10" refX="5" refY="9" markerWidth="8" markerHeight="8" orient="auto"><path d="M0,0 L10,0 L5,10 z" fill="${ink}"/></marker></defs>`);
+  parts.push(chartSvgOpening(layout.width, 0, layout.height, options.title));
+  if (options.shapesId !== undefined) parts.push(`<g id="${escapeXml(options.shapesId)}">`);
   // Lines first, so boxes and labels paint over line ends.
   for (const s of layout.shapes) if (s.type === 'line' || s.type === 'double' || s.type === 'single') parts.push(drawLine(s));
   for (const s of layout.shapes) if (s.type !== 'line' && s.type !== 'double' && s.type !== 'single') parts.push(drawShape(s, hrefOf));
+  if (options.shapesId !== undefined) parts.push('</g>');
   parts.push('</svg>');
   return parts.join('');
+}
+
+/** The opening tag of a chart drawing that shows chart heights [y0, y0 + height), with the chart's font and ink. */
+export function chartSvgOpening(width: number, y0: number, height: number, title: string): string {
+  return `<svg xmlns="http://www.w3.org/2000/svg" class="sfc-chart" viewBox="0 ${y0} ${width} ${height}" width="${width}" height="${height}" role="group" aria-label="${escapeXml(title)}" font-family="${escapeXml(fontFamily)}" font-size="${chartFont.size}" fill="${ink}">`;
 }
 
 function drawLine(s: Extract<Shape, { type: 'line' | 'double' | 'single' }>): string {
@@ -53,7 +59,9 @@ function drawShape(s: Exclude<Shape, { type: 'line' | 'double' | 'single' }>, hr
       return `<g class="sfc-transition"${s.from ? ` data-from="${escapeXml(s.from)}"` : ''}><line class="sfc-bar" x1="${s.x - 16}" y1="${s.y}" x2="${s.x + 16}" y2="${s.y}" stroke="${ink}" stroke-width="4"/>${text}</g>`;
     }
     case 'jump':
-      return `<g class="sfc-jump" data-target="${escapeXml(s.target)}"><line x1="${s.x}" y1="${s.y - 8}" x2="${s.x}" y2="${s.y + 2}" stroke="${ink}" stroke-width="1.5" marker-end="url(#sfc-arrow)"/><a href="${escapeXml(hrefOf(s.target))}">${jumpHitArea(s.labelRect)}<text x="${s.labelRect.x}" y="${s.labelRect.y + chartFont.line - 5}" font-weight="bold" text-decoration="underline">${escapeXml(s.label)}</text></a></g>`;
+      // The arrowhead is a shape of its own, not a marker: a drawing that shows these shapes by reference (a print
+      // part) draws it too, and it points down the link.
+      return `<g class="sfc-jump" data-target="${escapeXml(s.target)}"><line x1="${s.x}" y1="${s.y - 8}" x2="${s.x}" y2="${s.y - 4}" stroke="${ink}" stroke-width="1.5"/><path class="sfc-arrowhead" d="M${s.x - 5},${s.y - 5} L${s.x + 5},${s.y - 5} L${s.x},${s.y + 2} z" fill="${ink}"/><a href="${escapeXml(hrefOf(s.target))}">${jumpHitArea(s.labelRect)}<text x="${s.labelRect.x}" y="${s.labelRect.y + chartFont.line - 5}" font-weight="bold" text-decoration="underline">${escapeXml(s.label)}</text></a></g>`;
     case 'branch-label':
       return `<text class="sfc-branch" x="${s.rect.x}" y="${s.rect.y + chartFont.small}" font-size="${chartFont.small}" font-style="italic">${escapeXml(s.text)}</text>`;
     case 'end':

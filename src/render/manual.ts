@@ -238,11 +238,13 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
 /** The screen chart and, when a page asks for them (a revision page does not), its print parts, from one layout. */
 function drawChart(p: Procedure, numbers: StepNumbers, steps: number): ChartDrawing {
   const layout = layoutChart(p, numbers);
+  // The print parts show the screen chart's shapes through windows of their own (the page holds them once).
+  const shapesId = `chart-shapes-${slugOf(p.id)}`;
   let printParts: string[] | undefined;
   return {
-    svg: chartLayoutToSvg(layout, { title: `Sequence chart of ${p.id}, ${steps} steps` }),
+    svg: chartLayoutToSvg(layout, { title: `Sequence chart of ${p.id}, ${steps} steps`, shapesId }),
     get printParts() {
-      return (printParts ??= chartLayoutPrintParts(layout, `Sequence chart of ${p.id}`).map((part) => part.svg));
+      return (printParts ??= chartLayoutPrintParts(layout, `Sequence chart of ${p.id}`, undefined, shapesId).map((part) => part.svg));
     },
   };
 }

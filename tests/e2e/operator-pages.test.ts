@@ -401,6 +401,16 @@ describe('printing', () => {
       const all = pages.join('\n');
       expect(all).toContain(`Continued on the next page (part 2 of ${parts})`);
       expect(all).toContain(`continued from the previous page (part ${parts} of ${parts})`);
+      // Each part draws its share of the chart (the parts show the screen chart's shapes by reference): a page that
+      // holds a middle part alone holds more than its margin marks and its two "continued" lines.
+      for (let k = 2; k < parts; k++) {
+        const partPage = pages.find((t) => t.includes(`continued from the previous page (part ${k} of ${parts})`));
+        const drawn = partPage!
+          .replace(/Uncontrolled when printed|Page \d+ of \d+|U2-[A-Z0-9-]+ · Revision \d+ · (Effective|Status) [\w-]+|— printed \d{4}-\d\d-\d\d/g, '')
+          .replace(/Sequence chart of \S+, continued from the previous page \(part \d+ of \d+\)|Continued on the next page \(part \d+ of \d+\)/g, '')
+          .trim();
+        expect(drawn.length, `${slug} ${format}: chart part ${k} draws nothing`).toBeGreaterThan(40);
+      }
     }
   });
 });
