@@ -27,6 +27,19 @@ function publishedSite(): { site: string; cache: string; record: string; keys: M
   return { site, cache, record, keys };
 }
 
+/** A site of the given pages, recorded under `keys`: its folder and its record file. */
+function recordedSite(pages: Array<[string, string]>, keys: Map<string, string>): { site: string; record: string } {
+  const root = tempFolder('stepwright-page-reuse-');
+  const site = join(root, 'site');
+  for (const [path, text] of pages) {
+    mkdirSync(join(site, path, '..'), { recursive: true });
+    writeFileSync(join(site, path), text);
+  }
+  const record = pageRecordPath(join(root, 'cache'), site);
+  writePageRecord(record, site, keys, new Map());
+  return { site, record };
+}
+
 describe('page reuse', () => {
   it('takes over the pages of a procedure whose key is unchanged, with every file under its folder', () => {
     const { site, record, keys } = publishedSite();
@@ -164,15 +177,8 @@ describe('page reuse', () => {
   });
 
   it('keeps tag and rule pages by their own folder, and only the pages under it', () => {
-    const root = tempFolder('stepwright-page-reuse-');
-    const site = join(root, 'site');
-    for (const [path, text] of [['tags/k-210/index.html', '<p>K-210</p>'], ['tags/index.html', '<p>tags</p>'], ['rules/no-exit/index.html', '<p>rule</p>']]) {
-      mkdirSync(join(site, path, '..'), { recursive: true });
-      writeFileSync(join(site, path), text);
-    }
     const keys = new Map([['tags/k-210', 'key-tag'], ['rules/no-exit', 'key-rule'], ['tags/../rules', 'key-odd']]);
-    const record = pageRecordPath(join(root, 'cache'), site);
-    writePageRecord(record, site, keys, new Map());
+    const { site, record } = recordedSite([['tags/k-210/index.html', '<p>K-210</p>'], ['tags/index.html', '<p>tags</p>'], ['rules/no-exit/index.html', '<p>rule</p>']], keys);
     const plan = planReuse(readPageRecord(record, site), keys, site);
     // A folder named with ".." is never recorded; the list of tags beside the tag's folder is not part of it.
     expect([...plan.reused.keys()].sort()).toEqual(['rules/no-exit', 'tags/k-210']);
@@ -183,15 +189,8 @@ describe('page reuse', () => {
   });
 
   it('records a later part of a tag\'s list as a folder of its own, not with the tag\'s page above it', () => {
-    const root = tempFolder('stepwright-page-reuse-');
-    const site = join(root, 'site');
-    for (const [path, text] of [['tags/k-210/index.html', '<p>part 1</p>'], ['tags/k-210/2/index.html', '<p>part 2</p>'], ['tags/k-210/3/index.html', '<p>part 3</p>']]) {
-      mkdirSync(join(site, path, '..'), { recursive: true });
-      writeFileSync(join(site, path), text);
-    }
     const keys = new Map([['tags/k-210', 'key-1'], ['tags/k-210/2', 'key-2'], ['tags/k-210/3', 'key-3']]);
-    const record = pageRecordPath(join(root, 'cache'), site);
-    writePageRecord(record, site, keys, new Map());
+    const { site, record } = recordedSite([['tags/k-210/index.html', '<p>part 1</p>'], ['tags/k-210/2/index.html', '<p>part 2</p>'], ['tags/k-210/3/index.html', '<p>part 3</p>']], keys);
     const all = planReuse(readPageRecord(record, site), keys, site);
     expect(all.reused.get('tags/k-210')!.map((f) => f.path)).toEqual(['tags/k-210/index.html']);
     expect(all.reused.get('tags/k-210/2')!.map((f) => f.path)).toEqual(['tags/k-210/2/index.html']);
