@@ -104,13 +104,21 @@ export function publishSite(staged: string, outDir: string, now = Date.now()): s
  * (by `now`), never the one the output path points at.
  */
 function pruneVersions(outDir: string, now: number): void {
+  for (const name of replacedVersions(outDir, now, keptVersions)) rmSync(join(versionsFolder(outDir), name), { recursive: true, force: true });
+}
+
+/**
+ * The versions older than the newest `keep` whose next version was published `replacedVersionKeptMs` ago or more (by
+ * `now`), never the one the output path points at.
+ */
+function replacedVersions(outDir: string, now: number, keep: number): string[] {
   const inUse = linkedVersion(outDir);
   const all = completeVersions(outDir);
-  for (let i = 0; i < all.length - keptVersions; i++) {
-    const replacedAt = versionTime(all[i + 1]);
-    if (all[i] === inUse || now - replacedAt < replacedVersionKeptMs) continue;
-    rmSync(join(versionsFolder(outDir), all[i]), { recursive: true, force: true });
+  const replaced: string[] = [];
+  for (let i = 0; i < all.length - keep; i++) {
+    if (all[i] !== inUse && now - versionTime(all[i + 1]) >= replacedVersionKeptMs) replaced.push(all[i]);
   }
+  return replaced;
 }
 
 /**
@@ -124,14 +132,12 @@ function pruneVersions(outDir: string, now: number): void {
  */
 export function startRetiring(outDir: string, now = Date.now()): Promise<void> {
   const versions = versionsFolder(outDir);
-  const inUse = linkedVersion(outDir);
-  const all = completeVersions(outDir);
   const retired: string[] = [];
-  for (let i = 0; i < all.length - 1; i++) {
-    if (all[i] === inUse || now - versionTime(all[i + 1]) < replacedVersionKeptMs) continue;
-    const to = join(versions, `retired-${process.pid}-${all[i]}`);
+  // Before publishing, the newest version is the one a publication would keep besides its own.
+  for (const name of replacedVersions(outDir, now, keptVersions - 1)) {
+    const to = join(versions, `retired-${process.pid}-${name}`);
     try {
-      renameSync(join(versions, all[i]), to);
+      renameSync(join(versions, name), to);
       retired.push(to);
     } catch {
       // Another build took it first; publishing removes what is left.
@@ -148,9 +154,6 @@ export function startRetiring(outDir: string, now = Date.now()): Promise<void> {
     if (pid && pid !== process.pid && !isAlive(pid)) retired.push(join(versions, name));
   }
   if (!retired.length) return Promise.resolve();
-  const removeHere = () => {
-    for (const folder of retired) rmSync(folder, { recursive: true, force: true });
-  };
   return new Promise((done) => {
     let worker: Worker;
     try {
@@ -158,7 +161,7 @@ export function startRetiring(outDir: string, now = Date.now()): Promise<void> {
 for (const folder of require('node:worker_threads').workerData) rmSync(folder, { recursive: true, force: true });`, { eval: true, workerData: retired });
     } catch {
       // No thread: removed here, as publishing did before.
-      removeHere();
+      for (const folder of retired) rmSync(folder, { recursive: true, force: true });
       done();
       return;
     }
