@@ -8,6 +8,7 @@ import type { Diagnostic, SourceRange } from './diagnostic.ts';
 import { splitFrontMatter } from './split-front-matter.ts';
 import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesting-prescan.ts';
 import { groupDigits } from './group-digits.ts';
+import { quickYamlData } from './fast-yaml.ts';
 import { locateIn, positionTable, type PathKey, type PositionTable } from './yaml-positions.ts';
 
 export type { PathKey, PositionTable } from './yaml-positions.ts';
@@ -91,9 +92,12 @@ export function readSource(file: string, text: string, given?: ReadParts, positi
   return assemble(file, text, where, parts);
 }
 
-/** The parts of a file as readSource reads them, for sending to another thread. */
-export function readSourceParts(file: string, text: string): SourceParts {
-  return readParts(file, text, positionsIn(text), true) as SourceParts;
+/**
+ * The parts of a file as readSource reads them, for sending to another thread: with the table of positions, except
+ * for a front-matter read without a document of nodes (the table is then made when a position is first asked for).
+ */
+export function readSourceParts(file: string, text: string): ReadParts {
+  return readParts(file, text, positionsIn(text), true);
 }
 
 /** Parts whose table of positions may be left to be made when first asked for (undefined). */
@@ -187,6 +191,10 @@ function readParts(file: string, text: string, { split, at, bodyStartLine }: Ret
       });
     }
     const yamlText = tooDeep ? '' : split.yaml;
+    // Most front-matters are read first without a document of nodes (fast-yaml.ts); the table of positions is then
+    // made when a position is first asked for (for a file with a finding; never for a clean one).
+    const quick = tooDeep ? undefined : quickYamlData(yamlText);
+    if (quick) return quickParts(file, quick.data, body, diagnostics, split, at, yamlText);
     doc = parseDocument(yamlText, { lineCounter, ...documentOptions });
     const yamlLineOffset = fileLines(split.yamlOffset).line - 1;
     // Only the first error: later ones are nearly always knock-on effects of it.
@@ -227,6 +235,21 @@ function readParts(file: string, text: string, { split, at, bodyStartLine }: Ret
     return { data, body, diagnostics, yamlText, positions: tableNow ? positionTable(doc) : undefined };
   }
   return { data, body, diagnostics, yamlText: null, positions: null };
+}
+
+/** The parts of a front-matter read without a document of nodes: the same checks of depth and shape. */
+function quickParts(file: string, data: unknown, body: Root, diagnostics: Diagnostic[], split: Split, at: At, yamlText: string): ReadParts {
+  if (plainDepth(data, limits.maxDepth) > limits.maxDepth) {
+    diagnostics.push({
+      file, ...at(split.yamlOffset), severity: 'error', rule: 'yaml-syntax',
+      message: `The front-matter nests deeper than ${limits.maxDepth} levels; it was not read.`,
+      hint: 'A procedure needs only a few levels of nesting. Flatten the blocks or split the procedure.',
+    });
+    return { data: null, body, diagnostics, yamlText, positions: undefined };
+  }
+  const notMapping = diagnostics.some((d) => d.rule === 'yaml-syntax') ? null : frontMatterShapeProblem(data, split.yaml!, split.body);
+  if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
+  return { data, body, diagnostics, yamlText, positions: undefined };
 }
 
 /**
@@ -310,6 +333,23 @@ function trimTrailingSpace(text: string, start: number, end: number): number {
   let e = end;
   while (e > start && /\s/.test(text[e - 1] ?? '')) e--;
   return e;
+}
+
+/**
+ * How deep plain data nests, counted as maxDepth counts the document's nodes (the top value is level 1; a scalar in
+ * a mapping is one level below it).
+ */
+function plainDepth(value: unknown, limit: number): number {
+  let deepest = 0;
+  const stack: Array<[unknown, number]> = [[value, 1]];
+  while (stack.length > 0) {
+    const [current, depth] = stack.pop()!;
+    if (depth > deepest) deepest = depth;
+    if (deepest > limit) return deepest;
+    if (Array.isArray(current)) for (const item of current) stack.push([item, depth + 1]);
+    else if (current !== null && typeof current === 'object') for (const item of Object.values(current)) stack.push([item, depth + 1]);
+  }
+  return deepest;
 }
 
 function maxDepth(node: unknown, limit: number): number {

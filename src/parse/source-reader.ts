@@ -11,11 +11,11 @@
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { MessageChannel, receiveMessageOnPort, Worker, type MessagePort } from 'node:worker_threads';
-import { partsFromBytes, type PositionTable, type SourceParts } from './read-source.ts';
+import { partsFromBytes, type PositionTable, type ReadParts } from './read-source.ts';
 
 /** What the thread read from a file: its parts, and the same parts (without the table of positions) as bytes. */
 export interface ReadAhead {
-  parts: SourceParts;
+  parts: ReadParts;
   bytes: Uint8Array;
 }
 
@@ -101,10 +101,10 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
     void worker!.terminate();
   };
   worker.on('error', stop);
-  const read = new Map<number, { bytes: Uint8Array | null; positions: PositionTable | null }>();
+  const read = new Map<number, { bytes: Uint8Array | null; positions: PositionTable | null | undefined }>();
   const receive = () => {
     for (let message = receiveMessageOnPort(port!); message; message = receiveMessageOnPort(port!)) {
-      const [i, bytes, positions] = message.message as [number, Uint8Array | null, PositionTable | null];
+      const [i, bytes, positions] = message.message as [number, Uint8Array | null, PositionTable | null | undefined];
       read.set(i, { bytes, positions });
     }
   };

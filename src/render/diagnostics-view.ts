@@ -27,8 +27,9 @@ export interface DiagnosticsView {
 export function buildDiagnosticsView(
   file: { file: string; diagnostics: Diagnostic[]; source: ParsedSource | null; procedure: Pick<Procedure, 'steps'> | null },
 ): DiagnosticsView {
-  // Each step's line span in the file; nested steps are narrower, so the narrowest span wins.
-  const spans = file.procedure && file.source
+  // Each step's line span in the file; nested steps are narrower, so the narrowest span wins. Only asked for when
+  // there is something to place: a position may mean reading the front-matter again (parse/read-source.ts).
+  const spans = file.procedure && file.source && file.diagnostics.some((d) => d.file === file.file)
     ? walkSteps(file.procedure.steps).map(({ step }) => ({ id: step.id, ...file.source!.rangeOf(step.path) }))
     : [];
   const stepAt = (line: number) => spans

@@ -1,0 +1,124 @@
+// The quick reading of a front-matter's data must answer exactly as the YAML library that keeps positions would, or
+// not answer at all: it is compared with that library on the demo front-matters, on many altered copies of them, and
+// on the forms each of its refusals is there for.
+import { readdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { isDeepStrictEqual } from 'node:util';
+import fc from 'fast-check';
+import { parseDocument } from 'yaml';
+import { describe, expect, it } from 'vitest';
+import { quickYamlData } from '../../src/parse/fast-yaml.ts';
+import { splitFrontMatter } from '../../src/parse/split-front-matter.ts';
+import { readSourceParts } from '../../src/parse/read-source.ts';
+
+const root = join(import.meta.dirname, '../..');
+
+function markdownFiles(dir: string): string[] {
+  return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
+    const path = join(dir, e.name);
+    if (e.isDirectory()) return markdownFiles(path);
+    return e.name.endsWith('.md') ? [path] : [];
+  });
+}
+
+const demoFiles = markdownFiles(join(root, 'procedures'));
+const frontMatters = demoFiles.map((f) => splitFrontMatter(readFileSync(f, 'utf8')).yaml).filter((y): y is string => y !== null);
+
+/** What the positions library reads: its data, or its first error. Read as the checker reads every front-matter. */
+function reference(text: string): { data: unknown } | { error: string } {
+  const doc = parseDocument(text, { prettyErrors: false, uniqueKeys: true, strict: true });
+  return doc.errors.length ? { error: doc.errors[0].message } : { data: doc.toJS({ maxAliasCount: 100 }) ?? null };
+}
+
+/** The quick reading either says nothing, or says what the reference reads, and the reference finds no error. */
+function agrees(text: string): boolean {
+  const quick = quickYamlData(text);
+  if (quick === undefined) return true;
+  const ref = reference(text);
+  return 'data' in ref && isDeepStrictEqual(ref.data, quick.data);
+}
+
+/** Bits of YAML that the two libraries read differently, or that make a front-matter wrong, put in by the alterations. */
+const pieces = [
+  '!', '&a ', '*a', '? ', '- ', ': ', '#', '"', "'", '|', '>', '\t', ' ', '  ', '\n', '[', ']', '{', '}', ',', '%',
+  '`', 'null', '~', '0x1F', '0o17', '1_000', '0b101', '.5', '1e3', '+1', 'yes', 'True', 'tRue', '\\', '\r\n', '\r',
+  '...', '---', '<<: ', '\u00a0', '\ufeff', '"a\\', ': |-\n  x', 'x: y: z', '- - ', 'a:b', ':', '  |+\n', '"\\x41"',
+  "'it''s'", '"\\u00e9"', '  # c', '-1', '0.', '.', '-.inf', '.NaN', '1e', '1E+3', '0o8', '0X1F', 'NULL', "''", '""',
+  '\n  ', '\n    ', '\n- ', '\n  - ', 'a: >\n   b\n  c', ' - ', '\u2028', '\u0085', '\x00', '=', "'x\n\n y'", '#x',
+  ' #x', '- # c\n  a', '1:', '"a": ', '2026-01-01', '12:30', '0777', '-0', '.e3', '__proto__: 1', '{a: [b]}', '[a, b]: c',
+];
+
+/** One alteration: put a piece in, cut a few characters out, or put a piece in place of the rest of a line. */
+const alteration = fc.tuple(fc.nat(), fc.integer({ min: 0, max: 2 }), fc.nat({ max: pieces.length - 1 }), fc.integer({ min: 1, max: 5 }));
+
+function alter(text: string, [where, how, piece, cut]: [number, number, number, number]): string {
+  const at = where % (text.length + 1);
+  if (how === 0) return text.slice(0, at) + pieces[piece] + text.slice(at);
+  if (how === 1) return text.slice(0, at) + text.slice(at + cut);
+  const lineEnd = text.indexOf('\n', at);
+  return text.slice(0, at) + pieces[piece] + (lineEnd < 0 ? '' : text.slice(lineEnd));
+}
+
+describe('quickYamlData', () => {
+  it('reads every demo front-matter, and reads it as the positions library does', () => {
+    expect(frontMatters.length).toBeGreaterThan(5);
+    for (const text of frontMatters) {
+      const quick = quickYamlData(text);
+      expect(quick).toBeDefined();
+      expect(quick!.data).toEqual((reference(text) as { data: unknown }).data);
+    }
+  });
+
+  it('never answers otherwise than the positions library, on altered demo front-matters (property)', () => {
+    let answered = 0;
+    fc.assert(fc.property(fc.nat({ max: frontMatters.length - 1 }), fc.array(alteration, { minLength: 1, maxLength: 4 }), (which, alterations) => {
+      const text = alterations.reduce(alter, frontMatters[which]);
+      if (quickYamlData(text)) answered++;
+      expect(agrees(text)).toBe(true);
+    }), { numRuns: 1000 });
+    // Most small alterations are still read quickly: the refusals are not so broad that the quick path is never taken.
+    expect(answered).toBeGreaterThan(100);
+  });
+
+  it('never answers otherwise than the positions library, on generated YAML (property)', () => {
+    const scalar = fc.oneof(fc.constantFrom(...pieces), fc.string({ maxLength: 8 }), fc.constantFrom('a', 'b c', '12', '1.5', 'true', 'x: y'));
+    const line = fc.tuple(fc.integer({ min: 0, max: 6 }), fc.constantFrom('', '- ', 'k: ', 'key: ', '- k: ', '"q": ', '- - ', 'k: |', 'k: >-', '-', 'k:', "'s': ", '[', '{k: '), scalar)
+      .map(([indent, lead, value]) => ' '.repeat(indent) + lead + value);
+    fc.assert(fc.property(fc.array(line, { minLength: 1, maxLength: 8 }), (lines) => {
+      expect(agrees(lines.join('\n'))).toBe(true);
+    }), { numRuns: 10000 });
+  });
+
+  it('reads plain scalars with the YAML 1.2 core schema, not the wider one of YAML 1.1', () => {
+    // Source: YAML 1.2.2 specification, 10.3.2 "Tag Resolution" (core schema: null, bool, int base 8/10/16, float).
+    expect(quickYamlData('a: ~\nb: Null\nc: true\nd: 0o17\ne: 0x1F\nf: -12\ng: 1.5e3\nh: .inf\ni: -.Inf')?.data).toEqual({
+      a: null, b: null, c: true, d: 15, e: 31, f: -12, g: 1500, h: Infinity, i: -Infinity,
+    });
+    // Forms YAML 1.1 reads as numbers and booleans are strings in 1.2.
+    expect(quickYamlData('a: 1_000\nb: 0b101\nc: yes\nd: 0777\ne: 12:30')?.data).toEqual({ a: '1_000', b: '0b101', c: 'yes', d: 777, e: '12:30' });
+    expect(Number.isNaN((quickYamlData('a: .nan')?.data as { a: number }).a)).toBe(true);
+  });
+
+  it('leaves to the positions library what the two may read differently', () => {
+    const refused = [
+      'a: !tag b', 'a: &x b\nc: *x', '%YAML 1.2\n---\na: b', '? a\n: b', '[a, b]: c', '{a: 1, [b]: 2}',
+      'a:\n- - b\n  - c', 'a:\n  -\n   b', 'a: "b"#c', '---\na: b', 'a:\tb', 'a: b\rc: d', 'a: [b,\n c]', 'a: "b\n c"',
+      'null: a', '~: a', '__proto__: a', ': a', 'a:\n - # c\n- b', 'a: |+\n\n  ', 'a: "b\\\n c"',
+    ];
+    for (const text of refused) expect(quickYamlData(text), text).toBeUndefined();
+  });
+
+  it('gives no answer for a front-matter with an error, so that the error is the positions library\'s own', () => {
+    for (const text of ['a: b\na: c', 'a: [b', 'a: b: c', '  a: b\n c: d', 'a: "b']) {
+      expect(quickYamlData(text), text).toBeUndefined();
+      expect('error' in reference(text)).toBe(true);
+    }
+  });
+
+  it('is how a clean demo procedure is read: its parts leave the table of positions to be made when asked for', () => {
+    const text = readFileSync(demoFiles[0], 'utf8');
+    const parts = readSourceParts(demoFiles[0], text);
+    expect(parts.positions).toBeUndefined();
+    expect(parts.data).toEqual((reference(splitFrontMatter(text).yaml!) as { data: unknown }).data);
+  });
+});
