@@ -1,12 +1,12 @@
 // Runs every rule over a set of procedure sources and returns the diagnostics, sorted by place.
 import { compareDiagnostics, type Diagnostic, type Severity } from '../parse/diagnostic.ts';
 import { partsFromBytes, partsToBytes, readSource, type ParsedSource, type ReadParts } from '../parse/read-source.ts';
-import { startSourceReader, type SourceReader } from '../parse/source-reader.ts';
+import { startSourceReader, type SourceReader } from '../read/source-reader.ts';
 import type { Procedure } from '../model/procedure.ts';
 import type { PlantRegister } from '../model/register.ts';
 import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
 import { forgetRuleAnalysesOf } from '../analysis/rule-memo.ts';
-import { readProcedure } from '../read/read-procedure.ts';
+import { readProcedure, type GivenReading } from '../read/read-procedure.ts';
 import { toDiagnostic, type FileContext, type FileHistory, type FileRule, type Report, type Rule, type RuleMeta } from './define-rule.ts';
 import { expandCalls, expansionCategories, type RawFinding } from './call-expansion.ts';
 import { applyWaivers, type WaivedDiagnostic } from './waivers.ts';
@@ -99,7 +99,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   // rule, a waiver or a caller asks for its model.
   const keys: string[] = [];
   const toCheck: LazyFileContext[] = [];
-  // A large run's files are read on a thread of their own as well (parse/source-reader.ts), in the order below.
+  // A large run's files are read on a thread of their own as well (read/source-reader.ts), in the order below.
   const toRead: Array<{ file: string; text: string }> = [];
   // Files the cache answered for, in order: read only should the cross-file rules run.
   const answered: Array<{ file: string; text: string }> = [];
@@ -117,14 +117,14 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     toKeep.delete(file);
     store!.setBytes(key, bytes);
   };
-  const partsOf = (file: string): ReadParts | undefined => {
+  const partsOf = (file: string): GivenReading | undefined => {
     const key = kept.get(file);
     const bytes = key === undefined ? undefined : store!.getBytes(key);
     const parts = bytes && partsFromBytes(bytes);
-    if (parts) return parts;
+    if (parts) return { parts };
     const ahead = reader?.take(file);
     if (ahead) keep(file, ahead.bytes);
-    return ahead?.parts;
+    return ahead && { parts: ahead.parts, schemaIssues: ahead.schemaIssues };
   };
   const onRead = (file: string, parts: ReadParts) => {
     if (toKeep.has(file)) keep(file, partsToBytes(parts));
@@ -396,7 +396,7 @@ function readyAhead(rule: FileRule, context: FileContext): boolean {
 
 function lazyFileContext(
   input: SourceInput, previous: { text: string; commit: string } | undefined, options: CheckOptions, report: (r: Report) => void, full: boolean,
-  partsOf?: (file: string) => ReadParts | undefined, onRead?: (file: string, parts: ReadParts) => void,
+  partsOf?: (file: string) => GivenReading | undefined, onRead?: (file: string, parts: ReadParts) => void,
 ): LazyFileContext {
   let read: (ReturnType<typeof readProcedure> & { readError?: string }) | undefined;
   const reading = () => {

@@ -1,22 +1,29 @@
 // Reads procedure files on a thread of its own while the main thread builds their models and checks them: a large
-// run's reading (YAML with positions, the markdown body) is split between two cores. The thread reads the files in
-// the order the main thread will ask for them. Each file is claimed once, by whichever gets to it first: a file the
-// thread has not started when asked is read on the main thread (the thread then passes over it), and one it is
-// reading is waited for. So the main thread may also take files from the other end of the list and meet the thread
-// in the middle (check/run-checks.ts does, for the files the cache answered for). What the thread sends is plain
-// data: the parts as bytes (partsToBytes, which the caller may keep between runs) and their table of positions; the
-// main thread reads a file's YAML document again only when a position in it is asked for.
+// run's reading (YAML with positions, the markdown body, the schema's check of the data) is split between two cores.
+// The thread reads the files in the order the main thread will ask for them. Each file is claimed once, by whichever
+// gets to it first: a file the thread has not started when asked is read on the main thread (the thread then passes
+// over it), and one it is reading is waited for. So the main thread may also take files from the other end of the
+// list and meet the thread in the middle (check/run-checks.ts does, for the files the cache answered for). What the
+// thread sends is plain data (read/read-on-thread.ts): the parts as bytes (partsToBytes, which the caller may keep
+// between runs), their table of positions and the schema's findings; the main thread reads a file's YAML document
+// again only when a position in it is asked for.
 // Anything that goes wrong with the thread only means the main thread reads the file itself: the answers are the
 // same either way.
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { MessageChannel, receiveMessageOnPort, Worker, type MessagePort } from 'node:worker_threads';
-import { partsFromBytes, type PositionTable, type ReadParts } from './read-source.ts';
+import { partsFromBytes, type ReadParts } from '../parse/read-source.ts';
+import type { SchemaIssue } from '../model/validate.ts';
+import type { ReadOnThread } from './read-on-thread.ts';
 
-/** What the thread read from a file: its parts, and the same parts (without the table of positions) as bytes. */
+/**
+ * What the thread read from a file: its parts, the same parts (without the table of positions) as bytes, and what the
+ * procedure schema finds in their data (undefined when the data is not a mapping of keys).
+ */
 export interface ReadAhead {
   parts: ReadParts;
   bytes: Uint8Array;
+  schemaIssues: SchemaIssue[] | undefined;
 }
 
 export interface SourceReader {
@@ -35,7 +42,7 @@ export const readerThreshold = 100;
 function readingModule(): string | undefined {
   // Compiled first; in a checkout, where nothing is compiled, the source (Node strips its types).
   for (const extension of ['js', 'ts']) {
-    const url = new URL(`../parse/read-source.${extension}`, import.meta.url);
+    const url = new URL(`../read/read-on-thread.${extension}`, import.meta.url);
     if (existsSync(fileURLToPath(url))) return url.href;
   }
   return undefined;
@@ -51,14 +58,13 @@ const threadSource = `
 const { workerData } = require('node:worker_threads');
 const { files, url, claims, port } = workerData;
 const claim = new Int32Array(claims);
-import(url).then(({ readSourceParts, partsToBytes }) => {
+import(url).then(({ readOnThread }) => {
   for (let i = 0; i < files.length; i++) {
     // The main thread has taken this file itself.
     if (Atomics.compareExchange(claim, i, ${free}, ${thread}) !== ${free}) continue;
-    let message = [i, null, null];
+    let message = [i, null];
     try {
-      const parts = readSourceParts(files[i].file, files[i].text);
-      message = [i, partsToBytes(parts), parts.positions];
+      message = [i, readOnThread(files[i].file, files[i].text)];
     } catch {
       // The main thread reads it and reports what went wrong.
     }
@@ -101,11 +107,11 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
     void worker!.terminate();
   };
   worker.on('error', stop);
-  const read = new Map<number, { bytes: Uint8Array | null; positions: PositionTable | null | undefined }>();
+  const read = new Map<number, ReadOnThread | null>();
   const receive = () => {
     for (let message = receiveMessageOnPort(port!); message; message = receiveMessageOnPort(port!)) {
-      const [i, bytes, positions] = message.message as [number, Uint8Array | null, PositionTable | null | undefined];
-      read.set(i, { bytes, positions });
+      const [i, got] = message.message as [number, ReadOnThread | null];
+      read.set(i, got);
     }
   };
   return {
@@ -121,8 +127,8 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
       const got = read.get(index);
       read.delete(index);
       // Undefined when the thread could not read it: read here, and report what goes wrong.
-      const parts = got?.bytes ? partsFromBytes(got.bytes) : undefined;
-      return parts ? { parts: { ...parts, positions: got!.positions }, bytes: got!.bytes! } : undefined;
+      const parts = got ? partsFromBytes(got[0]) : undefined;
+      return parts ? { parts: { ...parts, positions: got![1] }, bytes: got![0], schemaIssues: got![2] } : undefined;
     },
     readAhead() {
       if (!running) return 0;

@@ -2,7 +2,8 @@
 // check that uses it finds exactly what a check without it finds.
 import { describe, expect, it } from 'vitest';
 import { readSource, readSourceParts } from '../../src/parse/read-source.ts';
-import { readerThreshold, startSourceReader } from '../../src/parse/source-reader.ts';
+import { readerThreshold, startSourceReader } from '../../src/read/source-reader.ts';
+import { validateFrontMatter } from '../../src/model/validate.ts';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
 import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
 import { openResultCache } from '../../src/check/result-cache.ts';
@@ -10,12 +11,14 @@ import { tempFolder } from '../temp-folder.ts';
 
 const demo = readProcedureFiles(['procedures'], process.cwd()).flatMap((i) => ('text' in i ? [i] : []));
 
-/** Copies of the demo manual with their own ids (and, in every other copy, a vague step to report). */
+/** Copies of the demo manual with their own ids (and, in every other copy, a vague step to report; in every fifth, a key the schema does not know). */
 function copies(count: number): Array<{ file: string; text: string }> {
   return Array.from({ length: count }, (_, n) => {
     const { file, text } = demo[n % demo.length];
-    const copy = text.replace(/\bU2-/g, `C${Math.floor(n / demo.length)}-U2-`);
-    return { file: `copy-${n}/${file}`, text: n % 2 ? copy.replace(/\bdo: /, 'do: Adjust the valve as required. ') : copy };
+    let copy = text.replace(/\bU2-/g, `C${Math.floor(n / demo.length)}-U2-`);
+    if (n % 2) copy = copy.replace(/\bdo: /, 'do: Adjust the valve as required. ');
+    if (n % 5 === 0) copy = copy.replace(/^id: /m, 'colour: red\nid: ');
+    return { file: `copy-${n}/${file}`, text: copy };
   });
 }
 
@@ -35,11 +38,16 @@ describe('source reader', () => {
     while (reader.readAhead() < 20 && Date.now() < deadline) await sleep(50);
     expect(reader.readAhead()).toBeGreaterThanOrEqual(20);
     let taken = 0;
+    let withIssues = 0;
     for (const { file, text } of files) {
-      const parts = reader.take(file)?.parts;
-      if (!parts) continue;
+      const ahead = reader.take(file);
+      if (!ahead) continue;
+      const parts = ahead.parts;
       taken++;
       expect(parts).toEqual(readSourceParts(file, text));
+      // The schema's findings are those of the data read here.
+      expect(ahead.schemaIssues).toEqual(validateFrontMatter(readSourceParts(file, text).data));
+      if (ahead.schemaIssues!.length) withIssues++;
       const here = readSource(file, text);
       const there = readSource(file, text, parts);
       expect(there.data).toEqual(here.data);
@@ -51,6 +59,7 @@ describe('source reader', () => {
       }
     }
     expect(taken).toBeGreaterThan(0);
+    if (taken >= 10) expect(withIssues).toBeGreaterThan(0);
     expect(reader.take('not-a-file.md')).toBeUndefined();
     reader.stop();
     expect(reader.take(files[files.length - 1].file)).toBeUndefined();
