@@ -5,7 +5,7 @@
 //
 // The two libraries must never disagree, so this reading answers only for what both read the same way, and says
 // "not here" (undefined) for everything else, which is then read by `yaml` as before:
-// - any error (the errors a user sees, and where, are always `yaml`'s own);
+// - any error (the errors a user sees, and where, are always `yaml`'s own), and nesting deeper than 100 levels;
 // - tags, anchors, aliases, directives and explicit keys ("?"), where the two schemas and limits differ;
 // - keys whose text differs between the two (a null key, a collection as a key, `__proto__`).
 // Plain scalars are resolved with `yaml`'s own YAML 1.2 core schema (copied below), not with js-yaml's, which
@@ -119,6 +119,15 @@ function flowAcrossLines(text: string): boolean {
   return depth > 0;
 }
 
+/**
+ * Deeper front-matters are left to `yaml` (js-yaml stops with an error): the check's own limit of 200 levels, and its
+ * message, are then `yaml`'s reading's (parse/read-source.ts).
+ */
+const quickDepthLimit = 100;
+
+/** How js-yaml reads (its maxDepth option is newer than its published types). */
+const loadOptions = { schema, json: false, maxDepth: quickDepthLimit };
+
 /** Keys js-yaml and `yaml` write differently into plain data. */
 const keysReadDifferently = new Set(['', '~', 'null', 'Null', 'NULL', '__proto__']);
 
@@ -133,7 +142,7 @@ export function quickYamlData(text: string): { data: unknown } | undefined {
   }
   let data: unknown;
   try {
-    data = load(text, { schema, json: false });
+    data = load(text, loadOptions);
   } catch {
     return undefined;
   }

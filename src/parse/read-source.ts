@@ -237,16 +237,11 @@ function readParts(file: string, text: string, { split, at, bodyStartLine }: Ret
   return { data, body, diagnostics, yamlText: null, positions: null };
 }
 
-/** The parts of a front-matter read without a document of nodes: the same checks of depth and shape. */
+/**
+ * The parts of a front-matter read without a document of nodes: the same check of shape. (Nothing nested deeper than
+ * the limit is read so: fast-yaml.ts leaves it to `yaml`, which reports it.)
+ */
 function quickParts(file: string, data: unknown, body: Root, diagnostics: Diagnostic[], split: Split, at: At, yamlText: string): ReadParts {
-  if (plainDepth(data, limits.maxDepth) > limits.maxDepth) {
-    diagnostics.push({
-      file, ...at(split.yamlOffset), severity: 'error', rule: 'yaml-syntax',
-      message: `The front-matter nests deeper than ${limits.maxDepth} levels; it was not read.`,
-      hint: 'A procedure needs only a few levels of nesting. Flatten the blocks or split the procedure.',
-    });
-    return { data: null, body, diagnostics, yamlText, positions: undefined };
-  }
   const notMapping = diagnostics.some((d) => d.rule === 'yaml-syntax') ? null : frontMatterShapeProblem(data, split.yaml!, split.body);
   if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
   return { data, body, diagnostics, yamlText, positions: undefined };
@@ -333,23 +328,6 @@ function trimTrailingSpace(text: string, start: number, end: number): number {
   let e = end;
   while (e > start && /\s/.test(text[e - 1] ?? '')) e--;
   return e;
-}
-
-/**
- * How deep plain data nests, counted as maxDepth counts the document's nodes (the top value is level 1; a scalar in
- * a mapping is one level below it).
- */
-function plainDepth(value: unknown, limit: number): number {
-  let deepest = 0;
-  const stack: Array<[unknown, number]> = [[value, 1]];
-  while (stack.length > 0) {
-    const [current, depth] = stack.pop()!;
-    if (depth > deepest) deepest = depth;
-    if (deepest > limit) return deepest;
-    if (Array.isArray(current)) for (const item of current) stack.push([item, depth + 1]);
-    else if (current !== null && typeof current === 'object') for (const item of Object.values(current)) stack.push([item, depth + 1]);
-  }
-  return deepest;
 }
 
 function maxDepth(node: unknown, limit: number): number {

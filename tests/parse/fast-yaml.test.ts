@@ -9,7 +9,7 @@ import { parseDocument } from 'yaml';
 import { describe, expect, it } from 'vitest';
 import { quickYamlData } from '../../src/parse/fast-yaml.ts';
 import { splitFrontMatter } from '../../src/parse/split-front-matter.ts';
-import { readSourceParts } from '../../src/parse/read-source.ts';
+import { readSource, readSourceParts } from '../../src/parse/read-source.ts';
 
 const root = join(import.meta.dirname, '../..');
 
@@ -106,6 +106,14 @@ describe('quickYamlData', () => {
       'null: a', '~: a', '__proto__: a', ': a', 'a:\n - # c\n- b', 'a: |+\n\n  ', 'a: "b\\\n c"',
     ];
     for (const text of refused) expect(quickYamlData(text), text).toBeUndefined();
+  });
+
+  it('leaves deep nesting to the positions library, whose reading reports past 200 levels', () => {
+    const nested = (levels: number) => `id: a\nx: ${'['.repeat(levels)}1${']'.repeat(levels)}`;
+    expect(quickYamlData(nested(20))).toBeDefined();
+    expect(quickYamlData(nested(150))).toBeUndefined();
+    const source = readSource('deep.md', `---\n${nested(250)}\n---\n`, undefined, 'now');
+    expect(source.diagnostics.map((d) => d.message)).toEqual(['The front-matter nests deeper than 200 levels; it was not read.']);
   });
 
   it('gives no answer for a front-matter with an error, so that the error is the positions library\'s own', () => {
