@@ -173,7 +173,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   if (!knownManual) {
     toRead.push(...answered);
   }
-  reader = options.readAhead === false ? undefined : startSourceReader(toRead);
+  reader = startSourceReader(options.readAhead === false ? [] : toRead);
   // Work the rules can start ahead (the English model tags on its own thread) is started for the first files before
   // any rule runs, and then for each file a stretch ahead of the one being checked: it goes on while the rules check,
   // and a large run neither reads every file at once to start it nor holds every file's prose until its rules run.

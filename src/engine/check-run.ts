@@ -17,6 +17,7 @@ import { commandCache } from './command-cache.ts';
 import { isNotAProcedure, notAProcedureReason } from './not-a-procedure.ts';
 import { previousFromGit, repoPath as repoRelative, type Repository } from './repository.ts';
 import { proceduresFolder } from './project.ts';
+import { readerThreshold, warmSourceReader } from '../read/source-reader.ts';
 
 export type { SourceInput } from '../check/run-checks.ts';
 
@@ -83,6 +84,9 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     : [proceduresFolder(request, { procedures: request.procedures, config: request.config })];
   const found = await findWithStdin(paths, request);
   request.sized?.(found.length);
+  // A large run reads its files on a second thread too (read/source-reader.ts): it starts now, to load its code
+  // while this thread reads the files, the configuration and the register.
+  if (found.length >= readerThreshold) warmSourceReader();
   const partial = request.paths?.length ? manualLeftOut(request, found) : undefined;
   const skipped: SkippedFile[] = [];
   const inputs: SourceInput[] = [];

@@ -54,32 +54,73 @@ const thread = 1;
 const main = 2;
 const sent = 3;
 
+// The thread starts loading the reading code at once, and reads once it is given the files.
 const threadSource = `
-const { workerData } = require('node:worker_threads');
-const { files, url, claims, port } = workerData;
-const claim = new Int32Array(claims);
-import(url).then(({ readOnThread }) => {
-  for (let i = 0; i < files.length; i++) {
-    // The main thread has taken this file itself.
-    if (Atomics.compareExchange(claim, i, ${free}, ${thread}) !== ${free}) continue;
-    let message = [i, null];
-    try {
-      message = [i, readOnThread(files[i].file, files[i].text)];
-    } catch {
-      // The main thread reads it and reports what went wrong.
+const { workerData, parentPort } = require('node:worker_threads');
+const loading = import(workerData.url);
+parentPort.once('message', ({ files, claims, port }) => {
+  const claim = new Int32Array(claims);
+  loading.then(({ readOnThread }) => {
+    for (let i = 0; i < files.length; i++) {
+      // The main thread has taken this file itself.
+      if (Atomics.compareExchange(claim, i, ${free}, ${thread}) !== ${free}) continue;
+      let message = [i, null];
+      try {
+        message = [i, readOnThread(files[i].file, files[i].text)];
+      } catch {
+        // The main thread reads it and reports what went wrong.
+      }
+      port.postMessage(message);
+      Atomics.store(claim, i, ${sent});
+      Atomics.notify(claim, i);
     }
-    port.postMessage(message);
-    Atomics.store(claim, i, ${sent});
-    Atomics.notify(claim, i);
-  }
-}, () => port.close());
+  }, () => port.close());
+});
 `;
+
+/** A thread started ahead (warmSourceReader), loading the reading code while the files are found and read. */
+let warmed: Worker | undefined;
+
+function newThread(url: string): Worker | undefined {
+  try {
+    const worker = new Worker(threadSource, { eval: true, workerData: { url } });
+    // It never keeps the process alive.
+    worker.unref();
+    return worker;
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * Starts the thread ahead of the files, for a run that will read many: loading the reading code takes the thread
+ * about half a second, which it then spends while the main thread reads the files, the configuration and the register.
+ * startSourceReader gives it the files, or ends it when the run reads too few after all.
+ */
+export function warmSourceReader(): void {
+  const url = readingModule();
+  if (warmed || !url) return;
+  warmed = newThread(url);
+  const worker = warmed;
+  worker?.on('error', () => {
+    if (warmed === worker) warmed = undefined;
+  });
+}
+
+/** The thread started ahead, if any, taken for a run; ended when the run does not need it. */
+function takeWarmed(needed: boolean): Worker | undefined {
+  const worker = warmed;
+  warmed = undefined;
+  if (worker && !needed) void worker.terminate();
+  return needed ? worker : undefined;
+}
 
 /** The longest the main thread waits for a file the thread is reading before it reads the file itself. */
 const longestWaitMs = 2000;
 
 export function startSourceReader(files: Array<{ file: string; text: string }>): SourceReader | undefined {
   const url = readingModule();
+  const ahead = takeWarmed(url !== undefined && files.length >= readerThreshold);
   if (!url || files.length < readerThreshold) return undefined;
   const indexOf = new Map<string, number>();
   files.forEach(({ file }, i) => {
@@ -89,15 +130,17 @@ export function startSourceReader(files: Array<{ file: string; text: string }>):
   let port: MessagePort | undefined;
   let worker: Worker | undefined;
   try {
+    worker = ahead ?? newThread(url);
+    if (!worker) return undefined;
     const channel = new MessageChannel();
     port = channel.port1;
-    worker = new Worker(threadSource, { eval: true, workerData: { files, url, claims: claims.buffer, port: channel.port2 }, transferList: [channel.port2] });
+    worker.postMessage({ files, claims: claims.buffer, port: channel.port2 }, [channel.port2]);
   } catch {
     port?.close();
+    void worker?.terminate();
     return undefined;
   }
   // Neither keeps the process alive; a thread that fails is simply not asked again.
-  worker.unref();
   port.unref();
   let running = true;
   const stop = () => {

@@ -83,6 +83,21 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
     expect(locales?.sort()).toEqual(['zod/v4/locales/en.js', 'zod/v4/locales/index.js']);
     const licences = readFileSync(join(installed, 'lib', 'cli', 'check-command.LICENSES.txt'), 'utf8');
     for (const library of ['yaml', 'zod', 'micromark', '@babel/code-frame']) expect(licences).toMatch(new RegExp(`^${library} \\d+\\.\\d+\\.\\d+ \\(`, 'm'));
+    // So is the code a large check's reading thread loads, with the libraries it reads front-matter and markdown with.
+    const threadCode = readFileSync(join(installed, 'lib', 'read', 'read-on-thread.js'), 'utf8');
+    const threadImports = [...threadCode.matchAll(/^import\s[^'"]*?from\s*['"]([^'"]+)['"]/gm)].map((m) => m[1]);
+    expect(threadImports.filter((name) => !name.startsWith('node:') && !builtinModules.includes(name))).toEqual([]);
+    expect(threadCode).toMatch(/export\s*\{[^}]*\breadOnThread\b/);
+    const threadLicences = readFileSync(join(installed, 'lib', 'read', 'read-on-thread.LICENSES.txt'), 'utf8');
+    for (const library of ['yaml', 'js-yaml', 'zod', 'micromark']) expect(threadLicences).toMatch(new RegExp(`^${library} \\d+\\.\\d+\\.\\d+ \\(`, 'm'));
+    // And it reads a procedure as the check does: its data, and what the schema finds (a key it does not know).
+    const script = `import { deserialize } from 'node:v8';
+      const { readOnThread } = await import(${JSON.stringify(join(installed, 'lib', 'read', 'read-on-thread.js'))});
+      const [bytes, , issues] = readOnThread('p.md', ${JSON.stringify(unloading.replace(/^id: /m, 'colour: red\nid: '))});
+      console.log(JSON.stringify({ id: deserialize(bytes).data.id, issues: issues.map((i) => i.code + ' ' + i.path.join('.')) }));`;
+    const read = run(process.execPath, ['--input-type=module', '-e', script], plant);
+    expect(read.stderr).toBe('');
+    expect(JSON.parse(read.stdout)).toEqual({ id: 'U2-UNL-XYL-001', issues: ['unknown-key colour'] });
   });
 
   it('init adds config, ignore entries, editor settings and a workflow, and leaves the procedures alone', () => {

@@ -2,7 +2,7 @@
 // check that uses it finds exactly what a check without it finds.
 import { describe, expect, it } from 'vitest';
 import { readSource, readSourceParts } from '../../src/parse/read-source.ts';
-import { readerThreshold, startSourceReader } from '../../src/read/source-reader.ts';
+import { readerThreshold, startSourceReader, warmSourceReader } from '../../src/read/source-reader.ts';
 import { validateFrontMatter } from '../../src/model/validate.ts';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
 import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
@@ -63,6 +63,20 @@ describe('source reader', () => {
     expect(reader.take('not-a-file.md')).toBeUndefined();
     reader.stop();
     expect(reader.take(files[files.length - 1].file)).toBeUndefined();
+  }, 60_000);
+
+  it('starts ahead of the files, and reads them when they are given; a thread started ahead and not needed is let go', async () => {
+    warmSourceReader();
+    // Too few files for a thread: the one started ahead is ended, and no reader is made.
+    expect(startSourceReader(copies(readerThreshold - 1))).toBeUndefined();
+    warmSourceReader();
+    const files = copies(readerThreshold + 5);
+    const reader = startSourceReader(files)!;
+    const deadline = Date.now() + 30_000;
+    while (reader.readAhead() < 5 && Date.now() < deadline) await sleep(20);
+    expect(reader.readAhead()).toBeGreaterThanOrEqual(5);
+    expect(reader.take(files[0].file)?.parts).toEqual(readSourceParts(files[0].file, files[0].text));
+    reader.stop();
   }, 60_000);
 
   it('hands each file once: read on the thread, or here when the thread has not started it', async () => {
