@@ -1,13 +1,15 @@
 // `stepwright check` of 1,001 procedures (the demo procedures copied 77 times, ids renamed per copy) as whole
 // processes, against the floor of reading the same files and parsing their front-matter with positions
 // (bench/floor-read.ts); interleaved, median of three. Cold (no cache), warm (cache from the run before), and after
-// editing one file (the others answered by the cache; the cross-file rules read every file again).
+// editing one file (the others answered by the cache; the cross-file rules read every file again). The cold check is
+// measured from the development checkout (TypeScript sources) and from the package as a plant installs it.
 // The copies sit next to a copy of the demo's plant register, as a plant keeps them, so the manual checks clean.
 import { spawnSync } from 'node:child_process';
 import { cpSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { basename, join } from 'node:path';
 import { quick, record } from './results.ts';
+import { layOutInstalledPackage } from './installed-package.ts';
 
 const repo = join(import.meta.dirname, '..');
 const copies = quick ? 23 : 77;
@@ -34,6 +36,7 @@ function run(args: string[], env: Record<string, string> = {}, cwd = repo): { se
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
 const work = mkdtempSync(join(tmpdir(), 'stepwright-bench-check-'));
+const installed = layOutInstalledPackage(repo, 'check-scale');
 try {
   const demo = demoFiles(join(repo, 'procedures'));
   for (let c = 1; c <= copies; c++) {
@@ -46,6 +49,7 @@ try {
   const cache = join(work, 'cache');
   const floor: number[] = [];
   const cold: number[] = [];
+  const coldInstalled: number[] = [];
   const warm: number[] = [];
   const edited: number[] = [];
   const cpu = { floor: [] as number[], cold: [] as number[], warm: [] as number[] };
@@ -56,6 +60,7 @@ try {
   for (let i = 0; i < 3; i++) {
     const f = run([join(import.meta.dirname, 'floor-read.ts'), join(work, 'procedures')]);
     const c = run(check, { STEPWRIGHT_CACHE: 'off' }, work);
+    coldInstalled.push(run([installed.bin, ...check.slice(1)], { STEPWRIGHT_CACHE: 'off' }, work).seconds);
     rmSync(cache, { recursive: true, force: true });
     run(check, { STEPWRIGHT_CACHE: cache }, work);
     const w = run(check, { STEPWRIGHT_CACHE: cache }, work);
@@ -75,6 +80,8 @@ try {
   console.log(`check of ${count} procedures (${copies} copies of the demo), whole processes, median of 3`);
   console.log(`  floor: read + split + yaml with positions: ${f.toFixed(2)} s, peak ${peak.floor} MB`);
   console.log(`  check, cold (no cache):                    ${c.toFixed(2)} s, peak ${peak.cold} MB  (${(c / f).toFixed(2)}x floor; goal <= 2x and < 2 s)`);
+  const ci = median(coldInstalled);
+  console.log(`  check, cold, installed package:            ${ci.toFixed(2)} s  (${(ci / f).toFixed(2)}x floor)`);
   console.log(`  check, warm (cache from the run before):   ${w.toFixed(2)} s, peak ${peak.warm} MB  (${(w / f).toFixed(2)}x floor)`);
   const e = median(edited);
   console.log(`  check after editing one file (warm cache): ${e.toFixed(2)} s  (${(e / f).toFixed(2)}x floor)`);
@@ -87,6 +94,8 @@ try {
   record(`check/${count}/floor-read-parse`, { value: Number(f.toFixed(2)), unit: 's', note: 'read files, split front-matter, yaml parseDocument with a LineCounter; one process' });
   record(`check/${count}/cold`, { value: Number(c.toFixed(2)), unit: 's', goal: '< 2', met: c < 2, note: 'stepwright check --no-history, STEPWRIGHT_CACHE=off; one process' });
   record(`check/${count}/cold-ratio`, { value: Number((c / f).toFixed(2)), unit: 'x', goal: '<= 2', met: c / f <= 2, note: 'cold check / floor, same run' });
+  record(`check/${count}/cold-installed`, { value: Number(ci.toFixed(2)), unit: 's', goal: '< 2', met: ci < 2, note: 'the same cold check from the package as installed (compiled, bundled)' });
+  record(`check/${count}/cold-installed-ratio`, { value: Number((ci / f).toFixed(2)), unit: 'x', goal: '<= 2', met: ci / f <= 2, note: 'cold check of the installed package / floor, same run' });
   record(`check/${count}/warm`, { value: Number(w.toFixed(2)), unit: 's', goal: '< 2', met: w < 2, note: 'same check with the cache of the run before' });
   record(`check/${count}/warm-ratio`, { value: Number((w / f).toFixed(2)), unit: 'x', goal: '<= 2', met: w / f <= 2 });
   record(`check/${count}/one-edit`, { value: Number(e.toFixed(2)), unit: 's', note: 'one file edited, the cache of the run before for the others' });
@@ -94,4 +103,5 @@ try {
   record(`check/${count}/cold-peak-memory-ratio`, { value: Number((peak.cold / Math.max(1, peak.floor)).toFixed(2)), unit: 'x', note: `${peak.cold} MB against ${peak.floor} MB` });
 } finally {
   rmSync(work, { recursive: true, force: true });
+  rmSync(installed.folder, { recursive: true, force: true });
 }

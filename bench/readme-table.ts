@@ -24,6 +24,7 @@ const rows: Array<{ what: string; size: string; time: RegExp; ratio?: RegExp }> 
   { what: 'Rebuild after one changed procedure vs full build', size: '500', time: /^site\/500\/rebuild-one-change$/, ratio: /^site\/500\/rebuild-ratio$/ },
   { what: 'check, cold, whole process', size: '1,001', time: /^check\/\d+\/cold$/ },
   { what: 'check, cold, vs read + front-matter parse with positions', size: '1,001', time: /^check\/\d+\/cold$/, ratio: /^check\/\d+\/cold-ratio$/ },
+  { what: 'check, cold, installed package, vs the same floor', size: '1,001', time: /^check\/\d+\/cold-installed$/, ratio: /^check\/\d+\/cold-installed-ratio$/ },
   { what: 'check, cold, CPU time vs the same floor', size: '1,001', time: /^check\/\d+\/cold$/, ratio: /^check\/\d+\/cold-cpu-ratio$/ },
   { what: 'check, warm cache, whole process', size: '1,001', time: /^check\/\d+\/warm$/ },
   { what: 'check, warm cache, vs the same floor', size: '1,001', time: /^check\/\d+\/warm$/, ratio: /^check\/\d+\/warm-ratio$/ },

@@ -4,10 +4,10 @@
 // The development checkout (TypeScript sources, stripped by Node at every start) is measured beside it.
 // Figures, not assertions.
 import { spawnSync } from 'node:child_process';
-import { cpSync, existsSync, mkdtempSync, rmSync, symlinkSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { record } from './results.ts';
+import { layOutInstalledPackage } from './installed-package.ts';
 
 const root = join(import.meta.dirname, '..');
 const node = process.execPath;
@@ -43,16 +43,8 @@ function measure(args: string[], cwd = root, extraEnv: Record<string, string> | 
   return { ms: median(times), ...(cpu.length ? { cpuMs: median(cpu) } : {}), ...(memory.length ? { mb: median(memory) } : {}), status };
 }
 
-// The package as installed: bin/, lib/ and package.json, with the dependencies next to it.
-const compile = spawnSync(node, [join(root, 'scripts/compile.mjs')], { cwd: root, encoding: 'utf8' });
-if (compile.status !== 0) {
-  process.stderr.write(`startup bench: compiling failed:\n${compile.stdout}${compile.stderr}`);
-  process.exit(1);
-}
-const installed = mkdtempSync(join(tmpdir(), 'stepwright-startup-'));
-for (const part of ['bin', 'lib', 'package.json']) cpSync(join(root, part), join(installed, part), { recursive: true });
-symlinkSync(join(root, 'node_modules'), join(installed, 'node_modules'), 'dir');
-const packaged = join(installed, 'bin', 'stepwright.mjs');
+// The package as installed.
+const { folder: installed, bin: packaged } = layOutInstalledPackage(root, 'startup');
 const warmCache = join(installed, 'result-cache');
 const checkout = join(root, 'bin', 'stepwright.mjs');
 // Node's compile cache (the bin turns it on; NODE_COMPILE_CACHE names its folder): the first run of the installed
