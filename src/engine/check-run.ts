@@ -14,6 +14,7 @@ import { findProcedureFiles, readFoundFiles, stdinName, type FoundFile } from '.
 import { loadConfig, type CommandConfig } from './load-config.ts';
 import { loadRegister } from './load-register.ts';
 import { commandCache } from './command-cache.ts';
+import { resultCacheHoldsEntries } from './cache-folder.ts';
 import { isNotAProcedure, notAProcedureReason } from './not-a-procedure.ts';
 import { previousFromGit, repoPath as repoRelative, type Repository } from './repository.ts';
 import { proceduresFolder } from './project.ts';
@@ -84,9 +85,11 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     : [proceduresFolder(request, { procedures: request.procedures, config: request.config })];
   const found = await findWithStdin(paths, request);
   request.sized?.(found.length);
-  // A large run reads its files on a second thread too (read/source-reader.ts): it starts now, to load its code
-  // while this thread reads the files, the configuration and the register.
-  if (found.length >= readerThreshold) warmSourceReader();
+  // A large run reads its files on a second thread too (read/source-reader.ts). With no result cache to answer for
+  // them, it starts now, to load its code while this thread reads the files, the configuration and the register; a
+  // cache may answer for most files, and the thread then starts only for the files it does not answer for.
+  const cacheMayAnswer = request.cache !== false && resultCacheHoldsEntries(request);
+  if (found.length >= readerThreshold && !cacheMayAnswer) warmSourceReader();
   const partial = request.paths?.length ? manualLeftOut(request, found) : undefined;
   const skipped: SkippedFile[] = [];
   const inputs: SourceInput[] = [];
