@@ -16,6 +16,11 @@ export interface SchemaIssue {
 
 type RawIssue = z.core.$ZodIssue;
 
+/** Whether front-matter data is a mapping of keys: the only data the schema checks and a procedure is built from. */
+export function holdsKeys(data: unknown): data is Record<string, unknown> {
+  return data !== null && typeof data === 'object' && !Array.isArray(data);
+}
+
 export function validateFrontMatter(data: unknown): SchemaIssue[] {
   const result = procedureSchema.safeParse(data);
   if (result.success) return [];

@@ -192,59 +192,54 @@ function readParts(file: string, text: string, { split, at, bodyStartLine }: Ret
     }
     const yamlText = tooDeep ? '' : split.yaml;
     // Most front-matters are read first without a document of nodes (fast-yaml.ts); the table of positions is then
-    // made when a position is first asked for (for a file with a finding; never for a clean one).
+    // made when a position is first asked for (for a file with a finding; never for a clean one). What is not read
+    // so (errors, deep nesting, forms the two libraries may read differently) is read with the document.
     const quick = tooDeep ? undefined : quickYamlData(yamlText);
-    if (quick) return quickParts(file, quick.data, body, diagnostics, split, at, yamlText);
-    doc = parseDocument(yamlText, { lineCounter, ...documentOptions });
-    const yamlLineOffset = fileLines(split.yamlOffset).line - 1;
-    // Only the first error: later ones are nearly always knock-on effects of it.
-    for (const error of doc.errors.slice(0, 1)) {
-      const pos = lineCounter.linePos(error.pos[0]);
-      const end = lineCounter.linePos(error.pos[1]);
-      diagnostics.push({
-        file, line: pos.line + yamlLineOffset, column: pos.col, endLine: end.line + yamlLineOffset, endColumn: end.col,
-        severity: 'error', rule: 'yaml-syntax',
-        message: `The front-matter is not valid YAML: ${firstLine(error.message)}`,
-        hint: yamlHint(error.code),
-      });
-    }
-    if (doc.errors.length === 0) {
-      const depth = maxDepth(doc.contents, limits.maxDepth);
-      if (depth > limits.maxDepth) {
+    if (quick) {
+      data = quick.data;
+    } else {
+      doc = parseDocument(yamlText, { lineCounter, ...documentOptions });
+      const yamlLineOffset = fileLines(split.yamlOffset).line - 1;
+      // Only the first error: later ones are nearly always knock-on effects of it.
+      for (const error of doc.errors.slice(0, 1)) {
+        const pos = lineCounter.linePos(error.pos[0]);
+        const end = lineCounter.linePos(error.pos[1]);
         diagnostics.push({
-          file, ...at(split.yamlOffset), severity: 'error', rule: 'yaml-syntax',
-          message: `The front-matter nests deeper than ${limits.maxDepth} levels; it was not read.`,
-          hint: 'A procedure needs only a few levels of nesting. Flatten the blocks or split the procedure.',
+          file, line: pos.line + yamlLineOffset, column: pos.col, endLine: end.line + yamlLineOffset, endColumn: end.col,
+          severity: 'error', rule: 'yaml-syntax',
+          message: `The front-matter is not valid YAML: ${firstLine(error.message)}`,
+          hint: yamlHint(error.code),
         });
-      } else {
-        try {
-          data = doc.toJS({ maxAliasCount: limits.maxAliasCount });
-        } catch (error) {
+      }
+      if (doc.errors.length === 0) {
+        const depth = maxDepth(doc.contents, limits.maxDepth);
+        if (depth > limits.maxDepth) {
           diagnostics.push({
             file, ...at(split.yamlOffset), severity: 'error', rule: 'yaml-syntax',
-            message: `The front-matter could not be expanded: ${firstLine((error as Error).message)}`,
-            hint: 'Avoid YAML aliases (*name) that expand to many copies; write the values out.',
+            message: `The front-matter nests deeper than ${limits.maxDepth} levels; it was not read.`,
+            hint: 'A procedure needs only a few levels of nesting. Flatten the blocks or split the procedure.',
           });
+        } else {
+          try {
+            data = doc.toJS({ maxAliasCount: limits.maxAliasCount });
+          } catch (error) {
+            diagnostics.push({
+              file, ...at(split.yamlOffset), severity: 'error', rule: 'yaml-syntax',
+              message: `The front-matter could not be expanded: ${firstLine((error as Error).message)}`,
+              hint: 'Avoid YAML aliases (*name) that expand to many copies; write the values out.',
+            });
+          }
         }
       }
     }
-    const notMapping = doc.errors.length === 0 && data !== undefined && !diagnostics.some((d) => d.rule === 'yaml-syntax')
+    // (Every error of the document is a yaml-syntax diagnostic.)
+    const notMapping = data !== undefined && !diagnostics.some((d) => d.rule === 'yaml-syntax')
       ? frontMatterShapeProblem(data, split.yaml, split.body)
       : null;
     if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
-    return { data, body, diagnostics, yamlText, positions: tableNow ? positionTable(doc) : undefined };
+    return { data, body, diagnostics, yamlText, positions: tableNow && doc ? positionTable(doc) : undefined };
   }
   return { data, body, diagnostics, yamlText: null, positions: null };
-}
-
-/**
- * The parts of a front-matter read without a document of nodes: the same check of shape. (Nothing nested deeper than
- * the limit is read so: fast-yaml.ts leaves it to `yaml`, which reports it.)
- */
-function quickParts(file: string, data: unknown, body: Root, diagnostics: Diagnostic[], split: Split, at: At, yamlText: string): ReadParts {
-  const notMapping = diagnostics.some((d) => d.rule === 'yaml-syntax') ? null : frontMatterShapeProblem(data, split.yaml!, split.body);
-  if (notMapping) diagnostics.push({ file, ...at(0, 3), severity: 'error', rule: 'front-matter-not-mapping', ...notMapping });
-  return { data, body, diagnostics, yamlText, positions: undefined };
 }
 
 /**

@@ -3,7 +3,7 @@
 import { readSource, type ParsedSource, type PositionsWhen, type ReadParts } from '../parse/read-source.ts';
 import { buildProcedure } from '../model/build-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
-import { validateFrontMatter, type SchemaIssue } from '../model/validate.ts';
+import { holdsKeys, validateFrontMatter, type SchemaIssue } from '../model/validate.ts';
 import { applyRegister } from '../model/apply-register.ts';
 import type { PlantRegister } from '../model/register.ts';
 import { collectFacts, type ProcedureFacts } from '../analysis/procedure-facts.ts';
@@ -34,7 +34,7 @@ export interface GivenReading {
 export function readProcedure(file: string, text: string, register?: PlantRegister, given?: GivenReading, positions?: PositionsWhen, onRead?: (parts: ReadParts) => void): ReadProcedure {
   const source = readSource(file, text, given?.parts, positions, onRead);
   // Data is there only when the front-matter was read without a problem (the YAML document itself is not needed).
-  const readable = source.data !== null && typeof source.data === 'object' && !Array.isArray(source.data);
+  const readable = holdsKeys(source.data);
   // The problems the schema finds are found at once for a file the rules check; for a file read for its model
   // alone, only when asked for (the rules that ask check the file itself).
   let schemaIssues = readable ? given?.schemaIssues : undefined;

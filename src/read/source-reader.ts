@@ -120,8 +120,9 @@ const longestWaitMs = 2000;
 
 export function startSourceReader(files: Array<{ file: string; text: string }>): SourceReader | undefined {
   const url = readingModule();
-  const ahead = takeWarmed(url !== undefined && files.length >= readerThreshold);
-  if (!url || files.length < readerThreshold) return undefined;
+  const needed = url !== undefined && files.length >= readerThreshold;
+  const ahead = takeWarmed(needed);
+  if (!needed) return undefined;
   const indexOf = new Map<string, number>();
   files.forEach(({ file }, i) => {
     if (!indexOf.has(file)) indexOf.set(file, i);
