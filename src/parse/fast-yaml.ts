@@ -137,12 +137,20 @@ const keysReadDifferently = new Set(['', '~', 'null', 'Null', 'NULL', '__proto__
  * `{ data: null }` for an empty front-matter.
  */
 export function quickYamlData(text: string): { data: unknown } | undefined {
+  return quickLoad(text);
+}
+
+/** Told where js-yaml starts and stops composing each node (its state then: position, kind and result). */
+export type ComposeListener = (event: 'open' | 'close', state: { position: number; kind: 'scalar' | 'mapping' | 'sequence' | null; result: unknown }) => void;
+
+/** quickYamlData, telling `listener` of each node js-yaml composes (quick-positions.ts). */
+export function quickLoad(text: string, listener?: ComposeListener): { data: unknown } | undefined {
   if (notReadHere.test(text) || collectionAsKey.test(text) || readOtherwise.test(text) || flowAcrossLines(text) || quotedAcrossLines(text)) {
     return undefined;
   }
   let data: unknown;
   try {
-    data = load(text, loadOptions);
+    data = load(text, listener ? { ...loadOptions, listener } as typeof loadOptions : loadOptions);
   } catch {
     return undefined;
   }

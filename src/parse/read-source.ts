@@ -9,6 +9,7 @@ import { splitFrontMatter } from './split-front-matter.ts';
 import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesting-prescan.ts';
 import { groupDigits } from './group-digits.ts';
 import { quickYamlData } from './fast-yaml.ts';
+import { quickPositionTable } from './quick-positions.ts';
 import { locateIn, positionTable, type PathKey, type PositionTable } from './yaml-positions.ts';
 
 export type { PathKey, PositionTable } from './yaml-positions.ts';
@@ -258,7 +259,8 @@ function assemble(file: string, text: string, { split, at, bodyStartLine }: Retu
   let kept: Document.Parsed | null = null;
   // The same text read with the same options gives the same document, and so the same table.
   let table = parts.positions;
-  const positions = (): PositionTable => (table ??= positionTable(parseDocument(yamlText, documentOptions)));
+  // Made from js-yaml's quicker reading where it answers as `yaml`'s document would (quick-positions.ts).
+  const positions = (): PositionTable => (table ??= quickPositionTable(yamlText) ?? positionTable(parseDocument(yamlText, documentOptions)));
   const rangeOf = (path: readonly PathKey[], part: 'key' | 'value' = 'value'): SourceRange => {
     const { node, key } = locateIn(positions(), path, part);
     const r = (part === 'key' && key ? key : node)?.r;
