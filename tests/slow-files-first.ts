@@ -9,8 +9,9 @@ import { BaseSequencer, type TestSpecification } from 'vitest/node';
 
 export const slowFiles = [
   'tests/e2e/floor-tablet.test.ts',
-  'tests/e2e/operator-pages.test.ts',
+  // Packs and installs on its own while the first file builds the demo site: the other browser files would wait.
   'tests/package/packed-install.test.ts',
+  'tests/e2e/operator-pages.test.ts',
   'tests/robustness/injection.test.ts',
   'tests/e2e/register-pages.test.ts',
   'tests/e2e/offline-update.test.ts',

@@ -1,4 +1,4 @@
-// Two publications of a generated manual of 300 procedures in four areas (some of them emergency procedures),
+// Two publications of a generated manual of 150 procedures in four areas (some of them emergency procedures),
 // the second with one procedure changed: built once and shared between runs through a folder in the temp
 // directory, keyed by the sources' content like the demo site (site-build.ts). The same update at 1,000 procedures
 // is measured by `npm run bench` (bench/offline-update.ts); the tests check what the tablet does.
@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { generateProcedure } from '../../bench/generate-procedures.ts';
 
-export const procedureCount = 300;
+export const procedureCount = 150;
 export const areas = ['area-east', 'area-north', 'area-south', 'area-west'];
 /** The procedure the second publication changes (the middle one): its title (shown in the lists) and one step's text. */
 const changedNumber = procedureCount / 2;

@@ -1,6 +1,7 @@
-// The offline copy at plant scale: two publications of a generated manual of 300 procedures, the second with one
-// procedure changed. A tablet (headless Chromium) updates from the first to the second; the test server's request
-// log shows what it fetched. The network drops halfway through an update; a tablet keeps chosen areas only.
+// The offline copy at plant scale: two publications of a generated manual of 150 procedures (1,000 in `npm run
+// bench`), the second with one procedure changed. A tablet (headless Chromium) updates from the first to the second;
+// the test server's request log shows what it fetched. The network drops halfway through an update; a tablet keeps
+// chosen areas only.
 import { readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
