@@ -6,7 +6,7 @@
 //   (an empty value: after the spaces only, where `yaml` places it);
 // - a scalar ends where js-yaml stopped reading it, a flow collection after its closing bracket, a block collection
 //   where its last entry ends (a position is always shown without the spaces after it);
-// - a plain scalar that is a sequence's item (or a mapping's value) is composed twice, one inside the other: once.
+// - a sequence's item that is a plain scalar or a flow collection is composed twice, one inside the other: taken once.
 // Where the events do not make a table the same way (`tests/parse/quick-positions.test.ts` compares every path with
 // `yaml`'s own table), the answer is "not here" (undefined) and the table is made from `yaml`'s document as before.
 import { quickLoad, type ComposeListener } from './fast-yaml.ts';
