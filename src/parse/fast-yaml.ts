@@ -1,7 +1,8 @@
 // A quick first reading of a front-matter's data. The YAML library the check keeps positions with (`yaml`) builds a
 // whole document of nodes, which is most of a large manual's reading time; `js-yaml` reads the same plain data about
-// ten times faster but keeps no positions. So a front-matter is read here first, and the document is built only
-// when a position is asked for (nearly always for a file with a finding; never for a clean one).
+// ten times faster but keeps no positions. So a front-matter is read here first, and its table of positions is made
+// only when a position is asked for (nearly always for a file with a finding; never for a clean one): from js-yaml's
+// reading again where that places every node as `yaml` does (quick-positions.ts), else from `yaml`'s document.
 //
 // The two libraries must never disagree, so this reading answers only for what both read the same way, and says
 // "not here" (undefined) for everything else, which is then read by `yaml` as before:
