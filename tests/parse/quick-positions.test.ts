@@ -1,28 +1,15 @@
 // The table of positions made from js-yaml's reading must answer every position exactly as the table of `yaml`'s
 // document does, or not be made at all: compared path by path (value and key, and paths that lead nowhere) on the
 // demo front-matters, on many altered copies of them, on generated YAML, and on the forms it leaves to `yaml`.
-import { readdirSync, readFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { parseDocument } from 'yaml';
 import { describe, expect, it } from 'vitest';
 import { quickPositionTable } from '../../src/parse/quick-positions.ts';
 import { locateIn, positionTable, type PathKey, type PositionTable } from '../../src/parse/yaml-positions.ts';
 import { splitFrontMatter } from '../../src/parse/split-front-matter.ts';
+import { alteredFrontMatter, demoFiles, frontMatters } from './altered-front-matters.ts';
 import { readSource } from '../../src/parse/read-source.ts';
-
-const root = join(import.meta.dirname, '../..');
-
-function markdownFiles(dir: string): string[] {
-  return readdirSync(dir, { withFileTypes: true }).flatMap((e) => {
-    const path = join(dir, e.name);
-    if (e.isDirectory()) return markdownFiles(path);
-    return e.name.endsWith('.md') ? [path] : [];
-  });
-}
-
-const demoFiles = markdownFiles(join(root, 'procedures'));
-const frontMatters = demoFiles.map((f) => splitFrontMatter(readFileSync(f, 'utf8')).yaml).filter((y): y is string => y !== null);
 
 function reference(text: string): PositionTable | undefined {
   const doc = parseDocument(text, { prettyErrors: false, uniqueKeys: true, strict: true });
@@ -82,16 +69,6 @@ const pieces = [
   '"a": ', '12:30', '{a: [b]}', '[a, b]: c', '{a}', '{a: }', '[a: b]', 'k:  # c\n', '\n# c\n', '\n\n', 'k:\n',
 ];
 
-const alteration = fc.tuple(fc.nat(), fc.integer({ min: 0, max: 2 }), fc.nat({ max: pieces.length - 1 }), fc.integer({ min: 1, max: 5 }));
-
-function alter(text: string, [where, how, piece, cut]: [number, number, number, number]): string {
-  const at = where % (text.length + 1);
-  if (how === 0) return text.slice(0, at) + pieces[piece] + text.slice(at);
-  if (how === 1) return text.slice(0, at) + text.slice(at + cut);
-  const lineEnd = text.indexOf('\n', at);
-  return text.slice(0, at) + pieces[piece] + (lineEnd < 0 ? '' : text.slice(lineEnd));
-}
-
 describe('quickPositionTable', () => {
   it('makes the table of every demo front-matter, answering every path as yaml\'s table does', () => {
     expect(frontMatters.length).toBeGreaterThan(5);
@@ -103,8 +80,7 @@ describe('quickPositionTable', () => {
 
   it('never answers a path otherwise than yaml\'s table, on altered demo front-matters (property)', () => {
     let made = 0;
-    fc.assert(fc.property(fc.nat({ max: frontMatters.length - 1 }), fc.array(alteration, { minLength: 1, maxLength: 4 }), (which, alterations) => {
-      const text = alterations.reduce(alter, frontMatters[which]);
+    fc.assert(fc.property(alteredFrontMatter(pieces), (text) => {
       if (quickPositionTable(text)) made++;
       expect(difference(text)).toBeUndefined();
     }), { numRuns: 600 });
