@@ -132,20 +132,15 @@ const loadOptions = { schema, json: false, maxDepth: quickDepthLimit };
 /** Keys js-yaml and `yaml` write differently into plain data. */
 const keysReadDifferently = new Set(['', '~', 'null', 'Null', 'NULL', '__proto__']);
 
-/**
- * The front-matter's plain data as `yaml` would read it (`parseDocument(text, { uniqueKeys: true }).toJS()`), or
- * undefined when it is not read here (an error, or something the two libraries may read differently).
- * `{ data: null }` for an empty front-matter.
- */
-export function quickYamlData(text: string): { data: unknown } | undefined {
-  return quickLoad(text);
-}
-
 /** Told where js-yaml starts and stops composing each node (its state then: position, kind and result). */
 export type ComposeListener = (event: 'open' | 'close', state: { position: number; kind: 'scalar' | 'mapping' | 'sequence' | null; result: unknown }) => void;
 
-/** quickYamlData, telling `listener` of each node js-yaml composes (quick-positions.ts). */
-export function quickLoad(text: string, listener?: ComposeListener): { data: unknown } | undefined {
+/**
+ * The front-matter's plain data as `yaml` would read it (`parseDocument(text, { uniqueKeys: true }).toJS()`), or
+ * undefined when it is not read here (an error, or something the two libraries may read differently).
+ * `{ data: null }` for an empty front-matter. `listener` is told of each node js-yaml composes (quick-positions.ts).
+ */
+export function quickYamlData(text: string, listener?: ComposeListener): { data: unknown } | undefined {
   if (notReadHere.test(text) || collectionAsKey.test(text) || readOtherwise.test(text) || flowAcrossLines(text) || quotedAcrossLines(text)) {
     return undefined;
   }

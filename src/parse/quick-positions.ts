@@ -9,8 +9,8 @@
 // - a sequence's item that is a plain scalar or a flow collection is composed twice, one inside the other: taken once.
 // Where the events do not make a table the same way (`tests/parse/quick-positions.test.ts` compares every path with
 // `yaml`'s own table), the answer is "not here" (undefined) and the table is made from `yaml`'s document as before.
-import { quickLoad, type ComposeListener } from './fast-yaml.ts';
-import type { PositionTable } from './yaml-positions.ts';
+import { quickYamlData, type ComposeListener } from './fast-yaml.ts';
+import { trimTrailingSpace, type PositionTable } from './yaml-positions.ts';
 
 /** A node as js-yaml composed it. */
 interface Composed {
@@ -50,7 +50,7 @@ export function quickPositionTable(text: string): PositionTable | undefined {
     }
   };
   try {
-    if (!quickLoad(text, listener)) return undefined;
+    if (!quickYamlData(text, listener)) return undefined;
     if (stack.length !== 1 || root.children.length > 1) return undefined;
     return tableOf(text, root.children[0]);
   } catch {
@@ -90,9 +90,7 @@ function contentStart(text: string, from: number): number {
 
 /** An end without the white space before it (js-yaml reads the text with a line break added at its end). */
 function trimmedEnd(text: string, start: number, end: number): number {
-  let e = Math.min(end, text.length);
-  while (e > start && /\s/.test(text[e - 1] ?? '')) e--;
-  return e;
+  return trimTrailingSpace(text, start, Math.min(end, text.length));
 }
 
 function tableOf(text: string, top: Composed | undefined): PositionTable {

@@ -10,7 +10,7 @@ import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesti
 import { groupDigits } from './group-digits.ts';
 import { quickYamlData } from './fast-yaml.ts';
 import { quickPositionTable } from './quick-positions.ts';
-import { locateIn, positionTable, type PathKey, type PositionTable } from './yaml-positions.ts';
+import { locateIn, positionTable, trimTrailingSpace, type PathKey, type PositionTable } from './yaml-positions.ts';
 
 export type { PathKey, PositionTable } from './yaml-positions.ts';
 
@@ -319,12 +319,6 @@ function createOffsetToPosition(text: string) {
     }
     return { line: lo + 1, column: o - starts[lo] + 1 };
   };
-}
-
-function trimTrailingSpace(text: string, start: number, end: number): number {
-  let e = end;
-  while (e > start && /\s/.test(text[e - 1] ?? '')) e--;
-  return e;
 }
 
 function maxDepth(node: unknown, limit: number): number {

@@ -136,3 +136,10 @@ export function locateIn(table: PositionTable, path: readonly PathKey[], part: '
   }
   return { node: current >= 0 ? nodeAt(table, current) : null, key: part === 'key' && lastKey >= 0 ? nodeAt(table, lastKey) : null };
 }
+
+/** An end in the YAML text moved back over the white space before it: where a shown position ends. */
+export function trimTrailingSpace(text: string, start: number, end: number): number {
+  let e = end;
+  while (e > start && /\s/.test(text[e - 1] ?? '')) e--;
+  return e;
+}
