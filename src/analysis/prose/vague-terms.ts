@@ -45,15 +45,30 @@ const terms: Array<{ words: string[]; excused: 'value-after' | 'value-in-sentenc
   { words: ['for', 'a', 'while'], excused: 'never' },
 ];
 
-export function vagueTerms(sentence: Sentence, hasQuantity: boolean): VagueTerm[] {
+/** The terms by their first word, in the order above, so that each word of a sentence is looked up once. */
+const byFirstWord = new Map<string, typeof terms>();
+for (const t of terms) {
+  const list = byFirstWord.get(t.words[0]) ?? [];
+  list.push(t);
+  byFirstWord.set(t.words[0], list);
+}
+
+/**
+ * The vague terms of a sentence, left to right; where two terms start at one word, the one listed first above.
+ * `hasQuantity` (whether the sentence states a quantity) is asked only when a term that it excuses is found.
+ */
+export function vagueTerms(sentence: Sentence, hasQuantity: () => boolean): VagueTerm[] {
   const words = sentence.words;
   const out: VagueTerm[] = [];
+  let quantity: boolean | undefined;
   for (let i = 0; i < words.length; i++) {
-    for (const t of terms) {
+    const candidates = byFirstWord.get(words[i].lower);
+    if (!candidates) continue;
+    for (const t of candidates) {
       if (!t.words.every((w, k) => words[i + k]?.lower === w)) continue;
       const after = words[i + t.words.length];
       if (t.excused === 'value-after' && after?.kind === 'number') continue;
-      if (t.excused === 'value-in-sentence' && hasQuantity) continue;
+      if (t.excused === 'value-in-sentence' && (quantity ??= hasQuantity())) continue;
       out.push({ at: i, length: t.words.length, term: t.words.join(' ') });
       i += t.words.length - 1;
       break;

@@ -26,7 +26,7 @@ A term is accepted when the value is right there: *approximately 50 kg* (a numbe
     if (!ctx.procedure) return;
     for (const site of proseOf(ctx.procedure)) {
       for (const sentence of site.sentences) {
-        for (const term of vagueTerms(sentence, statesQuantity(sentence))) {
+        for (const term of vagueTerms(sentence, () => statesQuantity(sentence))) {
           const from = sentence.words[term.at].from;
           const to = sentence.words[term.at + term.length - 1].to;
           ctx.report({
