@@ -25,19 +25,27 @@ the real content; replace a placeholder tag everywhere it is used.`,
   },
 );
 
+/** Walks the data with one path that grows and shrinks as it goes; a report takes a copy of it. */
 function visitData(ctx: FileContext, value: unknown, path: PathKey[]): void {
   if (Array.isArray(value)) {
-    value.forEach((item, i) => visitData(ctx, item, [...path, i]));
-    return;
-  }
-  if (value !== null && typeof value === 'object') {
-    for (const [key, item] of Object.entries(value)) {
-      if (isPlaceholder(key)) report(ctx, key, { path: [...path, key], part: 'key' });
-      visitData(ctx, item, [...path, key]);
+    for (let i = 0; i < value.length; i++) {
+      path.push(i);
+      visitData(ctx, value[i], path);
+      path.pop();
     }
     return;
   }
-  if (typeof value === 'string' && isPlaceholder(value)) report(ctx, value, { path });
+  if (value !== null && typeof value === 'object') {
+    for (const key in value) {
+      if (!Object.hasOwn(value, key)) continue;
+      path.push(key);
+      if (isPlaceholder(key)) report(ctx, key, { path: [...path], part: 'key' });
+      visitData(ctx, (value as Record<string, unknown>)[key], path);
+      path.pop();
+    }
+    return;
+  }
+  if (typeof value === 'string' && isPlaceholder(value)) report(ctx, value, { path: [...path] });
 }
 
 interface BodyNode {
