@@ -111,8 +111,12 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
     }
     return regionCache.get(text) ?? undefined;
   };
-  const full = (): Box => new Map(names.map((n) => [n, space.full(space.variables.get(n)!)]));
+  // Every signal at any value: made once, and copied (its value sets are shared, never changed).
+  const fullBox: Box = new Map(names.map((n) => [n, space.full(space.variables.get(n)!)]));
+  const full = (): Box => new Map(fullBox);
   const complete = (box: Box): Box => {
+    // A box that already holds every signal (its keys are always signals of the space) is complete as it is.
+    if (box.size === names.length && !builtInIn(box)) return box;
     const out = full();
     for (const [n, v] of box) if (!builtIns.has(n)) out.set(n, v);
     return out;
@@ -261,8 +265,16 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
       transitions.push({ t, from: [i], to: [placeIndex.get(target)!] });
     }
   });
-  const byFirstInput = new Map<number, typeof transitions>();
-  for (const tr of transitions) if (tr.from.length) byFirstInput.set(tr.from[0], [...(byFirstInput.get(tr.from[0]) ?? []), tr]);
+  // Each transition with what firing it does apart from the plant state: the steps it enters, named as the path
+  // to a state shows them, and the contingency jump it is, if one.
+  const firing = transitions.map(({ t, from, to }) => {
+    const entered = to.map((p) => stepOf[p]).filter((s): s is Step => s !== undefined);
+    const jumpFrom = contingencyOf.get(t);
+    const ids = entered.map((s) => (jumpFrom ? `${s.id} (jump from ${jumpFrom}: ${t.id.split(':')[0]})` : s.id));
+    return { t, from, to, entered, jumpFrom, ids };
+  });
+  const byFirstInput = new Map<number, typeof firing>();
+  for (const tr of firing) if (tr.from.length) byFirstInput.set(tr.from[0], [...(byFirstInput.get(tr.from[0]) ?? []), tr]);
 
   // Start: the line-up, and latching trips that may already be in force.
   let initial: Box[] = [full()];
@@ -283,6 +295,7 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
 
   const nodes: Node[] = [];
   const index = new Map<string, number>();
+  const boxKey = boxKeys(names);
   const views = new Map<string, StateView[]>();
   const viewKeys = new Map<string, Set<string>>();
   const endViews = new Map<string, StateView[]>();
@@ -290,7 +303,7 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
   const endPlace = placeIndex.get(graph.end)!;
   let exceeded = false;
   const add = (marking: number[], box: Box, parent: number, entered: string[], via: string) => {
-    const key = `${marking.join(',')}|${boxKey(names, box)}|${via}`;
+    const key = `${marking.join(',')}|${boxKey(box)}|${via}`;
     if (index.has(key)) return;
     if (nodes.length >= budget) {
       exceeded = true;
@@ -305,16 +318,18 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
   for (let n = 0; n < nodes.length; n++) {
     const { marking, box, via } = nodes[n];
     if (marking.includes(endPlace)) {
-      const key = `${via}|${boxKey(names, box)}`;
+      const key = `${via}|${boxKey(box)}`;
       if (!endKeys.has(key)) {
         endKeys.add(key);
-        endViews.set(via, [...(endViews.get(via) ?? []), { box, node: n }]);
+        const list = endViews.get(via);
+        if (list) list.push({ box, node: n });
+        else endViews.set(via, [{ box, node: n }]);
       }
     }
     const active = marking.map((p) => stepOf[p]).filter((s): s is Step => s !== undefined);
     if (active.length) {
       const seen = overlay(box, active);
-      const key = boxKey(names, seen);
+      const key = boxKey(seen);
       for (const p of marking) {
         if (!stepOf[p]) continue;
         const id = graph.places[p].id;
@@ -322,20 +337,23 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
         viewKeys.set(id, keys);
         if (keys.has(key)) continue;
         keys.add(key);
-        views.set(id, [...(views.get(id) ?? []), { box: seen, node: n }]);
+        const list = views.get(id);
+        if (list) list.push({ box: seen, node: n });
+        else views.set(id, [{ box: seen, node: n }]);
       }
     }
-    for (const { t, from, to } of marking.flatMap((p) => byFirstInput.get(p) ?? [])) {
-      if (!from.every((p) => marking.includes(p))) continue;
-      const rest = marking.filter((p) => !from.includes(p));
-      const next = [...new Set([...rest, ...to])].sort((a, b) => a - b);
-      const entered = to.map((p) => stepOf[p]).filter((s): s is Step => s !== undefined);
-      const jumpFrom = contingencyOf.get(t);
-      for (const b of guardFilter(t, [box])) {
-        let after = b;
-        for (const s of entered) after = enter(after, s);
-        const ids = entered.map((s) => (jumpFrom ? `${s.id} (jump from ${jumpFrom}: ${t.id.split(':')[0]})` : s.id));
-        add(next, after, n, ids, via || jumpFrom || '');
+    for (const p of marking) {
+      const outgoing = byFirstInput.get(p);
+      if (!outgoing) continue;
+      for (const { t, from, to, entered, jumpFrom, ids } of outgoing) {
+        if (!from.every((q) => marking.includes(q))) continue;
+        const rest = marking.filter((q) => !from.includes(q));
+        const next = [...new Set([...rest, ...to])].sort((a, b) => a - b);
+        for (const b of guardFilter(t, [box])) {
+          let after = b;
+          for (const s of entered) after = enter(after, s);
+          add(next, after, n, ids, via || jumpFrom || '');
+        }
       }
     }
   }
@@ -356,6 +374,11 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
     },
     regionOf,
   };
+}
+
+function builtInIn(box: Box): boolean {
+  for (const n of builtIns) if (box.has(n)) return true;
+  return false;
 }
 
 function stripBuiltIns(box: Box): Box {
@@ -398,12 +421,33 @@ function hull(set: IntervalSet): IntervalSet {
   return [{ lo: first.lo, loOpen: first.loOpen, hi: last.hi, hiOpen: last.hiOpen }];
 }
 
-function boxKey(names: string[], box: Box): string {
-  return names.map((n) => showSet(box.get(n))).join(';');
+/**
+ * A box's key: equal for two boxes exactly when every signal holds the same values in both. Each value set is
+ * written out once (a set is shared by the many boxes that copy it, and never changed) and numbered by what it
+ * says, so that a key is a short list of numbers.
+ */
+function boxKeys(names: string[]): (box: Box) => string {
+  const numberOf = new Map<string, number>();
+  const numbered = new WeakMap<ValueSet, number>();
+  const numberFor = (v: ValueSet | undefined): number => {
+    if (!v) return 0;
+    let n = numbered.get(v);
+    if (n === undefined) {
+      const shown = showSet(v);
+      n = numberOf.get(shown);
+      if (n === undefined) numberOf.set(shown, (n = numberOf.size + 1));
+      numbered.set(v, n);
+    }
+    return n;
+  };
+  return (box) => {
+    let key = '';
+    for (const name of names) key += `${numberFor(box.get(name))};`;
+    return key;
+  };
 }
 
-function showSet(v: ValueSet | undefined): string {
-  if (!v) return '*';
+function showSet(v: ValueSet): string {
   if (v.kind === 'enum') return [...v.set].sort().join('|');
   return v.set.map((i) => `${i.loOpen ? '(' : '['}${i.lo},${i.hi}${i.hiOpen ? ')' : ']'}`).join('u');
 }
