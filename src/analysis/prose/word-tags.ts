@@ -74,20 +74,24 @@ export function tagsAt(phrase: string, index: number): ReadonlySet<string> {
   return terms[index] ?? none;
 }
 
+const guesses: ReadonlyArray<ReadonlySet<string>> = [none, new Set(['Verb', 'Noun', 'Adjective'])];
+
 /**
  * Every phrase `ask` would ask `tagsAt` for and that has no answer yet. `ask` is run twice, once with every
  * answer "no tags" and once with every answer "verb, noun and adjective", so that the phrases asked after either
- * answer are gathered.
+ * answer are gathered. When the first run met no phrase without an answer, no guess was given, so the second would
+ * take the same path with the same answers and find nothing: it is not run.
  */
 function gather(ask: () => void): Set<string> {
   const phrases = new Set<string>();
-  for (const answer of [none, new Set(['Verb', 'Noun', 'Adjective'])]) {
+  for (const answer of guesses) {
     gathering = { phrases, answer };
     try {
       ask();
     } finally {
       gathering = undefined;
     }
+    if (phrases.size === 0) break;
   }
   return phrases;
 }
@@ -163,6 +167,8 @@ const gatheredNothing = new WeakSet<object>();
 export function tagAheadLater(key: object, ask: () => void): void {
   if (!modelThreadRunning() || postedKeys.has(key)) return;
   if (gatheredNothing.has(key)) return;
+  // Answers that have come in are taken first: a phrase they answer is followed as the model reads it, not guessed.
+  settleArrived();
   const batch = readable(gather(ask)).filter((p) => !postedPhrases.has(p));
   if (batch.length < 2) {
     gatheredNothing.add(key);
@@ -183,6 +189,14 @@ export function taggedAheadReady(key: object): boolean {
   if (!postedKeys.has(key)) return true;
   const entry = posted.find((e) => e.key === key);
   return entry === undefined || answered(entry.ticket);
+}
+
+/** Takes, in order, the answers sent ahead that have come in already; never waits. */
+function settleArrived(): void {
+  while (posted.length && answered(posted[0].ticket)) {
+    const first = posted[0];
+    settlePosted((entry) => entry === first);
+  }
 }
 
 /** Takes the answers sent ahead, in order, up to and including the first entry `until` accepts. */
