@@ -34,7 +34,8 @@ export function splitWords(text: string, offset = 0): Word[] {
     let token = m[0];
     let from = m.index;
     // A trailing full stop or colon belongs to the sentence, not the word ("… to 50 degC.").
-    const trail = token.length > 1 ? /[.:]+$/.exec(token) : null;
+    const last = token.charCodeAt(token.length - 1);
+    const trail = token.length > 1 && (last === 46 || last === 58) ? /[.:]+$/.exec(token) : null;
     if (trail && !numberPattern.test(token)) token = token.slice(0, trail.index);
     out.push({ text: token, lower: token.toLowerCase(), kind: kindOf(token), from: offset + from, to: offset + from + token.length });
     if (trail && token.length < m[0].length) {
@@ -45,7 +46,11 @@ export function splitWords(text: string, offset = 0): Word[] {
   return out;
 }
 
+const digit = /\d/;
+
 function kindOf(token: string): WordKind {
+  // A time, a number and a tag each hold a digit: without one, a token is a word or a symbol.
+  if (!digit.test(token)) return /^[^A-Za-z0-9°%]+$/.test(token) ? 'symbol' : 'word';
   if (timePattern.test(token)) return 'time';
   if (numberPattern.test(token)) return 'number';
   if (/^[^A-Za-z0-9°%]+$/.test(token)) return 'symbol';
@@ -73,13 +78,18 @@ export function splitSentences(text: string): Sentence[] {
     }
     start = end;
   };
+  let newline = text.indexOf('\n');
   for (let i = 0; i < words.length; i++) {
     const w = words[i];
     const next = words[i + 1];
     const abbreviation = w.text === '.' && i > 0 && abbreviations.has(words[i - 1].lower) && words[i - 1].to === w.from
       && !(next && /^[A-Z]/.test(next.text) && words[i - 1].lower === 'min');
     const endsSentence = w.kind === 'symbol' && /^[.!?]+$/.test(w.text) && !abbreviation;
-    const lineBreak = i + 1 < words.length && /\n\s*\n|\n\s*[-*]\s/.test(text.slice(w.to, words[i + 1].from));
+    // Words are mostly a space apart: only a gap with a line break in it can break the sentence. The next line
+    // break is found once for all the words before it.
+    if (newline !== -1 && newline < w.to) newline = text.indexOf('\n', w.to);
+    const lineBreak = i + 1 < words.length && newline !== -1 && newline < words[i + 1].from
+      && /\n\s*\n|\n\s*[-*]\s/.test(text.slice(w.to, words[i + 1].from));
     if (endsSentence || lineBreak) flush(i + 1);
   }
   flush(words.length);
