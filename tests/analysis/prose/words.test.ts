@@ -23,6 +23,15 @@ describe('splitSentences', () => {
     expect(countWords(s[0])).toBe(9);
   });
 
+  it('a blank line ends a sentence; a line break alone does not', () => {
+    const texts = (text: string) => splitSentences(text).map((x) => x.text);
+    expect(texts('Open XV-2101\nand wait for 5 min')).toEqual(['Open XV-2101\nand wait for 5 min']);
+    expect(texts('Open XV-2101\n\nWait for 5 min')).toEqual(['Open XV-2101', 'Wait for 5 min']);
+    // A line break far behind the words, or none at all, breaks nothing in between.
+    expect(texts(`${'Stir the batch '.repeat(40)}now\n\nSample it`)).toHaveLength(2);
+    expect(texts('Stir the batch '.repeat(40))).toHaveLength(1);
+  });
+
   it('sentence offsets slice the text (property)', () => {
     fc.assert(fc.property(fc.string({ maxLength: 80 }), (text) =>
       splitSentences(text).every((s) => text.slice(s.from, s.to) === s.text && s.words.every((w) => w.from >= s.from && w.to <= s.to))));
