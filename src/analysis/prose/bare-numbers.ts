@@ -2,6 +2,7 @@
 import { tagsAt } from './word-tags.ts';
 import { isUnitWord } from '../units.ts';
 import type { Sentence, Word } from './words.ts';
+import { perSentence } from './per-sentence.ts';
 
 /** Unit words people write in full or as symbols that the unit library does not parse on their own. */
 const unitWords = new Set([
@@ -30,7 +31,8 @@ const englishWords = new Set(['at', 'in', 'a', 'are', 'am', 'or', 'on', 'it', 'a
 
 const rangeJoiners = new Set(['and', 'to', 'or', '-', '–', 'and/or']);
 
-export function bareNumbers(sentence: Sentence): number[] {
+/** The word indices of the numbers in a sentence that carry no unit. */
+export const bareNumbers = perSentence((sentence: Sentence): readonly number[] => {
   const words = sentence.words;
   const out: number[] = [];
   for (let i = 0; i < words.length; i++) {
@@ -44,7 +46,7 @@ export function bareNumbers(sentence: Sentence): number[] {
     out.push(i);
   }
   return out;
-}
+});
 
 function hasUnit(words: Word[], at: number): boolean {
   const w = words[at];

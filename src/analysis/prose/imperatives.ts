@@ -1,6 +1,7 @@
 // Finds instructions in prose: does a sentence start with an action verb, and does it chain a second one?
 import { isModelInfinitive, tagsAt } from './word-tags.ts';
 import type { Sentence, Word } from './words.ts';
+import { perSentence } from './per-sentence.ts';
 
 /**
  * Plant verbs the English model (compromise 14) does not read as verbs at the head of an instruction, measured
@@ -76,17 +77,17 @@ function isBaseVerb(tags: ReadonlySet<string>): boolean {
 }
 
 /** A sentence that starts its main clause with an imperative verb. */
-export function startsWithActionVerb(sentence: Sentence): boolean {
+export const startsWithActionVerb = perSentence((sentence: Sentence): boolean => {
   const i = mainClauseStart(sentence);
   return isImperativeVerbAt(sentence.words, i);
-}
+});
 
 /**
  * Whether a sentence gives an instruction. Stricter than `startsWithActionVerb`, because notes and hazard
  * texts often begin with a noun that can be a verb ("Charge totals are recorded"): the verb must be followed
  * by the start of an object, or be an explicit obligation ("Do not", "Ensure", "You must").
  */
-export function givesInstruction(sentence: Sentence): { at: number } | null {
+export const givesInstruction = perSentence((sentence: Sentence): Readonly<{ at: number }> | null => {
   const words = sentence.words;
   const i = mainClauseStart(sentence);
   const w = words[i];
@@ -102,7 +103,7 @@ export function givesInstruction(sentence: Sentence): { at: number } | null {
   const afterTag = words[i + 1]?.kind === 'tag' ? words[i + 2] : undefined;
   if (afterTag && (/ing$/.test(afterTag.lower) || finiteVerbs.has(afterTag.lower))) return null;
   return { at: i };
-}
+});
 
 /**
  * An object starts with a determiner, pronoun, number or tag, or a particle and then one of those ("up the tank").
@@ -134,7 +135,7 @@ const chainWords = new Set(['and', 'then', 'also']);
  * Returns the word indices of the extra verbs. A verb must start an object to count, so that
  * "Check the vent and drain valves" (a noun list) is not read as two actions.
  */
-export function chainedImperatives(sentence: Sentence): number[] {
+export const chainedImperatives = perSentence((sentence: Sentence): readonly number[] => {
   const words = sentence.words;
   const start = mainClauseStart(sentence);
   if (!isImperativeVerbAt(words, start)) return [];
@@ -159,4 +160,4 @@ export function chainedImperatives(sentence: Sentence): number[] {
     }
   }
   return out;
-}
+});

@@ -54,6 +54,13 @@ function remember(phrase: string, terms: Term[]): void {
 
 /** While phrases are being gathered ahead: every phrase asked for, and the answer given in the meantime. */
 let gathering: { phrases: Set<string>; answer: ReadonlySet<string> } | undefined;
+/** How many guessed answers gathering has given, ever: a reading that gave none read the model's real answers. */
+let guessCount = 0;
+
+/** How many guessed answers have been given so far; unchanged across a reading, that reading's answers were real. */
+export function guessesGiven(): number {
+  return guessCount;
+}
 
 /** Tags of the term at `index` when `phrase` is read as one sentence. Calls cost milliseconds, so answers are kept. */
 export function tagsAt(phrase: string, index: number): ReadonlySet<string> {
@@ -61,6 +68,7 @@ export function tagsAt(phrase: string, index: number): ReadonlySet<string> {
   if (!terms) {
     if (gathering) {
       gathering.phrases.add(phrase);
+      guessCount++;
       return gathering.answer;
     }
     // Sent to the thread ahead: its answer (and those sent before it) is taken rather than asked again.

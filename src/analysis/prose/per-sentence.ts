@@ -1,0 +1,18 @@
+// What the writing rules ask of one sentence (does it give an instruction, which numbers lack a unit), answered once:
+// the same question is asked while its phrases are gathered for the English model, and again by one rule or more.
+// An answer is kept only when it was read from the model's real tags, never from a guess made while gathering, so
+// that a kept answer is exactly the one the question would give again. Sentences are the keys: an answer goes
+// with the prose it was asked of (prose-sites.ts keeps a procedure's prose until its rules are done).
+import { guessesGiven } from './word-tags.ts';
+import type { Sentence } from './words.ts';
+
+export function perSentence<R>(question: (sentence: Sentence) => R): (sentence: Sentence) => R {
+  const answers = new WeakMap<Sentence, R>();
+  return (sentence) => {
+    if (answers.has(sentence)) return answers.get(sentence)!;
+    const before = guessesGiven();
+    const answer = question(sentence);
+    if (guessesGiven() === before) answers.set(sentence, answer);
+    return answer;
+  };
+}
