@@ -78,6 +78,13 @@ export interface ManualContext {
   reportInRegister(file: string, report: Report): void;
   /** Set when `files` are only part of the manual: `left` files of the procedures folder were not given. */
   partial?: { folder: string; left: number };
+  /**
+   * Runs `work`, which reports on `file` alone, or gives again what it reported when it last ran on the same inputs:
+   * the file, the procedures it calls (call after call), what every rule depends on (the Stepwright code, the
+   * configuration, the register, the date) and `inputs`, which must name everything else `work` reads from other
+   * files. Without a result cache, or when a file it depends on has no key, `work` simply runs.
+   */
+  perFile(file: FileContext, inputs: string, work: () => void): void;
 }
 
 /**

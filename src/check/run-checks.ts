@@ -43,6 +43,11 @@ export interface CheckOptions {
   cache?: { store: ResultCache; salt: string; code?: string };
   /** Read a large run's files on a second thread as well (default true); the results are the same either way. */
   readAhead?: boolean;
+  /**
+   * Told how many files the rules will check, once the cache has answered for the others and before any rule runs
+   * (the command line then starts the English model on its own thread when there are some).
+   */
+  checking?: (files: number) => void;
 }
 
 export interface CheckedFile {
@@ -173,6 +178,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
   if (!knownManual) {
     toRead.push(...answered);
   }
+  options.checking?.(toCheck.length);
   reader = startSourceReader(options.readAhead === false ? [] : toRead);
   // Work the rules can start ahead (the English model tags on its own thread) is started for the first files before
   // any rule runs, and then for each file a stretch ahead of the one being checked: it goes on while the rules check,
@@ -197,13 +203,14 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     runGuarded(rule, () => rule.check(context), context, emit);
   };
   const runRules = (context: LazyFileContext, list: FileRule[]) => list.forEach((rule) => runRule(context, rule));
-  const finish = (context: LazyFileContext) => {
-    context.summary = summarise(context.procedure);
+  // `own`: the file's own findings, when its sink holds others too (see `deferred` below).
+  const finish = (context: LazyFileContext, own: Diagnostic[] = sink.get(context)!) => {
+    context.summary ??= summarise(context.procedure);
     // What only this file's rules read (its prose, sequence, decisions and plant state) is made again should a later
     // pass ask for it: a large run keeps one file's analyses at a time, not every file's until the end.
     forgetRuleAnalysesOf(context.procedure, context.facts);
     const key = fileKeys.get(context);
-    if (key) store!.set(key, { diagnostics: sink.get(context)!, summary: context.summary } satisfies CachedFile);
+    if (key) store!.set(key, { diagnostics: own, summary: context.summary } satisfies CachedFile);
   };
   // A rule whose work ahead is not done yet for a file (its phrases not yet tagged) is left for later: the other rules
   // check that file and the next ones meanwhile, instead of waiting. Few files wait so, in the order they came; the
@@ -225,7 +232,19 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       finish(entry.context);
     }
   });
-  for (const entry of waiting.splice(0)) {
+  // Rules still waiting for the English model when the cross-file passes are to run next (a check after an edit:
+  // a few files checked, every other file read for the passes) run after those passes, while the model loads and
+  // tags on its own thread, instead of the main thread waiting for it first. The passes read the files' summaries,
+  // made now; the findings of the rules run later are the files' own, kept apart from what the passes add.
+  const deferred: Array<(typeof waiting)[number] & { ownBefore: number }> = [];
+  const waitingNow = waiting.splice(0);
+  const passesRun = !knownManual;
+  for (const entry of waitingNow) {
+    if (passesRun && !ready(entry)) {
+      entry.context.summary = summarise(entry.context.procedure);
+      deferred.push({ ...entry, ownBefore: sink.get(entry.context)!.length });
+      continue;
+    }
     runRules(entry.context, entry.rules);
     finish(entry.context);
   }
@@ -244,7 +263,10 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     if (reader) for (let i = contexts.length - 1; i >= 0; i--) void contexts[i].procedure;
     // A caller's findings with its calls expanded depend on it and the procedures it calls, call after call: kept
     // under the keys of those files, so an edit re-expands only the callers it reaches.
-    const expansion = store && rules.some((r) => r.scope === 'engine') ? expansionKeys(contexts, keyOf, shared) : new Map<FileContext, string>();
+    // Each file's key together with those of the procedures it calls: what a file's findings with its calls expanded
+    // depend on (the engine's pass, and the manual rules' work per file).
+    const withCallees = store ? calleeKeys(contexts, keyOf, shared) : new Map<FileContext, string>();
+    const expansion = new Map(rules.some((r) => r.scope === 'engine') ? [...withCallees].filter(([c]) => (c as LazyFileContext).summary?.calls.length) : []);
     const knownExpansion = new Map<FileContext, Diagnostic[]>();
     for (const [context, key] of expansion) {
       const found = cachedDiagnostics(store!, key, context.file);
@@ -255,8 +277,17 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     if (runEnginePasses(rules, contexts, ownFindings, emit, (c) => knownExpansion.has(c))) {
       for (const [context, key] of expansion) if (!knownExpansion.has(context)) store!.set(key, sink.get(context)!.slice(beforePasses.get(context)));
     }
-    runManualRules(rules, contexts, options, emit, registerDiagnostics);
+    runManualRules(rules, contexts, options, emit, registerDiagnostics, sink, store, store && ((context, parts) => {
+      const key = withCallees.get(context);
+      return key === undefined ? undefined : cacheKey(['per-file', key, ...parts]);
+    }));
     manualFindings = contexts.flatMap((c) => sink.get(c)!.slice(before.get(c)).map((diagnostic) => ({ file: c.file, diagnostic })));
+  }
+  for (const entry of deferred) {
+    const found = sink.get(entry.context)!;
+    const passesAfter = found.length;
+    runRules(entry.context, entry.rules);
+    finish(entry.context, [...found.slice(0, entry.ownBefore), ...found.slice(passesAfter)]);
   }
   // Every file the rules and passes read has been read: anything read later is read on this thread.
   reader?.stop();
@@ -286,15 +317,16 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
 }
 
 /**
- * The key of each caller's expansion findings: the keys of the caller and of every procedure it calls, call after
- * call (found by id as the pass finds them: the first file with that id), and of the ids no file has.
+ * Each file's key together with the keys of every procedure it calls, call after call (found by id as the passes find
+ * them: the first file with that id), and of the ids no file has; a file that calls nothing has its own key with
+ * `shared`. A file missing: a file it depends on could not be read (it has no key).
  */
-function expansionKeys(contexts: LazyFileContext[], keyOf: Map<FileContext, string>, shared: string): Map<FileContext, string> {
+function calleeKeys(contexts: LazyFileContext[], keyOf: Map<FileContext, string>, shared: string): Map<FileContext, string> {
   const byId = new Map<string, LazyFileContext>();
   for (const c of contexts) if (c.summary?.id && !byId.has(c.summary.id)) byId.set(c.summary.id, c);
   const out = new Map<FileContext, string>();
   for (const context of contexts) {
-    if (!context.summary?.calls.length) continue;
+    if (!context.summary) continue;
     const parts = ['expansion', shared, keyOf.get(context)];
     const seen = new Set<string>();
     const queue = [...context.summary.calls];
@@ -344,8 +376,22 @@ function runEnginePasses(
 function runManualRules(
   rules: Rule[], contexts: FileContext[], options: CheckOptions,
   emit: (c: FileContext, m: RuleMeta, r: Report) => void, registerDiagnostics: Diagnostic[],
+  sink: Map<FileContext, Diagnostic[]>, store?: ResultCache, perFileKey?: (context: FileContext, parts: string[]) => string | undefined,
 ): void {
   const register = options.register;
+  /** A rule's work for one file, run or given again from the cache (see ManualContext.perFile). */
+  const perFile = (meta: RuleMeta) => (context: FileContext, inputs: string, work: () => void) => {
+    const key = perFileKey?.(context, [meta.id, inputs]);
+    const found = key === undefined ? undefined : cachedDiagnostics(store!, key, context.file);
+    const diagnostics = sink.get(context)!;
+    if (found) {
+      diagnostics.push(...found);
+      return;
+    }
+    const before = diagnostics.length;
+    work();
+    if (key !== undefined) store!.set(key, diagnostics.slice(before));
+  };
   const reportInRegister = (meta: RuleMeta) => (file: string, report: Report) => {
     const chosen = options.severity?.(meta.id, file);
     if (chosen === 'off') return;
@@ -358,7 +404,7 @@ function runManualRules(
     try {
       rule.check({
         files: contexts, today: options.today, register, reportInRegister: inRegister, ...(options.partial ? { partial: options.partial } : {}),
-        report: (ctx, report) => emit(ctx, rule.meta, report),
+        report: (ctx, report) => emit(ctx, rule.meta, report), perFile: perFile(rule.meta),
       });
     } catch (error) {
       // A rule that fails must say so; with no procedure to point at, the report goes to the register or the first file.

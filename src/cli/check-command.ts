@@ -8,6 +8,7 @@ import { UsageError, useColour, type CliIo } from './io.ts';
 import { packageVersion } from './version.ts';
 import { checkHelp } from './command-help.ts';
 import { withCompilersForSize } from './compile-tiers.ts';
+import { startModelThread } from '../analysis/prose/model-thread.ts';
 
 export { checkHelp };
 
@@ -32,6 +33,11 @@ export async function runCheck(argv: string[], io: CliIo): Promise<number> {
     run = await withCompilersForSize((sized) => runCheckRun({
       cwd: io.cwd, env: io.env, now: io.now, stdin: io.stdin, paths: positionals, procedures: values.procedures, config: values.config,
       history: values['no-history'] ? false : { base: values.base }, sized,
+      // A check that found a result cache did not start the English model (main.ts): a run with files to check after
+      // all (an edit) starts it now, to load on its own thread while the other files are read for the cross-file rules.
+      checking: (files) => {
+        if (files > 0) startModelThread();
+      },
     }));
   } catch (error) {
     if (!(error instanceof GitError)) throw error;

@@ -48,6 +48,8 @@ export interface CheckRunRequest {
   stdin?: () => Promise<string>;
   /** Told how many files were found, before any is read. */
   sized?: (files: number) => void;
+  /** Told how many files the rules will check (those the result cache did not answer for), before any rule runs. */
+  checking?: (files: number) => void;
 }
 
 export interface SkippedFile {
@@ -122,7 +124,7 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   const checked = checkSources(inputs, {
     today, previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
     ...(partial ? { partial } : {}),
-    cache,
+    cache, checking: request.checking,
   });
   // A large run's entries are written on a thread of their own while the rules check: they are all on disk (or
   // given up on) before the run reports.

@@ -53,9 +53,10 @@ describe('result cache', () => {
   it('gives the same diagnostics warm as cold, from the cache', () => {
     const inputs = withText(demo, demo[0].file, noisy);
     const cold = check(inputs);
-    // One entry per file, one for the cross-file rules' findings over all of them, one for the one caller's findings
-    // with its calls expanded, and one for the split of the one file that waives a finding.
-    expect(cold.store.stats).toMatchObject({ hits: 0, misses: inputs.length + 3 });
+    // One entry per file, one per file for its plant state judged against the hazards of the manual, one for the
+    // cross-file rules' findings over all of them, one for the one caller's findings with its calls expanded, and one
+    // for the split of the one file that waives a finding.
+    expect(cold.store.stats).toMatchObject({ hits: 0, misses: 2 * inputs.length + 3 });
     const warm = check(inputs);
     expect(warm.store.stats).toMatchObject({ hits: inputs.length + 1, misses: 0, refused: 0 });
     expect(warm.result.diagnostics).toEqual(cold.result.diagnostics);
@@ -73,8 +74,9 @@ describe('result cache', () => {
     const { store, result } = check(edited);
     // The edited file and the cross-file findings miss; every other file's results are found, and so are its parts
     // (what reading it found), which the cross-file rules read instead of the file.
-    // The caller's expansion (the edit is not among the procedures it calls) and the waiving file's split are found too.
-    expect(store.stats).toMatchObject({ hits: 2 * (demo.length - 1) + 2, misses: 2 });
+    // The caller's expansion (the edit is not among the procedures it calls) and the waiving file's split are found too,
+    // and so is every other file's plant state judged against the manual's hazards; the edited file's is judged again.
+    expect(store.stats).toMatchObject({ hits: 3 * (demo.length - 1) + 2, misses: 3 });
     expect(result.diagnostics.filter((d) => d.rule === 'duplicate-procedure-id').length).toBeGreaterThan(0);
     expect(result.diagnostics).toEqual(checkSources(edited, { today }).diagnostics);
   });
@@ -95,7 +97,7 @@ describe('result cache', () => {
     const inputs = withText(demo, demo[0].file, noisy);
     const cold = check(inputs).result.diagnostics;
     const files = entries();
-    expect(files.length).toBe(inputs.length + 3);
+    expect(files.length).toBe(2 * inputs.length + 3);
     const text = readFileSync(files[0], 'utf8');
     writeFileSync(files[0], text.slice(0, Math.floor(text.length / 2)));
     writeFileSync(files[1], '\u0000\u00ff garbage');
@@ -110,7 +112,7 @@ describe('result cache', () => {
       writeFileSync(file, JSON.stringify(entry));
     }
     const { store, result } = check(inputs);
-    expect(store.stats).toMatchObject({ hits: 0, refused: inputs.length + 3 });
+    expect(store.stats).toMatchObject({ hits: 0, refused: 2 * inputs.length + 3 });
     expect(result.diagnostics).toEqual(cold);
     // The refused entries were replaced with good ones.
     expect(check(inputs).store.stats.hits).toBe(inputs.length + 1);
@@ -135,8 +137,9 @@ describe('result cache', () => {
     const partial = { folder: 'procedures', left: 1 };
     const store = openResultCache(dir);
     const result = checkSources(inputs, { today, partial, cache: { store, salt: 'v1' } });
-    // Results and parts of every file (less the four refused), the caller's expansion and the waiving file's split.
-    expect(store.stats).toMatchObject({ hits: 2 * inputs.length - 4 + 2, refused: 4 });
+    // Results, parts (less the four refused) and plant-state judgements of every file, the caller's expansion and the
+    // waiving file's split.
+    expect(store.stats).toMatchObject({ hits: 3 * inputs.length - 4 + 2, refused: 4 });
     expect(result.diagnostics).toEqual(checkSources(inputs, { today, partial }).diagnostics);
   });
 
@@ -163,7 +166,66 @@ describe('result cache', () => {
     // An edit to a procedure the caller does not call leaves its expansion as it was (taken from the cache).
     const elsewhere = run(callee200, noisy((other as { text: string }).text));
     expect(elsewhere.combined).toHaveLength(1);
-    expect(elsewhere.store.stats.misses).toBe(2);
+    // The edited file, its plant-state judgement and the findings over all files.
+    expect(elsewhere.store.stats.misses).toBe(3);
+  });
+
+  it('judges a procedure\'s plant state again when another procedure\'s hazard that applies to it changes, and only then', () => {
+    const fixtures = join('tests', 'fixtures', 'rules', 'hazard-can-occur');
+    // The batch opens the cooling-oil valve while hot; the shutdown states that hazard about the same signals.
+    const batch = { file: 'batch.md', text: readFileSync(join(fixtures, 'invalid-other-procedures-caution.md'), 'utf8').replace('  # expect: hazard-can-occur', '') };
+    const shutdown = readFileSync(join(fixtures, 'valid-shutdown-states-caution.md'), 'utf8');
+    const other = demo.find((i) => 'text' in i)! as { file: string; text: string };
+    const run = (shutdownText: string, otherText = other.text) => {
+      const inputs: SourceInput[] = [batch, { file: 'shutdown.md', text: shutdownText }, { file: other.file, text: otherText }];
+      const { store, result } = check(inputs);
+      // Whatever the cache held, the answer is the one a check without a cache gives.
+      expect(result.diagnostics).toEqual(checkSources(inputs, { today }).diagnostics);
+      return { store, found: result.diagnostics.filter((d) => d.rule === 'hazard-can-occur' && d.file === 'batch.md') };
+    };
+    const first = run(shutdown);
+    expect(first.found).toHaveLength(1);
+    expect(first.found[0].message).toContain("'Cooling oil into a hot jacket'");
+    // Another name for the hazard: the batch's own results come from the cache, its hazard finding must not.
+    const renamed = run(shutdown.replace('hazard: Cooling oil into a hot jacket', 'hazard: Cold oil on a hot jacket'));
+    expect(renamed.found.map((d) => d.message)).toEqual([first.found[0].message.replace('Cooling oil into a hot jacket', 'Cold oil on a hot jacket')]);
+    // A condition that cannot hold where the batch opens the valve: nothing to report any more.
+    expect(run(shutdown.replace('TI-210 > 200 degC', 'TI-210 > 300 degC')).found).toEqual([]);
+    expect(run(shutdown).found).toEqual(first.found);
+    // An edit to a procedure whose hazards do not apply leaves the batch's judgement as it was, taken from the cache:
+    // only the edited file, its own judgement and the findings over all files miss.
+    const elsewhere = run(shutdown, noisy(other.text));
+    expect(elsewhere.found).toEqual(first.found);
+    expect(elsewhere.store.stats.misses).toBe(3);
+  });
+
+  it('judges a caller\'s plant state again when a procedure it calls changes', () => {
+    const fixtures = join('tests', 'fixtures', 'rules', 'call-expansion-problem');
+    // The caller starts with the line below 110 kPa and states a hazard above 170 kPa: whether it can be present
+    // depends on how far the procedure it calls pressurises the line.
+    const caller = {
+      file: 'caller.md',
+      text: readFileSync(join(fixtures, 'invalid-caller.md'), 'utf8').replace('  # expect: call-expansion-problem', '').replace('steps:\n', [
+        'line-up: [PI-1 <= 110 kPa]',
+        'hazards:',
+        '  - { level: warning, hazard: Hose connection bursts, consequence: A nitrogen jet at the hose, avoid: Keep the line below 170 kPa, when: PI-1 > 170 kPa, at: [connect] }',
+        'steps:\n',
+      ].join('\n')),
+    };
+    const callee200 = readFileSync(join(fixtures, 'valid-callee.md'), 'utf8');
+    const callee140 = callee200.replace('PI-1: 200 kPa', 'PI-1: 140 kPa').replace('PI-1 >= 195 kPa', 'PI-1 >= 135 kPa');
+    const run = (callee: string) => {
+      const inputs: SourceInput[] = [caller, { file: 'callee.md', text: callee }];
+      const { result } = check(inputs);
+      expect(result.diagnostics).toEqual(checkSources(inputs, { today }).diagnostics);
+      return result.diagnostics.filter((d) => d.rule === 'hazard-can-occur' && d.file === 'caller.md');
+    };
+    expect(run(callee140)).toEqual([]);
+    const raised = run(callee200);
+    // While the line is pressurised to 200 kPa, and while it is vented from there.
+    expect(raised.map((d) => /at step '([^']+)'/.exec(d.message)?.[1])).toEqual(['inert/pressurise', 'inert/vent']);
+    expect(raised.every((d) => d.message.includes("'Hose connection bursts'"))).toBe(true);
+    expect(run(callee140)).toEqual([]);
   });
 
   it('does not write kept parts again when every file is checked again (another date)', async () => {
@@ -194,7 +256,7 @@ describe('result cache', () => {
   it('works when the folder is deleted between runs or cannot be written', () => {
     check(demo.slice(0, 2));
     rmSync(dir, { recursive: true, force: true });
-    expect(check(demo.slice(0, 2)).store.stats.misses).toBe(3);
+    expect(check(demo.slice(0, 2)).store.stats.misses).toBe(5);
     expect(existsSync(dir)).toBe(true);
     // A file where the folder should be: nothing can be written, and the check goes on without the cache.
     rmSync(dir, { recursive: true, force: true });

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
-import { defineFileRule, type FileContext, type RuleMeta, type WorkAhead } from '../../src/check/define-rule.ts';
+import { defineFileRule, defineManualRule, type FileContext, type RuleMeta, type WorkAhead } from '../../src/check/define-rule.ts';
 import { openResultCache } from '../../src/check/result-cache.ts';
 import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
 
@@ -103,6 +103,38 @@ describe('work ahead', () => {
       expect(second.order).toEqual([]);
       expect(warm.diagnostics).toEqual(cold.diagnostics);
       expect(warm.diagnostics.filter((d) => d.rule === 'test-ahead')).toHaveLength(3);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+
+  it('runs the rules still waiting at the end after the cross-file rules, and keeps only a file\'s own findings with it', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'stepwright-ahead-'));
+    try {
+      const run = (inputs: SourceInput[], ready: () => boolean) => {
+        const logged = rules(ready);
+        const manual = defineManualRule(meta('test-manual'), (ctx) => {
+          logged.order.push('manual');
+          for (const file of ctx.files) ctx.report(file, { message: 'a finding about the whole manual', hint: 'none' });
+        });
+        const result = checkSources(inputs, { today, rules: [...logged.list, manual], cache: { store: openResultCache(dir), salt: 't' } });
+        return { order: logged.order, result };
+      };
+      // Never ready while the files are checked: the waiting rules run once the cross-file rule has.
+      const cold = run(three, () => false);
+      expect(cold.order).toEqual([...names.map((n) => `plain ${n}`), 'manual', ...names.map((n) => `ahead ${n}`)]);
+      expect(cold.result.diagnostics).toEqual(checkSources(three, { today, rules: [...rules(() => true).list, defineManualRule(meta('test-manual'), (ctx) => {
+        for (const file of ctx.files) ctx.report(file, { message: 'a finding about the whole manual', hint: 'none' });
+      })] }).diagnostics);
+      // A fourth file: the three come from the cache, the cross-file rule runs again over all four. Had a file's
+      // entry kept the cross-file finding, that file would show it twice.
+      const four = demo.slice(0, 4);
+      const warm = run(four, () => true);
+      expect(warm.order).toEqual([`plain ${four[3].file.replace(/.*\//, '')}`, `ahead ${four[3].file.replace(/.*\//, '')}`, 'manual']);
+      for (const input of four) {
+        const own = warm.result.diagnostics.filter((d) => d.file === input.file);
+        expect(own.map((d) => d.rule).sort()).toEqual(['test-ahead', 'test-manual', 'test-plain']);
+      }
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }

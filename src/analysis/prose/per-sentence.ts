@@ -6,10 +6,12 @@
 import { guessesGiven } from './word-tags.ts';
 import type { Sentence } from './words.ts';
 
-export function perSentence<R>(question: (sentence: Sentence) => R): (sentence: Sentence) => R {
+/** `question` answers never undefined (a kept answer is found with one look-up). */
+export function perSentence<R extends NonNullable<unknown> | null>(question: (sentence: Sentence) => R): (sentence: Sentence) => R {
   const answers = new WeakMap<Sentence, R>();
   return (sentence) => {
-    if (answers.has(sentence)) return answers.get(sentence)!;
+    const kept = answers.get(sentence);
+    if (kept !== undefined) return kept;
     const before = guessesGiven();
     const answer = question(sentence);
     if (guessesGiven() === before) answers.set(sentence, answer);

@@ -60,7 +60,7 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
     const groups = foreignGroups(withCondition);
     for (const file of ctx.files) {
       const procedure = file.procedure;
-      if (!procedure || !file.facts) continue;
+      if (!procedure) continue;
       const hasCalls = callSitesOf(procedure).length > 0;
       const expanded = hasCalls ? inlineCalls(procedure, (id) => byId.get(id)?.procedure ?? undefined).procedure : procedure;
       const own = expanded.hazards.filter((h) => h.when?.value.trim()).map((h) => ({ hazard: h, from: undefined as string | undefined }));
@@ -82,6 +82,19 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
       const registerHazards = registerHazardsOf(procedure)
         .filter((r) => !ownTexts.has(r.hazard.when!.value))
         .filter((r) => !(emergencyKinds.has(procedure.kind) && r.hazard.level === 'notice'));
+      // The plant state is analysed again only when the file, a procedure it calls, or another procedure's hazard
+      // that applies here has changed: everything else the findings depend on (the register, the configuration, the
+      // date, the code) is in every file's key already.
+      const inputs = JSON.stringify(foreign.map(({ hazard, from }) => [from, hazard.level, hazard.hazard, hazard.when!.value]));
+      ctx.perFile(file, inputs, () => judge(file, procedure, expanded, own, ownTexts, foreign, registerHazards));
+    }
+
+    function judge(
+      file: FileContext, procedure: Procedure, expanded: Procedure, own: Array<{ hazard: Hazard; from: string | undefined }>,
+      ownTexts: Set<string>, foreign: Array<{ hazard: Hazard; from: string }>, registerHazards: Array<{ hazard: Hazard; from: string }>,
+    ): void {
+      const facts = file.facts;
+      if (!facts) return;
       const fromRegister = registerHazards.filter((r) => undeclaredIn(r.hazard, expanded).length === 0);
       for (const r of registerHazards) {
         const missing = undeclaredIn(r.hazard, expanded);
@@ -94,11 +107,11 @@ make the transition of the step before guarantee it (\`until: LI-210 >= 20 perce
         });
       }
       const all = [...own, ...foreign, ...fromRegister];
-      if (!all.length) continue;
+      if (!all.length) return;
       const shared = expanded === procedure && !foreign.length && !fromRegister.length;
-      const graph = shared ? file.facts.graph : compileStepGraph(expanded);
+      const graph = shared ? facts.graph : compileStepGraph(expanded);
       const analysis = shared
-        ? file.facts.state
+        ? facts.state
         : analyseState(stateInputOf(expanded, graph), all.map((h) => h.hazard.when!.value));
       if (!analysis.complete && !shared) {
         ctx.report(file, {
