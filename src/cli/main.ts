@@ -57,8 +57,9 @@ function unknownCommand(name: string, io: CliIo, context = ''): number {
 /**
  * A check with no result cache to answer from (none yet, or STEPWRIGHT_CACHE=off) reads every file's prose with the
  * English model: its load starts now on a second thread, beside loading the checker and reading the files. A check
- * that finds a cache may find every answer there and need no model, so it loads the model only when asked, as before:
- * a quick check of an unchanged manual is not slowed by a thread it does not use. `build` starts the thread in any
+ * that finds a cache may find every answer there and need no model: it starts the thread only once it knows that
+ * some files were edited (check-command.ts), so a quick check of an unchanged manual is not slowed by a thread it does
+ * not use. `build` starts the thread in any
  * case: a rebuild after an edit reads the edited file's prose, and the main thread is busy for seconds reading the
  * others for the cross-file rules while the second core would wait (it stops the thread once the check is done,
  * before the pages are built).
