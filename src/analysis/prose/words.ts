@@ -58,7 +58,10 @@ function kindOf(token: string): WordKind {
   return 'word';
 }
 
-/** Sentences end at . ! ? or a line break; decimals and tags with dots stay whole because words come first. */
+/**
+ * Sentences end at . ! ? or a blank line, and a list item on a new line starts one; decimals and tags with dots stay
+ * whole because words come first.
+ */
 export function splitSentences(text: string): Sentence[] {
   const words = splitWords(text);
   const sentences: Sentence[] = [];
@@ -78,6 +81,8 @@ export function splitSentences(text: string): Sentence[] {
     }
     start = end;
   };
+  // A list that starts the text: its first marker belongs to no sentence either.
+  if (words.length > 1 && isListMarker(text, words[0]) && text.slice(0, words[0].from).trim() === '') start = 1;
   let newline = text.indexOf('\n');
   for (let i = 0; i < words.length; i++) {
     const w = words[i];
@@ -88,12 +93,20 @@ export function splitSentences(text: string): Sentence[] {
     // Words are mostly a space apart: only a gap with a line break in it can break the sentence. The next line
     // break is found once for all the words before it.
     if (newline !== -1 && newline < w.to) newline = text.indexOf('\n', w.to);
-    const lineBreak = i + 1 < words.length && newline !== -1 && newline < words[i + 1].from
-      && /\n\s*\n|\n\s*[-*]\s/.test(text.slice(w.to, words[i + 1].from));
-    if (endsSentence || lineBreak) flush(i + 1);
+    const lineBreak = i + 1 < words.length && newline !== -1 && newline < words[i + 1].from;
+    // A list item on a new line ("- open XV-2101", "* start P-211") starts a sentence of its own; its marker is
+    // a word of its own (a symbol), and belongs to neither sentence.
+    const listItem = lineBreak && isListMarker(text, words[i + 1]);
+    if (endsSentence || (lineBreak && /\n\s*\n/.test(text.slice(w.to, words[i + 1].from))) || listItem) flush(i + 1);
+    if (listItem) start = i + 2;
   }
   flush(words.length);
   return sentences;
+}
+
+/** A '-', '*' or '+' that a space follows: the marker of a list item, when it starts a line. */
+function isListMarker(text: string, word: Word): boolean {
+  return word.kind === 'symbol' && (word.text === '-' || word.text === '*' || word.text === '+') && /\s/.test(text[word.to] ?? '');
 }
 
 /** Words that count for sentence length: everything but punctuation. */

@@ -23,6 +23,14 @@ describe('splitSentences', () => {
     expect(countWords(s[0])).toBe(9);
   });
 
+  it('a list item on a new line is a sentence of its own, without its marker', () => {
+    const texts = (text: string) => splitSentences(text).map((x) => x.text);
+    expect(texts('Check the line-up:\n- XV-2101 open\n  * P-211 stopped\n+ PI-210 below 1.2 bar')).toEqual(['Check the line-up:', 'XV-2101 open', 'P-211 stopped', 'PI-210 below 1.2 bar']);
+    expect(texts('- Open XV-2101\n- Start P-211')).toEqual(['Open XV-2101', 'Start P-211']);
+    // A dash inside a line, or one that a word follows at once, marks no list item.
+    expect(texts('Keep TI-210 at 80 - 90 degC\n-5 degC is the low trip')).toEqual(['Keep TI-210 at 80 - 90 degC\n-5 degC is the low trip']);
+  });
+
   it('a blank line ends a sentence; a line break alone does not', () => {
     const texts = (text: string) => splitSentences(text).map((x) => x.text);
     expect(texts('Open XV-2101\nand wait for 5 min')).toEqual(['Open XV-2101\nand wait for 5 min']);
