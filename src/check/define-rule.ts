@@ -82,9 +82,10 @@ export interface ManualContext {
    * Runs `work`, which reports on `file` alone, or gives again what it reported when it last ran on the same inputs:
    * the file, the procedures it calls (call after call), what every rule depends on (the Stepwright code, the
    * configuration, the register, the date) and `inputs`, which must name everything else `work` reads from other
-   * files. Without a result cache, or when a file it depends on has no key, `work` simply runs.
+   * files. `reads`: other files whose procedures `work` reads (their keys join the key). Without a result cache, or
+   * when a file it depends on has no key, `work` simply runs.
    */
-  perFile(file: FileContext, inputs: string, work: () => void): void;
+  perFile(file: FileContext, inputs: string, work: () => void, reads?: FileContext[]): void;
 }
 
 /**

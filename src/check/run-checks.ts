@@ -277,9 +277,9 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     if (runEnginePasses(rules, contexts, ownFindings, emit, (c) => knownExpansion.has(c))) {
       for (const [context, key] of expansion) if (!knownExpansion.has(context)) store!.set(key, sink.get(context)!.slice(beforePasses.get(context)));
     }
-    runManualRules(rules, contexts, options, emit, registerDiagnostics, sink, store, store && ((context, parts) => {
-      const key = withCallees.get(context);
-      return key === undefined ? undefined : cacheKey(['per-file', key, ...parts]);
+    runManualRules(rules, contexts, options, emit, registerDiagnostics, sink, store, store && ((context, parts, reads) => {
+      const keys = [withCallees.get(context), ...reads.map((c) => keyOf.get(c))];
+      return keys.every((k) => k !== undefined) ? cacheKey(['per-file', ...parts, ...keys]) : undefined;
     }));
     manualFindings = contexts.flatMap((c) => sink.get(c)!.slice(before.get(c)).map((diagnostic) => ({ file: c.file, diagnostic })));
   }
@@ -376,12 +376,13 @@ function runEnginePasses(
 function runManualRules(
   rules: Rule[], contexts: FileContext[], options: CheckOptions,
   emit: (c: FileContext, m: RuleMeta, r: Report) => void, registerDiagnostics: Diagnostic[],
-  sink: Map<FileContext, Diagnostic[]>, store?: ResultCache, perFileKey?: (context: FileContext, parts: string[]) => string | undefined,
+  sink: Map<FileContext, Diagnostic[]>, store?: ResultCache,
+  perFileKey?: (context: FileContext, parts: string[], reads: FileContext[]) => string | undefined,
 ): void {
   const register = options.register;
   /** A rule's work for one file, run or given again from the cache (see ManualContext.perFile). */
-  const perFile = (meta: RuleMeta) => (context: FileContext, inputs: string, work: () => void) => {
-    const key = perFileKey?.(context, [meta.id, inputs]);
+  const perFile = (meta: RuleMeta) => (context: FileContext, inputs: string, work: () => void, reads: FileContext[] = []) => {
+    const key = perFileKey?.(context, [meta.id, inputs], reads);
     const found = key === undefined ? undefined : cachedDiagnostics(store!, key, context.file);
     const diagnostics = sink.get(context)!;
     if (found) {

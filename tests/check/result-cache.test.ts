@@ -22,6 +22,8 @@ const check = (inputs: SourceInput[], salt = 'v1', store = openResultCache(dir))
 const withText = (inputs: SourceInput[], file: string, edit: (text: string) => string): SourceInput[] =>
   inputs.map((i) => (i.file === file && 'text' in i ? { file, text: edit(i.text) } : i));
 /** A demo procedure with a warning of its own, so a wrong cached answer would show. */
+/** Files with a line-up: each has one more entry, its line-up judged against the procedures it requires. */
+const lineUps = demo.filter((i) => 'text' in i && /^line-up:/m.test(i.text)).length;
 const noisy = (text: string) => text.replace(/\bdo: /, 'do: Adjust the valve as required and check it. ');
 
 describe('result cache', () => {
@@ -56,7 +58,7 @@ describe('result cache', () => {
     // One entry per file, one per file for its plant state judged against the hazards of the manual, one for the
     // cross-file rules' findings over all of them, one for the one caller's findings with its calls expanded, and one
     // for the split of the one file that waives a finding.
-    expect(cold.store.stats).toMatchObject({ hits: 0, misses: 2 * inputs.length + 3 });
+    expect(cold.store.stats).toMatchObject({ hits: 0, misses: 2 * inputs.length + lineUps + 3 });
     const warm = check(inputs);
     expect(warm.store.stats).toMatchObject({ hits: inputs.length + 1, misses: 0, refused: 0 });
     expect(warm.result.diagnostics).toEqual(cold.result.diagnostics);
@@ -76,7 +78,7 @@ describe('result cache', () => {
     // (what reading it found), which the cross-file rules read instead of the file.
     // The caller's expansion (the edit is not among the procedures it calls) and the waiving file's split are found too,
     // and so is every other file's plant state judged against the manual's hazards; the edited file's is judged again.
-    expect(store.stats).toMatchObject({ hits: 3 * (demo.length - 1) + 2, misses: 3 });
+    expect(store.stats).toMatchObject({ hits: 3 * (demo.length - 1) + lineUps + 2, misses: 3 });
     expect(result.diagnostics.filter((d) => d.rule === 'duplicate-procedure-id').length).toBeGreaterThan(0);
     expect(result.diagnostics).toEqual(checkSources(edited, { today }).diagnostics);
   });
@@ -97,7 +99,7 @@ describe('result cache', () => {
     const inputs = withText(demo, demo[0].file, noisy);
     const cold = check(inputs).result.diagnostics;
     const files = entries();
-    expect(files.length).toBe(2 * inputs.length + 3);
+    expect(files.length).toBe(2 * inputs.length + lineUps + 3);
     const text = readFileSync(files[0], 'utf8');
     writeFileSync(files[0], text.slice(0, Math.floor(text.length / 2)));
     writeFileSync(files[1], '\u0000\u00ff garbage');
@@ -112,7 +114,7 @@ describe('result cache', () => {
       writeFileSync(file, JSON.stringify(entry));
     }
     const { store, result } = check(inputs);
-    expect(store.stats).toMatchObject({ hits: 0, refused: 2 * inputs.length + 3 });
+    expect(store.stats).toMatchObject({ hits: 0, refused: 2 * inputs.length + lineUps + 3 });
     expect(result.diagnostics).toEqual(cold);
     // The refused entries were replaced with good ones.
     expect(check(inputs).store.stats.hits).toBe(inputs.length + 1);
@@ -139,7 +141,7 @@ describe('result cache', () => {
     const result = checkSources(inputs, { today, partial, cache: { store, salt: 'v1' } });
     // Results, parts (less the four refused) and plant-state judgements of every file, the caller's expansion and the
     // waiving file's split.
-    expect(store.stats).toMatchObject({ hits: 3 * inputs.length - 4 + 2, refused: 4 });
+    expect(store.stats).toMatchObject({ hits: 3 * inputs.length + lineUps - 4 + 2, refused: 4 });
     expect(result.diagnostics).toEqual(checkSources(inputs, { today, partial }).diagnostics);
   });
 
@@ -226,6 +228,25 @@ describe('result cache', () => {
     expect(raised.map((d) => /at step '([^']+)'/.exec(d.message)?.[1])).toEqual(['inert/pressurise', 'inert/vent']);
     expect(raised.every((d) => d.message.includes("'Hose connection bursts'"))).toBe(true);
     expect(run(callee140)).toEqual([]);
+  });
+
+  it('judges a line-up again when a procedure it requires changes, appears or goes', () => {
+    const fixtures = join('tests', 'fixtures', 'rules', 'line-up-contradicts-required');
+    // The batch's line-up wants XV-1 closed and PI-1 below 100 kPa; the inerting it requires ends with neither.
+    const batch = { file: 'batch.md', text: readFileSync(join(fixtures, 'invalid-batch-line-up.md'), 'utf8').replaceAll('  # expect: line-up-contradicts-required', '') };
+    const inerting = readFileSync(join(fixtures, 'valid-required-inerting.md'), 'utf8');
+    const closesChute = inerting.replace(/\n---\s*$/, '\n  - step: close-chute\n    do: Close charge chute valve XV-1\n    state: { XV-1: closed }\n    until: XV-1 == closed\n---\n');
+    const run = (inertingText?: string) => {
+      const inputs: SourceInput[] = [batch, ...(inertingText ? [{ file: 'inerting.md', text: inertingText }] : [])];
+      const { result } = check(inputs);
+      expect(result.diagnostics).toEqual(checkSources(inputs, { today }).diagnostics);
+      return result.diagnostics.filter((d) => d.rule === 'line-up-contradicts-required').map((d) => /The line-up says ([^,]+),/.exec(d.message)?.[1]);
+    };
+    expect(run(inerting)).toEqual(['XV-1 == closed', 'PI-1 < 100 kPa']);
+    expect(run(closesChute)).toEqual(['PI-1 < 100 kPa']);
+    expect(run(inerting)).toEqual(['XV-1 == closed', 'PI-1 < 100 kPa']);
+    expect(run()).toEqual([]);
+    expect(run(inerting)).toEqual(['XV-1 == closed', 'PI-1 < 100 kPa']);
   });
 
   it('does not write kept parts again when every file is checked again (another date)', async () => {

@@ -1,9 +1,9 @@
 // Reports a line-up condition that a procedure this one requires never leaves true when it ends.
 import { namesIn, parseCondition } from '../../analysis/conditions/parse.ts';
 import { unitDimension } from '../../analysis/units.ts';
-import type { Signal } from '../../model/procedure.ts';
-import { defineManualRule } from '../define-rule.ts';
-import { filesById, requiresOf } from '../requires-sites.ts';
+import type { Procedure, Signal } from '../../model/procedure.ts';
+import { defineManualRule, type FileContext } from '../define-rule.ts';
+import { filesById, requiresOf, type RequiresSite } from '../requires-sites.ts';
 
 export default defineManualRule(
   {
@@ -31,8 +31,16 @@ hold. Add the step that brings the plant into the line-up (to either procedure),
     for (const file of ctx.files) {
       const p = file.procedure;
       if (!p || !p.lineUp.length) continue;
-      for (const site of requiresOf(p)) {
-        const required = byId.get(site.id);
+      // The findings depend on the file and on the procedures it requires, as found by id: the end state of each is
+      // worked out again only when one of them, or which file holds an id, has changed.
+      const sites = requiresOf(p).map((site) => ({ site, required: byId.get(site.id) }));
+      const found = sites.flatMap(({ required }) => (required ? [required] : []));
+      const inputs = JSON.stringify(sites.map(({ site, required }) => [site.id, required?.file ?? null]));
+      ctx.perFile(file, inputs, () => judge(file, p, sites), found);
+    }
+
+    function judge(file: FileContext, p: Procedure, sites: Array<{ site: RequiresSite; required: FileContext | undefined }>): void {
+      for (const { site, required } of sites) {
         const q = required?.procedure;
         if (!q || required === file || !required.facts) continue;
         const analysis = required.facts.state;
