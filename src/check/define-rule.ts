@@ -79,11 +79,12 @@ export interface ManualContext {
   /** Set when `files` are only part of the manual: `left` files of the procedures folder were not given. */
   partial?: { folder: string; left: number };
   /**
-   * Runs `work`, which reports on `file` alone, or gives again what it reported when it last ran on the same inputs:
+   * Runs `work`, which reports on `file`, or gives again what it reported when it last ran on the same inputs:
    * the file, the procedures it calls (call after call), what every rule depends on (the Stepwright code, the
    * configuration, the register, the date) and `inputs`, which must name everything else `work` reads from other
    * files. `reads`: other files whose procedures `work` reads (their keys join the key). Without a result cache, or
-   * when a file it depends on has no key, `work` simply runs.
+   * when a file it depends on has no key, `work` simply runs; work that also reports on another file or on the
+   * register is not kept, and runs again next time.
    */
   perFile(file: FileContext, inputs: string, work: () => void, reads?: FileContext[]): void;
 }

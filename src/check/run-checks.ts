@@ -390,10 +390,25 @@ function runManualRules(
       return;
     }
     const before = diagnostics.length;
-    work();
-    if (key !== undefined) store!.set(key, diagnostics.slice(before));
+    const outer = working;
+    working = { file: context, strayed: false };
+    try {
+      work();
+      // What the work reported elsewhere (another file, the register) would not be given again with this file's
+      // findings: such work is not kept, and runs again next time.
+      if (key !== undefined && !working.strayed) store!.set(key, diagnostics.slice(before));
+    } finally {
+      if (outer && working.strayed) outer.strayed = true;
+      working = outer;
+    }
+  };
+  /** The file whose work perFile is running, and whether that work has reported anywhere else. */
+  let working: { file: FileContext; strayed: boolean } | undefined;
+  const noteReport = (file: FileContext | string) => {
+    if (working && file !== working.file) working.strayed = true;
   };
   const reportInRegister = (meta: RuleMeta) => (file: string, report: Report) => {
+    noteReport(file);
     const chosen = options.severity?.(meta.id, file);
     if (chosen === 'off') return;
     const source = register?.sources.find((s) => s.file === file)?.source ?? readSource(file, '');
@@ -405,7 +420,11 @@ function runManualRules(
     try {
       rule.check({
         files: contexts, today: options.today, register, reportInRegister: inRegister, ...(options.partial ? { partial: options.partial } : {}),
-        report: (ctx, report) => emit(ctx, rule.meta, report), perFile: perFile(rule.meta),
+        report: (ctx, report) => {
+          noteReport(ctx);
+          emit(ctx, rule.meta, report);
+        },
+        perFile: perFile(rule.meta),
       });
     } catch (error) {
       // A rule that fails must say so; with no procedure to point at, the report goes to the register or the first file.

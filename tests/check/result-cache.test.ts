@@ -5,6 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
+import { defineManualRule, type FileContext } from '../../src/check/define-rule.ts';
 import { cacheKey, openResultCache, stepwrightStamp } from '../../src/check/result-cache.ts';
 import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
 
@@ -247,6 +248,30 @@ describe('result cache', () => {
     expect(run(inerting)).toEqual(['XV-1 == closed', 'PI-1 < 100 kPa']);
     expect(run()).toEqual([]);
     expect(run(inerting)).toEqual(['XV-1 == closed', 'PI-1 < 100 kPa']);
+  });
+
+  it('does not keep a file\'s work that also reported elsewhere, so nothing it said is lost the next time', () => {
+    const meta = { id: 'test-elsewhere', category: 'sequence', defaultSeverity: 'warning', summary: 'reports on a neighbour', docs: 'A rule of this test.' } as const;
+    const rule = defineManualRule(meta, (ctx) => {
+      ctx.files.forEach((file: FileContext, i: number) => ctx.perFile(file, '', () => {
+        ctx.report(file, { message: `about ${file.file}`, hint: 'none' });
+        // The first file's work also speaks about the second file.
+        if (i === 0 && ctx.files[1]) ctx.report(ctx.files[1], { message: `about ${ctx.files[1].file}, from ${file.file}`, hint: 'none' });
+      }));
+    });
+    const run = (inputs: SourceInput[]) => {
+      const store = openResultCache(dir);
+      const result = checkSources(inputs, { today, rules: [rule], cache: { store, salt: 'v1' } });
+      expect(result.diagnostics).toEqual(checkSources(inputs, { today, rules: [rule] }).diagnostics);
+      return { store, messages: result.diagnostics.map((d) => d.message) };
+    };
+    const two = demo.slice(0, 2);
+    expect(run(two).messages).toHaveLength(3);
+    // Another file joins: the findings over all files are made again; the first file's work runs again (it was not
+    // kept), the second file's is taken from the cache.
+    const three = run(demo.slice(0, 3));
+    expect(three.messages).toHaveLength(4);
+    expect(three.messages).toContain(`about ${two[1].file}, from ${two[0].file}`);
   });
 
   it('does not write kept parts again when every file is checked again (another date)', async () => {
