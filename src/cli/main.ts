@@ -65,10 +65,8 @@ function unknownCommand(name: string, io: CliIo, context = ''): number {
  * before the pages are built).
  */
 async function startEnglishModelEarly(io: CliIo, command: string): Promise<void> {
-  const { existsSync } = await import('node:fs');
-  const { resultCacheFolder } = await import('../engine/cache-folder.ts');
-  const folder = resultCacheFolder(io);
-  if (command !== 'build' && folder !== undefined && existsSync(folder)) return;
+  const { resultCacheHoldsEntries } = await import('../engine/cache-folder.ts');
+  if (command !== 'build' && resultCacheHoldsEntries(io)) return;
   (await import('../analysis/prose/model-thread.ts')).startModelThread();
 }
 

@@ -82,7 +82,8 @@ export function tagsAt(phrase: string, index: number): ReadonlySet<string> {
   return terms[index] ?? none;
 }
 
-const guesses: ReadonlyArray<ReadonlySet<string>> = [none, new Set(['Verb', 'Noun', 'Adjective'])];
+/** The answers gathering gives in turn for a phrase it has no answer for. */
+const guessedAnswers: ReadonlyArray<ReadonlySet<string>> = [none, new Set(['Verb', 'Noun', 'Adjective'])];
 
 /**
  * Every phrase `ask` would ask `tagsAt` for and that has no answer yet. `ask` is run twice, once with every
@@ -92,7 +93,7 @@ const guesses: ReadonlyArray<ReadonlySet<string>> = [none, new Set(['Verb', 'Nou
  */
 function gather(ask: () => void): Set<string> {
   const phrases = new Set<string>();
-  for (const answer of guesses) {
+  for (const answer of guessedAnswers) {
     gathering = { phrases, answer };
     try {
       ask();

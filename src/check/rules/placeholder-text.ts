@@ -36,11 +36,10 @@ function visitData(ctx: FileContext, value: unknown, path: PathKey[]): void {
     return;
   }
   if (value !== null && typeof value === 'object') {
-    for (const key in value) {
-      if (!Object.hasOwn(value, key)) continue;
+    for (const [key, item] of Object.entries(value)) {
       path.push(key);
       if (isPlaceholder(key)) report(ctx, key, { path: [...path], part: 'key' });
-      visitData(ctx, (value as Record<string, unknown>)[key], path);
+      visitData(ctx, item, path);
       path.pop();
     }
     return;
