@@ -168,9 +168,19 @@ export function estimateCycleTime(procedure: Pick<Procedure, 'steps'>): CycleTim
   return {
     shortest: whole.shortest, typical: whole.typical, longest: whole.longest,
     criticalPath: whole.path, timeline: whole.bars, stepsTimed, stepsTotal,
-    // A loop body is measured again for its repeats; keep each note once.
-    notes: notes.filter((n, i) => notes.findIndex((m) => m.kind === n.kind && m.path.join('.') === n.path.join('.')) === i),
+    notes: onceEach(notes),
   };
+}
+
+/** A loop body is measured again for its repeats: each note is kept once, where it first came. */
+function onceEach(notes: CycleTimeNote[]): CycleTimeNote[] {
+  const seen = new Set<string>();
+  return notes.filter((n) => {
+    const key = `${n.kind}\u0000${n.path.join('.')}`;
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
 }
 
 /**

@@ -112,6 +112,26 @@ describe('estimateCycleTime', () => {
     expect(formatSeconds(ct.longest)).toBe('no bound');
   });
 
+  it('keeps each note once when a loop measures an earlier loop again', () => {
+    const ct = estimateCycleTime(procedureOf(`
+  - { step: a, do: Heat, confirm: Hot, expect: 10 min }
+  - choose:
+      - when: cold
+        goto: a
+      - otherwise: true
+  - { step: b, do: Stir, confirm: Stirred }
+  - choose:
+      - when: again
+        goto: a
+        repeat: { expected: 1, max: 2 }
+      - otherwise: true`));
+    // The second loop's body (a, the first decision, b) holds the first loop, so it is measured twice.
+    expect(ct.notes.map((n) => [n.kind, n.path.join('.')])).toEqual([
+      ['loop-without-repeat', 'steps.1.choose.0.goto'],
+      ['no-expect', 'steps.2.step'],
+    ]);
+  });
+
   it('notes a bad expect and counts it as zero', () => {
     const ct = estimateCycleTime(procedureOf(`
   - { step: a, do: Heat, confirm: Hot, expect: 10 kg }
