@@ -3,7 +3,7 @@
 // misses. An entry that is unreadable, cut short, altered or written for another key is ignored, never trusted;
 // the folder may be deleted at any time.
 import { createHash } from 'node:crypto';
-import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { Worker } from 'node:worker_threads';
 
@@ -226,60 +226,4 @@ function entryWriter(): EntryWriter {
 
 function sumOf(body: string | Uint8Array): string {
   return createHash('sha256').update(body).digest('hex');
-}
-
-let codeStamp: string | undefined;
-
-/**
- * What identifies this Stepwright: its version and the size and time of every file of its own code, so that a
- * changed rule (even in a working copy at the same version) never meets results from the old one.
- */
-export function stepwrightStamp(): string {
-  if (codeStamp !== undefined) return codeStamp;
-  const root = packageRoot(import.meta.dirname);
-  const hash = createHash('sha256');
-  try {
-    const manifest = readFileSync(join(root, 'package.json'));
-    if ((JSON.parse(manifest.toString('utf8')) as { name?: unknown }).name !== 'stepwright') throw new Error('not our package');
-    hash.update(manifest);
-  } catch {
-    // Code bundled away from its package (or a damaged install): nothing can say which code this is, so this
-    // run's results are never reused by another run.
-    codeStamp = `unknown-${process.pid}-${Date.now()}-${Math.random()}`;
-    return codeStamp;
-  }
-  // The code that runs: a development checkout runs its sources (bin/stepwright.mjs), whatever a compile left in
-  // lib/ meanwhile; an installed package runs lib/.
-  const running = existsSync(join(root, 'src', 'cli', 'main.ts')) ? ['src'] : ['lib', 'dist'];
-  for (const folder of running) {
-    const walk = (dir: string) => {
-      let names: string[];
-      try {
-        names = readdirSync(dir).sort();
-      } catch {
-        return;
-      }
-      for (const name of names) {
-        const full = join(dir, name);
-        const s = statSync(full, { throwIfNoEntry: false });
-        if (!s) continue;
-        if (s.isDirectory()) walk(full);
-        else hash.update(`${full.slice(root.length)}\u0000${s.size}\u0000${s.mtimeMs}\n`);
-      }
-    };
-    walk(join(root, folder));
-  }
-  codeStamp = hash.digest('hex');
-  return codeStamp;
-}
-
-/** The nearest folder at or above `from` that holds a package.json. */
-export function packageRoot(from: string | undefined): string {
-  let dir = from ?? '/';
-  for (;;) {
-    if (statSync(join(dir, 'package.json'), { throwIfNoEntry: false })?.isFile()) return dir;
-    const up = dirname(dir);
-    if (up === dir) return dir;
-    dir = up;
-  }
 }

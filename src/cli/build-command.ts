@@ -141,8 +141,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     for (const key of ['DEV', 'PROD', 'MODE', 'SSR', 'BASE_URL', 'SITE', 'ASSETS_PREFIX']) delete process.env[key];
     // The pages take this run instead of checking again (same process, keyed by folder and date).
     handOffManual(loaded);
-    if (recordFile) {
-      keys = await pageKeys(loaded, pageCodeStamp());
+    if (recordFile && cacheFolder) {
+      keys = await pageKeys(loaded, pageCodeStamp(cacheFolder));
       plan = planReuse(readPageRecord(recordFile, outDir), keys, outDir);
     }
     loaded.reusedPages = new Set(plan?.reused.keys() ?? []);

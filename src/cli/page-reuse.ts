@@ -16,7 +16,7 @@
 import { createHash } from 'node:crypto';
 import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
-import { packageRoot, stepwrightStamp } from '../check/result-cache.ts';
+import { packageRoot, stepwrightStamp } from '../check/code-stamp.ts';
 import { marksSearchablePart, type FinishedPage, type RecordedPage } from './index-site.ts';
 
 const recordFormat = 'stepwright-page-record-4';
@@ -257,12 +257,16 @@ export function writePageRecord(file: string, outDir: string, keys: Map<string, 
   }
 }
 
-let salt: string | undefined;
+const salts = new Map<string, string>();
 
-/** Names the code that draws the pages: Stepwright's own, and the version of every package it depends on. */
-export function pageCodeStamp(): string {
-  if (salt !== undefined) return salt;
-  const parts = [stepwrightStamp()];
+/**
+ * Names the code that draws the pages: Stepwright's own (as the cache folder's index of code stamps gives it), and
+ * the version of every package it depends on.
+ */
+export function pageCodeStamp(cacheFolder: string): string {
+  const known = salts.get(cacheFolder);
+  if (known !== undefined) return known;
+  const parts = [stepwrightStamp(cacheFolder)];
   const root = packageRoot(import.meta.dirname);
   try {
     const manifest = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { dependencies?: Record<string, string> };
@@ -270,7 +274,8 @@ export function pageCodeStamp(): string {
   } catch {
     parts.push(`unknown-${process.pid}-${Date.now()}`);
   }
-  salt = parts.join('\n');
+  const salt = parts.join('\n');
+  salts.set(cacheFolder, salt);
   return salt;
 }
 

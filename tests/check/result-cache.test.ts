@@ -6,7 +6,8 @@ import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
 import { defineManualRule, type FileContext } from '../../src/check/define-rule.ts';
-import { cacheKey, openResultCache, stepwrightStamp } from '../../src/check/result-cache.ts';
+import { cacheKey, openResultCache } from '../../src/check/result-cache.ts';
+import { stepwrightStamp } from '../../src/check/code-stamp.ts';
 import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
 
 const today = '2026-12-01';
