@@ -23,6 +23,7 @@ import { linkPackages, packagesHolder, packagesReachableFrom } from './package-l
 import { buildHelp } from './command-help.ts';
 import { resultCacheFolder } from '../engine/cache-folder.ts';
 import { pageKeys } from '../site-data/page-keys.ts';
+import { closeSearchIndexer, startSearchFeed, type SearchFeed } from './search-feed.ts';
 import { copyReusedPages, pageCodeStamp, pageRecordPath, planReuse, readPageRecord, recordedPages, ReusedPageChanged, reusedPagesAltered, writePageRecord, type ReusePlan } from './page-reuse.ts';
 
 export { buildHelp };
@@ -107,6 +108,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   let plan: ReusePlan | undefined;
   let keptProcedures = 0;
   let pages: Map<string, FinishedPage> | undefined;
+  let feed: SearchFeed | undefined;
   // Astro keeps its intermediate files inside the output folder only when that folder is inside the
   // project; elsewhere it would share <project>/.astro with any other build running at the same time.
   const scratch = join(io.cwd, '.stepwright');
@@ -150,8 +152,11 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     if (rebuilding && keptProcedures < keptMostly * loaded.view.procedures.length) compactHeap();
     progress.phase('building pages');
     const { build } = await import('astro');
+    // Each page is finished as it is drawn, and the search index gets the pages meanwhile (search-feed.ts).
+    feed = await startSearchFeed({ index: !values['no-index'], lastSite: outDir, taken: plan ? recordedPages(plan) : undefined });
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
-    await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base }), { sync: false } as Parameters<typeof build>[1]);
+    await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base, drawn: feed }), { sync: false } as Parameters<typeof build>[1]);
+    const sent = await feed.finish();
     const taken = plan ? copyReusedPages(plan, outDir, work) : new Map();
     progress.done(`${loaded.view.procedures.length} procedures${keptProcedures ? `, ${keptProcedures} kept from the last build` : ''}`);
     // Under a sub-path, a link that leaves it is a broken page on the plant's server: the build stops.
@@ -159,10 +164,10 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     if (leaving.length) {
       throw new Error(`pages link outside the base ${base}:\n${leaving.slice(0, 20).map((l) => `  ${l}`).join('\n')}${leaving.length > 20 ? `\n  … and ${leaving.length - 20} more` : ''}\n`);
     }
-    // One pass over the pages: tags, ids and dates never break across lines, on every page, and the search
-    // index reads the pages as kept.
+    // One pass over the pages: each is as it was finished when drawn (tags, ids and dates never break across
+    // lines), or is finished now; the search index is written, or made again when it was not sent these pages.
     if (!values['no-index']) progress.phase('indexing for search');
-    pages = await finishPages(work, { index: !values['no-index'], finished: plan ? recordedPages(plan) : undefined });
+    pages = await finishPages(work, { index: !values['no-index'], finished: plan ? recordedPages(plan) : undefined, early: { drawn: feed.drawnPages, sent } });
     if (!values['no-index']) progress.done();
     const altered = plan ? reusedPagesAltered(plan, work, pages, taken) : [];
     if (altered.length) throw new ReusedPageChanged(altered);
@@ -193,6 +198,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     io.stderr.write(`stepwright build: the site could not be built: ${(error as Error)?.message ?? String(error)}\n${existsSync(outDir) ? `The last good site in ${relative(io.cwd, outDir) || '.'}/ is unchanged.\n` : ''}`);
     return 1;
   } finally {
+    if (feed && !values['no-index']) await closeSearchIndexer();
     clearHandOff();
     rmSync(cacheDir, { recursive: true, force: true });
     await retiring;

@@ -1,6 +1,6 @@
 // Indexes a built site for search. Pages are added one by one in sorted order: the index depends on the
 // order pages are added, and a folder listing's order differs between file systems (ext4, tmpfs, ...).
-import { webcrypto } from 'node:crypto';
+import { createHash, webcrypto } from 'node:crypto';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { keepTokensWholeInBytes } from '../render/keep-tokens-whole.ts';
@@ -16,6 +16,23 @@ const bodyMark = 'data-pagefind-body';
 /** True when a page's bytes carry the mark of a searchable part (a page the search index is sent). */
 export function marksSearchablePart(page: Buffer): boolean {
   return page.includes(bodyMark, 0, 'latin1');
+}
+
+/** A page as it was finished when drawn. */
+export interface PageAsDrawn {
+  sha256: string;
+  size: number;
+  marked: boolean;
+}
+
+/** What the indexer was sent while the pages were drawn. */
+export interface EarlyIndex {
+  /** The index the pages were added to; undefined when the build does not index. */
+  index?: NonNullable<Awaited<ReturnType<typeof import('pagefind')['createIndex']>>['index']>;
+  /** Every page sent, in order, with the SHA-256 of the bytes sent. */
+  sent: Array<{ path: string; sha256: string }>;
+  /** Sending stopped: a page came out of order, a page could not be read, or the indexer refused one. */
+  broken: boolean;
 }
 
 /** A page as the final pass left it. */
@@ -45,7 +62,8 @@ export async function indexSite(dir: string): Promise<void> {
  * search index is not sent is not even read: its hash and size are the recorded ones (the build has checked that
  * the file is the one recorded; see page-reuse.ts).
  */
-export async function finishPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage> }): Promise<Map<string, FinishedPage>> {
+export async function finishPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage>; early?: { drawn: ReadonlyMap<string, PageAsDrawn>; sent: EarlyIndex; indexed?: (how: 'as-sent' | 'again') => void } }): Promise<Map<string, FinishedPage>> {
+  if (options.early) return finishDrawnPages(dir, options as Parameters<typeof finishDrawnPages>[1]);
   const pages = new Map<string, FinishedPage>();
   const digests: Array<Promise<void>> = [];
   const pagefind = options.index ? await import('pagefind') : undefined;
@@ -56,23 +74,7 @@ export async function finishPages(dir: string, options: { index: boolean; finish
       if (!created.index) throw new Error(`pagefind: ${created.errors.join('; ')}`);
       index = created.index;
     }
-    // Pages are sent to the indexer without waiting for each answer, a few at a time, so that it indexes while the
-    // next pages are read and kept whole. It takes its requests one by one in the order they arrive, so the index
-    // is the same as with every page awaited in turn.
-    const pending: Array<Promise<void>> = [];
-    // The first failure is kept and thrown when the pages in flight are collected (never left unhandled).
-    let failure: Error | undefined;
-    const settle = async () => {
-      await Promise.all(pending.splice(0));
-      if (failure) throw failure;
-    };
-    const add = async (path: string, content: string) => {
-      pending.push(index!.addHTMLFile({ sourcePath: path, content }).then(
-        (added) => { if (added.errors.length) failure ??= new Error(`pagefind: ${path}: ${added.errors.join('; ')}`); },
-        (error: unknown) => { failure ??= error instanceof Error ? error : new Error(String(error)); },
-      ));
-      if (pending.length >= pagesInFlight) await settle();
-    };
+    const indexer = pagesIndexer(index);
     const unmarked: string[] = [];
     let marked = 0;
     for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
@@ -95,20 +97,102 @@ export async function finishPages(dir: string, options: { index: boolean; finish
       // pages sent are decoded.
       if (hashed.marked) {
         marked++;
-        await add(path, kept.toString('utf8'));
+        await indexer.add(path, kept.toString('utf8'));
       } else {
         unmarked.push(path);
       }
     }
     if (index) {
-      if (marked === 0) for (const path of unmarked) await add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
-      await settle();
-      const written = await index.writeFiles({ outputPath: join(dir, 'pagefind') });
-      if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
+      if (marked === 0) for (const path of unmarked) await indexer.add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
+      await indexer.write(dir);
     }
     await Promise.all(digests);
     return pages;
   } finally {
     await pagefind?.close();
   }
+}
+
+type SearchIndex = NonNullable<EarlyIndex['index']>;
+
+/**
+ * Adds pages to an index without waiting for each answer, a few at a time, so that it indexes while the next
+ * pages are read. It takes its requests one by one in the order they arrive, so the index is the same as with
+ * every page awaited in turn. The first failure is kept and thrown when the pages in flight are collected (never
+ * left unhandled).
+ */
+function pagesIndexer(index: SearchIndex | undefined) {
+  const pending: Array<Promise<void>> = [];
+  let failure: Error | undefined;
+  const settle = async () => {
+    await Promise.all(pending.splice(0));
+    if (failure) throw failure;
+  };
+  return {
+    async add(path: string, content: string) {
+      pending.push(index!.addHTMLFile({ sourcePath: path, content }).then(
+        (added) => { if (added.errors.length) failure ??= new Error(`pagefind: ${path}: ${added.errors.join('; ')}`); },
+        (error: unknown) => { failure ??= error instanceof Error ? error : new Error(String(error)); },
+      ));
+      if (pending.length >= pagesInFlight) await settle();
+    },
+    async write(dir: string) {
+      await settle();
+      const written = await index!.writeFiles({ outputPath: join(dir, 'pagefind') });
+      if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
+    },
+  };
+}
+
+/**
+ * The final pass after a build that finished its pages as they were drawn (search-feed.ts). A drawn page whose
+ * bytes are as finished is taken as it is; any other page is finished here, as `finishPages` would. The index the
+ * pages were sent to while drawn is written when it was sent exactly the marked pages as published, in order;
+ * otherwise every page is indexed again here, in order, into a new index. The caller closes the indexer.
+ */
+async function finishDrawnPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage>; early: { drawn: ReadonlyMap<string, PageAsDrawn>; sent: EarlyIndex; indexed?: (how: 'as-sent' | 'again') => void } }): Promise<Map<string, FinishedPage>> {
+  const pages = new Map<string, FinishedPage>();
+  const digests: Array<Promise<void>> = [];
+  const { drawn, sent } = options.early;
+  for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
+    const recorded = options.finished?.get(path);
+    if (recorded && !recorded.marked) {
+      pages.set(path, { path, sha256: recorded.sha256, size: recorded.size, marked: false, asRecorded: true });
+      continue;
+    }
+    const file = join(dir, ...path.split('/'));
+    const page = readFileSync(file);
+    const asDrawn = drawn.get(path);
+    if (asDrawn && asDrawn.size === page.byteLength) {
+      const sha256 = createHash('sha256').update(page).digest('hex');
+      if (sha256 === asDrawn.sha256) {
+        pages.set(path, { path, sha256, size: page.byteLength, marked: asDrawn.marked });
+        continue;
+      }
+    }
+    const kept = recorded ? page : keepTokensWholeInBytes(page);
+    if (kept !== page) writeFileSync(file, kept);
+    const hashed: FinishedPage = { path, sha256: '', size: kept.byteLength, marked: marksSearchablePart(kept) };
+    pages.set(path, hashed);
+    digests.push(webcrypto.subtle.digest('SHA-256', kept).then((digest) => { hashed.sha256 = Buffer.from(digest).toString('hex'); }));
+  }
+  await Promise.all(digests);
+  if (!options.index) return pages;
+  const marked = [...pages.values()].filter((p) => p.marked);
+  const asSent = !sent.broken && sent.index !== undefined && marked.length > 0 && marked.length === sent.sent.length
+    && marked.every((p, i) => p.path === sent.sent[i].path && p.sha256 === sent.sent[i].sha256);
+  options.early.indexed?.(asSent ? 'as-sent' : 'again');
+  if (asSent) {
+    await pagesIndexer(sent.index).write(dir);
+    return pages;
+  }
+  // Indexed again from the pages as published: the marked ones, or every page when none is marked.
+  await sent.index?.deleteIndex();
+  const pagefind = await import('pagefind');
+  const created = await pagefind.createIndex({});
+  if (!created.index) throw new Error(`pagefind: ${created.errors.join('; ')}`);
+  const indexer = pagesIndexer(created.index);
+  for (const page of marked.length ? marked : [...pages.values()]) await indexer.add(page.path, readFileSync(join(dir, ...page.path.split('/')), 'utf8'));
+  await indexer.write(dir);
+  return pages;
 }

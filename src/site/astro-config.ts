@@ -7,6 +7,7 @@ import { fileURLToPath } from 'node:url';
 import type { AstroInlineConfig } from 'astro';
 import { watchProcedures } from './watch-procedures.ts';
 import { engineOutside } from './engine-outside.ts';
+import { drawnPages, type DrawnPageListener } from './drawn-pages.ts';
 
 /** The site's own folder inside the package (src/site in a checkout, its compiled copy in the package). */
 export const siteFolder = fileURLToPath(new URL('.', import.meta.url));
@@ -30,6 +31,8 @@ export interface SiteConfigOptions {
   root?: string;
   /** The site folder as Astro sees it (default: the site folder); the preview uses a link to it under `root`. */
   srcDir?: string;
+  /** A build's hand on every page as it is drawn, before Astro writes it (drawn-pages.ts). */
+  drawn?: DrawnPageListener;
 }
 
 /** Folders the live preview may serve files from: the site's code, the user's folder and the installed packages. */
@@ -64,6 +67,7 @@ export function siteConfig(options: SiteConfigOptions): AstroInlineConfig {
     build: { format: 'directory', inlineStylesheets: 'never', concurrency: 2 },
     compressHTML: true,
     devToolbar: { enabled: false },
+    integrations: options.drawn ? [drawnPages(options.drawn, options.base ?? '/')] : [],
     // Procedure pages are generated from the procedures folder, never from markdown files in the site.
     markdown: {},
     vite: {

@@ -6,6 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { finishPages } from '../../src/cli/index-site.ts';
+import { closeSearchIndexer, startSearchFeed } from '../../src/cli/search-feed.ts';
 import { siteFiles } from '../../src/cli/site-manifest.ts';
 
 const made: string[] = [];
@@ -90,5 +91,101 @@ describe('finishPages', () => {
     await finishPages(dir, { index: false });
     expect(readFileSync(join(dir, 'tags/t-00/index.html'), 'utf8')).toContain('<span class="nb">TI-300</span>');
     expect(siteFiles(dir)).toEqual(['tags/t-00/index.html']);
+  });
+});
+
+/** Every file of a site, by path, with its SHA-256: pages, search index and all. */
+function siteHashes(dir: string): Record<string, string> {
+  return Object.fromEntries(siteFiles(dir).map((path) => [path, createHash('sha256').update(readFileSync(join(dir, path))).digest('hex')]));
+}
+
+/**
+ * A build that finishes its pages as they are drawn: each page goes through the feed in `order` (an index into the
+ * planned pages), written as the feed hands it back, as Astro writes it. Returns how the final pass indexed.
+ */
+async function drawAndFinish(pages: Record<string, string>, plan: Array<{ path: string; route: string }>, order: number[], options: { alter?: string; taken?: Parameters<typeof startSearchFeed>[0]['taken']; lastSite?: string } = {}) {
+  const dir = writeSite({});
+  const feed = await startSearchFeed({ index: true, lastSite: options.lastSite ?? dir, taken: options.taken });
+  let how: string | undefined;
+  try {
+    feed.planned(plan);
+    for (const i of order) {
+      const { path, route } = plan[i];
+      const bytes = feed.drawn({ path, route }, Buffer.from(pages[path]));
+      mkdirSync(join(dir, path, '..'), { recursive: true });
+      writeFileSync(join(dir, path), bytes);
+    }
+    const sent = await feed.finish();
+    // Another page than the one handed back (as drawn, not finished) in its place: the final pass finishes it.
+    if (options.alter) writeFileSync(join(dir, options.alter), pages[options.alter].replace('Heat', 'Warm'));
+    await finishPages(dir, { index: true, finished: options.taken, early: { drawn: feed.drawnPages, sent, indexed: (h) => { how = h; } } });
+  } finally {
+    await closeSearchIndexer();
+  }
+  return { dir, how };
+}
+
+describe('finishPages after pages were sent to the index while drawn', () => {
+  const pages = { ...marked, ...unmarked };
+  const plan = Object.keys(pages).map((path) => ({ path, route: path.startsWith('procedures/') ? '/procedures/[slug]' : '/tags/[tag]' }));
+  const reference = async (site: Record<string, string>) => {
+    const dir = writeSite(site);
+    await finishPages(dir, { index: true });
+    return siteHashes(dir);
+  };
+
+  it('publishes the same pages and the same index as finishing them afterwards, and uses the index it sent', async () => {
+    // Drawn route after route, each in reverse order: the feed holds pages back until those before them are drawn.
+    const order = plan.map((_, i) => i).reverse();
+    const drawn = await drawAndFinish(pages, plan, order);
+    expect(drawn.how).toBe('as-sent');
+    expect(siteHashes(drawn.dir)).toEqual(await reference(pages));
+  });
+
+  it('indexes every page again, to the same index, when a marked page came too late for the order', async () => {
+    // A marked page from a route that had drawn none: sent pages already sort after it.
+    const late = 'procedures/a-late/index.html';
+    const withLate = { ...pages, [late]: page('<main data-pagefind-body><h1>Drain tank T-5</h1></main>') };
+    const latePlan = [...plan, { path: late, route: '/procedures/late' }];
+    const order = [...plan.map((_, i) => i), plan.length];
+    const drawn = await drawAndFinish(withLate, latePlan, order);
+    expect(drawn.how).toBe('again');
+    expect(siteHashes(drawn.dir)).toEqual(await reference(withLate));
+  });
+
+  it('finishes a page and indexes again when the page written is not the one handed back', async () => {
+    const altered = 'procedures/p-07/index.html';
+    const drawn = await drawAndFinish(pages, plan, plan.map((_, i) => i), { alter: altered });
+    expect(drawn.how).toBe('again');
+    expect(siteHashes(drawn.dir)).toEqual(await reference({ ...pages, [altered]: pages[altered].replace('Heat', 'Warm') }));
+  });
+
+  it('sends the pages taken over from the last build in order with the drawn ones', async () => {
+    // The last build: every page finished; this build draws only p-20 and the tags again.
+    const last = writeSite(pages);
+    const lastPages = await finishPages(last, { index: false });
+    const drawnAgain = (path: string) => !path.startsWith('procedures/') || path === 'procedures/p-20/index.html';
+    const taken = new Map([...lastPages].filter(([path]) => !drawnAgain(path)).map(([path, p]) => [path, { sha256: p.sha256, size: p.size, marked: p.marked }]));
+    const partPlan = plan.filter((p) => drawnAgain(p.path));
+    const dir = writeSite({});
+    for (const path of taken.keys()) {
+      mkdirSync(join(dir, path, '..'), { recursive: true });
+      writeFileSync(join(dir, path), readFileSync(join(last, path)));
+    }
+    const feed = await startSearchFeed({ index: true, lastSite: last, taken });
+    let how: string | undefined;
+    try {
+      feed.planned(partPlan);
+      for (const p of partPlan) {
+        const bytes = feed.drawn(p, Buffer.from(pages[p.path]));
+        mkdirSync(join(dir, p.path, '..'), { recursive: true });
+        writeFileSync(join(dir, p.path), bytes);
+      }
+      await finishPages(dir, { index: true, finished: taken, early: { drawn: feed.drawnPages, sent: await feed.finish(), indexed: (h) => { how = h; } } });
+    } finally {
+      await closeSearchIndexer();
+    }
+    expect(how).toBe('as-sent');
+    expect(siteHashes(dir)).toEqual(await reference(pages));
   });
 });
