@@ -156,7 +156,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     feed = await startSearchFeed({ index: !values['no-index'], lastSite: outDir, taken: plan ? recordedPages(plan) : undefined });
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
     await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base, drawn: feed }), { sync: false } as Parameters<typeof build>[1]);
-    const sent = await feed.finish();
+    // Settles once the indexer has every page sent; the final pass reads the pages meanwhile.
+    const sent = feed.finish();
     const taken = plan ? copyReusedPages(plan, outDir, work) : new Map();
     progress.done(`${loaded.view.procedures.length} procedures${keptProcedures ? `, ${keptProcedures} kept from the last build` : ''}`);
     // Under a sub-path, a link that leaves it is a broken page on the plant's server: the build stops.

@@ -62,7 +62,7 @@ export async function indexSite(dir: string): Promise<void> {
  * search index is not sent is not even read: its hash and size are the recorded ones (the build has checked that
  * the file is the one recorded; see page-reuse.ts).
  */
-export async function finishPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage>; early?: { drawn: ReadonlyMap<string, PageAsDrawn>; sent: EarlyIndex; indexed?: (how: 'as-sent' | 'again') => void } }): Promise<Map<string, FinishedPage>> {
+export async function finishPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage>; early?: { drawn: ReadonlyMap<string, PageAsDrawn>; sent: Promise<EarlyIndex>; indexed?: (how: 'as-sent' | 'again') => void } }): Promise<Map<string, FinishedPage>> {
   if (options.early) return finishDrawnPages(dir, options as Parameters<typeof finishDrawnPages>[1]);
   const pages = new Map<string, FinishedPage>();
   const digests: Array<Promise<void>> = [];
@@ -148,13 +148,17 @@ function pagesIndexer(index: SearchIndex | undefined) {
  * The final pass after a build that finished its pages as they were drawn (search-feed.ts). A drawn page whose
  * bytes are as finished is taken as it is; any other page is finished here, as `finishPages` would. The index the
  * pages were sent to while drawn is written when it was sent exactly the marked pages as published, in order;
- * otherwise every page is indexed again here, in order, into a new index. The caller closes the indexer.
+ * otherwise every page is indexed again here, in order, into a new index. `sent` settles once the indexer has every
+ * page sent: this pass reads the pages meanwhile. The caller closes the indexer.
  */
-async function finishDrawnPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage>; early: { drawn: ReadonlyMap<string, PageAsDrawn>; sent: EarlyIndex; indexed?: (how: 'as-sent' | 'again') => void } }): Promise<Map<string, FinishedPage>> {
+async function finishDrawnPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage>; early: { drawn: ReadonlyMap<string, PageAsDrawn>; sent: Promise<EarlyIndex>; indexed?: (how: 'as-sent' | 'again') => void } }): Promise<Map<string, FinishedPage>> {
   const pages = new Map<string, FinishedPage>();
   const digests: Array<Promise<void>> = [];
-  const { drawn, sent } = options.early;
+  const { drawn } = options.early;
+  let read = 0;
   for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
+    // Now and then the pages still going to the indexer get their turn.
+    if (++read % pagesInFlight === 0) await new Promise((resolve) => setImmediate(resolve));
     const recorded = options.finished?.get(path);
     if (recorded && !recorded.marked) {
       pages.set(path, { path, sha256: recorded.sha256, size: recorded.size, marked: false, asRecorded: true });
@@ -177,6 +181,8 @@ async function finishDrawnPages(dir: string, options: { index: boolean; finished
     digests.push(webcrypto.subtle.digest('SHA-256', kept).then((digest) => { hashed.sha256 = Buffer.from(digest).toString('hex'); }));
   }
   await Promise.all(digests);
+  // The indexer still takes the last pages sent while this pass reads the pages.
+  const sent = await options.early.sent;
   if (!options.index) return pages;
   const marked = [...pages.values()].filter((p) => p.marked);
   const asSent = !sent.broken && sent.index !== undefined && marked.length > 0 && marked.length === sent.sent.length

@@ -115,7 +115,7 @@ async function drawAndFinish(pages: Record<string, string>, plan: Array<{ path: 
       mkdirSync(join(dir, path, '..'), { recursive: true });
       writeFileSync(join(dir, path), bytes);
     }
-    const sent = await feed.finish();
+    const sent = feed.finish();
     // Another page than the one handed back (as drawn, not finished) in its place: the final pass finishes it.
     if (options.alter) writeFileSync(join(dir, options.alter), pages[options.alter].replace('Heat', 'Warm'));
     await finishPages(dir, { index: true, finished: options.taken, early: { drawn: feed.drawnPages, sent, indexed: (h) => { how = h; } } });
@@ -181,7 +181,7 @@ describe('finishPages after pages were sent to the index while drawn', () => {
         mkdirSync(join(dir, p.path, '..'), { recursive: true });
         writeFileSync(join(dir, p.path), bytes);
       }
-      await finishPages(dir, { index: true, finished: taken, early: { drawn: feed.drawnPages, sent: await feed.finish(), indexed: (h) => { how = h; } } });
+      await finishPages(dir, { index: true, finished: taken, early: { drawn: feed.drawnPages, sent: feed.finish(), indexed: (h) => { how = h; } } });
     } finally {
       await closeSearchIndexer();
     }
