@@ -3,6 +3,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parse } from 'yaml';
+import { resultCacheFolder } from '../../src/engine/cache-folder.ts';
 import { runCli } from '../cli/run-cli.ts';
 
 const workflow = parse(readFileSync(join(import.meta.dirname, '../../examples/github-workflow.yml'), 'utf8')) as {
@@ -35,6 +36,19 @@ describe('examples/github-workflow.yml', () => {
     for (const job of Object.values(workflow.jobs)) {
       const checkout = job.steps.find((s) => s.uses?.startsWith('actions/checkout'));
       expect(checkout?.with?.['fetch-depth']).toBe(0);
+    }
+  });
+
+  it('keeps the folder the check keeps its results in between runs, afresh for every new package lock', () => {
+    const folder = resultCacheFolder({ cwd: '', env: {} });
+    for (const job of Object.values(workflow.jobs)) {
+      const cache = job.steps.find((s) => s.uses?.startsWith('actions/cache'));
+      expect(cache?.with?.path).toBe(folder);
+      expect(String(cache?.with?.key)).toContain("hashFiles('package-lock.json')");
+      // Restored after the packages are installed and before the first command that checks.
+      const at = (find: (s: { run?: string; uses?: string }) => boolean) => job.steps.findIndex(find);
+      expect(at((s) => s.run === 'npm ci')).toBeLessThan(at((s) => s === cache));
+      expect(at((s) => s === cache)).toBeLessThan(at((s) => (s.run ?? '').includes('npx stepwright')));
     }
   });
 });
