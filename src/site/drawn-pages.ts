@@ -41,6 +41,8 @@ export function drawnPages(listener: DrawnPageListener, base: string): AstroInte
     name: 'stepwright-drawn-pages',
     hooks: {
       'astro:build:start': ({ setPrerenderer }) => {
+        // An Astro without the hook draws and writes the pages as they are: the build's final pass finishes them.
+        if (typeof setPrerenderer !== 'function') return;
         setPrerenderer((astro) => ({
           ...astro,
           name: 'stepwright-drawn-pages',

@@ -160,6 +160,19 @@ describe('finishPages after pages were sent to the index while drawn', () => {
     expect(siteHashes(drawn.dir)).toEqual(await reference({ ...pages, [altered]: pages[altered].replace('Heat', 'Warm') }));
   });
 
+  it('finishes and indexes every page when none came through the feed (an Astro without the prerenderer hook)', async () => {
+    const dir = writeSite(pages);
+    const feed = await startSearchFeed({ index: true, lastSite: dir });
+    let how: string | undefined;
+    try {
+      await finishPages(dir, { index: true, early: { drawn: feed.drawnPages, sent: feed.finish(), indexed: (h) => { how = h; } } });
+    } finally {
+      await closeSearchIndexer();
+    }
+    expect(how).toBe('again');
+    expect(siteHashes(dir)).toEqual(await reference(pages));
+  });
+
   it('sends the pages taken over from the last build in order with the drawn ones', async () => {
     // The last build: every page finished; this build draws only p-20 and the tags again.
     const last = writeSite(pages);
