@@ -153,7 +153,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     progress.phase('building pages');
     const { build } = await import('astro');
     // Each page is finished as it is drawn, and the search index gets the pages meanwhile (search-feed.ts).
-    feed = await startSearchFeed({ index: !values['no-index'], lastSite: outDir, taken: plan ? recordedPages(plan) : undefined });
+    const drawnAgain = plan && keys ? [...keys.keys()].filter((folder) => !plan!.reused.has(folder)) : undefined;
+    feed = await startSearchFeed({ index: !values['no-index'], lastSite: outDir, taken: plan ? recordedPages(plan) : undefined, mayDraw: drawnAgain });
     // No type generation (`sync`): it writes into the site's folder, which lies inside the installed package.
     await build(siteConfig({ outDir: work, cacheDir, procedures: resolve(io.cwd, folder), mode: 'production', base, drawn: feed }), { sync: false } as Parameters<typeof build>[1]);
     // Settles once the indexer has every page sent; the final pass reads the pages meanwhile.

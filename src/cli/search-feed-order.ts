@@ -2,9 +2,10 @@
 // order pages are added, and a build adds them sorted by their path in the site (index-site.ts): a page may be sent
 // early only when no page sorting before it can still come.
 //
-// What is known in advance: the pages the build will draw, each with the route that draws it, and the pages it
-// takes over from the last build, with whether each carries the mark of a searchable part. What is known only once
-// a page is drawn: whether it carries the mark. A marked page is sent once every page sorting before it that could
+// What is known in advance: the pages the build takes over from the last build, with whether each carries the mark
+// of a searchable part, and the page folders it draws again; once Astro lists them, the pages it will draw, each
+// with the route that draws it. What is known only once a page is drawn: whether it carries the mark. Before the
+// list, a marked page taken over is sent when it sorts before every folder drawn again. A marked page is sent once every page sorting before it that could
 // still be marked has been drawn; pages of a route that has drawn no marked page yet (and took none over) are taken
 // to be unmarked. Should one of them turn out marked after a later page was sent, the order is broken: `broken` is
 // set and nothing more is sent, and the build indexes every page again in order at the end (as it would have
@@ -27,30 +28,46 @@ export interface SentPage<T> {
 export class SearchFeedOrder<T> {
   /** Paths still to be drawn, by route, sorted; `next` is how far each has been drawn in order. */
   readonly #planned = new Map<string, { paths: string[]; next: number }>();
+  #planKnown = false;
   readonly #drawnPaths = new Set<string>();
   /** Routes known to draw marked pages. */
   readonly #markedRoutes = new Set<string>();
   /** Marked pages taken over from the last build, sorted, and how many have been sent. */
   readonly #taken: string[];
   #takenSent = 0;
+  /** Until the pages to draw are known: the folders the build draws again (any page in one may come marked). */
+  readonly #mayDraw: string[];
   /** Marked pages drawn and not yet sent, sorted. */
   readonly #waiting: Array<{ path: string; drawn: T }> = [];
   #last: string | undefined;
   #broken = false;
 
   /**
-   * `planned`: every page the build will draw. `taken`: the marked pages taken over from the last build, with the
-   * route whose pattern their path matches (undefined when none does).
+   * `taken`: the marked pages taken over from the last build. `mayDraw`: the page folders the build draws again,
+   * which hold back the pages taken over that sort after them until the pages to draw are known (`plan`).
    */
-  constructor(planned: PlannedPage[], taken: Array<{ path: string; route?: string }>) {
+  constructor(taken: string[], mayDraw: string[] = []) {
+    this.#taken = [...taken].sort(byCodeUnit);
+    this.#mayDraw = mayDraw.map((folder) => `${folder}/`);
+  }
+
+  /**
+   * Every page the build will draw, with its route, known once Astro lists them; `routeOf` names the route whose
+   * pattern a taken page's path matches (undefined when none does). Returns the pages that may now be sent.
+   */
+  plan(planned: PlannedPage[], routeOf: (path: string) => string | undefined): Array<SentPage<T>> {
     for (const page of planned) {
       let route = this.#planned.get(page.route);
       if (!route) this.#planned.set(page.route, (route = { paths: [], next: 0 }));
       route.paths.push(page.path);
     }
     for (const route of this.#planned.values()) route.paths.sort(byCodeUnit);
-    this.#taken = taken.map((t) => t.path).sort(byCodeUnit);
-    for (const t of taken) if (t.route !== undefined) this.#markedRoutes.add(t.route);
+    for (const path of this.#taken) {
+      const route = routeOf(path);
+      if (route !== undefined) this.#markedRoutes.add(route);
+    }
+    this.#planKnown = true;
+    return this.#ready();
   }
 
   /** True once a marked page came after a later one was sent: nothing more is sent. */
@@ -87,7 +104,7 @@ export class SearchFeedOrder<T> {
     }
   }
 
-  /** The pages taken over that sort before any page to be drawn: sendable before the first page is drawn. */
+  /** The pages taken over that sort before every folder to be drawn again: sendable before the plan is known. */
   start(): Array<SentPage<T>> {
     return this.#ready();
   }
@@ -112,6 +129,7 @@ export class SearchFeedOrder<T> {
 
   /** No page that sorts before `path` and could be marked is still to be drawn. */
   #nothingBefore(path: string): boolean {
+    if (!this.#planKnown) return this.#mayDraw.every((folder) => byCodeUnit(folder, path) > 0);
     for (const route of this.#markedRoutes) {
       const planned = this.#planned.get(route);
       if (!planned) continue;

@@ -28,9 +28,10 @@ const sha256 = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest(
 
 /**
  * `index`: whether pages go to the indexer (false: pages are only finished). `lastSite`: the last build's output,
- * where the pages in `taken` (taken over from it, as its record describes them) are read.
+ * where the pages in `taken` (taken over from it, as its record describes them) are read. `mayDraw`: the page
+ * folders this build draws again.
  */
-export async function startSearchFeed(options: { index: boolean; lastSite: string; taken?: ReadonlyMap<string, RecordedPage> }): Promise<SearchFeed> {
+export async function startSearchFeed(options: { index: boolean; lastSite: string; taken?: ReadonlyMap<string, RecordedPage>; mayDraw?: string[] }): Promise<SearchFeed> {
   let index: SearchIndex | undefined;
   if (options.index) {
     const pagefind = await import('pagefind');
@@ -40,7 +41,8 @@ export async function startSearchFeed(options: { index: boolean; lastSite: strin
   }
   const drawnPages = new Map<string, PageAsDrawn>();
   const sent: EarlyIndex['sent'] = [];
-  let order: SearchFeedOrder<Buffer> | undefined;
+  const takenMarked = [...(options.taken ?? [])].filter(([, page]) => page.marked).map(([path]) => path);
+  const order = index ? new SearchFeedOrder<Buffer>(takenMarked, options.mayDraw) : undefined;
   let broken = false;
   const queue: Array<SentPage<Buffer>> = [];
   let inFlight = 0;
@@ -76,14 +78,14 @@ export async function startSearchFeed(options: { index: boolean; lastSite: strin
     pump();
   };
 
+  // The pages taken over that sort before every folder drawn again go while Astro makes its bundles.
+  if (order) send(order.start());
   return {
     drawnPages,
     planned(pages: PageToDraw[]) {
-      if (!index) return;
+      if (!order) return;
       const routes = [...new Set(pages.map((p) => p.route))].map((route) => ({ route, matches: routeMatcher(route) }));
-      const taken = [...(options.taken ?? [])].filter(([, page]) => page.marked).map(([path]) => ({ path, route: routes.find((r) => r.matches(path))?.route }));
-      order = new SearchFeedOrder<Buffer>(pages, taken);
-      send(order.start());
+      send(order.plan(pages, (path) => routes.find((r) => r.matches(path))?.route));
     },
     drawn(page: PageToDraw, bytes: Buffer): Buffer {
       const kept = keepTokensWholeInBytes(bytes);
@@ -95,7 +97,7 @@ export async function startSearchFeed(options: { index: boolean; lastSite: strin
     async finish(): Promise<EarlyIndex> {
       if (order) send(order.finish());
       if (inFlight > 0 || (queue.length && !broken)) await new Promise<void>((resolve) => { idle = resolve; pump(); });
-      return { index, sent, broken: broken || (order?.broken ?? false) || (index !== undefined && order === undefined) };
+      return { index, sent, broken: broken || (order?.broken ?? false) };
     },
   };
 }

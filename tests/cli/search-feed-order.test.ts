@@ -6,9 +6,9 @@ import { byCodeUnit } from '../../src/cli/site-manifest.ts';
 import { SearchFeedOrder, type SentPage } from '../../src/cli/search-feed-order.ts';
 
 /** Plays a build: the pages taken over, then the drawn ones in `order`; returns what was sent and whether it broke. */
-function play(planned: Array<{ path: string; route: string; marked: boolean }>, taken: Array<{ path: string; route?: string }>, order: number[]) {
-  const feed = new SearchFeedOrder<string>(planned.map(({ path, route }) => ({ path, route })), taken);
-  const sent: Array<SentPage<string>> = [...feed.start()];
+function play(planned: Array<{ path: string; route: string; marked: boolean }>, taken: Array<{ path: string; route?: string }>, order: number[], mayDraw: string[] = []) {
+  const feed = new SearchFeedOrder<string>(taken.map((t) => t.path), mayDraw);
+  const sent: Array<SentPage<string>> = [...feed.start(), ...feed.plan(planned.map(({ path, route }) => ({ path, route })), (path) => taken.find((t) => t.path === path)?.route)];
   for (const i of order) sent.push(...feed.drawn(planned[i].path, planned[i].route, planned[i].marked, `drawn ${planned[i].path}`));
   sent.push(...feed.finish());
   return { sent, broken: feed.broken };
@@ -32,13 +32,24 @@ describe('the order pages reach the search index while they are drawn', () => {
     expect(sent.every((s) => s.drawn === `drawn ${s.path}`)).toBe(true);
   });
 
-  it('sends the pages taken over from the last build before the drawing starts, up to the first page to be drawn', () => {
+  it('sends the pages taken over from the last build before the drawing starts, up to the first folder drawn again', () => {
     const planned = procedure('m');
-    const taken = ['a', 'b', 'x', 'y'].map((slug) => ({ path: `procedures/${slug}/index.html`, route: 'procedure' }));
-    const feed = new SearchFeedOrder<string>(planned, taken);
+    const taken = ['a', 'b', 'x', 'y'].map((slug) => `procedures/${slug}/index.html`);
+    const feed = new SearchFeedOrder<string>(taken, ['procedures/m']);
     expect(feed.start().map((s) => s.path)).toEqual(['procedures/a/index.html', 'procedures/b/index.html']);
+    expect(feed.plan(planned, (path) => (path.startsWith('procedures/') && path.split('/').length === 3 ? 'procedure' : undefined))).toEqual([]);
     expect(feed.drawn(planned[0].path, 'audit', false, '')).toEqual([]);
     expect(feed.drawn(planned[1].path, 'procedure', true, 'm').map((s) => s.path)).toEqual(['procedures/m/index.html', 'procedures/x/index.html', 'procedures/y/index.html']);
+    expect(feed.broken).toBe(false);
+  });
+
+  it('sends every page taken over at once when no folder is drawn again', () => {
+    const taken = ['c', 'a', 'b'].map((slug) => `procedures/${slug}/index.html`);
+    const feed = new SearchFeedOrder<string>(taken, []);
+    expect(feed.start().map((s) => s.path)).toEqual(['procedures/a/index.html', 'procedures/b/index.html', 'procedures/c/index.html']);
+    expect(feed.plan([{ path: 'index.html', route: '/' }], () => undefined)).toEqual([]);
+    expect(feed.drawn('index.html', '/', false, '')).toEqual([]);
+    expect(feed.finish()).toEqual([]);
     expect(feed.broken).toBe(false);
   });
 
@@ -71,7 +82,8 @@ describe('the order pages reach the search index while they are drawn', () => {
           const j = s % (i + 1);
           [order[i], order[j]] = [order[j], order[i]];
         }
-        const { sent, broken } = play(planned, taken, order);
+        // The folders drawn again, as a rebuild knows them before the pages to draw are listed.
+        const { sent, broken } = play(planned, taken, order, [...new Set(planned.map((p) => p.slug))]);
         const paths = sent.map((x) => x.path);
         for (let i = 1; i < paths.length; i++) expect(byCodeUnit(paths[i - 1], paths[i])).toBeLessThan(0);
         if (!broken) {
