@@ -22,7 +22,6 @@ export function marksSearchablePart(page: Buffer): boolean {
 export interface PageAsDrawn {
   sha256: string;
   size: number;
-  marked: boolean;
 }
 
 /** What the indexer was sent while the pages were drawn. */
@@ -145,8 +144,8 @@ function pagesIndexer(index: SearchIndex | undefined) {
 }
 
 /**
- * The final pass after a build that finished its pages as they were drawn (search-feed.ts). A drawn page whose
- * bytes are as finished is taken as it is; any other page is finished here, as `finishPages` would. The index the
+ * The final pass after a build that finished its pages as they were drawn (search-feed.ts). A page whose bytes are
+ * those of a page finished when drawn is taken as it is; any other page is finished here, as `finishPages` would. The index the
  * pages were sent to while drawn is written when it was sent exactly the marked pages as published, in order;
  * otherwise every page is indexed again here, in order, into a new index. `sent` settles once the indexer has every
  * page sent: this pass reads the pages meanwhile. The caller closes the indexer.
@@ -155,6 +154,8 @@ async function finishDrawnPages(dir: string, options: { index: boolean; finished
   const pages = new Map<string, FinishedPage>();
   const digests: Array<Promise<void>> = [];
   const { drawn } = options.early;
+  const drawnSums = new Set([...drawn.values()].map((p) => p.sha256));
+  const drawnSizes = new Set([...drawn.values()].map((p) => p.size));
   let read = 0;
   for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
     // Now and then the pages still going to the indexer get their turn.
@@ -166,11 +167,12 @@ async function finishDrawnPages(dir: string, options: { index: boolean; finished
     }
     const file = join(dir, ...path.split('/'));
     const page = readFileSync(file);
-    const asDrawn = drawn.get(path);
-    if (asDrawn && asDrawn.size === page.byteLength) {
+    if (!recorded && drawnSizes.has(page.byteLength)) {
+      // A page finished when drawn is known by its bytes, wherever Astro wrote it: finishing it twice would wrap
+      // its tokens twice.
       const sha256 = createHash('sha256').update(page).digest('hex');
-      if (sha256 === asDrawn.sha256) {
-        pages.set(path, { path, sha256, size: page.byteLength, marked: asDrawn.marked });
+      if (drawnSums.has(sha256)) {
+        pages.set(path, { path, sha256, size: page.byteLength, marked: marksSearchablePart(page) });
         continue;
       }
     }

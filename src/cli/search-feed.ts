@@ -90,7 +90,7 @@ export async function startSearchFeed(options: { index: boolean; lastSite: strin
     drawn(page: PageToDraw, bytes: Buffer): Buffer {
       const kept = keepTokensWholeInBytes(bytes);
       const marked = marksSearchablePart(kept);
-      drawnPages.set(page.path, { sha256: sha256(kept), size: kept.byteLength, marked });
+      drawnPages.set(page.path, { sha256: sha256(kept), size: kept.byteLength });
       if (order) send(order.drawn(page.path, page.route, marked, kept));
       return kept;
     },

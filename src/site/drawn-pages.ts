@@ -35,6 +35,15 @@ export function routeMatcher(route: string): (path: string) => boolean {
   return (path) => pattern.test(path);
 }
 
+/** A path as given (a path that does not decode stays as it is: its page is then finished by the final pass). */
+function decodedPath(encoded: string): string {
+  try {
+    return decodeURI(encoded);
+  } catch {
+    return encoded;
+  }
+}
+
 export function drawnPages(listener: DrawnPageListener, base: string): AstroIntegration {
   const prefix = base.replace(/\/+$/, '');
   return {
@@ -58,7 +67,7 @@ export function drawnPages(listener: DrawnPageListener, base: string): AstroInte
             const { response, metadata } = result instanceof Response ? { response: result, metadata: undefined } : result;
             if (response.status !== 200 || !response.body || !(response.headers.get('content-type') ?? '').includes('text/html')) return result;
             // The request's path is percent-encoded; Astro names the file with the path as given.
-            let pathname = decodeURI(new URL(request.url).pathname);
+            let pathname = decodedPath(new URL(request.url).pathname);
             if (prefix && pathname.startsWith(prefix)) pathname = pathname.slice(prefix.length);
             const page = { path: pagePathFor(pathname, options.routeData.route), route: options.routeData.route };
             const bytes = listener.drawn(page, Buffer.from(await response.arrayBuffer()));

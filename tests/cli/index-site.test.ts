@@ -160,6 +160,26 @@ describe('finishPages after pages were sent to the index while drawn', () => {
     expect(siteHashes(drawn.dir)).toEqual(await reference({ ...pages, [altered]: pages[altered].replace('Heat', 'Warm') }));
   });
 
+  it('never finishes a page twice, even when the feed was told another path than the one written', async () => {
+    const moved = plan.map((p) => (p.path === 'procedures/p-03/index.html' ? { ...p, path: 'procedures/p-03/other.html' } : p));
+    const dir = writeSite({});
+    const feed = await startSearchFeed({ index: true, lastSite: dir });
+    let how: string | undefined;
+    try {
+      feed.planned(moved);
+      for (const [i, p] of moved.entries()) {
+        const bytes = feed.drawn(p, Buffer.from(pages[plan[i].path]));
+        mkdirSync(join(dir, plan[i].path, '..'), { recursive: true });
+        writeFileSync(join(dir, plan[i].path), bytes);
+      }
+      await finishPages(dir, { index: true, early: { drawn: feed.drawnPages, sent: feed.finish(), indexed: (h) => { how = h; } } });
+    } finally {
+      await closeSearchIndexer();
+    }
+    expect(how).toBe('again');
+    expect(siteHashes(dir)).toEqual(await reference(pages));
+  });
+
   it('finishes and indexes every page when none came through the feed (an Astro without the prerenderer hook)', async () => {
     const dir = writeSite(pages);
     const feed = await startSearchFeed({ index: true, lastSite: dir });
