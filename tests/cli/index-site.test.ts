@@ -102,16 +102,22 @@ function siteHashes(dir: string): Record<string, string> {
 /**
  * A build that finishes its pages as they are drawn: each page goes through the feed in `order` (an index into the
  * planned pages), written as the feed hands it back, as Astro writes it. Returns how the final pass indexed.
+ * `written`: files in the site before the drawing (pages taken over, or pages Astro wrote without the hook);
+ * `told`: the path the feed is told for a page (Astro's own by default); `hook: false`: Astro never lists the pages.
  */
-async function drawAndFinish(pages: Record<string, string>, plan: Array<{ path: string; route: string }>, order: number[], options: { alter?: string; taken?: Parameters<typeof startSearchFeed>[0]['taken']; lastSite?: string } = {}) {
-  const dir = writeSite({});
-  const feed = await startSearchFeed({ index: true, lastSite: options.lastSite ?? dir, taken: options.taken });
+async function drawAndFinish(pages: Record<string, string>, plan: Array<{ path: string; route: string }>, order: number[], options: {
+  alter?: string; taken?: Parameters<typeof startSearchFeed>[0]['taken']; lastSite?: string; mayDraw?: string[];
+  written?: Record<string, string>; told?: (path: string) => string; hook?: false;
+} = {}) {
+  const dir = writeSite(options.written ?? {});
+  const told = options.told ?? ((path: string) => path);
+  const feed = await startSearchFeed({ index: true, lastSite: options.lastSite ?? dir, taken: options.taken, mayDraw: options.mayDraw });
   let how: string | undefined;
   try {
-    feed.planned(plan);
+    if (options.hook !== false) feed.planned(plan.map((p) => ({ ...p, path: told(p.path) })));
     for (const i of order) {
       const { path, route } = plan[i];
-      const bytes = feed.drawn({ path, route }, Buffer.from(pages[path]));
+      const bytes = feed.drawn({ path: told(path), route }, Buffer.from(pages[path]));
       mkdirSync(join(dir, path, '..'), { recursive: true });
       writeFileSync(join(dir, path), bytes);
     }
@@ -161,36 +167,15 @@ describe('finishPages after pages were sent to the index while drawn', () => {
   });
 
   it('never finishes a page twice, even when the feed was told another path than the one written', async () => {
-    const moved = plan.map((p) => (p.path === 'procedures/p-03/index.html' ? { ...p, path: 'procedures/p-03/other.html' } : p));
-    const dir = writeSite({});
-    const feed = await startSearchFeed({ index: true, lastSite: dir });
-    let how: string | undefined;
-    try {
-      feed.planned(moved);
-      for (const [i, p] of moved.entries()) {
-        const bytes = feed.drawn(p, Buffer.from(pages[plan[i].path]));
-        mkdirSync(join(dir, plan[i].path, '..'), { recursive: true });
-        writeFileSync(join(dir, plan[i].path), bytes);
-      }
-      await finishPages(dir, { index: true, early: { drawn: feed.drawnPages, sent: feed.finish(), indexed: (h) => { how = h; } } });
-    } finally {
-      await closeSearchIndexer();
-    }
-    expect(how).toBe('again');
-    expect(siteHashes(dir)).toEqual(await reference(pages));
+    const drawn = await drawAndFinish(pages, plan, plan.map((_, i) => i), { told: (path) => path.replace('p-03/index.html', 'p-03/other.html') });
+    expect(drawn.how).toBe('again');
+    expect(siteHashes(drawn.dir)).toEqual(await reference(pages));
   });
 
   it('finishes and indexes every page when none came through the feed (an Astro without the prerenderer hook)', async () => {
-    const dir = writeSite(pages);
-    const feed = await startSearchFeed({ index: true, lastSite: dir });
-    let how: string | undefined;
-    try {
-      await finishPages(dir, { index: true, early: { drawn: feed.drawnPages, sent: feed.finish(), indexed: (h) => { how = h; } } });
-    } finally {
-      await closeSearchIndexer();
-    }
-    expect(how).toBe('again');
-    expect(siteHashes(dir)).toEqual(await reference(pages));
+    const drawn = await drawAndFinish(pages, plan, [], { written: pages, hook: false });
+    expect(drawn.how).toBe('again');
+    expect(siteHashes(drawn.dir)).toEqual(await reference(pages));
   });
 
   it('sends the pages taken over from the last build in order with the drawn ones', async () => {
@@ -200,27 +185,13 @@ describe('finishPages after pages were sent to the index while drawn', () => {
     const drawnAgain = (path: string) => !path.startsWith('procedures/') || path === 'procedures/p-20/index.html';
     const taken = new Map([...lastPages].filter(([path]) => !drawnAgain(path)).map(([path, p]) => [path, { sha256: p.sha256, size: p.size, marked: p.marked }]));
     const partPlan = plan.filter((p) => drawnAgain(p.path));
-    const dir = writeSite({});
-    for (const path of taken.keys()) {
-      mkdirSync(join(dir, path, '..'), { recursive: true });
-      writeFileSync(join(dir, path), readFileSync(join(last, path)));
-    }
-    // The folders drawn again, known before Astro lists the pages.
-    const mayDraw = partPlan.map((p) => p.path.slice(0, p.path.lastIndexOf('/')));
-    const feed = await startSearchFeed({ index: true, lastSite: last, taken, mayDraw });
-    let how: string | undefined;
-    try {
-      feed.planned(partPlan);
-      for (const p of partPlan) {
-        const bytes = feed.drawn(p, Buffer.from(pages[p.path]));
-        mkdirSync(join(dir, p.path, '..'), { recursive: true });
-        writeFileSync(join(dir, p.path), bytes);
-      }
-      await finishPages(dir, { index: true, finished: taken, early: { drawn: feed.drawnPages, sent: feed.finish(), indexed: (h) => { how = h; } } });
-    } finally {
-      await closeSearchIndexer();
-    }
-    expect(how).toBe('as-sent');
-    expect(siteHashes(dir)).toEqual(await reference(pages));
+    const drawn = await drawAndFinish(pages, partPlan, partPlan.map((_, i) => i), {
+      taken, lastSite: last,
+      written: Object.fromEntries([...taken.keys()].map((path) => [path, readFileSync(join(last, path), 'utf8')])),
+      // The folders drawn again, known before Astro lists the pages.
+      mayDraw: partPlan.map((p) => p.path.slice(0, p.path.lastIndexOf('/'))),
+    });
+    expect(drawn.how).toBe('as-sent');
+    expect(siteHashes(drawn.dir)).toEqual(await reference(pages));
   });
 });
