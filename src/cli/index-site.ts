@@ -60,56 +60,71 @@ export async function indexSite(dir: string): Promise<void> {
  * hashed as they are: keeping tokens whole a second time could wrap a token the first pass left alone. One the
  * search index is not sent is not even read: its hash and size are the recorded ones (the build has checked that
  * the file is the one recorded; see page-reuse.ts).
+ * `early`: the build finished its pages as they were drawn and sent them to the indexer meanwhile (search-feed.ts).
+ * A page whose bytes are those of a page finished when drawn is taken as it is. The index they were sent to is
+ * written when it was sent exactly the marked pages as published, in order; otherwise (and without `early`) the
+ * pages are indexed here, in order, into a new index. `sent` settles once the indexer has every page sent: this
+ * pass reads the pages meanwhile. With `early` the caller closes the indexer.
  */
 export async function finishPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage>; early?: { drawn: ReadonlyMap<string, PageAsDrawn>; sent: Promise<EarlyIndex>; indexed?: (how: 'as-sent' | 'again') => void } }): Promise<Map<string, FinishedPage>> {
-  if (options.early) return finishDrawnPages(dir, options as Parameters<typeof finishDrawnPages>[1]);
   const pages = new Map<string, FinishedPage>();
   const digests: Array<Promise<void>> = [];
-  const pagefind = options.index ? await import('pagefind') : undefined;
-  try {
-    let index: Awaited<ReturnType<NonNullable<typeof pagefind>['createIndex']>>['index'];
-    if (pagefind) {
-      const created = await pagefind.createIndex({});
-      if (!created.index) throw new Error(`pagefind: ${created.errors.join('; ')}`);
-      index = created.index;
+  const drawn = [...(options.early?.drawn.values() ?? [])];
+  const drawnSums = new Set(drawn.map((p) => p.sha256));
+  const drawnSizes = new Set(drawn.map((p) => p.size));
+  let read = 0;
+  for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
+    // Now and then the pages still going to the indexer get their turn.
+    if (++read % pagesInFlight === 0) await new Promise((resolve) => setImmediate(resolve));
+    const recorded = options.finished?.get(path);
+    if (recorded && !recorded.marked) {
+      pages.set(path, { path, sha256: recorded.sha256, size: recorded.size, marked: false, asRecorded: true });
+      continue;
     }
-    const indexer = pagesIndexer(index);
-    const unmarked: string[] = [];
-    let marked = 0;
-    for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
-      const file = join(dir, ...path.split('/'));
-      const recorded = options.finished?.get(path);
-      if (recorded && !recorded.marked) {
-        pages.set(path, { path, sha256: recorded.sha256, size: recorded.size, marked: false, asRecorded: true });
-        unmarked.push(path);
+    const file = join(dir, ...path.split('/'));
+    const page = readFileSync(file);
+    if (!recorded && drawnSizes.has(page.byteLength)) {
+      // A page finished when drawn is known by its bytes, wherever Astro wrote it: finishing it twice would wrap
+      // its tokens twice.
+      const sha256 = createHash('sha256').update(page).digest('hex');
+      if (drawnSums.has(sha256)) {
+        pages.set(path, { path, sha256, size: page.byteLength, marked: marksSearchablePart(page) });
         continue;
       }
-      const page = readFileSync(file);
-      const kept = recorded ? page : keepTokensWholeInBytes(page);
-      if (kept !== page) writeFileSync(file, kept);
-      // Hashed on the thread pool while this thread goes on with the next page; all are in before the pages are returned.
-      const hashed: FinishedPage = { path, sha256: '', size: kept.byteLength, marked: marksSearchablePart(kept) };
-      pages.set(path, hashed);
-      digests.push(webcrypto.subtle.digest('SHA-256', kept).then((digest) => { hashed.sha256 = Buffer.from(digest).toString('hex'); }));
-      if (!index) continue;
-      // A mention of the attribute in a page's text only sends one page more: pagefind still decides. Only the
-      // pages sent are decoded.
-      if (hashed.marked) {
-        marked++;
-        await indexer.add(path, kept.toString('utf8'));
-      } else {
-        unmarked.push(path);
-      }
     }
-    if (index) {
-      if (marked === 0) for (const path of unmarked) await indexer.add(path, readFileSync(join(dir, ...path.split('/')), 'utf8'));
-      await indexer.write(dir);
-    }
-    await Promise.all(digests);
-    return pages;
-  } finally {
-    await pagefind?.close();
+    const kept = recorded ? page : keepTokensWholeInBytes(page);
+    if (kept !== page) writeFileSync(file, kept);
+    // Hashed on the thread pool while this thread goes on with the next page; all are in before the pages are returned.
+    const hashed: FinishedPage = { path, sha256: '', size: kept.byteLength, marked: marksSearchablePart(kept) };
+    pages.set(path, hashed);
+    digests.push(webcrypto.subtle.digest('SHA-256', kept).then((digest) => { hashed.sha256 = Buffer.from(digest).toString('hex'); }));
   }
+  await Promise.all(digests);
+  // The indexer still takes the last pages sent while this pass reads the pages.
+  const sent = await options.early?.sent;
+  if (!options.index) return pages;
+  const marked = [...pages.values()].filter((p) => p.marked);
+  const asSent = sent !== undefined && !sent.broken && sent.index !== undefined && marked.length > 0 && marked.length === sent.sent.length
+    && marked.every((p, i) => p.path === sent.sent[i].path && p.sha256 === sent.sent[i].sha256);
+  options.early?.indexed?.(asSent ? 'as-sent' : 'again');
+  if (asSent) {
+    await pagesIndexer(sent.index).write(dir);
+    return pages;
+  }
+  // Indexed from the pages as published: the marked ones, or every page when none is marked. A mention of the
+  // attribute in a page's text only sends one page more: pagefind still decides.
+  await sent?.index?.deleteIndex();
+  const pagefind = await import('pagefind');
+  try {
+    const created = await pagefind.createIndex({});
+    if (!created.index) throw new Error(`pagefind: ${created.errors.join('; ')}`);
+    const indexer = pagesIndexer(created.index);
+    for (const page of marked.length ? marked : [...pages.values()]) await indexer.add(page.path, readFileSync(join(dir, ...page.path.split('/')), 'utf8'));
+    await indexer.write(dir);
+  } finally {
+    if (!options.early) await pagefind.close();
+  }
+  return pages;
 }
 
 type SearchIndex = NonNullable<EarlyIndex['index']>;
@@ -141,66 +156,4 @@ function pagesIndexer(index: SearchIndex | undefined) {
       if (written.errors.length) throw new Error(`pagefind: ${written.errors.join('; ')}`);
     },
   };
-}
-
-/**
- * The final pass after a build that finished its pages as they were drawn (search-feed.ts). A page whose bytes are
- * those of a page finished when drawn is taken as it is; any other page is finished here, as `finishPages` would. The index the
- * pages were sent to while drawn is written when it was sent exactly the marked pages as published, in order;
- * otherwise every page is indexed again here, in order, into a new index. `sent` settles once the indexer has every
- * page sent: this pass reads the pages meanwhile. The caller closes the indexer.
- */
-async function finishDrawnPages(dir: string, options: { index: boolean; finished?: ReadonlyMap<string, RecordedPage>; early: { drawn: ReadonlyMap<string, PageAsDrawn>; sent: Promise<EarlyIndex>; indexed?: (how: 'as-sent' | 'again') => void } }): Promise<Map<string, FinishedPage>> {
-  const pages = new Map<string, FinishedPage>();
-  const digests: Array<Promise<void>> = [];
-  const { drawn } = options.early;
-  const drawnSums = new Set([...drawn.values()].map((p) => p.sha256));
-  const drawnSizes = new Set([...drawn.values()].map((p) => p.size));
-  let read = 0;
-  for (const path of siteFiles(dir).filter((p) => p.endsWith('.html'))) {
-    // Now and then the pages still going to the indexer get their turn.
-    if (++read % pagesInFlight === 0) await new Promise((resolve) => setImmediate(resolve));
-    const recorded = options.finished?.get(path);
-    if (recorded && !recorded.marked) {
-      pages.set(path, { path, sha256: recorded.sha256, size: recorded.size, marked: false, asRecorded: true });
-      continue;
-    }
-    const file = join(dir, ...path.split('/'));
-    const page = readFileSync(file);
-    if (!recorded && drawnSizes.has(page.byteLength)) {
-      // A page finished when drawn is known by its bytes, wherever Astro wrote it: finishing it twice would wrap
-      // its tokens twice.
-      const sha256 = createHash('sha256').update(page).digest('hex');
-      if (drawnSums.has(sha256)) {
-        pages.set(path, { path, sha256, size: page.byteLength, marked: marksSearchablePart(page) });
-        continue;
-      }
-    }
-    const kept = recorded ? page : keepTokensWholeInBytes(page);
-    if (kept !== page) writeFileSync(file, kept);
-    const hashed: FinishedPage = { path, sha256: '', size: kept.byteLength, marked: marksSearchablePart(kept) };
-    pages.set(path, hashed);
-    digests.push(webcrypto.subtle.digest('SHA-256', kept).then((digest) => { hashed.sha256 = Buffer.from(digest).toString('hex'); }));
-  }
-  await Promise.all(digests);
-  // The indexer still takes the last pages sent while this pass reads the pages.
-  const sent = await options.early.sent;
-  if (!options.index) return pages;
-  const marked = [...pages.values()].filter((p) => p.marked);
-  const asSent = !sent.broken && sent.index !== undefined && marked.length > 0 && marked.length === sent.sent.length
-    && marked.every((p, i) => p.path === sent.sent[i].path && p.sha256 === sent.sent[i].sha256);
-  options.early.indexed?.(asSent ? 'as-sent' : 'again');
-  if (asSent) {
-    await pagesIndexer(sent.index).write(dir);
-    return pages;
-  }
-  // Indexed again from the pages as published: the marked ones, or every page when none is marked.
-  await sent.index?.deleteIndex();
-  const pagefind = await import('pagefind');
-  const created = await pagefind.createIndex({});
-  if (!created.index) throw new Error(`pagefind: ${created.errors.join('; ')}`);
-  const indexer = pagesIndexer(created.index);
-  for (const page of marked.length ? marked : [...pages.values()]) await indexer.add(page.path, readFileSync(join(dir, ...page.path.split('/')), 'utf8'));
-  await indexer.write(dir);
-  return pages;
 }
