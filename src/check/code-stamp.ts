@@ -12,8 +12,9 @@
 // A file changed in place changes the quick stamp, so the index never answers for code it has not read. A
 // damaged or altered index is ignored, and rewritten.
 import { createHash } from 'node:crypto';
-import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { dirname, join } from 'node:path';
+import { readSummedJson, writeSummedJson } from './summed-json.ts';
 
 /** Quick stamps the index remembers, most recent first: a few installs and checkouts. */
 const remembered = 16;
@@ -107,24 +108,14 @@ type StampIndex = Array<[quick: string, content: string]>;
 const isStamp = (value: unknown): value is string => typeof value === 'string' && /^[0-9a-f]{64}$/.test(value);
 
 function readIndex(file: string): StampIndex {
-  try {
-    const stored = JSON.parse(readFileSync(file, 'utf8')) as { sum?: unknown; body?: unknown };
-    if (typeof stored.body !== 'string' || stored.sum !== createHash('sha256').update(stored.body).digest('hex')) return [];
-    const pairs = JSON.parse(stored.body) as unknown;
-    if (!Array.isArray(pairs)) return [];
-    return pairs.filter((p): p is [string, string] => Array.isArray(p) && p.length === 2 && isStamp(p[0]) && isStamp(p[1]));
-  } catch {
-    return [];
-  }
+  const pairs = readSummedJson(file);
+  if (!Array.isArray(pairs)) return [];
+  return pairs.filter((p): p is [string, string] => Array.isArray(p) && p.length === 2 && isStamp(p[0]) && isStamp(p[1]));
 }
 
 function writeIndex(file: string, pairs: StampIndex): void {
   try {
-    const body = JSON.stringify(pairs);
-    mkdirSync(dirname(file), { recursive: true });
-    const temporary = `${file}.tmp-${process.pid}`;
-    writeFileSync(temporary, JSON.stringify({ sum: createHash('sha256').update(body).digest('hex'), body }));
-    renameSync(temporary, file);
+    writeSummedJson(file, pairs);
   } catch {
     // Not written: the next run reads the code again, which costs time only.
   }

@@ -14,9 +14,10 @@
 // content) the old pages link to are carried over when the new build did not make them. A record that cannot be read or was written for something
 // else is ignored; the folder may be deleted at any time (STEPWRIGHT_CACHE=off: no reuse).
 import { createHash } from 'node:crypto';
-import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, linkSync, mkdirSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { packageRoot, stepwrightStamp } from '../check/code-stamp.ts';
+import { readSummedJson, writeSummedJson } from '../check/summed-json.ts';
 import { marksSearchablePart, type FinishedPage, type RecordedPage } from './index-site.ts';
 
 const recordFormat = 'stepwright-page-record-4';
@@ -70,15 +71,9 @@ export function pageRecordPath(cacheFolder: string, outDir: string): string {
 
 /** The record, or undefined when there is none or it cannot be trusted. */
 export function readPageRecord(file: string, outDir: string): PageRecord | undefined {
-  try {
-    const raw = JSON.parse(readFileSync(file, 'utf8')) as { sum?: unknown; body?: unknown };
-    if (typeof raw.body !== 'string' || raw.sum !== sha256(raw.body)) return undefined;
-    const record = JSON.parse(raw.body) as PageRecord;
-    if (record.format !== recordFormat || record.site !== outDir || !Array.isArray(record.assets) || typeof record.folders !== 'object' || !record.folders) return undefined;
-    return record;
-  } catch {
-    return undefined;
-  }
+  const record = readSummedJson(file) as PageRecord | undefined;
+  if (!record || typeof record !== 'object' || record.format !== recordFormat || record.site !== outDir || !Array.isArray(record.assets) || typeof record.folders !== 'object' || !record.folders) return undefined;
+  return record;
 }
 
 /** Which page folders can be taken from the output as it is now: same key, files as recorded. */
@@ -247,11 +242,7 @@ export function writePageRecord(file: string, outDir: string, keys: Map<string, 
         .map((e) => `_astro/${join(e.parentPath, e.name).slice(assetFolder.length + 1).split(/[\\/]/).join('/')}`).sort()
       : [];
     const record: PageRecord = { format: recordFormat, site: outDir, assets, folders };
-    const body = JSON.stringify(record);
-    mkdirSync(dirname(file), { recursive: true });
-    const temporary = `${file}.tmp-${process.pid}`;
-    writeFileSync(temporary, JSON.stringify({ sum: sha256(body), body }));
-    renameSync(temporary, file);
+    writeSummedJson(file, record);
   } catch {
     // Not written: the next build draws every page, as the first one did.
   }
