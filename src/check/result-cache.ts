@@ -211,6 +211,11 @@ function entryWriter(): EntryWriter {
       done ??= new Promise<void>((resolve) => {
         const end = () => {
           void running.terminate();
+          // Entries set later (after a check, by the build) start a thread of their own.
+          if (worker === running) {
+            worker = undefined;
+            done = undefined;
+          }
           resolve();
         };
         running.once('message', end);

@@ -45,6 +45,19 @@ describe('result cache', () => {
     await openResultCache(dir).flush();
   });
 
+  it('writes entries set after a flush too (the build keeps more once the check is done)', async () => {
+    const store = openResultCache(dir);
+    const batch = (from: number) => Array.from({ length: 100 }, (_, i) => from + i);
+    for (const i of batch(0)) store.set(cacheKey([`before ${i}`]), { i });
+    await store.flush();
+    for (const i of batch(100)) store.set(cacheKey([`after ${i}`]), { i });
+    await store.flush();
+    const again = openResultCache(dir);
+    for (const i of batch(0)) expect(again.get(cacheKey([`before ${i}`]))).toEqual({ i });
+    for (const i of batch(100)) expect(again.get(cacheKey([`after ${i}`]))).toEqual({ i });
+    expect(again.stats).toMatchObject({ hits: 200, misses: 0, refused: 0 });
+  });
+
   it('gives up on caching, not on the check, when the folder cannot be written from the writing thread', async () => {
     const file = join(dir, 'not-a-folder');
     writeFileSync(file, '');
