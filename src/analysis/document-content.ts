@@ -1,5 +1,6 @@
 // Splits a procedure into its content (what operators follow) and its document control (who signed, when):
 // a change of content needs a new revision, a change of document control does not.
+import { createHash } from 'node:crypto';
 import type { Procedure } from '../model/procedure.ts';
 
 /**
@@ -23,14 +24,36 @@ const areaOrder: ContentArea[] = ['id', 'title', 'kind', 'equipment', 'ppe', 'si
 export function changedContentAreas(before: Pick<Procedure, 'data' | 'bodyText'>, after: Pick<Procedure, 'data' | 'bodyText'>): ContentArea[] {
   // A file unchanged since the commit is compared with its own reading (the check reads it once).
   if (before === after) return [];
-  const changed = new Set<ContentArea>();
+  return changedAreasBetween(contentPrint(before), contentPrint(after));
+}
+
+/**
+ * What comparing one version's content with another's reads, kept small: a digest of each front-matter key's value
+ * outside document control (sorted by key), and of the narrative's words. The history keeps one per commit instead
+ * of the commit's whole reading.
+ */
+export interface ContentPrint {
+  keys: Array<[key: string, digest: string]>;
+  body: string;
+}
+
+const digestOf = (text: string) => createHash('sha256').update(text).digest('base64url');
+
+export function contentPrint(p: Pick<Procedure, 'data' | 'bodyText'>): ContentPrint {
   const control = new Set<string>(documentControlKeys);
-  const keys = new Set([...Object.keys(before.data), ...Object.keys(after.data)]);
-  for (const key of keys) {
-    if (control.has(key)) continue;
-    if (canonical(before.data[key]) !== canonical(after.data[key])) changed.add(areaOfKey[key] ?? 'other');
+  const keys = Object.keys(p.data).filter((key) => !control.has(key)).sort().map((key): [string, string] => [key, digestOf(canonical(p.data[key]))]);
+  return { keys, body: digestOf(normalizeBody(p.bodyText)) };
+}
+
+/** The content areas that differ between two versions, from their prints, in reading order. */
+export function changedAreasBetween(before: ContentPrint, after: ContentPrint): ContentArea[] {
+  const changed = new Set<ContentArea>();
+  const old = new Map(before.keys);
+  const now = new Map(after.keys);
+  for (const key of new Set([...old.keys(), ...now.keys()])) {
+    if (old.get(key) !== now.get(key)) changed.add(Object.hasOwn(areaOfKey, key) ? areaOfKey[key] : 'other');
   }
-  if (normalizeBody(before.bodyText) !== normalizeBody(after.bodyText)) changed.add('body');
+  if (before.body !== after.body) changed.add('body');
   return areaOrder.filter((a) => changed.has(a));
 }
 

@@ -1,7 +1,7 @@
 // Which content areas differ between two versions of a procedure: what the history rules and the redline read.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { changedContentAreas } from '../../src/analysis/document-content.ts';
+import { canonical, changedAreasBetween, changedContentAreas, contentPrint, documentControlKeys } from '../../src/analysis/document-content.ts';
 
 const version = (data: Record<string, unknown>, bodyText = 'Purpose: heat the kettle.\n') => ({ data, bodyText });
 const base = {
@@ -56,6 +56,40 @@ describe('changed content areas', () => {
         expect(changedContentAreas(version(before), version(after))).toEqual([k === 'notes' ? 'other' : k]);
       }),
       { numRuns: 100, seed: 1205 },
+    );
+  });
+
+  it('reports a change under a key named like a member of every object (constructor, toString) as other', () => {
+    for (const key of ['constructor', 'toString', 'hasOwnProperty', '__proto__']) {
+      const before = JSON.parse(`{"id": "U2-X-001", "${key}": "a"}`) as Record<string, unknown>;
+      const after = JSON.parse(`{"id": "U2-X-001", "${key}": "b"}`) as Record<string, unknown>;
+      expect(changedContentAreas(version(before), version(after)), key).toEqual(['other']);
+    }
+  });
+
+  it('tells from two prints the areas a direct comparison of the two versions tells (property)', () => {
+    // The comparison the prints stand for: each content key's value as JSON with sorted keys, and the words of the narrative.
+    const control = new Set<string>(documentControlKeys);
+    const areas = ['id', 'title', 'kind', 'equipment', 'ppe', 'signals', 'limits', 'interlocks', 'hazards', 'steps'];
+    const direct = (a: ReturnType<typeof version>, b: ReturnType<typeof version>) => {
+      const changed = new Set<string>();
+      for (const key of new Set([...Object.keys(a.data), ...Object.keys(b.data)])) {
+        if (!control.has(key) && canonical(a.data[key]) !== canonical(b.data[key])) changed.add(areas.includes(key) ? key : 'other');
+      }
+      if (a.bodyText.replace(/\s+/g, ' ').trim() !== b.bodyText.replace(/\s+/g, ' ').trim()) changed.add('body');
+      return [...areas, 'body', 'other'].filter((x) => changed.has(x));
+    };
+    // Few keys and values, so that two versions often share some and differ in others.
+    const key = fc.constantFrom('id', 'title', 'steps', 'limits', 'revision', 'status', 'notes', 'approvals', 'constructor');
+    const value = fc.oneof(fc.constantFrom('a', 'b', 1, null, [1, 2], { x: 1, y: [2] }, { y: [2], x: 1 }), fc.jsonValue({ maxDepth: 2 }));
+    const body = fc.constantFrom('Heat the kettle.', 'Heat  the\nkettle.\n', 'Cool the kettle.', '');
+    const side = fc.record({ data: fc.dictionary(key, value, { maxKeys: 5 }), bodyText: body });
+    fc.assert(
+      fc.property(side, side, (a, b) => {
+        expect(changedAreasBetween(contentPrint(a), contentPrint(b))).toEqual(direct(a, b));
+        expect(changedContentAreas(a, b)).toEqual(direct(a, b));
+      }),
+      { numRuns: 2000, seed: 1206 },
     );
   });
 });
