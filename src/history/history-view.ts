@@ -1,9 +1,9 @@
 // What the site prints about a procedure's past: every revision at a stable URL, its redline against the one
 // before, and an audit trail of every commit in order (who, when, why), nothing merged away or rewritten.
-import type { Approval, Procedure } from '../model/procedure.ts';
-import { changedContentAreas, type ContentArea } from '../analysis/document-content.ts';
-import { readProcedure } from '../read/read-procedure.ts';
+import type { Approval } from '../model/procedure.ts';
+import { changedAreasBetween, type ContentArea } from '../analysis/document-content.ts';
 import type { ProcedureHistory, Revision } from './revisions.ts';
+import type { VersionRecord } from './version-record.ts';
 
 export interface RevisionEntry {
   revision: number;
@@ -21,9 +21,11 @@ export interface RevisionEntry {
   superseded: boolean;
   /** False when a shallow clone hides the revision's first commits. */
   complete: boolean;
+  /** The revision's committed text (its last commit): its pages are drawn from it (site-data/history.ts reads it). */
   text: string;
   path: string;
-  procedure: Procedure | null;
+  /** The ids of the procedures its steps call. */
+  calls: string[];
 }
 
 export interface AuditEntry {
@@ -88,7 +90,7 @@ export function buildHistoryView(
       introduced: { date: r.introduced.date, author: r.introduced.author, commit: r.introduced.commit, subject: r.introduced.subject },
       superseded: n < supersededBefore || r.status === 'superseded' || r.status === 'retired',
       complete: r.complete,
-      text: r.text, path: r.path, procedure: r.procedure,
+      text: r.text, path: r.path, calls: r.record?.calls ?? [],
     };
   });
   return {
@@ -105,20 +107,19 @@ export function buildHistoryView(
 
 function auditTrail(history: ProcedureHistory): AuditEntry[] {
   const out: AuditEntry[] = [];
-  let before: Procedure | null = null;
+  let before: VersionRecord | null = null;
   let beforeRevision: number | null = null;
   let beforeStatus = '';
   for (const r of history.revisions) {
     r.commits.forEach((c, i) => {
-      const procedure = i === r.commits.length - 1 ? r.procedure : null;
       const events: string[] = [];
-      const now = procedure ?? readAt(r, i);
+      const now = r.commitRecords[i] ?? null;
       if (c.renamedFrom) events.push(`file moved from ${c.renamedFrom}`);
       const cut = history.shallow && !c.hasParents;
       if (out.length === 0) events.push(cut ? `earliest commit in this clone (revision ${c.revision ?? '?'})` : `revision ${c.revision ?? '?'} created`);
       else if (c.revision !== beforeRevision) events.push(`revision ${beforeRevision ?? '?'} → ${c.revision ?? '?'}`);
       if (out.length > 0 && c.status !== beforeStatus) events.push(`status ${beforeStatus || '?'} → ${c.status || '?'}`);
-      const areas = before && now ? changedContentAreas(before, now) : [];
+      const areas = before && now ? changedAreasBetween(before.content, now.content) : [];
       const inPlace = c.revision === beforeRevision && released.has(beforeStatus) ? areas : [];
       if (areas.length && !inPlace.length && out.length > 0) events.push(`content: ${areas.join(', ')}`);
       if (inPlace.length) events.push(`content edited in place: ${inPlace.join(', ')}`);
@@ -137,17 +138,11 @@ function auditTrail(history: ProcedureHistory): AuditEntry[] {
   return out;
 }
 
-/** Commits inside a revision keep only their numbers; the text is read again when the audit needs to compare. */
-function readAt(r: Revision, index: number): Procedure | null {
-  const text = r.commitTexts[index];
-  return text === undefined ? null : readProcedure(r.commits[index].path, text).procedure;
-}
-
 /**
  * Signatures added or removed by a commit: the audit shows when each approval entered the record. When the commit
  * starts a new revision, signatures copied from the old one are named as copies, not as new signatures.
  */
-function signatureEvents(before: Procedure | null, now: Procedure | null, newRevisionAfter?: number | null): string[] {
+function signatureEvents(before: VersionRecord | null, now: VersionRecord | null, newRevisionAfter?: number | null): string[] {
   if (!now) return [];
   const text = (a: Approval) => `${a.role} ${a.name} (${a.date}, ${a.meaning})`;
   const old = new Set((before?.approvals ?? []).map(text));

@@ -1,7 +1,7 @@
 // Every committed revision of one procedure file (the commits where `revision` changed), plus uncommitted work as the next draft.
-import { readProcedure } from '../read/read-procedure.ts';
-import type { Approval, Procedure } from '../model/procedure.ts';
+import type { Approval } from '../model/procedure.ts';
 import type { FileCommit } from './file-log.ts';
+import { readVersionRecord, type VersionRecord } from './version-record.ts';
 import { fileLogs } from './repository-log.ts';
 import { isShallow, showFiles, type Git } from './git.ts';
 
@@ -24,11 +24,13 @@ export interface Revision {
   latest: VersionCommit;
   /** Every commit of this revision, oldest first: status changes and any edits made in place. */
   commits: VersionCommit[];
-  /** The file's text at each of `commits`, for audits that compare commit by commit. */
-  commitTexts: string[];
+  /** What each of `commits` recorded, for audits that compare commit by commit. */
+  commitRecords: Array<VersionRecord | null>;
   path: string;
+  /** The text of the revision's last commit: what its pages are drawn from. */
   text: string;
-  procedure: Procedure | null;
+  /** What its last commit recorded. */
+  record: VersionRecord | null;
   /** False when a shallow clone may hide older commits of this revision. */
   complete: boolean;
 }
@@ -37,7 +39,7 @@ export interface Draft {
   revision: number | null;
   status: string;
   text: string;
-  procedure: Procedure | null;
+  record: VersionRecord | null;
 }
 
 export interface ProcedureHistory {
@@ -60,8 +62,13 @@ export async function readHistory(git: Git, path: string, workingText?: string):
 }
 
 export interface HistoryOptions {
-  /** Reads a committed text into the model; lets a caller reuse what it has already read (same text, same result). */
-  read?: (path: string, text: string) => Procedure | null;
+  /** Reads a committed text's record; lets a caller reuse what it has already read (same text, same result). */
+  read?: (path: string, text: string) => VersionRecord | null;
+  /**
+   * Reads the records of one file's committed versions (oldest first; `path`: the file's name now), each as `read`
+   * would: lets a caller keep them between runs.
+   */
+  readVersions?: (path: string, versions: ReadonlyArray<{ path: string; text: string }>) => Array<VersionRecord | null>;
 }
 
 /**
@@ -69,39 +76,43 @@ export interface HistoryOptions {
  * one log of their common folder, one `cat-file --batch` for every text, and one shallow-clone question.
  */
 export async function readHistories(git: Git, files: ReadonlyArray<{ path: string; workingText?: string }>, options: HistoryOptions = {}): Promise<Map<string, ProcedureHistory>> {
-  const read = options.read ?? ((path: string, text: string) => readProcedure(path, text).procedure);
+  const read = options.read ?? readVersionRecord;
   const [logs, shallow] = await Promise.all([fileLogs(git, files.map((f) => f.path)), isShallow(git)]);
   const oldestFirstOf = new Map(files.map(({ path }) => [path, logs.get(path)!.filter((c) => c.change !== 'D').reverse()]));
   const shown = await showFiles(git, [...new Set([...oldestFirstOf.values()].flatMap((commits) => commits.map((c) => `${c.commit}:${c.path}`)))]);
   const out = new Map<string, ProcedureHistory>();
   for (const { path, workingText } of files) {
-    const oldestFirst = oldestFirstOf.get(path)!;
-    const revisions: Revision[] = [];
-    for (const commit of oldestFirst) {
+    const oldestFirst = oldestFirstOf.get(path)!.flatMap((commit) => {
       const text = shown.get(`${commit.commit}:${commit.path}`);
-      if (text === undefined) continue;
-      const procedure = read(commit.path, text);
-      const revision = revisionOf(procedure);
-      const version: VersionCommit = { ...commit, revision, status: procedure?.status ?? '' };
+      return text === undefined ? [] : [{ commit, text }];
+    });
+    const versions = oldestFirst.map(({ commit, text }) => ({ path: commit.path, text }));
+    const records = options.readVersions ? options.readVersions(path, versions) : versions.map((v) => read(v.path, v.text));
+    const revisions: Revision[] = [];
+    for (const [at, { commit, text }] of oldestFirst.entries()) {
+      const record = records[at];
+      const revision = record?.revision ?? null;
+      const version: VersionCommit = { ...commit, revision, status: record?.status ?? '' };
       const last = revisions[revisions.length - 1];
       if (last && last.revision === revision) {
         last.commits.push(version);
-        last.commitTexts.push(text);
-        Object.assign(last, describe(procedure), { latest: version, path: commit.path, text, procedure });
+        last.commitRecords.push(record);
+        Object.assign(last, describe(record), { latest: version, path: commit.path, text, record });
       } else {
-        revisions.push({ revision, ...describe(procedure), introduced: version, latest: version, commits: [version], commitTexts: [text], path: commit.path, text, procedure, complete: true });
+        revisions.push({ revision, ...describe(record), introduced: version, latest: version, commits: [version], commitRecords: [record], path: commit.path, text, record, complete: true });
       }
     }
 
-    const cut = shallow && oldestFirst.length > 0 && !oldestFirst[0].hasParents;
+    const logged = oldestFirstOf.get(path)!;
+    const cut = shallow && logged.length > 0 && !logged[0].hasParents;
     if (cut && revisions[0]) revisions[0].complete = false;
     const history: ProcedureHistory = { path, revisions, shallow };
-    if (cut) history.notice = shallowNotice(oldestFirst[0], revisions[0]?.revision ?? null);
+    if (cut) history.notice = shallowNotice(logged[0], revisions[0]?.revision ?? null);
 
     const latest = revisions[revisions.length - 1];
     if (workingText !== undefined && workingText !== latest?.text) {
-      const procedure = read(path, workingText);
-      history.draft = { revision: revisionOf(procedure), status: procedure?.status ?? '', text: workingText, procedure };
+      const record = read(path, workingText);
+      history.draft = { revision: record?.revision ?? null, status: record?.status ?? '', text: workingText, record };
     }
     out.set(path, history);
   }
@@ -115,10 +126,6 @@ export function shallowNotice(boundary: FileCommit, revision: number | null): st
     "Fetch the full history with 'git fetch --unshallow' (in GitHub Actions: actions/checkout with 'fetch-depth: 0').";
 }
 
-function revisionOf(procedure: Procedure | null): number | null {
-  return procedure && Number.isFinite(procedure.revision) ? procedure.revision : null;
-}
-
-function describe(procedure: Procedure | null): Pick<Revision, 'status' | 'effective' | 'change' | 'approvals'> {
-  return { status: procedure?.status ?? '', effective: procedure?.effective, change: procedure?.change, approvals: procedure?.approvals ?? [] };
+function describe(record: VersionRecord | null): Pick<Revision, 'status' | 'effective' | 'change' | 'approvals'> {
+  return { status: record?.status ?? '', effective: record?.effective, change: record?.change, approvals: record?.approvals ?? [] };
 }

@@ -130,17 +130,29 @@ export function partsFromBytes(bytes: Uint8Array): ReadParts | undefined {
   return value as ReadParts;
 }
 
-function readParts(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, tableNow: boolean): ReadParts {
+/**
+ * The front-matter's data and the narrative's text, without reading the narrative's markdown or making a table of
+ * positions: what the document control of a committed version and the comparison of its content need. The data is
+ * the data readSource gives for the same text.
+ */
+export function readFrontMatter(file: string, text: string): { data: unknown; bodyText: string } {
+  const where = positionsIn(text);
+  return { data: readParts(file, text, where, false, false).data, bodyText: where.split.body };
+}
+
+function readParts(file: string, text: string, { split, at, bodyStartLine }: ReturnType<typeof positionsIn>, tableNow: boolean, narrative = true): ReadParts {
   const diagnostics: Diagnostic[] = [];
   let doc: Document.Parsed | null = null;
   let data: unknown = null;
   const fileLines = (offset: number) => at(offset);
 
   // The markdown parser slows steeply with nesting and can overflow the stack, so absurd bodies are refused first.
-  const bodyProblem = prescanBodyNesting(split.body);
-  const bodySize = bodyProblem ? null : prescanBodySize(split.body);
+  const bodyProblem = narrative ? prescanBodyNesting(split.body) : null;
+  const bodySize = bodyProblem || !narrative ? null : prescanBodySize(split.body);
   let body: Root = { type: 'root', children: [] };
-  if (bodySize) {
+  if (!narrative) {
+    // Left unread.
+  } else if (bodySize) {
     diagnostics.push({
       file, ...at(split.bodyOffset + bodySize.offset), severity: 'error', rule: 'body-too-large',
       message: `The narrative text has ${groupDigits(bodySize.found)} ${bodySize.what}; the limit is ${groupDigits(bodySize.limit)}. It was not read.`,

@@ -1,9 +1,13 @@
 // Reads every procedure's revisions from git once per site build, for the revision, redline and audit pages.
 import { isAbsolute, resolve } from 'node:path';
 import { readProcedure } from '../read/read-procedure.ts';
+import type { Procedure } from '../model/procedure.ts';
 import { buildHistoryView, type HistoryView, type RevisionEntry } from '../history/history-view.ts';
 import { revisionInForce } from '../history/in-force.ts';
 import { readHistories } from '../history/revisions.ts';
+import { isVersionRecord, readVersionRecord, recordOf, type VersionRecord } from '../history/version-record.ts';
+import { commandCache } from '../engine/command-cache.ts';
+import { cacheKey } from '../check/result-cache.ts';
 import { buildProcedureView, type ProcedureView } from '../render/manual.ts';
 import { sharedOn, siteManual, type LoadedManual } from './manual.ts';
 import { openRepository, repoPath } from '../engine/repository.ts';
@@ -40,9 +44,21 @@ async function readAllHistories(loaded: LoadedManual): Promise<Map<string, Histo
     }
     return out;
   }
-  // A committed text the check has already read (usually the last commit's) is not read again.
+  // A committed text the check has already read (usually the last commit's) is not read again; the others are read
+  // for their record alone (their front-matter), and in full only should a page be drawn from them.
   const checked = new Map(loaded.result.files.flatMap((f) => (f.source ? [[f.source.text, f.procedure] as const] : [])));
-  const read = (path: string, text: string) => (checked.has(text) ? checked.get(text)! : readCommitted(path, text).procedure);
+  const read = (path: string, text: string) => (checked.has(text) ? recordOf(checked.get(text)!) : readVersionRecord(path, text));
+  // The records of a file's versions are kept in the result cache, by the Stepwright code and every version's name and
+  // text: a rebuild reads none of them again, and a new commit reads that one file's versions.
+  const cache = commandCache(io, undefined);
+  const readVersions = (path: string, versions: ReadonlyArray<{ path: string; text: string }>): Array<VersionRecord | null> => {
+    const key = cache && cacheKey([cache.code, 'version-records', path, ...versions.flatMap((v) => [v.path, v.text])]);
+    const kept = key === undefined ? undefined : cache!.store.get<unknown>(key);
+    if (Array.isArray(kept) && kept.length === versions.length && kept.every((r) => r === null || isVersionRecord(r))) return kept as Array<VersionRecord | null>;
+    const records = versions.map((v) => read(v.path, v.text));
+    if (key !== undefined) cache!.store.set(key, records);
+    return records;
+  };
   const texts = new Map(loaded.inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
   const all = view.procedures.map((p) => ({ p, path: repoPath(repo, resolve(io.cwd, p.file)), workingText: texts.get(p.file) }));
   // A procedures folder outside the repository has no history in it; git is not asked about it.
@@ -52,7 +68,8 @@ async function readAllHistories(loaded: LoadedManual): Promise<Map<string, Histo
     out.set(p.id, buildHistoryView({ path: p.file, revisions: [], shallow: false, notice: `This procedure file is outside the git repository at ${repo.root}, so no earlier revisions are available.` }, identity(p)));
   }
   // One pass over git for every procedure's history.
-  const histories = await readHistories(repo.git, files, { read });
+  const histories = await readHistories(repo.git, files, { read, readVersions });
+  await cache?.store.flush();
   for (const { p, path } of files) out.set(p.id, buildHistoryView(histories.get(path)!, identity(p)));
   return out;
 }
@@ -69,6 +86,11 @@ export async function siteRevisions(): Promise<RevisionPage[]> {
     if (!history) return [];
     return history.revisions.map((entry, i) => ({ p, entry, before: history.revisions[i - 1], history }));
   });
+}
+
+/** The model of a committed revision, read in full from its text (once per build, whichever page asks). */
+export function committedProcedure(entry: Pick<RevisionEntry, 'path' | 'text'>): Procedure | null {
+  return readCommitted(entry.path, entry.text).procedure;
 }
 
 /** The same page model as the current procedure page, built from a committed revision's text. */

@@ -70,19 +70,17 @@ export async function pageKeys(loaded: LoadedManual, salt: string): Promise<Map<
     const history = histories.get(p.id);
     // Everything a call can reach, in every revision the pages show (a revision in force may call what the
     // newest text no longer does), and every procedure that calls this one or that it requires.
-    const models: Procedure[] = [];
-    if (checked?.procedure) models.push(checked.procedure);
-    for (const entry of history?.revisions ?? []) if (entry.procedure) models.push(entry.procedure);
     const related = new Set<string>();
-    const reach = (procedure: Procedure) => {
-      for (const site of callSitesOf(procedure)) {
-        if (related.has(site.callee)) continue;
-        related.add(site.callee);
-        const callee = index.procedureOf(site.callee);
-        if (callee) reach(callee);
+    const reach = (callees: Iterable<string>) => {
+      for (const id of callees) {
+        if (related.has(id)) continue;
+        related.add(id);
+        const callee = index.procedureOf(id);
+        if (callee) reach(callSitesOf(callee).map((site) => site.callee));
       }
     };
-    for (const model of models) reach(model);
+    if (checked?.procedure) reach(callSitesOf(checked.procedure).map((site) => site.callee));
+    for (const entry of history?.revisions ?? []) reach(entry.calls);
     for (const site of index.calls.callers.get(p.id) ?? []) related.add(site.caller);
     for (const required of p.requires) related.add(required.id);
     const ownNotices = temporaries.byProcedure.get(p.id) ?? [];

@@ -5,6 +5,7 @@ import { gitIn } from '../../src/history/git.ts';
 import { buildHistoryView } from '../../src/history/history-view.ts';
 import { canBeInForce, revisionInForce } from '../../src/history/in-force.ts';
 import { readHistory } from '../../src/history/revisions.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { ada, buildStory, createTempRepo, procedureText, stepsV2, type TempRepo } from './temp-repo.ts';
 
 let repo: TempRepo;
@@ -26,7 +27,7 @@ describe('revisionInForce', () => {
     if (inForce.state === 'earlier') {
       expect(inForce.entry.revision).toBe(2);
       expect(inForce.entry.status).toBe('effective');
-      expect(inForce.entry.procedure?.revision).toBe(2);
+      expect(readProcedure(inForce.entry.path, inForce.entry.text).procedure?.revision).toBe(2);
     }
   });
 

@@ -6,6 +6,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { gitIn } from '../../src/history/git.ts';
 import { readHistory } from '../../src/history/revisions.ts';
+import { readProcedure } from '../../src/read/read-procedure.ts';
 import { previousVersions } from '../../src/history/previous-version.ts';
 import { buildStory, createTempRepo, procedureText, stepsV2, type TempRepo } from './temp-repo.ts';
 
@@ -38,7 +39,8 @@ describe('readHistory', () => {
     expect(rev2.commits.map((c) => c.commit)).toEqual([commits.draft2, commits.renamed, commits.effective2, commits.unbumped]);
     expect(rev2.commits[1]).toMatchObject({ change: 'R', renamedFrom: 'procedures/u2-test-001.md', path });
     expect(rev2.latest).toMatchObject({ commit: commits.unbumped, author: 'Ada Ferrand', subject: 'Raise the K-210 high limit' });
-    expect(rev2.procedure?.limits[0].high?.value).toBe('250 degC');
+    expect(rev2.record?.revision).toBe(2);
+    expect(readProcedure(rev2.path, rev2.text).procedure?.limits[0].high?.value).toBe('250 degC');
     expect(rev2.change).toContain('MOC-2026-011');
     expect(history.draft).toBeUndefined();
   });
