@@ -82,6 +82,10 @@ export function buildRegisterView(register: PlantRegister, files: CheckedFile[],
   const href = options.href ?? ((path: string) => path);
   const readable = files.filter((f): f is Readable => f.procedure !== null && f.facts !== null);
   const viewOf = new Map(manual.procedures.map((p) => [p.id, p]));
+  const tagsById = new Map<string, ManualView['tags'][number]>();
+  for (const t of manual.tags) if (!tagsById.has(t.tag)) tagsById.set(t.tag, t);
+  const stepPlaces = stepPlacesOnce();
+  const mayUse = usersOfEntries(readable, register, viewOf);
   // Slugs are unique across the register (ids differ only by case in a badly kept register).
   const urlOf = new Map<string, string>();
   const slugs = new Map<string, string>();
@@ -188,7 +192,7 @@ export function buildRegisterView(register: PlantRegister, files: CheckedFile[],
     entries.push({
       id: entry.id, slug: slugs.get(entry.id)!, url: urlOf.get(entry.id)!, section: entry.section,
       sectionTitle: registerSectionTitles[entry.section].title, kindLabel: registerSectionTitles[entry.section].one,
-      title, file: entry.file, facts, usedBy: usesOf(entry, register, readable, manual, viewOf), chemical: entry.section === 'chemicals',
+      title, file: entry.file, facts, usedBy: usesOf(entry, register, mayUse(entry.id), viewOf, tagsById, stepPlaces), chemical: entry.section === 'chemicals',
     });
   }
   entries.sort((a, b) => a.id.localeCompare(b.id));
@@ -201,22 +205,76 @@ function signalTexts(register: PlantRegister): Record<string, { text: string; un
   return Object.fromEntries([...register.signals.values()].map((s) => [s.id, { text: s.text, unit: s.unit, values: s.values }]));
 }
 
+/**
+ * The files that may use each entry (those howUsed can find a use in), in the files' order: the files that name it in
+ * their register uses, that are filed in it (an area), or that use a trip starting it, directly or through a chain.
+ * A register of hundreds of entries is then not compared with every procedure of a large manual.
+ */
+function usersOfEntries(files: Readable[], register: PlantRegister, viewOf: Map<string, ProcedureView>): (id: string) => Readable[] {
+  const users = new Map<string, Set<number>>();
+  const add = (id: string, at: number) => {
+    const set = users.get(id);
+    if (set) set.add(at);
+    else users.set(id, new Set([at]));
+  };
+  files.forEach((f, at) => {
+    const areaId = viewOf.get(f.procedure.id)?.areaId;
+    if (areaId !== undefined) add(areaId, at);
+    for (const use of f.procedure.registerUses ?? []) {
+      add(use.id, at);
+      const seen = new Set<string>();
+      for (let cur = register.safetyFunctions.get(use.id); cur?.starts && !seen.has(cur.id); cur = register.safetyFunctions.get(cur.starts)) {
+        seen.add(cur.id);
+        add(cur.starts, at);
+      }
+    }
+  });
+  return (id) => [...(users.get(id) ?? [])].sort((a, b) => a - b).map((at) => files[at]);
+}
+
+/** Each procedure's step numbers and the order of its steps, worked out once however many entries it uses. */
+type StepPlaces = (p: Procedure) => {
+  numbers: ReturnType<typeof numberSteps>;
+  order: Map<string, number>;
+  /** Each step with its words in lower case, in step order (what stepsNaming searches). */
+  words: Array<{ step: Step; text: string }>;
+};
+
+function stepPlacesOnce(): StepPlaces {
+  const known = new WeakMap<Procedure, ReturnType<StepPlaces>>();
+  return (p) => {
+    let places = known.get(p);
+    if (!places) {
+      const steps = walkSteps(p.steps).map(({ step }) => step);
+      places = {
+        numbers: numberSteps(p.steps), order: new Map(steps.map((step, i) => [step.id, i])),
+        words: steps.map((step) => ({ step, text: stepWords(step).toLowerCase() })),
+      };
+      known.set(p, places);
+    }
+    return places;
+  };
+}
+
 /** Which procedures use an entry and how; the steps in each that touch it. */
-function usesOf(entry: RegisterEntry, register: PlantRegister, files: Readable[], manual: ManualView, viewOf: Map<string, ProcedureView>): RegisterUseView[] {
+function usesOf(
+  entry: RegisterEntry, register: PlantRegister, files: Readable[], viewOf: Map<string, ProcedureView>,
+  tagsById: Map<string, ManualView['tags'][number]>, stepPlaces: StepPlaces,
+): RegisterUseView[] {
   const out: RegisterUseView[] = [];
-  const tag = manual.tags.find((t) => t.tag === entry.id);
+  // The tag's uses by procedure, once: a tag that a thousand procedures use is not searched a thousand times.
+  const tagSteps = new Map<string, Array<{ id: string; number: string; action: string }>>();
+  for (const u of tagsById.get(entry.id)?.uses ?? []) tagSteps.set(u.procedureId, [...(tagSteps.get(u.procedureId) ?? []), ...u.steps]);
   for (const f of files) {
     const p = f.procedure;
     const view = viewOf.get(p.id);
     if (!view) continue;
     const how = howUsed(entry, register, p, view);
     if (!how) continue;
-    const tagSteps = tag?.uses.filter((u) => u.procedureId === p.id).flatMap((u) => u.steps) ?? [];
-    const steps = new Map(tagSteps.map((s) => [s.id, s]));
+    const steps = new Map((tagSteps.get(p.id) ?? []).map((s) => [s.id, s]));
     // Chemicals, areas and started functions have no tag uses: steps that name them (or what starts them).
-    for (const s of stepsNaming(p, entryNames(entry, register))) if (!steps.has(s.id)) steps.set(s.id, s);
-    const numbers = numberSteps(p.steps);
-    const order = new Map(walkSteps(p.steps).map(({ step }, i) => [step.id, i]));
+    const { numbers, order, words } = stepPlaces(p);
+    for (const s of stepsNaming(words, entryNames(entry, register))) if (!steps.has(s.id)) steps.set(s.id, s);
     out.push({
       procedure: { id: view.id, title: view.title, url: view.url, status: view.status, revision: view.revision, current: view.current },
       how,
@@ -265,13 +323,11 @@ function entryNames(entry: RegisterEntry, register: PlantRegister): string[] {
   return [entry.id];
 }
 
-function stepsNaming(p: Procedure, names: string[]): Array<{ id: string; number: string; action: string }> {
+function stepsNaming(words: ReturnType<StepPlaces>['words'], names: string[]): Array<{ id: string; number: string; action: string }> {
   if (names.length === 0) return [];
   const lower = names.map((n) => n.toLowerCase());
-  return walkSteps(p.steps).map(({ step }) => step).filter((s) => {
-    const text = stepWords(s).toLowerCase();
-    return lower.some((n) => mentionsTag(text, n));
-  }).map((s) => ({ id: s.id, number: '?', action: s.actions.join('; ') }));
+  return words.filter(({ text }) => lower.some((n) => mentionsTag(text, n)))
+    .map(({ step: s }) => ({ id: s.id, number: '?', action: s.actions.join('; ') }));
 }
 
 function stepWords(s: Step): string {
