@@ -20,6 +20,11 @@ export interface RuleMeta {
   /** Published source the rule rests on, when there is one. */
   source?: string;
   examples?: { good: string; bad: string };
+  /**
+   * The rule reads today's date (`today` of its context); check judges it also at the build date. A rule that sets
+   * it must not be in a category that takes part in call expansion (tests/check/dated-rules.test.ts holds both).
+   */
+  dated?: true;
 }
 
 export interface Report {

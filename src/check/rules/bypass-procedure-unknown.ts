@@ -10,6 +10,7 @@ export default defineManualRule(
     summary: 'A safety function that may be bypassed names no procedure of the manual to bypass it under.',
     category: 'safety',
     defaultSeverity: 'error',
+    dated: true,
     source: 'OSHA 29 CFR 1910.119(f)(1)(iv): safety systems and their functions; a bypass of a safety function made only under a written procedure (IEC 61511-1, from memory); common practice',
     docs: `A safety function in the plant register says under \`bypass\` whether it may be bypassed at all and, if so,
 under which procedure: \`bypass: { allowed: true, procedure: U2-T230-TMP-001 }\`. That procedure carries the

@@ -7,6 +7,7 @@ export default defineFileRule(
     summary: 'A certification under \'certifications\' is dated after today.',
     category: 'document-control',
     defaultSeverity: 'error',
+    dated: true,
     source: 'OSHA 29 CFR 1910.119(f)(3): the employer certifies annually that the operating procedures are current and accurate',
     docs: `A certification records that someone confirmed the procedure current and accurate on a date; that date cannot
 be in the future. A mistyped year (2062 for 2026) would otherwise push the next certification decades out and keep

@@ -12,6 +12,7 @@ export default defineManualRule(
     summary: 'A step parameter gives a signal another value than the start-up procedure brings it to.',
     category: 'limits',
     defaultSeverity: 'warning',
+    dated: true,
     source: 'OSHA 29 CFR 1910.119(f)(1)(ii) operating limits and (d)(3)(i) process safety information kept as one record; common practice',
     docs: `A start-up procedure brings a unit to its running conditions: the last setpoint it gives a signal is the
 value the unit runs at (its duty). Another procedure that relies on that signal through a step parameter (the

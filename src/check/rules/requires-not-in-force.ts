@@ -11,6 +11,7 @@ export default defineManualRule(
     summary: "A procedure under 'requires' is superseded, retired or not in force.",
     category: 'document-control',
     defaultSeverity: 'error',
+    dated: true,
     source: 'OSHA 29 CFR 1910.119(f)(3): procedures reviewed as often as necessary to ensure they reflect current operating practice; common practice',
     docs: `A procedure may only send the operator to a procedure that may be used. A required procedure that is
 superseded or retired is reported always: point \`requires\` at the procedure that replaced it. One that is not

@@ -10,6 +10,7 @@ export default defineFileRule(
     summary: "'review-by' is more than 12 months (or the configured interval) after the last certification.",
     category: 'document-control',
     defaultSeverity: 'error',
+    dated: true,
     source: 'OSHA 29 CFR 1910.119(f)(3): operating procedures certified annually as current and accurate',
     docs: `Procedures in use are certified every year as current and accurate, separately from the approval of each
 revision. The last certification is the newest entry under \`certifications\` (who certified it, their role, and

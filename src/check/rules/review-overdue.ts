@@ -9,6 +9,7 @@ export default defineFileRule(
     summary: "The 'review-by' date has passed.",
     category: 'document-control',
     defaultSeverity: 'warning',
+    dated: true,
     source: 'OSHA 29 CFR 1910.119(f)(3): procedures reviewed and certified annually as current and accurate',
     docs: 'Procedures in use are reviewed periodically to confirm they still match the plant. Once `review-by` has passed, the procedure is overdue: review it, then set the next date.',
     examples: { bad: 'review-by: 2025-01-31', good: 'review-by: 2027-06-30' },

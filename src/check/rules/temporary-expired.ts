@@ -9,6 +9,7 @@ export default defineFileRule(
     summary: "A temporary procedure is still in use after its 'expires' date.",
     category: 'document-control',
     defaultSeverity: 'error',
+    dated: true,
     source: 'OSHA 29 CFR 1910.119(f)(1)(i)(C) temporary operations, and (l)(2)(iv) the time period for a temporary change',
     docs: `A temporary procedure may be used up to and including its \`expires\` date. After that it must not be on the
 plant floor as approved or effective: retire it (status \`retired\`), or, through management of change, issue a new
