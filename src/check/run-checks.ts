@@ -44,6 +44,11 @@ export interface CheckOptions {
   /** Read a large run's files on a second thread as well (default true); the results are the same either way. */
   readAhead?: boolean;
   /**
+   * The result of an earlier run over the same files (another date, other rules): a file whose text is the same is
+   * not read again, its reading (source, model, facts) is taken from that run. The findings are the same either way.
+   */
+  readFrom?: CheckResult;
+  /**
    * Told how many files the rules will check, once the cache has answered for the others and before any rule runs
    * (the command line then starts the English model on its own thread when there are some).
    */
@@ -70,6 +75,12 @@ export interface CheckResult {
   diagnostics: Diagnostic[];
   /** The register the procedures were read against, with the problems found in its own files. */
   register?: { register: PlantRegister; diagnostics: Diagnostic[] };
+  /**
+   * With a result cache: a key naming everything the result depends on (the files and their previous versions, the
+   * register, the configuration, the rules, the date, the code), for what a caller keeps about it. Absent when a file
+   * could not be read.
+   */
+  key?: string;
 }
 
 /** Every rule's id, for the rules that judge what a procedure names (waivers). */
@@ -135,6 +146,8 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     if (toKeep.has(file)) keep(file, partsToBytes(parts));
   };
   const setCurrent = new Map<FileContext, (meta: RuleMeta) => void>();
+  const earlier = readingsOf(options.readFrom);
+  const textOf = new Map<FileContext, string | undefined>();
   for (const input of inputs) {
     const previous = 'text' in input ? options.previous?.(input.file) : undefined;
     const key = store && 'text' in input
@@ -147,8 +160,9 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     const context = lazyFileContext(input, previous, options, (report) => {
       if (expansionCategories.has(current.category)) ownFindings.get(context)?.push({ rule: current, report });
       emit(context, current, report);
-    }, !known, partsOf, onRead);
+    }, !known, partsOf, onRead, earlier);
     sink.set(context, []);
+    textOf.set(context, 'text' in input ? input.text : undefined);
     contexts.push(context);
     if (key) keyOf.set(context, key);
     const partsKey = partsKeyOf(input);
@@ -157,8 +171,10 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     const partsKept = !!known && partsThere;
     if (partsKept) kept.set(input.file, partsKey!);
     else if (partsKey !== undefined && !partsThere) toKeep.set(input.file, partsKey);
+    // A file read by the earlier run is not read again, on either thread.
+    const readBefore = 'text' in input && earlier?.get(input.file)?.text === input.text;
     if (known) {
-      if ('text' in input && !partsKept) answered.push({ file: input.file, text: input.text });
+      if ('text' in input && !partsKept && !readBefore) answered.push({ file: input.file, text: input.text });
       context.summary = known.summary;
       sink.get(context)!.push(...known.diagnostics);
       continue;
@@ -167,7 +183,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     setCurrent.set(context, (meta) => (current = meta));
     if (key) fileKeys.set(context, key);
     toCheck.push(context);
-    if ('text' in input) toRead.push({ file: input.file, text: input.text });
+    if ('text' in input && !readBefore) toRead.push({ file: input.file, text: input.text });
   }
   // The cross-file rules and the engine's passes read every file; their findings are kept under the keys of all
   // files together, so a run in which no file, register, configuration or date changed reads no file at all.
@@ -304,7 +320,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
       outcome = knownOutcomes.get(context.file) ?? waiversApplied(context, found, store, keyOf.get(context));
       waiverOutcomes.push({ file: context.file, ...outcome });
     }
-    files.push(checkedFile(context, outcome.kept, outcome.waived));
+    files.push(checkedFile(context, outcome.kept, outcome.waived, textOf.get(context)));
   }
   if (manualKey && !knownManual) store!.set(manualKey, { files: manualFindings, register: registerDiagnostics, waivers: waiverOutcomes } satisfies CachedManual);
   files.sort((a, b) => a.file.localeCompare(b.file));
@@ -313,6 +329,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     files,
     diagnostics: [...files.flatMap((f) => f.diagnostics), ...registerDiagnostics].sort(compareDiagnostics),
     ...(register ? { register: { register, diagnostics: registerDiagnostics } } : {}),
+    ...(manualKey ? { key: manualKey } : {}),
   };
 }
 
@@ -443,6 +460,23 @@ function runManualRules(
 interface LazyFileContext extends FileContext {
   summary?: FileSummary;
   releaseSource(): void;
+  /** The file's reading (read now, if it was not yet). */
+  reading(): Reading;
+}
+
+type Reading = ReturnType<typeof readProcedure> & { readError?: string };
+
+/** What each checked file was read from and how to get its reading, for a later run over the same files (readFrom). */
+const readingOfFile = new WeakMap<CheckedFile, { text: string | undefined; reading: () => Reading }>();
+
+function readingsOf(result: CheckResult | undefined): Map<string, { text: string | undefined; reading: () => Reading }> | undefined {
+  if (!result) return undefined;
+  const out = new Map<string, { text: string | undefined; reading: () => Reading }>();
+  for (const f of result.files) {
+    const entry = readingOfFile.get(f);
+    if (entry && !out.has(f.file)) out.set(f.file, entry);
+  }
+  return out;
 }
 
 /** How many files ahead of the one being checked have their work ahead started (all of a small run at once). */
@@ -463,15 +497,20 @@ function readyAhead(rule: FileRule, context: FileContext): boolean {
 function lazyFileContext(
   input: SourceInput, previous: { text: string; commit: string } | undefined, options: CheckOptions, report: (r: Report) => void, full: boolean,
   partsOf?: (file: string) => GivenReading | undefined, onRead?: (file: string, parts: ReadParts) => void,
+  earlier?: Map<string, { text: string | undefined; reading: () => Reading }>,
 ): LazyFileContext {
-  let read: (ReturnType<typeof readProcedure> & { readError?: string }) | undefined;
-  const reading = () => {
+  let read: Reading | undefined;
+  const reading = (): Reading => {
     if (read) return read;
     if ('error' in input) return (read = { ...unreadable(input.file), readError: input.error });
+    const before = earlier?.get(input.file);
     try {
       // A file the rules check takes its table of positions as it is read; a file read for its model alone (its check
-      // results came from the cache) makes it only if a position is asked for.
-      read = readProcedure(input.file, input.text, options.register, partsOf?.(input.file), full ? 'now' : 'when-asked', onRead && ((parts) => onRead(input.file, parts)));
+      // results came from the cache) makes it only if a position is asked for. A file an earlier run over the same
+      // text read is taken from that run.
+      read = before?.text === input.text
+        ? before.reading()
+        : readProcedure(input.file, input.text, options.register, partsOf?.(input.file), full ? 'now' : 'when-asked', onRead && ((parts) => onRead(input.file, parts)));
       if (full) void read.facts;
     } catch (error) {
       // Whatever a file holds, the check goes on and the file gets a diagnostic: never a crash of the whole run.
@@ -504,17 +543,20 @@ function lazyFileContext(
     releaseSource() {
       read?.source.release();
     },
+    reading,
   };
 }
 
-function checkedFile(context: LazyFileContext, diagnostics: Diagnostic[], waived: WaivedDiagnostic[]): CheckedFile {
-  return {
+function checkedFile(context: LazyFileContext, diagnostics: Diagnostic[], waived: WaivedDiagnostic[], text: string | undefined): CheckedFile {
+  const checked: CheckedFile = {
     file: context.file, diagnostics, waived,
     get source() { return context.source; },
     get procedure() { return context.procedure; },
     get facts() { return context.facts; },
     releaseSource: () => context.releaseSource(),
   };
+  readingOfFile.set(checked, { text, reading: context.reading });
+  return checked;
 }
 
 interface CachedFile {
@@ -575,7 +617,8 @@ function isWaived(value: unknown): value is WaivedDiagnostic {
     && typeof waiver.reason === 'string' && typeof waiver.line === 'number' && typeof waiver.column === 'number';
 }
 
-function isDiagnostic(value: unknown): value is Diagnostic {
+/** Whether a value read back (from the cache) has the shape of a diagnostic. */
+export function isDiagnostic(value: unknown): value is Diagnostic {
   if (!value || typeof value !== 'object') return false;
   const d = value as Record<string, unknown>;
   return typeof d.file === 'string' && typeof d.line === 'number' && typeof d.column === 'number'

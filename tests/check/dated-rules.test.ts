@@ -57,8 +57,8 @@ function recording(rule: Rule, read: (id: string) => void): Rule {
   };
 }
 
-function run(folder: string, today: string, rules: Rule[]): CheckResult {
-  return checkSources(inputsOf(loadFolder(folder)), { today, rules, previous: previousOf(folder), register: registerOf(folder) });
+function run(folder: string, today: string, rules: Rule[], readFrom?: CheckResult): CheckResult {
+  return checkSources(inputsOf(loadFolder(folder)), { today, rules, previous: previousOf(folder), register: registerOf(folder), ...(readFrom ? { readFrom } : {}) });
 }
 
 // What the rules without the mark find in each folder at 2026-12-01 (the date the fixtures are written for).
@@ -117,5 +117,32 @@ describe('rules with the dated mark', () => {
     // requires-not-in-force's fixtures hold a procedure in force only from 2027-01-15.
     const ids = (today: string) => run('requires-not-in-force', today, dated).diagnostics.map((d) => `${d.file}:${d.line} ${d.rule}`);
     expect(ids('2099-12-31')).not.toEqual(ids('2026-12-01'));
+  });
+});
+
+describe('a second run on the files as the first run read them (how check judges at the build date)', () => {
+  it('finds what a run that reads the files afresh finds', () => {
+    let found = 0;
+    for (const folder of folders) {
+      const first = run(folder, '2026-12-01', dated);
+      for (const today of ['1971-01-01', '2099-12-31']) {
+        const again = run(folder, today, dated, first);
+        expect(again.diagnostics, `${folder} ${today}`).toEqual(run(folder, today, dated).diagnostics);
+        found += again.diagnostics.length;
+      }
+    }
+    expect(found).toBeGreaterThan(0);
+  });
+
+  it('reads a file again when its text is not the one the first run read', () => {
+    const folder = 'requires-not-in-force';
+    const files = inputsOf(loadFolder(folder));
+    const first = checkSources(files, { today: '2026-12-01', rules: dated });
+    // The procedure required from 2027-01-15 on now comes into force on 2026-01-15.
+    const edited = files.map((f) => ('text' in f ? { ...f, text: f.text.replace('effective: 2027-01-15', 'effective: 2026-01-15') } : f));
+    expect(edited).not.toEqual(files);
+    const afresh = checkSources(edited, { today: '2026-12-01', rules: dated });
+    expect(checkSources(edited, { today: '2026-12-01', rules: dated, readFrom: first }).diagnostics).toEqual(afresh.diagnostics);
+    expect(afresh.diagnostics).not.toEqual(first.diagnostics);
   });
 });
