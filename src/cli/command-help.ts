@@ -44,6 +44,9 @@ file:line:column, severity, rule id, message and a hint. Paths may be files or f
 (default: the procedures folder, see --procedures), globs such as 'procedures/**/pump-*.md', or '-' for one procedure on
 standard input. Folders and globs are searched for *.md files; markdown there that is not a
 procedure (no front-matter and no procedure keys, e.g. a README) is skipped with an info line.
+Rules that read the date judge at today's date ($STEPWRIGHT_TODAY when set); when the date
+'stepwright build' uses (the last commit's) differs, they judge at that date too, and the errors
+found only there are reported, so that a check does not pass where the build would stop.
 
 Options:
   --format <human|json|github|sarif>  output format (default: human); github prints workflow

@@ -7,7 +7,10 @@ import { existsSync, statSync } from 'node:fs';
 import { resolve } from 'node:path';
 import type { Diagnostic } from '../parse/diagnostic.ts';
 import { compareDiagnostics } from '../parse/diagnostic.ts';
-import { checkSources, type CheckResult, type SourceInput } from '../check/run-checks.ts';
+import { checkSources, isDiagnostic, type CheckedFile, type CheckOptions, type CheckResult, type SourceInput } from '../check/run-checks.ts';
+import { cacheKey } from '../check/result-cache.ts';
+import type { Rule } from '../check/define-rule.ts';
+import { allRules } from '../check/rules/index.ts';
 import type { PreviousVersion } from '../history/previous-version.ts';
 import type { PlantRegister } from '../model/register.ts';
 import { findProcedureFiles, readFoundFiles, stdinName, type FoundFile } from './find-procedure-files.ts';
@@ -121,11 +124,18 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   if (history && 'previous' in history) ({ previous, repo } = history);
   else if (fromGit) ({ previous, repo } = await fromGit);
   const cache = request.cache === false ? undefined : commandCache(request, config.file?.text);
-  const checked = checkSources(inputs, {
-    today, previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
+  const options = {
+    previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
     ...(partial ? { partial } : {}),
-    cache, checking: request.checking,
-  });
+    cache,
+  };
+  let checked = checkSources(inputs, { ...options, today, checking: request.checking });
+  // `build` judges the rules that read the date at the build date, not at today's: a check judges those rules at
+  // the build date as well, so that it never passes where the build stops (see onlyAtBuildDate).
+  if (request.date !== 'build' && todaySource === 'clock') {
+    const build = buildDate(request, inputs, paths.find((p) => p !== '-'));
+    if (build.today !== today) checked = withBuildDateErrors(checked, onlyAtBuildDate(inputs, options, checked, build.today), today, build);
+  }
   // A large run's entries are written on a thread of their own while the rules check: they are all on disk (or
   // given up on) before the run reports.
   await cache?.store.flush();
@@ -144,6 +154,66 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     diagnostics,
     errors: diagnostics.filter((d) => d.severity === 'error').length,
     texts,
+  };
+}
+
+/** The rules that read today's date: the only ones whose findings can differ between the clock and the build date. */
+const datedRules: Rule[] = allRules.filter((r) => r.meta.dated);
+
+/**
+ * The errors the rules that read the date find at the build date and not at today's date: `stepwright build` stops
+ * on them. A finding of the same rule at the same place at today's date is not repeated, and warnings the build does
+ * not stop on are left out. The rules run a second time, on the files as the first run read them (no file is read
+ * twice); with a result cache, the errors are kept under the first run's key and the build date, so a run in which
+ * nothing changed reads one entry.
+ */
+function onlyAtBuildDate(inputs: SourceInput[], options: Omit<CheckOptions, 'today'>, checked: CheckResult, buildToday: string): Diagnostic[] {
+  const store = options.cache?.store;
+  const key = store && checked.key ? cacheKey(['errors only at the build date', checked.key, buildToday]) : undefined;
+  const kept = key ? store!.get<unknown>(key) : undefined;
+  if (Array.isArray(kept) && kept.every(isDiagnostic)) return kept;
+  const atBuild = checkSources(inputs, { ...options, today: buildToday, rules: datedRules, readFrom: checked });
+  const place = (d: Diagnostic) => `${d.rule}\0${d.file}\0${d.line}\0${d.column}`;
+  const seen = new Set(checked.diagnostics.map(place));
+  const found = atBuild.diagnostics.filter((d) => d.severity === 'error' && !seen.has(place(d)));
+  if (key) store!.set(key, found);
+  return found;
+}
+
+/** The check's result with the errors found only at the build date, each saying which date it was judged at and why. */
+function withBuildDateErrors(checked: CheckResult, found: Diagnostic[], today: string, build: { today: string; source: Exclude<DateSource, 'clock'> }): CheckResult {
+  if (!found.length) return checked;
+  const added = found.map((d) => buildDateError(d, today, build));
+  const byFile = new Map<string, Diagnostic[]>();
+  for (const d of added) byFile.set(d.file, [...(byFile.get(d.file) ?? []), d]);
+  // A file's result keeps its getters (its source is read only when asked for); only its diagnostics are new.
+  const files = checked.files.map((f) => {
+    const more = byFile.get(f.file);
+    if (!more) return f;
+    const copy = Object.defineProperties({}, Object.getOwnPropertyDescriptors(f)) as CheckedFile;
+    copy.diagnostics = [...f.diagnostics, ...more].sort(compareDiagnostics);
+    return copy;
+  });
+  const procedureFiles = new Set(checked.files.map((f) => f.file));
+  const inRegister = added.filter((d) => !procedureFiles.has(d.file));
+  return {
+    ...checked,
+    files,
+    diagnostics: [...checked.diagnostics, ...added].sort(compareDiagnostics),
+    ...(checked.register ? { register: { ...checked.register, diagnostics: [...checked.register.diagnostics, ...inRegister].sort(compareDiagnostics) } } : {}),
+  };
+}
+
+/** A finding at the build date, in words that say why a check made today reports it. */
+function buildDateError(d: Diagnostic, today: string, build: { today: string; source: Exclude<DateSource, 'clock'> }): Diagnostic {
+  const fromCommit = build.source === 'last commit';
+  const from = fromCommit ? 'the last commit' : "the procedures' dates";
+  const by = fromCommit ? `the date of the last commit (${build.today})` : `the newest effective or approval date in the procedures (${build.today})`;
+  const moves = fromCommit ? 'a new commit moves that date' : 'a later effective or approval date moves it';
+  return {
+    ...d,
+    message: `${d.message.replace(/\.$/, '')} — on ${build.today}, the date the build takes from ${from}, so \`stepwright build\` stops here.`,
+    hint: `${d.hint ? `${d.hint} ` : ''}The build dates the manual by ${by}, not by today's date (${today}); ${moves}, or set STEPWRIGHT_TODAY to the date the build should use.`,
   };
 }
 
