@@ -64,6 +64,13 @@ export async function pageKeys(loaded: LoadedManual, salt: string): Promise<Map<
     const file = index.fileOf(id)?.file;
     return file === undefined ? '\u0000not in the manual' : `${file}\u0000${texts.get(file) ?? ''}`;
   };
+  // Each procedure's register entries, each with that procedure's own uses only, in the register's order.
+  const entriesUsedBy = new Map<string, NonNullable<typeof register>['view']['entries']>();
+  for (const e of register?.view.entries ?? []) {
+    const byProcedure = new Map<string, typeof e.usedBy>();
+    for (const u of e.usedBy) byProcedure.set(u.procedure.id, [...(byProcedure.get(u.procedure.id) ?? []), u]);
+    for (const [id, own] of byProcedure) entriesUsedBy.set(id, [...(entriesUsedBy.get(id) ?? []), { ...e, usedBy: own }]);
+  }
   const keys = new Map<string, string>();
   for (const p of view.procedures) {
     const checked = index.fileOf(p.id);
@@ -96,10 +103,7 @@ export async function pageKeys(loaded: LoadedManual, salt: string): Promise<Map<
       stableJson(history ?? null), stableJson(ownNotices),
       // The register entries it uses, each with its own uses only: another procedure's use of an entry is not shown here.
       stableJson(register?.view.indexUrl ?? ''),
-      stableJson(register?.view.entries.flatMap((e) => {
-        const own = e.usedBy.filter((u) => u.procedure.id === p.id);
-        return own.length ? [{ ...e, usedBy: own }] : [];
-      }) ?? []),
+      stableJson(entriesUsedBy.get(p.id) ?? []),
       ...neighbours,
     ]));
   }
