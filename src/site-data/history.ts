@@ -2,6 +2,7 @@
 import { isAbsolute, resolve } from 'node:path';
 import { readProcedure } from '../read/read-procedure.ts';
 import type { Procedure } from '../model/procedure.ts';
+import type { PlantRegister } from '../model/register.ts';
 import { buildHistoryView, type HistoryView, type RevisionEntry } from '../history/history-view.ts';
 import { revisionInForce } from '../history/in-force.ts';
 import { readHistories } from '../history/revisions.ts';
@@ -88,43 +89,57 @@ export async function siteRevisions(): Promise<RevisionPage[]> {
   });
 }
 
-/** The model of a committed revision, read in full from its text (once per build, whichever page asks). */
-export function committedProcedure(entry: Pick<RevisionEntry, 'path' | 'text'>): Procedure | null {
-  return readCommitted(entry.path, entry.text).procedure;
+/**
+ * The model of a committed revision, read in full from its text (once per build, whichever page asks), against the
+ * plant register as the check reads a previous version: a revision that takes its trips, limits and signals from the
+ * register shows them, and moving a declaration into the register is not shown as taking it away.
+ */
+export function committedProcedure(entry: Pick<RevisionEntry, 'path' | 'text'>, register: PlantRegister | undefined): Procedure | null {
+  return readCommitted(entry.path, entry.text, register).procedure;
 }
 
 /** The same page model as the current procedure page, built from a committed revision's text. */
 export async function revisionPageView(entry: RevisionEntry): Promise<ProcedureView | undefined> {
   const { loaded } = await siteManual();
-  return revisionView(entry, loaded.root, loaded.today, loaded.base);
+  return revisionView(entry, loaded.root, loaded.today, loaded.base, loaded.run.register);
 }
 
-// Committed texts are read once per build, whichever page asks (the history, the procedure page of an earlier
-// revision in force, its newer revision's page, the revision pages): keyed by the content, never by position.
-const committedReads = new Map<string, ReturnType<typeof readProcedure>>();
-const committedViews = new Map<string, ProcedureView | undefined>();
+// Committed texts are read once per build, whichever page asks (the procedure page of an earlier revision in force,
+// its newer revision's page, the revision and redline pages): keyed by the register read against and the content,
+// never by position.
+const withoutRegister = {};
+const committedReads = new WeakMap<object, Map<string, ReturnType<typeof readProcedure>>>();
+const committedViews = new WeakMap<object, Map<string, ProcedureView | undefined>>();
 const maxRemembered = 20_000;
 
-function readCommitted(path: string, text: string): ReturnType<typeof readProcedure> {
+function remembered<T>(maps: WeakMap<object, Map<string, T>>, register: PlantRegister | undefined): Map<string, T> {
+  const owner = register ?? withoutRegister;
+  let map = maps.get(owner);
+  if (!map) maps.set(owner, (map = new Map()));
+  if (map.size >= maxRemembered) map.clear();
+  return map;
+}
+
+function readCommitted(path: string, text: string, register: PlantRegister | undefined): ReturnType<typeof readProcedure> {
+  const reads = remembered(committedReads, register);
   const key = `${path}\u0000${text}`;
-  let read = committedReads.get(key);
+  let read = reads.get(key);
   if (!read) {
-    read = readProcedure(path, text);
-    if (committedReads.size >= maxRemembered) committedReads.clear();
-    committedReads.set(key, read);
+    read = readProcedure(path, text, register);
+    reads.set(key, read);
   }
   return read;
 }
 
-function revisionView(entry: RevisionEntry, root: string, today: string, base: string): ProcedureView | undefined {
+function revisionView(entry: RevisionEntry, root: string, today: string, base: string, register: PlantRegister | undefined): ProcedureView | undefined {
+  const views = remembered(committedViews, register);
   const key = `${root}\u0000${today}\u0000${base}\u0000${entry.path}\u0000${entry.text}`;
-  if (committedViews.has(key)) return committedViews.get(key);
-  const read = readCommitted(entry.path, entry.text);
+  if (views.has(key)) return views.get(key);
+  const read = readCommitted(entry.path, entry.text, register);
   const view = read.procedure
     ? buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, root, today, undefined, base)
     : undefined;
-  if (committedViews.size >= maxRemembered) committedViews.clear();
-  committedViews.set(key, view);
+  views.set(key, view);
   return view;
 }
 
@@ -155,19 +170,19 @@ async function loadInForce(): Promise<Map<string, InForcePage>> {
   const { loaded, view } = await siteManual();
   const histories = await siteHistory();
   const out = new Map<string, InForcePage>();
-  for (const p of view.procedures) out.set(p.id, inForcePage(p, histories.get(p.id), loaded.today, loaded.root, loaded.base));
+  for (const p of view.procedures) out.set(p.id, inForcePage(p, histories.get(p.id), loaded.today, loaded.root, loaded.base, loaded.run.register));
   return out;
 }
 
 /** The in-force decision for one procedure, as page models. */
-export function inForcePage(p: ProcedureView, history: HistoryView | undefined, today: string, root = 'procedures', base = '/'): InForcePage {
+export function inForcePage(p: ProcedureView, history: HistoryView | undefined, today: string, root = 'procedures', base = '/', register?: PlantRegister): InForcePage {
   const decision = revisionInForce({ revision: p.revision, status: p.status, effective: p.effective }, history?.revisions ?? [], today);
   const newer = { view: p, url: `${p.url}next/` };
   if (decision.state === 'newest') return { state: 'newest', shown: p };
   // A superseded or retired procedure keeps its record page under its DO NOT USE banner.
   if (decision.state === 'none' && (p.status === 'retired' || p.status === 'superseded')) return { state: 'none', reason: decision.reason, shown: p };
   if (decision.state === 'none') return { state: 'none', reason: decision.reason, newer };
-  const earlier = revisionView(decision.entry, root, today, base);
+  const earlier = revisionView(decision.entry, root, today, base, register);
   if (!earlier) {
     return { state: 'none', newer, reason: `Revision ${decision.entry.revision} is in force, but its committed text cannot be read; ask the procedure owner for the controlled copy. Revision ${p.revision} is ${p.status} and not for use.` };
   }

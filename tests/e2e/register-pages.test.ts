@@ -118,6 +118,20 @@ describe('register pages', () => {
     });
   }
 
+  it('shows on a committed revision and its redline the trips it takes from the register, said to be this build\'s register', async () => {
+    // Revision 4 of the hot-oil leak response names its burner trips under `uses:`; the register describes them.
+    const page = await open('/procedures/u2-h220-em-001/rev/4/');
+    const note = page.locator('[data-register-as-built]');
+    expect(await note.innerText()).toMatch(/as the register defines it in this build, not as it stood when the revision was committed/);
+    expect(await note.locator('a').getAttribute('href')).toBe('/register/');
+    const trips = await page.locator('#before-you-start table').filter({ has: page.locator('th', { hasText: 'Trips when' }) }).innerText();
+    for (const tag of ['HS-2201', 'FSLL-224', 'TSHH-221']) expect(trips).toContain(tag);
+    const redline = await open('/procedures/u2-h220-em-001/rev/4/redline/');
+    expect(await redline.locator('[data-register-as-built]').count()).toBe(1);
+    // Moving the trips into the register is not shown as taking them away.
+    expect(await redline.locator('article').innerText()).not.toMatch(/HS-2201\s+removed/);
+  });
+
   it('prints an entry with its values, where it is used and the standing caution', async () => {
     const page = await open('/register/ti-210/');
     await page.emulateMedia({ media: 'print' });
