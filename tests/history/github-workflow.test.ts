@@ -16,11 +16,26 @@ const invocations = Object.values(workflow.jobs).flatMap((job) => job.steps.flat
   .map((line) => line.slice(line.indexOf('npx stepwright') + 'npx stepwright'.length).trim().split(/\s+/));
 
 describe('examples/github-workflow.yml', () => {
-  it('checks every push, runs check and review on pull requests and builds on main', () => {
-    expect(Object.keys(workflow.on)).toEqual(['pull_request', 'push']);
+  it('checks every push, runs check and review on pull requests and builds on main and every night', () => {
+    expect(Object.keys(workflow.on)).toEqual(['pull_request', 'push', 'schedule']);
     expect(workflow.on.push).toBeNull();
+    // Once a day (a cron line whose day, month and weekday fields are all '*').
+    expect(workflow.on.schedule).toEqual([{ cron: expect.stringMatching(/^\d+ \d+ \* \* \*$/) }]);
     expect(invocations.map((args) => args[0])).toEqual(['check', 'check', 'review', 'build']);
-    expect((workflow.jobs.publish as unknown as { if: string }).if).toContain("refs/heads/main");
+    const publish = (workflow.jobs.publish as unknown as { if: string }).if;
+    expect(publish).toContain("refs/heads/main");
+    expect(publish).toContain("github.event_name == 'schedule'");
+    // The nightly run has no check job before it: the publication must not wait for one that is skipped.
+    expect(publish).toMatch(/!cancelled\(\) && !failure\(\)/);
+  });
+
+  it('dates every command of a run by the day it runs, so check, review and build judge dates alike', () => {
+    for (const [name, job] of Object.entries(workflow.jobs)) {
+      const dating = job.steps.findIndex((s) => /STEPWRIGHT_TODAY=\$\(date -u \+%F\)" >> "\$GITHUB_ENV"/.test(s.run ?? ''));
+      const first = job.steps.findIndex((s) => (s.run ?? '').includes('npx stepwright'));
+      expect(dating, name).toBeGreaterThanOrEqual(0);
+      expect(dating, name).toBeLessThan(first);
+    }
   });
 
   it.each(invocations.map((args) => [args.join(' ')]))('stepwright %s uses options the command documents', async (line) => {
