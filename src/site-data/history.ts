@@ -34,7 +34,7 @@ export function historiesOf(loaded: LoadedManual): Promise<Map<string, HistoryVi
 
 async function readAllHistories(loaded: LoadedManual): Promise<Map<string, HistoryView>> {
   const view = loaded.view!;
-  const io = { cwd: loaded.cwd, env: process.env };
+  const io = { cwd: loaded.cwd, env: loaded.env ?? process.env };
   // History comes from the repository that holds the procedures (the check run has opened it already).
   const repo = loaded.run.repo ?? openRepository(io, loaded.root);
   const out = new Map<string, HistoryView>();

@@ -21,6 +21,8 @@ export { buildDate } from '../engine/check-run.ts';
 export interface LoadedManual {
   /** The working folder the procedure file names are relative to. */
   cwd: string;
+  /** The environment the manual was loaded with (the result cache folder, git's own settings). */
+  env?: Record<string, string | undefined>;
   root: string;
   today: string;
   /** Where the build date came from, shown in the site footer. */
@@ -93,7 +95,7 @@ export async function loadManual(options: LoadOptions): Promise<LoadedManual> {
   const base = options.base ?? rootBase;
   const view = run.errors === 0 ? buildManualView({ files: run.result.files, root, today: run.today, register: run.register, base }) : undefined;
   return {
-    cwd: options.cwd, root, today: run.today, todaySource: run.todaySource === 'clock' ? 'STEPWRIGHT_TODAY' : run.todaySource,
+    cwd: options.cwd, env: options.env, root, today: run.today, todaySource: run.todaySource === 'clock' ? 'STEPWRIGHT_TODAY' : run.todaySource,
     inputs: run.inputs, result: run.result, errors: run.errors, run, base, view,
   };
 }
