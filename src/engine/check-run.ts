@@ -165,14 +165,16 @@ const datedRules: Rule[] = allRules.filter((r) => r.meta.dated);
  * on them. A finding of the same rule at the same place at today's date is not repeated, and warnings the build does
  * not stop on are left out. The rules run a second time, on the files as the first run read them (no file is read
  * twice); with a result cache, the errors are kept under the first run's key and the build date, so a run in which
- * nothing changed reads one entry.
+ * nothing changed reads one entry. That second run keeps nothing of its own in the cache: its entries would only ever
+ * be asked for when that one entry is missing, and running the few dated rules again costs no more than reading them
+ * (1,001 procedures, one edited: the same time; about 1,080 fewer entries written by a cold check).
  */
 function onlyAtBuildDate(inputs: SourceInput[], options: Omit<CheckOptions, 'today'>, checked: CheckResult, buildToday: string): Diagnostic[] {
   const store = options.cache?.store;
   const key = store && checked.key ? cacheKey(['errors only at the build date', checked.key, buildToday]) : undefined;
   const kept = key ? store!.get<unknown>(key) : undefined;
   if (Array.isArray(kept) && kept.every(isDiagnostic)) return kept;
-  const atBuild = checkSources(inputs, { ...options, today: buildToday, rules: datedRules, readFrom: checked });
+  const atBuild = checkSources(inputs, { ...options, cache: undefined, today: buildToday, rules: datedRules, readFrom: checked });
   const place = (d: Diagnostic) => `${d.rule}\0${d.file}\0${d.line}\0${d.column}`;
   const seen = new Set(checked.diagnostics.map(place));
   const found = atBuild.diagnostics.filter((d) => d.severity === 'error' && !seen.has(place(d)));
