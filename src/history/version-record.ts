@@ -35,15 +35,14 @@ export function recordOf(procedure: Procedure | null): VersionRecord | null {
   };
 }
 
-const noNarrative = { type: 'root', children: [] } as const;
-
 /**
  * The record of a committed text, read from its front-matter alone: the same record as from its whole reading
  * (the model's document control and steps come from the front-matter; the content print reads the narrative's text).
  */
 export function readVersionRecord(path: string, text: string): VersionRecord | null {
   const { data, bodyText } = readFrontMatter(path, text);
-  return holdsKeys(data) ? recordOf(buildProcedure(path, data, { ...noNarrative, children: [] }, bodyText)) : null;
+  // The narrative's tree is left empty: nothing in a record reads it.
+  return holdsKeys(data) ? recordOf(buildProcedure(path, data, { type: 'root', children: [] }, bodyText)) : null;
 }
 
 const isText = (v: unknown): v is string => typeof v === 'string';
