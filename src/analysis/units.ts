@@ -356,6 +356,24 @@ export function formatQuantity(value: number, unit: string): string {
   return `${formatNumber(value)} ${unit}`;
 }
 
+/**
+ * A value converted into another unit, as a reader wants it beside the value written: four significant digits
+ * ("about 10.34 barg" for 150 psig), more where fewer would put it level with, or on the other side of, a value it
+ * is compared with (`against`, in the same unit): 9.00004 barg against a limit of 9 barg stays 9.00004 barg.
+ * "about" says that the figure is rounded.
+ */
+export function formatConverted(value: number, unit: string, against: ReadonlyArray<number | null | undefined> = []): string {
+  if (!Number.isFinite(value)) return formatQuantity(value, unit);
+  const exact = Number(value.toPrecision(12));
+  const others = against.filter((n): n is number => typeof n === 'number' && Number.isFinite(n));
+  for (let digits = 4; digits < 12; digits++) {
+    const rounded = Number(value.toPrecision(digits));
+    if (rounded === exact) break;
+    if (others.every((n) => Math.sign(rounded - n) === Math.sign(exact - n))) return `about ${formatQuantity(rounded, unit)}`;
+  }
+  return formatQuantity(exact, unit);
+}
+
 const numberPattern = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?/;
 
 /** Reads "238 degC", "-5 degC", "15 %", "2.5 m3/h". */

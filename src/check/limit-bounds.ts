@@ -1,6 +1,6 @@
 // The operating limits of each signal in one procedure (its own and the register's), in SI base units.
 import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
-import { toBase } from '../analysis/units.ts';
+import { convert, formatConverted, fromBase, toBase } from '../analysis/units.ts';
 import type { PathKey } from '../parse/read-source.ts';
 
 export interface Bound {
@@ -21,4 +21,13 @@ export function limitBounds(facts: ProcedureFacts): Map<string, { low?: Bound; h
     bounds.set(site.signal, entry);
   }
   return bounds;
+}
+
+/**
+ * A written quantity in its signal's unit, for a message about the signal's limits: rounded for reading, but never
+ * level with, or across, one of the limits (see formatConverted).
+ */
+export function convertedFor(quantity: { value: number; unit: string }, unit: string, limits: { low?: Bound; high?: Bound } | undefined): string {
+  const against = [limits?.low, limits?.high].map((b) => (b ? fromBase(b.base, unit) : undefined));
+  return formatConverted(convert(quantity.value, quantity.unit, unit) ?? Number.NaN, unit, against);
 }

@@ -232,13 +232,21 @@ steps:
     expect(outside('LV-250: 50 m3').filter((d) => d.rule === 'unknown-unit')).toEqual([]);
   });
 
-  it('a 700 bbl setpoint is 111.29 m3, above a 100 m3 high limit', () => {
+  it('a 700 bbl setpoint is 111.29 m3 (shown as about 111.3 m3), above a 100 m3 high limit', () => {
     // Source: NIST SP 811, Appendix B.8: barrel [for petroleum, 42 gallons (U.S.)] = 1.589 873 E-01 m3.
     const found = outside('LV-250: 700 bbl').filter((d) => d.rule === 'setpoint-outside-limits');
     expect(found).toHaveLength(1);
-    expect(found[0].message).toContain('111.29');
+    expect(found[0].message).toContain('700 bbl (about 111.3 m3)');
     // 600 petroleum barrels is 95.39 m3: inside the limit.
     expect(outside('LV-250: 600 bbl').filter((d) => d.rule === 'setpoint-outside-limits')).toEqual([]);
+  });
+
+  it('shows a setpoint just past a limit with the digits that show it is past', () => {
+    // Source: NIST SP 811, Appendix B.8 (barrel as above): 629 bbl = 100.00301 m3, just above the 100 m3 limit;
+    // rounded to four digits it would read 100.0 m3, level with the limit.
+    const found = outside('LV-250: 629 bbl').filter((d) => d.rule === 'setpoint-outside-limits');
+    expect(found).toHaveLength(1);
+    expect(found[0].message).toContain('629 bbl (about 100.003 m3), above its high operating limit 100 m3');
   });
 
   it('US gallons per minute and inches of mercury are compared with the limits exactly', () => {

@@ -4,6 +4,7 @@ import {
   checkUnit,
   convert,
   convertDifference,
+  formatConverted,
   formatQuantity,
   fromBase,
   isKnownUnit,
@@ -138,6 +139,40 @@ describe('units', () => {
     expect(formatQuantity(0.1 + 0.2, 'kg')).toBe('0.3 kg');
     expect(formatQuantity(convert(1, 'atm', 'psi')!, 'psi')).toBe('14.6959487755 psi');
     expect(formatQuantity(-0, 'degC')).toBe('0 degC');
+  });
+
+  it('rounds a converted value for reading, but never level with or across a value it is compared with', () => {
+    // Source: NIST SP 811, Appendix B.8: 1 psi = 6.894757 kPa, so 150 psi = 10.342 bar.
+    expect(formatConverted(convert(150, 'psi', 'bar')!, 'bar')).toBe('about 10.34 bar');
+    expect(formatConverted(convert(150, 'psi', 'bar')!, 'bar', [10.34])).toBe('about 10.342 bar');
+    // Source: NIST SP 811, Appendix B.8: 1 atm = 101.325 kPa, exactly (1.01325 bar).
+    expect(formatConverted(convert(1, 'atm', 'bar')!, 'bar')).toBe('about 1.013 bar');
+    expect(formatConverted(convert(1, 'atm', 'kPa')!, 'kPa')).toBe('about 101.3 kPa');
+    // A value just past a limit keeps every digit that shows it is past.
+    expect(formatConverted(9.00004, 'barg', [9])).toBe('9.00004 barg');
+    expect(formatConverted(8.99996, 'barg', [5, 9])).toBe('8.99996 barg');
+    expect(formatConverted(9.000412, 'barg', [9])).toBe('about 9.0004 barg');
+    expect(formatConverted(Number.NaN, 'barg')).toBe('NaN barg');
+  });
+
+  it('a rounded converted value stays on the same side of every value it is compared with', () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: -1e6, max: 1e6, noNaN: true }),
+        fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { maxLength: 3 }),
+        (value, against) => {
+          const shown = formatConverted(value, 'kPa', against);
+          const m = /^(about )?(\S+) kPa$/.exec(shown);
+          expect(m).not.toBeNull();
+          const read = Number(m![2]);
+          const exact = Number(value.toPrecision(12));
+          // "about" exactly when the figure is rounded.
+          expect(Boolean(m![1])).toBe(read !== exact);
+          for (const n of against) expect(Math.sign(read - n)).toBe(Math.sign(exact - n));
+        },
+      ),
+      { numRuns: 500 },
+    );
   });
 
   it('fromBase undoes toBase for every unit', () => {

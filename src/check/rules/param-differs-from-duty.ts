@@ -1,7 +1,7 @@
 // Reports a step parameter on a signal that differs from the value the plant's start-up procedure brings that
 // signal to: two procedures that contradict each other about one running condition.
 import { notInForce } from '../../analysis/document-control.ts';
-import { convert, formatQuantity, toBase } from '../../analysis/units.ts';
+import { convert, formatConverted, fromBase, toBase } from '../../analysis/units.ts';
 import { defineManualRule } from '../define-rule.ts';
 
 const startupKinds = new Set(['startup', 'startup-after-turnaround']);
@@ -54,7 +54,7 @@ that are approved or effective; when two start-up procedures leave a signal at d
         const value = toBase(site.quantity.value, site.quantity.unit);
         if (!d || value === null || Math.abs(d.base - value) <= 1e-9 * Math.max(1, Math.abs(value))) continue;
         const what = site.param && site.param !== site.signal ? `parameter '${site.param}' (${site.signal})` : `parameter ${site.signal}`;
-        const inTheirUnit = d.unit !== site.quantity.unit ? ` (${formatQuantity(convert(site.quantity.value, site.quantity.unit, d.unit) ?? Number.NaN, d.unit)})` : '';
+        const inTheirUnit = d.unit !== site.quantity.unit ? ` (${formatConverted(convert(site.quantity.value, site.quantity.unit, d.unit) ?? Number.NaN, d.unit, [fromBase(d.base, d.unit)])})` : '';
         ctx.report(file, {
           path: site.path,
           message: `Step '${site.step}' expects ${what} at ${site.text}${inTheirUnit}, but start-up procedure ${d.procedure} brings ${site.signal} to ${d.text}${d.step ? ` (step '${d.step}')` : ''}.`,

@@ -1,8 +1,8 @@
 // Reports a step parameter that sets a signal to a value outside its operating limits, or at one of its trips.
 import { evaluateCondition } from '../../analysis/evaluate-condition.ts';
-import { convert, formatQuantity, pressureConversionNote, toBase } from '../../analysis/units.ts';
+import { pressureConversionNote, toBase } from '../../analysis/units.ts';
 import { defineFileRule } from '../define-rule.ts';
-import { limitBounds } from '../limit-bounds.ts';
+import { convertedFor, limitBounds } from '../limit-bounds.ts';
 import { unnamedRegisterTrips } from '../register-trips.ts';
 
 export default defineFileRule(
@@ -33,9 +33,9 @@ Parameters that name no signal stay free text.`,
       const value = toBase(site.quantity.value, site.quantity.unit);
       if (value === null) continue;
       const unit = ctx.procedure.signals[site.signal]?.unit;
-      const shown = unit && unit !== site.quantity.unit ? ` (${formatQuantity(convert(site.quantity.value, site.quantity.unit, unit) ?? Number.NaN, unit)})` : '';
-      const what = site.param === site.signal ? `parameter ${site.signal}` : `parameter '${site.param}' (${site.signal})`;
       const limit = bounds.get(site.signal);
+      const shown = unit && unit !== site.quantity.unit ? ` (${convertedFor(site.quantity, unit, limit)})` : '';
+      const what = site.param === site.signal ? `parameter ${site.signal}` : `parameter '${site.param}' (${site.signal})`;
       const side = limit?.high && value > limit.high.base ? 'high' : limit?.low && value < limit.low.base ? 'low' : undefined;
       if (side) {
         const bound = limit![side]!;

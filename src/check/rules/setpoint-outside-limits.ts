@@ -1,6 +1,6 @@
 // Reports a setpoint outside the operating limits of its signal, after converting units.
-import { limitBounds } from '../limit-bounds.ts';
-import { toBase, formatQuantity, convert, pressureConversionNote } from '../../analysis/units.ts';
+import { convertedFor, limitBounds } from '../limit-bounds.ts';
+import { toBase, pressureConversionNote } from '../../analysis/units.ts';
 import { defineFileRule } from '../define-rule.ts';
 
 export default defineFileRule(
@@ -24,7 +24,7 @@ converted exactly before they are compared.`,
       const value = toBase(site.quantity.value, site.quantity.unit);
       if (!limit || value === null) continue;
       const unit = ctx.procedure?.signals[site.signal]?.unit;
-      const shown = unit && unit !== site.quantity.unit ? ` (${formatQuantity(convert(site.quantity.value, site.quantity.unit, unit) ?? Number.NaN, unit)})` : '';
+      const shown = unit && unit !== site.quantity.unit ? ` (${convertedFor(site.quantity, unit, limit)})` : '';
       if (limit.high && value > limit.high.base) {
         ctx.report({
           path: site.path,
