@@ -11,6 +11,9 @@ import { siteBase } from '../engine/project.ts';
 import { linksOutsideBase, pageFolder, pagePath, type SiteBase } from '../render/site-url.ts';
 import { finishPages, type FinishedPage } from './index-site.ts';
 import { isAlive, publishSite, recoverSite, startRetiring } from './publish-site.ts';
+import { outputPlaceProblem, type GuardedPlace } from './output-place.ts';
+import { findConfigFile, projectRoot } from '../engine/project.ts';
+import { findRegisterFolder } from '../engine/load-register.ts';
 import { readPrivateKey, writeSiteManifest } from './site-manifest.ts';
 import { siteConfig } from '../site/astro-config.ts';
 import { offlineReport } from './offline-report.ts';
@@ -57,6 +60,11 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   const config = values.config ? resolve(io.cwd, values.config) : '';
   const base = siteBase(io, values);
   const env = { ...io.env, STEPWRIGHT_PROCEDURES: folder, STEPWRIGHT_CONFIG: config };
+  const outDir = resolve(io.cwd, values.out);
+  // The output path is checked before anything is read, and again once the register's place is known.
+  const placeProblem = (register?: string) => outputPlaceProblem(outDir, io.cwd, guardedPlaces(io.cwd, folder, config, register));
+  const early = placeProblem();
+  if (early) throw new UsageError(early);
   // The same check run as `stepwright check` (configuration, waivers, history, call expansion): whatever fails
   // the check stops the build here, with the same report.
   progress.phase('checking procedures');
@@ -73,7 +81,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     // never read prose with it, and its memory is the build's.
     stopModelThread();
   }
-  const outDir = resolve(io.cwd, values.out);
+  const late = placeProblem(loaded.run.register?.folder);
+  if (late) throw new UsageError(late);
   // What each procedure's pages are made from, kept next to the result cache: a rebuild draws only what changed.
   const cacheFolder = resultCacheFolder(io);
   const recordFile = cacheFolder ? pageRecordPath(cacheFolder, outDir) : undefined;
@@ -241,6 +250,27 @@ function moveFolder(from: string, to: string): void {
     cpSync(from, to, { recursive: true });
     rmSync(from, { recursive: true, force: true });
   }
+}
+
+/**
+ * What the output path must neither be nor hold: the working folder, the repository, the procedures (nor lie inside
+ * them), the configuration file and the register (nor lie inside it). `register`: its folder as the check found it
+ * (relative to the working folder); before the check, the register folder found by the usual rules.
+ */
+function guardedPlaces(cwd: string, folder: string, config: string, register?: string): GuardedPlace[] {
+  const places: GuardedPlace[] = [
+    { path: resolve(cwd), what: 'the folder the command runs in' },
+    { path: resolve(cwd, folder), what: 'the procedures folder', notInside: true },
+  ];
+  const root = projectRoot(cwd);
+  if (existsSync(join(root, '.git'))) {
+    places.push({ path: root, what: 'the git repository' }, { path: join(root, '.git'), what: "git's own folder", notInside: true });
+  }
+  const configFile = config || findConfigFile(cwd);
+  if (configFile) places.push({ path: configFile, what: 'the configuration file' });
+  const registerFolder = register !== undefined && register !== '' ? resolve(cwd, register) : findRegisterFolder(cwd, configFile, undefined, folder)?.absolute;
+  if (registerFolder) places.push({ path: registerFolder, what: 'the plant register', notInside: true });
+  return places;
 }
 
 function isInside(path: string, folder: string): boolean {

@@ -24,8 +24,10 @@ function project(): string {
   const dir = tempFolder('stepwright-build-');
   mkdirSync(join(dir, 'procedures'));
   writeFileSync(join(dir, 'procedures', 'bad.md'), broken);
+  // The last good site, as a build published it (with its manifest).
   mkdirSync(join(dir, 'dist'));
   writeFileSync(join(dir, 'dist', 'index.html'), 'last good site');
+  writeFileSync(join(dir, 'dist', 'stepwright-manifest.json'), '{}');
   return dir;
 }
 
