@@ -1,4 +1,5 @@
 // What a command may touch of the outside world; tests pass their own.
+import { fixedToday } from '../engine/fixed-date.ts';
 export interface OutputStream {
   write(text: string): unknown;
   isTTY?: boolean;
@@ -16,8 +17,8 @@ export interface CliIo {
 }
 
 export function todayOf(io: CliIo): string {
-  const fixed = io.env.STEPWRIGHT_TODAY;
-  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) return fixed;
+  const fixed = fixedToday(io.env);
+  if (fixed) return fixed;
   return (io.now?.() ?? new Date()).toISOString().slice(0, 10);
 }
 

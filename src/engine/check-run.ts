@@ -19,6 +19,7 @@ import { loadRegister } from './load-register.ts';
 import { commandCache } from './command-cache.ts';
 import { resultCacheHoldsEntries } from './cache-folder.ts';
 import { isNotAProcedure, notAProcedureReason } from './not-a-procedure.ts';
+import { fixedToday } from './fixed-date.ts';
 import { previousFromGit, repoPath as repoRelative, type Repository } from './repository.ts';
 import { proceduresFolder } from './project.ts';
 import { readerThreshold, warmSourceReader } from '../read/source-reader.ts';
@@ -243,15 +244,15 @@ async function findWithStdin(paths: string[], request: CheckRunRequest): Promise
 }
 
 function clockDate(request: CheckRunRequest): { today: string; source: DateSource } {
-  const fixed = request.env.STEPWRIGHT_TODAY;
-  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) return { today: fixed, source: 'STEPWRIGHT_TODAY' };
+  const fixed = fixedToday(request.env);
+  if (fixed) return { today: fixed, source: 'STEPWRIGHT_TODAY' };
   return { today: (request.now?.() ?? new Date()).toISOString().slice(0, 10), source: 'clock' };
 }
 
 /** The build date: STEPWRIGHT_TODAY, else the last commit's date, else the newest effective or approval date. */
 export function buildDate(options: { cwd: string; env: Record<string, string | undefined> }, inputs: SourceInput[], folder?: string): { today: string; source: Exclude<DateSource, 'clock'> } {
-  const fixed = options.env.STEPWRIGHT_TODAY;
-  if (fixed && /^\d{4}-\d{2}-\d{2}$/.test(fixed)) {
+  const fixed = fixedToday(options.env);
+  if (fixed) {
     // `stepwright build` hands its own date to the pages and says where it came from.
     const told = options.env.STEPWRIGHT_TODAY_SOURCE;
     const source = told === 'last commit' || told === 'procedure dates' ? told : 'STEPWRIGHT_TODAY';
