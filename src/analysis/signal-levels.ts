@@ -5,8 +5,10 @@ import type { PathKey } from '../parse/read-source.ts';
 import type { Procedure } from '../model/procedure.ts';
 import type { PlantRegister, RegisterQuantity, RegisterSignal } from '../model/register.ts';
 import type { Condition } from './conditions/ast.ts';
-import { parseCondition } from './conditions/parse.ts';
-import { parseQuantity, pressureConversionNote, sameDimension, toBase } from './units.ts';
+import { comparisonsIn, parseCondition } from './conditions/parse.ts';
+import { everything, subtract, union, type IntervalSet } from './decisions/interval-set.ts';
+import { NotAnalysable, SignalSpace, snap, type SignalInfo } from './decisions/signal-space.ts';
+import { formatNumber, fromBase, parseQuantity, pressureConversionNote, sameDimension, toBase } from './units.ts';
 
 export type LevelKind = 'limit' | 'alarm' | 'trip' | 'relief';
 export type Side = 'low' | 'high';
@@ -32,6 +34,8 @@ export interface Level {
   owner?: string;
   /** The whole trip condition, for messages. */
   condition?: string;
+  /** For a trip that acts only between two values (SI base units, ends included): the band; `base` is its low end. */
+  band?: { low: number; high: number };
   at: LevelPlace;
 }
 
@@ -52,26 +56,113 @@ export function levelOf(kind: LevelKind, side: Side, signal: string, text: strin
   return { kind, side, signal, text: text.trim(), value: q.value, unit: q.unit, base, at, ...extra };
 }
 
+/** A trip condition's levels on the signals it trips on, or why the condition could not be read as values. */
+export type TripLevels = { ok: true; levels: Level[] } | { ok: false; reason: string };
+
 /**
- * The single-signal thresholds at which a trip condition trips on its own: the condition itself when it is one
- * comparison, or each comparison of an `or`. `>`/`>=` trip high, `<`/`<=` trip low. Comparisons inside `and` or
- * `not` trip only together with something else and give no level.
+ * The levels of a trip condition, read from the set of values at which it trips rather than from how it is
+ * written: `TI >= 180 degC`, `not (TI < 180 degC)` and `TI >= 356 degF` give the same level. For each numeric
+ * signal the condition names, the values of that signal at which it trips whatever the other signals do; a part
+ * of that set unbounded above is a high trip, one unbounded below a low trip, a bounded part a band (a level with
+ * `band`, judged by whether a value lies in it). A signal the condition trips on only together with another
+ * condition (`PI >= 400 kPag and burner == on`) gets no level. `ok: false` when the condition does not parse or
+ * cannot be read as values (an undeclared name, a unit that does not fit, too many cases), with the reason.
  */
-export function tripThresholds(condition: string): Array<{ signal: string; side: Side; text: string }> {
+export function tripLevels(condition: string, signals: Readonly<Record<string, SignalInfo>>, at: LevelPlace, owner: string): TripLevels {
   const parsed = parseCondition(condition);
-  if (!parsed.ok) return [];
-  const out: Array<{ signal: string; side: Side; text: string }> = [];
-  const visit = (c: Condition) => {
-    if (c.kind === 'or') {
-      c.operands.forEach(visit);
-      return;
+  if (!parsed.ok) return { ok: false, reason: 'the condition does not parse' };
+  let sets: Map<string, IntervalSet>;
+  try {
+    sets = tripSets(parsed.condition, signals);
+  } catch (error) {
+    if (error instanceof NotAnalysable) return { ok: false, reason: error.message };
+    throw error;
+  }
+  const levels: Level[] = [];
+  for (const [signal, set] of sets) {
+    const unit = signals[signal]?.unit;
+    for (const part of set) {
+      const extra = { owner, condition: condition.trim() };
+      if (part.hi === Infinity && part.lo !== -Infinity) levels.push(tripLevel('high', signal, part.lo, parsed.condition, unit, at, extra));
+      else if (part.lo === -Infinity && part.hi !== Infinity) levels.push(tripLevel('low', signal, part.hi, parsed.condition, unit, at, extra));
+      else levels.push({ ...tripLevel('high', signal, part.lo, parsed.condition, unit, at, extra), band: { low: part.lo, high: part.hi } });
     }
-    if (c.kind !== 'compare' || c.value.kind !== 'quantity') return;
-    const side: Side | null = c.op === '>' || c.op === '>=' ? 'high' : c.op === '<' || c.op === '<=' ? 'low' : null;
-    if (side) out.push({ signal: c.name.name, side, text: `${c.value.value} ${c.value.unit}` });
-  };
-  visit(parsed.condition);
+  }
+  return { ok: true, levels };
+}
+
+/**
+ * For each numeric signal a condition names, the values of that signal (SI base units) at which the condition is
+ * true whatever the other signals are: everything outside where the condition can be false. Throws NotAnalysable.
+ */
+export function tripSets(condition: Condition, signals: Readonly<Record<string, SignalInfo>>): Map<string, IntervalSet> {
+  const space = new SignalSpace(signals, [condition], { useRanges: false });
+  const untripped = space.regionOf(condition, false);
+  const out = new Map<string, IntervalSet>();
+  for (const variable of space.variables.values()) {
+    if (variable.kind !== 'number' || variable.name === 'elapsed' || variable.name === 'done') continue;
+    let safe: IntervalSet = [];
+    for (const box of untripped) {
+      const set = box.get(variable.name);
+      safe = set?.kind === 'number' ? union(safe, set.set) : everything;
+    }
+    const trips = subtract(variable.domain, safe);
+    if (trips.length) out.set(variable.name, trips);
+  }
   return out;
+}
+
+/** A trip level at a bound of its set, shown as the condition writes that threshold when it does. */
+function tripLevel(side: Side, signal: string, base: number, condition: Condition, unit: string | undefined, at: LevelPlace, extra: Partial<Level>): Level {
+  const written = comparisonsIn(condition).find((c) => c.name.name === signal && c.value.kind === 'quantity' && snap(toBase(c.value.value, c.value.unit) ?? Number.NaN) === base);
+  if (written && written.value.kind === 'quantity') {
+    return { kind: 'trip', side, signal, text: `${written.value.value} ${written.value.unit}`, value: written.value.value, unit: written.value.unit, base, at, ...extra };
+  }
+  if (!Number.isFinite(base)) return { kind: 'trip', side, signal, text: 'any value', value: base, unit: unit ?? '', base, at, ...extra };
+  const shownUnit = unit ?? '';
+  const value = unit ? fromBase(base, unit) ?? base : base;
+  return { kind: 'trip', side, signal, text: `${formatNumber(value)} ${shownUnit}`.trim(), value, unit: shownUnit, base, at, ...extra };
+}
+
+/** A trip whose condition could not be read as values, so the levels it sets were not judged. */
+export interface TripNotAnalysed {
+  owner: string;
+  condition: string;
+  reason: string;
+  at: LevelPlace;
+}
+
+/** The trips of the register, or those a procedure declares itself, whose conditions could not be read as values. */
+export function tripsNotAnalysed(source: { register: PlantRegister } | { procedure: Procedure }): TripNotAnalysed[] {
+  const out: TripNotAnalysed[] = [];
+  if ('register' in source) {
+    const signals = registerSignalInfo(source.register);
+    for (const fn of source.register.safetyFunctions.values()) {
+      if (!fn.tripsWhen) continue;
+      const at = { file: fn.file, path: fn.tripsWhen.path, inRegister: true };
+      const read = tripLevels(fn.tripsWhen.value, signals, at, fn.id);
+      if (!read.ok) out.push({ owner: fn.id, condition: fn.tripsWhen.value.trim(), reason: read.reason, at });
+    }
+    return out;
+  }
+  const { procedure } = source;
+  for (const interlock of procedure.interlocks) {
+    if (interlock.from) continue;
+    const at = { file: procedure.file, path: interlock.tripsWhen.path, inRegister: false };
+    const read = tripLevels(interlock.tripsWhen.value, procedure.signals, at, interlock.tag);
+    if (!read.ok) out.push({ owner: interlock.tag, condition: interlock.tripsWhen.value.trim(), reason: read.reason, at });
+  }
+  return out;
+}
+
+const registerSignalCache = new WeakMap<PlantRegister, Record<string, SignalInfo>>();
+function registerSignalInfo(register: PlantRegister): Record<string, SignalInfo> {
+  let found = registerSignalCache.get(register);
+  if (!found) {
+    found = Object.fromEntries([...register.signals.values()].map((s) => [s.id, { unit: s.unit, range: s.range, values: s.values }]));
+    registerSignalCache.set(register, found);
+  }
+  return found;
 }
 
 function registerQuantityLevel(kind: LevelKind, side: Side, signal: RegisterSignal, q: RegisterQuantity | undefined, file: string): Level | null {
@@ -96,10 +187,8 @@ export function levelsInRegister(register: PlantRegister): Map<string, Level[]> 
   }
   for (const fn of register.safetyFunctions.values()) {
     if (!fn.tripsWhen) continue;
-    for (const t of tripThresholds(fn.tripsWhen.value)) {
-      const signal = register.signals.get(t.signal);
-      add(levelOf('trip', t.side, t.signal, t.text, { file: fn.file, path: fn.tripsWhen.path, inRegister: true }, signal?.unit, { owner: fn.id, condition: fn.tripsWhen.value }));
-    }
+    const read = tripLevels(fn.tripsWhen.value, registerSignalInfo(register), { file: fn.file, path: fn.tripsWhen.path, inRegister: true }, fn.id);
+    if (read.ok) read.levels.forEach(add);
   }
   for (const device of register.reliefDevices.values()) {
     if (!device.signal || !device.setPressure.value) continue;
@@ -135,9 +224,8 @@ export function levelsForProcedure(procedure: Procedure, registerLevels?: Map<st
   for (const interlock of procedure.interlocks) {
     if (interlock.from) continue;
     localTrip.add(interlock.tag);
-    for (const t of tripThresholds(interlock.tripsWhen.value)) {
-      add(levelOf('trip', t.side, t.signal, t.text, at(interlock.tripsWhen.path), procedure.signals[t.signal]?.unit, { owner: interlock.tag, condition: interlock.tripsWhen.value }));
-    }
+    const read = tripLevels(interlock.tripsWhen.value, procedure.signals, at(interlock.tripsWhen.path), interlock.tag);
+    if (read.ok) read.levels.forEach(add);
   }
   if (registerLevels) {
     for (const signal of Object.keys(procedure.signals)) {
@@ -162,8 +250,13 @@ export function levelsOutOfOrder(levels: readonly Level[], against: readonly Lev
   for (const outer of levels) {
     if (!against.includes(outer.kind)) continue;
     for (const inner of levels) {
-      if (kindOrder[inner.kind] >= kindOrder[outer.kind] || inner.side !== outer.side) continue;
-      const beyond = outer.side === 'high' ? inner.base >= outer.base : inner.base <= outer.base;
+      if (kindOrder[inner.kind] >= kindOrder[outer.kind]) continue;
+      // Unit conversion leaves float noise (356 degF is 453.15000000000003 K); levels compare as the trip sets do.
+      const value = snap(inner.base);
+      let beyond: boolean;
+      if (outer.band) beyond = value >= outer.band.low && value <= outer.band.high;
+      else if (inner.side !== outer.side) continue;
+      else beyond = outer.side === 'high' ? value >= snap(outer.base) : value <= snap(outer.base);
       if (beyond) out.push({ level: inner, against: outer });
     }
   }
@@ -177,7 +270,8 @@ export function levelsOutsideRange(levels: readonly Level[], range: [number, num
   if (a === null || b === null) return [];
   const low = Math.min(a, b);
   const high = Math.max(a, b);
-  return levels.filter((l) => sameDimension(l.unit, unit) && (l.base < low || l.base > high)).map((level) => ({ level, low: range[0], high: range[1] }));
+  const outside = (v: number) => Number.isFinite(v) && (snap(v) < snap(low) || snap(v) > snap(high));
+  return levels.filter((l) => sameDimension(l.unit, unit) && (outside(l.base) || (l.band !== undefined && outside(l.band.high)))).map((level) => ({ level, low: range[0], high: range[1] }));
 }
 
 const kindWords: Record<LevelKind, string> = { limit: 'operating limit', alarm: 'alarm', trip: 'trip', relief: 'relief set pressure' };

@@ -1,6 +1,6 @@
 // Reports a level problem (a limit, alarm, trip or relief set pressure out of order) where it was written: in a
 // register file or in a procedure, with the other level as a related place.
-import { levelsForProcedure, levelsInRegister, type Level, type LevelPlace } from '../analysis/signal-levels.ts';
+import { levelsForProcedure, levelsInRegister, tripsNotAnalysed, type Level, type LevelPlace, type TripNotAnalysed } from '../analysis/signal-levels.ts';
 import type { PlantRegister } from '../model/register.ts';
 import type { FileContext, ManualContext, Report } from './define-rule.ts';
 
@@ -39,6 +39,29 @@ export function checkLevels(
         report(problem, file);
       }
     }
+  }
+}
+
+/**
+ * Says, as info, which trips a level check could not judge because their conditions could not be read as values:
+ * the register's once, in the register file, and each procedure's own where it declares them. `wanted` picks
+ * the trips that matter to the rule; `what` names what was not compared ("with the operating limits and alarms").
+ */
+export function reportTripsNotAnalysed(ctx: ManualContext, what: string, wanted: (trip: TripNotAnalysed) => boolean = () => true): void {
+  const say = (trip: TripNotAnalysed, file: FileContext | undefined) => {
+    if (!wanted(trip)) return;
+    reportAtPlace(ctx, trip.at, file, {
+      severity: 'info',
+      message: `Trip ${trip.owner} (${trip.condition}) was not compared ${what}: its condition could not be read as a set of values (${trip.reason}).`,
+      hint: trip.reason === 'too many cases'
+        ? 'Split the trip condition into simpler trips, or compare its levels by hand.'
+        : 'Correct the trip condition as the other diagnostics on it say (declared signals compared with quantities in their units); until then compare its levels by hand.',
+    });
+  };
+  if (ctx.register) for (const trip of tripsNotAnalysed({ register: ctx.register })) say(trip, undefined);
+  for (const file of ctx.files) {
+    if (!file.procedure) continue;
+    for (const trip of tripsNotAnalysed({ procedure: file.procedure })) say(trip, file);
   }
 }
 

@@ -2,7 +2,7 @@
 // mirrored on the low side, all inside the instrument's range; units converted exactly, gauge and absolute apart.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { levelOf, levelsOutOfOrder, levelsOutsideRange, tripThresholds, type Level, type LevelKind, type Side } from '../../src/analysis/signal-levels.ts';
+import { levelOf, levelsOutOfOrder, levelsOutsideRange, tripLevels, type Level, type LevelKind, type Side } from '../../src/analysis/signal-levels.ts';
 
 const at = { file: 'register/plant.yaml', path: ['signals', 'X'], inRegister: true };
 const level = (kind: LevelKind, side: Side, text: string, unit?: string): Level => {
@@ -103,14 +103,36 @@ describe('levels outside the range', () => {
 });
 
 describe('trip thresholds', () => {
-  it('reads one comparison, or each comparison of an or; a comparison inside and is not a trip on its own', () => {
-    expect(tripThresholds('TI-210 >= 255 degC')).toEqual([{ signal: 'TI-210', side: 'high', text: '255 degC' }]);
-    expect(tripThresholds('PI-210 > 250 kPag or PI-210 < 5 kPag')).toEqual([
-      { signal: 'PI-210', side: 'high', text: '250 kPag' }, { signal: 'PI-210', side: 'low', text: '5 kPag' },
+  const signals = {
+    'TI-210': { unit: 'degC', range: [0, 300] as [number, number] },
+    'PI-210': { unit: 'kPag', range: [0, 600] as [number, number] },
+    burner: { values: ['on', 'off'] },
+  };
+  const read = (condition: string) => {
+    const r = tripLevels(condition, signals, at, 'T-1');
+    return r.ok ? r.levels.map((l) => ({ signal: l.signal, side: l.side, text: l.text, ...(l.band ? { band: true } : {}) })) : r.reason;
+  };
+
+  it('reads the values at which a trip acts on one signal, however the condition is written', () => {
+    expect(read('TI-210 >= 255 degC')).toEqual([{ signal: 'TI-210', side: 'high', text: '255 degC' }]);
+    expect(read('PI-210 > 250 kPag or PI-210 < 5 kPag')).toEqual([
+      { signal: 'PI-210', side: 'low', text: '5 kPag' }, { signal: 'PI-210', side: 'high', text: '250 kPag' },
     ]);
-    expect(tripThresholds('PI-210 >= 250 kPag and burner == on')).toEqual([]);
-    expect(tripThresholds('not (TI-210 < 255 degC)')).toEqual([]);
-    expect(tripThresholds('TI-210 >=')).toEqual([]);
+    expect(read('not (TI-210 < 255 degC)')).toEqual([{ signal: 'TI-210', side: 'high', text: '255 degC' }]);
+    expect(read('not (TI-210 >= 15 degC)')).toEqual([{ signal: 'TI-210', side: 'low', text: '15 degC' }]);
+    // A band: 356 degF is 180 degC exactly. Source: NIST SP 811, Appendix B.8 (t/degC = (t/degF - 32) / 1.8).
+    expect(read('TI-210 >= 356 degF and TI-210 <= 300 degC')).toEqual([{ signal: 'TI-210', side: 'high', text: '356 degF', band: true }]);
+    expect(read('TI-210 >= 255 degC or burner == off')).toEqual([{ signal: 'TI-210', side: 'high', text: '255 degC' }]);
+  });
+
+  it('gives no level on a signal the trip acts on only together with another condition', () => {
+    expect(read('PI-210 >= 250 kPag and burner == on')).toEqual([]);
+  });
+
+  it('says why a condition could not be read as values', () => {
+    expect(read('TI-210 >=')).toBe('the condition does not parse');
+    expect(read('TI-999 >= 5 degC')).toMatch(/not declared/);
+    expect(read('TI-210 >= 5 kPag')).toMatch(/cannot be compared/);
   });
 
   it('gives no level for a quantity of another kind than the signal', () => {

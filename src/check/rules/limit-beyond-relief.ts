@@ -1,7 +1,7 @@
 // Reports an operating limit, alarm or trip at or above the set pressure of a relief device on the same signal.
 import { describeLevel, levelNote, levelsOutOfOrder } from '../../analysis/signal-levels.ts';
 import { defineManualRule } from '../define-rule.ts';
-import { capitalize, checkLevels, relatedOf, reportAtPlace } from '../report-level.ts';
+import { capitalize, checkLevels, relatedOf, reportAtPlace, reportTripsNotAnalysed } from '../report-level.ts';
 
 export default defineManualRule(
   {
@@ -15,7 +15,9 @@ layer of protection: it lifts only when the operating limits, the alarm and the 
 pressure. An operating limit, alarm or trip at or above its set pressure means the device lifts during normal
 operation, or before the trip can act. A high limit of 11 bar under a relief valve set at 10 bar is one example.
 The set pressure is usually gauge and the signal may be absolute: the comparison converts through the standard
-atmosphere (101.325 kPa) and says so in the message.`,
+atmosphere (101.325 kPa) and says so in the message. A trip is judged by the values at which it trips (its lowest
+high trip value, however the condition is written, as in \`limit-beyond-trip\`); a trip on a relieved signal whose
+condition cannot be read as values is not judged, and the rule says so (info).`,
     examples: {
       bad: 'signals:\n  PI-250: { unit: barg, limits: { high: 11 barg } }\nrelief-devices:\n  PSV-250: { set-pressure: 10 barg, signal: PI-250 }',
       good: 'signals:\n  PI-250: { unit: barg, limits: { high: 8 barg } }\nrelief-devices:\n  PSV-250: { set-pressure: 10 barg, signal: PI-250 }',
@@ -33,5 +35,14 @@ atmosphere (101.325 kPa) and says so in the message.`,
         related: [relatedOf(other, other.kind === 'relief' ? `relief device ${other.owner ?? ''}`.trim() : `${other.side} ${other.kind}`, ctx.register)],
       });
     });
+    // A trip on a signal with a relief device that could not be read was not compared with the set pressure.
+    const relieved = new Set([...(ctx.register?.reliefDevices.values() ?? [])].map((d) => d.signal).filter((s): s is string => !!s));
+    if (relieved.size) reportTripsNotAnalysed(ctx, 'with the relief set pressure', (trip) => [...relieved].some((s) => namesSignal(trip.condition, s)));
   },
 );
+
+/** Whether a condition's text names the signal (as a whole name, not part of a longer one). */
+function namesSignal(condition: string, signal: string): boolean {
+  const escaped = signal.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  return new RegExp(`(^|[^A-Za-z0-9_-])${escaped}($|[^A-Za-z0-9_-])`).test(condition);
+}
