@@ -113,12 +113,18 @@ export function parseConfig(file: string, text: string, knownRules: readonly str
   return { config, diagnostics };
 }
 
-/** The severity policy checkSources takes: the last matching override wins over the top-level rules. */
-export function severityPolicy(config: StepwrightConfig): SeverityPolicy {
+/**
+ * The severity policy checkSources takes: the last matching override wins over the top-level rules.
+ * `files` patterns are relative to the folder that holds the configuration file; `locate` turns a file name as
+ * the check gives it (relative to the working folder) into that form, so that the same file gets the same
+ * severity from whichever folder the check runs in. Without it, names are matched as given.
+ */
+export function severityPolicy(config: StepwrightConfig, locate: (file: string) => string = (file) => file): SeverityPolicy {
   const overrides = config.overrides.map((o) => ({ matchers: o.files.map(fileMatcher), rules: o.rules }));
   return (rule, file) => {
     let chosen: Level | undefined = config.rules[rule];
-    const path = normalise(file);
+    if (!overrides.length) return chosen as Severity | 'off' | undefined;
+    const path = normalise(locate(file));
     for (const o of overrides) if (o.rules[rule] && o.matchers.some((m) => m(path))) chosen = o.rules[rule];
     return chosen as Severity | 'off' | undefined;
   };
@@ -126,7 +132,8 @@ export function severityPolicy(config: StepwrightConfig): SeverityPolicy {
 
 /**
  * A folder prefix ("procedures/utilities" or "procedures/utilities/"), or a glob in the usual syntax
- * (`*`, `**`, `?`, `[abc]`, `{a,b}`, `!(x)`), matched against the file path relative to the working folder.
+ * (`*`, `**`, `?`, `[abc]`, `{a,b}`, `!(x)`), matched against the file path relative to the folder that holds
+ * the configuration file (see severityPolicy).
  */
 export function fileMatcher(pattern: string): (file: string) => boolean {
   const p = normalise(pattern);

@@ -1,7 +1,7 @@
 // The user's project as a command sees it: which configuration file applies and which folder holds the
 // procedures. Every command takes the procedures folder from here, so the default is decided in one place.
 import { existsSync, readFileSync, statSync } from 'node:fs';
-import { dirname, join, relative, resolve } from 'node:path';
+import { dirname, join, relative, resolve, sep } from 'node:path';
 import { parseDocument } from 'yaml';
 import { configFileName } from '../check/config.ts';
 import { parseBase, type SiteBase } from '../model/site-base.ts';
@@ -60,14 +60,32 @@ function configuredFolder(configFile: string, cwd: string): string | undefined {
 /**
  * The procedures folder for a command, as the user names it (relative to the working folder when possible):
  * the --procedures option, else $STEPWRIGHT_PROCEDURES, else `procedures:` in the configuration file
- * (relative to that file), else procedures/ in the working folder.
+ * (relative to that file), else the default folder (see defaultFolder), so that a command finds the same
+ * folder from any folder of the repository.
  */
 export function proceduresFolder(io: { cwd: string; env: Record<string, string | undefined> }, options: { procedures?: string; config?: string } = {}): string {
   if (options.procedures?.trim()) return options.procedures.trim();
   const fromEnv = io.env.STEPWRIGHT_PROCEDURES?.trim();
   if (fromEnv) return fromEnv;
   const configFile = options.config ? resolve(io.cwd, options.config) : findConfigFile(io.cwd);
-  return (configFile && configuredFolder(configFile, io.cwd)) || defaultProceduresFolder;
+  return (configFile && configuredFolder(configFile, io.cwd)) || defaultFolder(io.cwd, configFile);
+}
+
+/**
+ * The procedures folder when nothing names one: the nearest `procedures/` folder from the working folder up to the
+ * folder of the configuration file, or without one the top of the repository (so the same `procedures/` is found
+ * from inside it and from any folder beside it); when there is none yet, `procedures/` in that top folder.
+ */
+function defaultFolder(cwd: string, configFile: string | undefined): string {
+  const start = resolve(cwd);
+  const top = configFile ? dirname(configFile) : projectRoot(start);
+  const inside = start === top || start.startsWith(top.endsWith(sep) ? top : top + sep);
+  for (let here = start; inside; here = dirname(here)) {
+    const candidate = join(here, defaultProceduresFolder);
+    if (statSync(candidate, { throwIfNoEntry: false })?.isDirectory()) return relative(cwd, candidate) || '.';
+    if (here === top || dirname(here) === here) break;
+  }
+  return relative(cwd, join(top, defaultProceduresFolder)) || '.';
 }
 
 /**

@@ -30,11 +30,28 @@ describe('the configuration file', () => {
     mkdirSync(join(repo, '.git'), { recursive: true });
     mkdirSync(join(repo, 'docs', 'sub'), { recursive: true });
     const io = { cwd: join(repo, 'docs', 'sub'), env: {} };
-    expect(proceduresFolder(io)).toBe('procedures');
+    // Without a configuration: procedures/ at the top of the repository, not in the working folder.
+    expect(proceduresFolder(io)).toBe(join('..', '..', 'procedures'));
     writeFileSync(join(repo, 'stepwright.config.yaml'), 'procedures: manual/sops\n');
     expect(proceduresFolder(io)).toBe(join('..', '..', 'manual', 'sops'));
     expect(proceduresFolder({ ...io, env: { STEPWRIGHT_PROCEDURES: 'here' } })).toBe('here');
     expect(proceduresFolder({ ...io, env: { STEPWRIGHT_PROCEDURES: 'here' } }, { procedures: 'there' })).toBe('there');
+  });
+
+  it('is the same procedures/ folder from any folder of the repository when nothing names one', () => {
+    const repo = join(top, 'repo3');
+    mkdirSync(join(repo, '.git'), { recursive: true });
+    mkdirSync(join(repo, 'procedures', 'k-210', 'old'), { recursive: true });
+    mkdirSync(join(repo, 'docs'), { recursive: true });
+    const from = (...parts: string[]) => join(repo, ...parts, proceduresFolder({ cwd: join(repo, ...parts), env: {} }));
+    for (const cwd of [[], ['docs'], ['procedures'], ['procedures', 'k-210', 'old']]) expect(from(...cwd)).toBe(join(repo, 'procedures'));
+    // A configuration in a sub-folder (a second plant) is the top of its own project: its procedures/ is beside it,
+    // before it exists too, never the first plant's.
+    mkdirSync(join(repo, 'plant-b', 'notes'), { recursive: true });
+    writeFileSync(join(repo, 'plant-b', 'stepwright.config.yaml'), 'rules: {}\n');
+    expect(from('plant-b', 'notes')).toBe(join(repo, 'plant-b', 'procedures'));
+    mkdirSync(join(repo, 'plant-b', 'procedures'));
+    expect(from('plant-b', 'notes')).toBe(join(repo, 'plant-b', 'procedures'));
   });
 });
 
@@ -68,5 +85,29 @@ describe('history from the repository that holds the procedures', () => {
     elsewhere.write('x.txt', 'x');
     elsewhere.commit('Unrelated', ada, '2030-06-01');
     expect(buildDate({ cwd: elsewhere.dir, env: { STEPWRIGHT_PROCEDURES: procedures } }, [])).toEqual({ today: '2026-01-20', source: 'last commit' });
+  });
+});
+
+describe('the same check from any folder of the repository', () => {
+  const repo = realpathSync(tempFolder('sw-anyfolder-'));
+  mkdirSync(join(repo, '.git'));
+  mkdirSync(join(repo, 'procedures', 'zz'), { recursive: true });
+  mkdirSync(join(repo, 'procedures', 'k-210'), { recursive: true });
+  writeFileSync(join(repo, 'stepwright.config.yaml'), 'overrides:\n  - files: procedures/zz\n    rules:\n      vague-term: error\n  - files: "**/k-210/*.md"\n    rules:\n      vague-term: off\n');
+  const vague = (id: string) => `---\nid: ${id}\ntitle: Purge kettle K-210\nkind: normal\nrevision: 0\nstatus: draft\nsteps:\n  - step: purge\n    do: Purge the kettle with nitrogen as required\n    confirm: AI-210 reads below 2 percent\n---\n\n## Purpose\n\nPurges the kettle.\n`;
+  writeFileSync(join(repo, 'procedures', 'zz', 'u2-example-001.md'), vague('U2-EXAMPLE-001'));
+  writeFileSync(join(repo, 'procedures', 'k-210', 'u2-example-002.md'), vague('U2-EXAMPLE-002'));
+  const severities = (stdout: string) => [...stdout.matchAll(/(u2-example-00\d)\.md:\d+:\d+ (\w+) vague-term/g)].map((m) => `${m[1]} ${m[2]}`);
+
+  it.each([
+    ['the repository top', [], []],
+    ['the procedures folder', ['procedures'], []],
+    ['the folder the override names', ['procedures', 'zz'], ['..']],
+    ['a folder beside it', ['procedures', 'k-210'], ['..']],
+  ])('applies the overrides by their place beside the configuration file, from %s', async (_where, cwd, args) => {
+    const run = await runCli(['check', ...args], join(repo, ...cwd));
+    expect(run.stderr).toBe('');
+    expect(severities(run.stdout)).toEqual(['u2-example-001 error']);
+    expect(run.code).toBe(1);
   });
 });
