@@ -97,7 +97,7 @@ export async function previousFromGit(
   // configuration and the register.
   const repo = openRepository(io, at ?? inputs.find((i) => 'text' in i)?.file, base ?? 'HEAD');
   if (!repo) return {};
-  const files = inputs.flatMap((i) => ('text' in i ? [{ file: i.file, path: repoPath(repo, resolve(io.cwd, i.file)) }] : []));
+  const files = inputs.flatMap((i) => ('text' in i ? [{ file: i.file, path: repoPath(repo, resolve(io.cwd, i.file)), text: i.text }] : []));
   let found: Map<string, PreviousVersion>;
   try {
     found = await previousVersions(repo.git, files, base ?? 'HEAD', repo.commit);

@@ -12,7 +12,7 @@ export interface PreviousVersion {
  * `check` uses HEAD, so it judges the uncommitted change; `review` uses the pull request's base.
  * Keys and `files[].path` are paths relative to the repository root.
  */
-export async function previousVersions(git: Git, files: Array<{ path: string }>, base: string, resolved?: string): Promise<Map<string, PreviousVersion>> {
+export async function previousVersions(git: Git, files: Array<{ path: string; text?: string }>, base: string, resolved?: string): Promise<Map<string, PreviousVersion>> {
   const found = new Map<string, PreviousVersion>();
   // The commit when the caller has resolved the base already; else (or to say why it cannot be found) here.
   const commit = resolved ?? (await resolveCommit(git, base));
@@ -21,7 +21,13 @@ export async function previousVersions(git: Git, files: Array<{ path: string }>,
   // checker tens of milliseconds to start.
   const underNewNames = await showFiles(git, files.map(({ path }) => `${commit}:${path}`));
   const missing = files.filter(({ path }) => underNewNames.get(`${commit}:${path}`) === undefined);
-  const oldPaths = missing.length ? await pathsAtBase(git, commit) : new Map<string, string>();
+  const changes = missing.length ? await changesSince(git, commit) : [];
+  const oldPaths = renamesIn(changes);
+  // A file git does not take for a rename (not yet added, or changed too much to look like the old file) that holds
+  // the procedure of a file deleted since the base is that procedure moved: found by its id, which the manual holds
+  // once. Without this an effective procedure moved to another folder and edited would have no previous version, and
+  // its edit would pass as a new procedure.
+  for (const [path, oldPath] of await movedById(git, commit, missing.filter(({ path }) => !oldPaths.has(path)), changes)) oldPaths.set(path, oldPath);
   const renamed = new Set(missing.filter(({ path }) => oldPaths.has(path)).map(({ path }) => path));
   const specOf = (path: string) => `${commit}:${oldPaths.get(path) ?? path}`;
   const underOldNames = renamed.size ? await showFiles(git, [...renamed].map(specOf)) : new Map<string, string | undefined>();
@@ -53,10 +59,53 @@ export async function resolveCommit(git: Git, ref: string): Promise<string> {
 
 /** Maps each path renamed since `commit` (working tree included) to its name at `commit`. */
 export async function pathsAtBase(git: Git, commit: string): Promise<Map<string, string>> {
-  const out = await git(['diff', '--name-status', '-M', '-z', commit, '--']);
+  return renamesIn(await changesSince(git, commit));
+}
+
+/** What changed since `commit` in the working tree (files git tracks), renames found as git finds them. */
+async function changesSince(git: Git, commit: string): Promise<ChangedPath[]> {
+  return changedPaths(await git(['diff', '--name-status', '-M', '-z', commit, '--']));
+}
+
+function renamesIn(changes: ChangedPath[]): Map<string, string> {
   const map = new Map<string, string>();
-  for (const entry of changedPaths(out)) if (entry.oldPath) map.set(entry.path, entry.oldPath);
+  for (const entry of changes) if (entry.oldPath) map.set(entry.path, entry.oldPath);
   return map;
+}
+
+/** The `id` a procedure's front-matter gives, read from its text without parsing it (undefined when none). */
+export function procedureIdIn(text: string): string | undefined {
+  const head = /^\uFEFF?---[ \t]*\r?\n([\s\S]*?)\r?\n---[ \t]*(?:\r?\n|$)/.exec(text)?.[1];
+  const m = head && /^id:[ \t]*(?:"([^"\r\n]+)"|'([^'\r\n]+)'|([^\s#][^\r\n#]*?))[ \t]*(?:#.*)?$/m.exec(head);
+  const id = m ? (m[1] ?? m[2] ?? m[3]).trim() : undefined;
+  return id || undefined;
+}
+
+/**
+ * Files (by their path now) whose procedure id is that of exactly one file deleted since `commit`, with the deleted
+ * file's path at `commit`.
+ */
+async function movedById(git: Git, commit: string, files: Array<{ path: string; text?: string }>, changes: ChangedPath[]): Promise<Map<string, string>> {
+  const moved = new Map<string, string>();
+  const wanted = new Map<string, string[]>();
+  for (const { path, text } of files) {
+    const id = text === undefined ? undefined : procedureIdIn(text);
+    if (id) wanted.set(id, [...(wanted.get(id) ?? []), path]);
+  }
+  const deleted = changes.filter((c) => c.status === 'D' && /\.md$/i.test(c.path)).map((c) => c.path);
+  if (!wanted.size || !deleted.length) return moved;
+  const texts = await showFiles(git, deleted.map((path) => `${commit}:${path}`));
+  const byId = new Map<string, string[]>();
+  for (const path of deleted) {
+    const id = procedureIdIn(texts.get(`${commit}:${path}`) ?? '');
+    if (id && wanted.has(id)) byId.set(id, [...(byId.get(id) ?? []), path]);
+  }
+  for (const [id, paths] of wanted) {
+    const from = byId.get(id);
+    // Only where it is plain which file became which.
+    if (paths.length === 1 && from?.length === 1) moved.set(paths[0], from[0]);
+  }
+  return moved;
 }
 
 export interface ChangedPath {
