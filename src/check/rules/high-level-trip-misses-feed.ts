@@ -1,5 +1,6 @@
 // Reports a high-level trip in the plant register that closes or stops nothing that feeds the vessel it protects.
-import { parseCondition } from '../../analysis/conditions/parse.ts';
+import { comparisonsIn, parseCondition } from '../../analysis/conditions/parse.ts';
+import { NotAnalysable, SignalSpace } from '../../analysis/decisions/signal-space.ts';
 import type { Condition } from '../../analysis/conditions/ast.ts';
 import type { PlantRegister, RegisterSafetyFunction } from '../../model/register.ts';
 import { defineManualRule } from '../define-rule.ts';
@@ -14,8 +15,9 @@ export default defineManualRule(
     docs: `A high-level trip protects a vessel against overfilling, so it must close or stop what flows **into** the
 vessel. A trip that stops the outlet pump instead leaves the feed running into a full vessel and makes it worse.
 
-The rule reads the plant register: a safety function whose \`trips-when\` compares a level signal (tag starting
-with L, as in ISA-5.1) with \`>=\` or \`>\`; the vessel is that signal's \`equipment\`; the feeds of the vessel are
+The rule reads the plant register: a safety function that trips at high values of a level signal (tag starting
+with L, as in ISA-5.1), read from the values at which its \`trips-when\` is true, so that \`LI-210 >= 90 percent\`
+and \`not (LI-210 < 90 percent)\` count alike (a condition that cannot be read as values is said so, as info); the vessel is that signal's \`equipment\`; the feeds of the vessel are
 the equipment entries whose \`feeds\` list names it (\`FV-211: { feeds: [K-210] }\`). The trip's outputs are its
 \`closes\` and \`stops\` lists, the tags its \`action\` words name, and the outputs of the function it \`starts\`. At
 least one feed must be among them.
@@ -37,7 +39,20 @@ register records feeds for other vessels, so that the gap is visible; with no \`
       if (!fn.tripsWhen) continue;
       const parsed = parseCondition(fn.tripsWhen.value);
       if (!parsed.ok) continue;
-      const vessels = new Set(highLevelSignals(parsed.condition).map((s) => register.signals.get(s)?.equipment).filter((e): e is string => !!e));
+      const high = highLevelSignals(parsed.condition, register);
+      if (!high.ok) {
+        const named = [...new Set(comparisonsIn(parsed.condition).map((c) => c.name.name).filter((n) => /^L/.test(n)))];
+        if (named.length) {
+          ctx.reportInRegister(fn.file, {
+            path: fn.tripsWhen.path,
+            severity: 'info',
+            message: `${fn.id} names the level ${named.join(', ')}, but its condition could not be read as a set of values (${high.reason}), so whether it trips on a high level and stops the feed was not checked.`,
+            hint: 'Correct the trip condition (declared signals compared with quantities in their units), or check its outputs by hand.',
+          });
+        }
+        continue;
+      }
+      const vessels = new Set(high.signals.map((s) => register.signals.get(s)?.equipment).filter((e): e is string => !!e));
       for (const vessel of vessels) {
         const feeds = feedsOf.get(vessel) ?? [];
         if (!feeds.length) {
@@ -62,16 +77,25 @@ register records feeds for other vessels, so that the gap is visible; with no \`
   },
 );
 
-/** Level signals (ISA-5.1 first letter L) compared upwards (>= or >) anywhere in the condition. */
-function highLevelSignals(condition: Condition): string[] {
-  switch (condition.kind) {
-    case 'compare':
-      return /^L/.test(condition.name.name) && (condition.op === '>=' || condition.op === '>') ? [condition.name.name] : [];
-    case 'and':
-    case 'or':
-      return condition.operands.flatMap(highLevelSignals);
-    default:
-      return [];
+/**
+ * Level signals (ISA-5.1 first letter L) on which the condition trips at high values: read from the values at which
+ * it trips (`LI >= 90 percent`, `not (LI < 90 percent)`, either alone or together with another condition), so that
+ * the way it is written does not matter. Not ok when the condition cannot be read as values.
+ */
+function highLevelSignals(condition: Condition, register: PlantRegister): { ok: true; signals: string[] } | { ok: false; reason: string } {
+  const signals = Object.fromEntries([...register.signals.values()].map((s) => [s.id, { unit: s.unit, range: s.range, values: s.values }]));
+  try {
+    const space = new SignalSpace(signals, [condition], { useRanges: false });
+    const found = new Set<string>();
+    for (const box of space.regionOf(condition)) {
+      for (const [name, set] of box) {
+        if (/^L/.test(name) && set.kind === 'number' && set.set.some((i) => i.hi === Infinity && i.lo !== -Infinity)) found.add(name);
+      }
+    }
+    return { ok: true, signals: [...found] };
+  } catch (error) {
+    if (error instanceof NotAnalysable) return { ok: false, reason: error.message };
+    throw error;
   }
 }
 
