@@ -218,6 +218,8 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   const tagPages = loaded.view.tags.reduce((n, t) => n + t.parts.length, 0);
   const tagWords = tagPages === loaded.view.tags.length ? `${tagPages} tag pages` : `${loaded.view.tags.length} tags on ${tagPages} pages`;
   io.stdout.write(`Built ${loaded.view.procedures.length} procedures, ${tagWords} into ${relative(io.cwd, outDir) || '.'}/ in ${seconds.toFixed(1)} s (review marks for ${loaded.today}, from ${loaded.todaySource}).\n`);
+  // The pages say so too; the log says it where the person who set up the build reads.
+  if (loaded.run.repo?.shallow) io.stdout.write(shallowBuildNote);
   if (plan?.hadRecord && keys) io.stdout.write(reuseReport(plan, keptProcedures, loaded.view.procedures.length, keys.size));
   if (offline) io.stdout.write(offlineReport(offline));
   return 0;
@@ -251,6 +253,9 @@ function moveFolder(from: string, to: string): void {
     rmSync(from, { recursive: true, force: true });
   }
 }
+
+export const shallowBuildNote = "History: this is a shallow clone, so the revision pages, redlines and audit trail show only the commits it holds. " +
+  "Fetch the full history with 'git fetch --unshallow' (in GitHub Actions: actions/checkout with 'fetch-depth: 0').\n";
 
 /**
  * What the output path must neither be nor hold: the working folder, the repository, the procedures (nor lie inside
