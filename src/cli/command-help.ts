@@ -44,7 +44,7 @@ export const checkHelp = `Usage: stepwright check [options] [paths…]
 Checks procedure files (markdown with YAML front-matter) and reports every problem with
 file:line:column, severity, rule id, message and a hint. Paths may be files or folders
 (default: the procedures folder, see --procedures), globs such as 'procedures/**/pump-*.md', or '-' for one procedure on
-standard input. Folders and globs are searched for *.md files; markdown there that is not a
+standard input. Folders and globs are searched for *.md files (.MD too); markdown there that is not a
 procedure (no front-matter and no procedure keys, e.g. a README) is skipped with an info line.
 Rules that read the date judge at today's date ($STEPWRIGHT_TODAY when set); when the date
 'stepwright build' uses (the last commit's) differs, they judge at that date too, and the errors

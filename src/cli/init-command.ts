@@ -9,6 +9,7 @@ import { UsageError, type CliIo } from './io.ts';
 import { packagedDemo, packagedDemoRegister, packagedSchema, packageRoot } from './package-files.ts';
 import { defaultProceduresFolder, projectRoot } from './project.ts';
 import { initHelp } from './command-help.ts';
+import { isMarkdownName } from '../engine/markdown-name.ts';
 
 export { initHelp };
 
@@ -53,7 +54,7 @@ export async function runInit(argv: string[], io: CliIo): Promise<number> {
     copyTree(packagedDemo, procedures, written, skipped, show);
     // The demo procedures read their plant data from the demo register, found next to the configuration.
     if (existsSync(packagedDemoRegister)) copyTree(packagedDemoRegister, join(root, 'register'), written, skipped, show);
-  } else if (existsSync(procedures) && readdirSync(procedures).some((n) => n.endsWith('.md') || statSync(join(procedures, n)).isDirectory())) {
+  } else if (existsSync(procedures) && readdirSync(procedures).some((n) => isMarkdownName(n) || statSync(join(procedures, n)).isDirectory())) {
     skipped.push(`${show(procedures)}/ (already holds procedures; no example added)`);
   } else {
     const example = readFileSync(join(packagedDemo, exampleProcedure), 'utf8');

@@ -19,6 +19,7 @@ import { findRegisterFolder } from './load-register.ts';
 import { registerImpact } from '../history/register-impact.ts';
 import { registerAt } from '../history/register-history.ts';
 import { registerPlace } from '../engine/register-place.ts';
+import { isMarkdownName } from '../engine/markdown-name.ts';
 import { reviewHelp } from './command-help.ts';
 
 export { reviewHelp };
@@ -90,7 +91,7 @@ async function buildReview(repo: Repository, io: CliIo, base: string, request: R
   const tracked = changedPaths(await repo.git(['diff', '--name-status', '-M', '-z', baseCommit, '--', ...pathspecs]));
   const untracked = (await repo.git(['ls-files', '--others', '--exclude-standard', '-z', '--', ...pathspecs]))
     .split('\0').filter(Boolean).map((path): ChangedPath => ({ status: 'A', path }));
-  const changes = [...tracked, ...untracked].filter((c) => c.path.endsWith('.md')).sort((a, b) => a.path.localeCompare(b.path));
+  const changes = [...tracked, ...untracked].filter((c) => isMarkdownName(c.path)).sort((a, b) => a.path.localeCompare(b.path));
 
   const oldTexts = new Map<string, string>();
   const existing = changes.filter((c) => c.status !== 'A');

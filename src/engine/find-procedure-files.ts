@@ -1,7 +1,7 @@
 // Finds procedure files under the given paths and reads them; unreadable ones become inputs with an error.
 // Only regular files are read: the type is checked before a file is opened (a FIFO would block, a device
 // never end), links that lead back into a folder already read are reported, and every read is capped.
-// A path may be a file, a folder (searched for *.md), a glob (`procedures/**/pump-*.md`, `{a,b}`, `[u]`)
+// A path may be a file, a folder (searched for *.md, any case: .MD too), a glob (`procedures/**/pump-*.md`, `{a,b}`, `[u]`)
 // or `-` for one procedure on standard input (handled by the engine). A path or glob that finds nothing is
 // reported, never dropped.
 import { closeSync, fstatSync, lstatSync, openSync, readdirSync, readSync, statSync, constants, type Stats } from 'node:fs';
@@ -9,11 +9,19 @@ import { join, relative, resolve } from 'node:path';
 import picomatch from 'picomatch';
 import { globSync } from 'tinyglobby';
 import type { SourceInput } from '../check/run-checks.ts';
+import { isMarkdownName } from './markdown-name.ts';
+
+export { isMarkdownName };
 
 const skipDirs = new Set(['node_modules', 'dist', '.git', '.astro', '.stepwright']);
 
 /** The name a procedure read from standard input goes by in diagnostics. */
 export const stdinName = '<stdin>';
+
+/** A glob that ends in `.md` also finds `.MD`, `.Md`: the same as a folder search. */
+function anyCaseExtension(pattern: string): string {
+  return pattern.replace(/\.md$/i, '.[mM][dD]');
+}
 
 /** True when a path is meant as a glob pattern rather than a file or folder name. */
 export function isGlob(path: string): boolean {
@@ -79,7 +87,7 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
         target = statSync(full);
       } catch (error) {
         // A dangling link or a link loop (ELOOP): only worth a report when it looks like a procedure.
-        if (name.endsWith('.md')) add(full, describeError(error));
+        if (isMarkdownName(name)) add(full, describeError(error));
         else if ((error as NodeJS.ErrnoException).code === 'ELOOP') add(full, describeError(error));
         continue;
       }
@@ -94,7 +102,7 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
           continue;
         }
         walk(full, depth + 1);
-      } else if (name.endsWith('.md')) {
+      } else if (isMarkdownName(name)) {
         addFile(full, target);
       }
     }
@@ -114,10 +122,10 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
     } catch (error) {
       const absent = (error as NodeJS.ErrnoException).code === 'ENOENT';
       if (absent && isGlob(p)) {
-        const matches = globSync(p.split('\\').join('/'), {
+        const matches = globSync(anyCaseExtension(p.split('\\').join('/')), {
           cwd, absolute: true, onlyFiles: true, dot: false, expandDirectories: false, followSymbolicLinks: false,
           ignore: [...skipDirs].map((d) => `**/${d}/**`),
-        }).filter((f) => f.endsWith('.md')).map((f) => resolve(f)).sort();
+        }).filter(isMarkdownName).map((f) => resolve(f)).sort();
         if (!matches.length) add(absolute, `no markdown file matches the pattern ${p}`);
         discovered = true;
         for (const m of matches) {

@@ -1,5 +1,6 @@
 // A Vite plugin for the live preview (`stepwright dev`): a saved, added or removed procedure file reloads the open pages.
 import { sep } from 'node:path';
+import { isMarkdownName } from '../engine/markdown-name.ts';
 
 interface DevServer {
   watcher: { add(path: string): unknown; on(event: string, listener: (file: string) => void): unknown };
@@ -15,7 +16,7 @@ export function watchProcedures(folder: string): { name: string; apply: 'serve';
     configureServer(server) {
       server.watcher.add(folder);
       const reload = (file: string) => {
-        if (file.startsWith(inside) && file.endsWith('.md')) server.ws.send({ type: 'full-reload', path: '*' });
+        if (file.startsWith(inside) && isMarkdownName(file)) server.ws.send({ type: 'full-reload', path: '*' });
       };
       for (const event of ['add', 'change', 'unlink']) server.watcher.on(event, reload);
     },
