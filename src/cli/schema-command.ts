@@ -1,6 +1,6 @@
 // `stepwright schema [--out FILE]`: prints or writes the JSON Schema of the front-matter for editors.
-import { writeFileSync, mkdirSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { resolve } from 'node:path';
+import { writeOutputFile } from './output-file.ts';
 import { parseArgs } from 'node:util';
 import { procedureJsonSchemaText, registerJsonSchemaText } from '../model/json-schema.ts';
 import type { CliIo } from './io.ts';
@@ -19,9 +19,12 @@ export async function runSchema(argv: string[], io: CliIo): Promise<number> {
     io.stdout.write(text);
     return 0;
   }
-  const target = resolve(io.cwd, values.out);
-  mkdirSync(dirname(target), { recursive: true });
-  writeFileSync(target, text);
+  // An earlier schema of the same kind carries the same title.
+  const title = /^ {2}"title": .*$/m.exec(text)?.[0] ?? text;
+  writeOutputFile(resolve(io.cwd, values.out), text, io.cwd, {
+    what: `a ${values.register ? 'register' : 'procedure'} schema written by 'stepwright schema'`,
+    isOwn: (existing) => existing.includes(title),
+  });
   io.stdout.write(`Wrote ${values.out}\n`);
   return 0;
 }
