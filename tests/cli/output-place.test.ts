@@ -113,6 +113,9 @@ describe('where a build may publish', () => {
     });
     const first = build();
     expect(first.status, first.stderr).toBe(0);
+    // A full clone: the log has no word of a shallow one (tests/cli/shallow-build.test.ts).
+    expect(first.stdout).toMatch(/^Built 1 procedures/m);
+    expect(first.stdout).not.toContain('shallow clone');
     expect(lstatSync(join(dir, 'dist')).isSymbolicLink()).toBe(true);
     const second = build();
     expect(second.status, second.stderr).toBe(0);
