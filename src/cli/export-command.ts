@@ -13,6 +13,8 @@ import { formatHuman } from '../render/format-diagnostics.ts';
 import { todayOf, UsageError, useColour, type CliIo } from './io.ts';
 import { readProcedureFiles } from '../engine/find-procedure-files.ts';
 import { exportHelp } from './command-help.ts';
+import { unreadFiles } from '../engine/unread-procedures.ts';
+import { shellWord } from '../model/shell-word.ts';
 
 export { exportHelp };
 
@@ -39,13 +41,23 @@ export async function runExport(argv: string[], io: CliIo): Promise<number> {
   const folders = paths.length ? paths : [proceduresFolder(io)];
   const inputs = readProcedureFiles(folders, io.cwd);
   const configured = loadConfig(io);
-  const result = checkSources(inputs, { today: todayOf(io), register: loadRegister(io.cwd, configured.file?.file, configured.config.register, folders[0]) });
+  const result = checkSources(inputs, { today: todayOf(io), severity: configured.policy, register: loadRegister(io.cwd, configured.file?.file, configured.config.register, folders[0]) });
   const byId = new Map<string, Procedure>();
   for (const f of result.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f.procedure);
   const found = result.files.find((f) => f.procedure?.id === id);
   if (!found?.procedure) {
+    const where = paths.join(', ') || proceduresFolder(io);
+    const unread = unreadFiles(id, inputs, result.files);
+    if (unread[0]?.holdsId) {
+      // The procedure is there, but its file could not be read: that is the problem to fix, not the id.
+      io.stderr.write(`stepwright export: ${unread[0].file} names '${id}' on its id line but could not be read as a procedure, so nothing was exported:\n  ${unread[0].problem}\nFix it (stepwright check ${shellWord(unread[0].file)} lists every problem), then export again.\n`);
+      return 1;
+    }
     const guess = byId.size ? closest(id, [...byId.keys()]) : undefined;
-    io.stderr.write(`stepwright export: no procedure with id '${id}' in ${paths.join(', ') || proceduresFolder(io)}.${guess ? ` Did you mean '${guess}'?` : ''}\n`);
+    const couldNotRead = unread.length
+      ? ` ${unread.length === 1 ? '1 file' : `${unread.length} files`} could not be read and may hold it: ${unread.slice(0, 3).map((u) => u.problem).join('; ')}${unread.length > 3 ? `; and ${unread.length - 3} more` : ''}.`
+      : '';
+    io.stderr.write(`stepwright export: no procedure with id '${id}' in ${where}.${couldNotRead}${guess ? ` Did you mean '${guess}'?` : ''}\n`);
     return 1;
   }
   const errors = found.diagnostics.filter((d) => d.severity === 'error');
