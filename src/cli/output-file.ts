@@ -1,5 +1,5 @@
 // A file a command writes where the user names it (`schema --out`, `review --output`). It is written only where
-// nothing of the user's is lost: a new file, or one the same command wrote before (recognised by how that output
+// nothing of the user's is lost: a new or empty file, or one the same command wrote before (recognised by how that output
 // starts). Anything else at that path — a procedure, the configuration, notes — is left as it is, and the command
 // says so.
 import { mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
@@ -25,7 +25,8 @@ export function writeOutputFile(target: string, text: string, cwd: string, kind:
     } catch {
       // Unreadable: not recognised as an earlier output.
     }
-    if (!kind.isOwn(existing)) {
+    // An empty file (one a CI runner made for the summary, say) holds nothing to lose.
+    if (existing.trim() !== '' && !kind.isOwn(existing)) {
       throw new UsageError(`'${shown}' already exists and is not ${kind.what}; it was left as it is. Give another file name, or move that file away first.`);
     }
   }

@@ -1,5 +1,6 @@
 // `stepwright review --base <ref>`: a Markdown summary of the procedure changes since a base, for a pull request.
-import { readFileSync, writeFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
+import { writeOutputFile } from './output-file.ts';
 import { join, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { runCheckRun, type CheckRun } from '../engine/check-run.ts';
@@ -10,7 +11,7 @@ import { defaultReviewPolicy, parseReviewPolicy, requiredSignOffs, type PolicyEn
 import { GitError, showFiles } from '../history/git.ts';
 import { changedPaths, describeBase, resolveCommit, type ChangedPath } from '../history/previous-version.ts';
 import { redline } from '../history/redline.ts';
-import { renderReviewMarkdown, type ReviewedFile } from '../history/review-summary.ts';
+import { renderReviewMarkdown, reviewHeading, type ReviewedFile } from '../history/review-summary.ts';
 import { formatGithub } from './format-github.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { openRepository, repoPath, type Repository } from './repository.ts';
@@ -56,7 +57,13 @@ export async function runReview(argv: string[], io: CliIo): Promise<number> {
       return 2;
     }
     const markdown = renderReviewMarkdown(report.input);
-    if (values.output) writeFileSync(resolve(io.cwd, values.output), markdown);
+    if (values.output) {
+      // An earlier summary starts as this one does.
+      writeOutputFile(resolve(io.cwd, values.output), markdown, io.cwd, {
+        what: "a review summary written by 'stepwright review'",
+        isOwn: (existing) => existing.startsWith(reviewHeading),
+      });
+    }
     if (values.format === 'github') io.stdout.write(formatGithub(report.diagnostics, (file) => repoPath(repo, file)));
     else if (values.format === 'json') io.stdout.write(reviewJson(report.input, report.diagnostics));
     else io.stdout.write(markdown);

@@ -31,9 +31,12 @@ export interface ReviewInput {
   registerChanges?: RegisterEntryChange[];
 }
 
+/** How every review summary starts (a file that starts so is an earlier summary, which `review --output` may replace). */
+export const reviewHeading = '## Stepwright review against';
+
 export function renderReviewMarkdown(input: ReviewInput): string {
   const out: string[] = [];
-  out.push(`## Stepwright review against ${describeBase(input.base, input.baseCommit).replace(/^(\S+)/, '`$1`')}`, '');
+  out.push(`${reviewHeading} ${describeBase(input.base, input.baseCommit).replace(/^(\S+)/, '`$1`')}`, '');
   for (const n of input.notices) out.push(`> [!WARNING]`, `> ${n}`, '');
   out.push(...registerSection(input.registerChanges ?? []));
   if (!input.files.length) {

@@ -19,6 +19,13 @@ describe('schema --out', () => {
     expect(readFileSync(join(dir, 'schema', 'procedure.schema.json'), 'utf8')).toBe(first);
   });
 
+  it('writes into an empty file', async () => {
+    const dir = tempFolder('stepwright-output-');
+    writeFileSync(join(dir, 'schema.json'), '');
+    expect((await runCli(['schema', '--out', 'schema.json'], dir)).code).toBe(0);
+    expect(JSON.parse(readFileSync(join(dir, 'schema.json'), 'utf8')).title).toBe('Stepwright procedure front-matter');
+  });
+
   it('leaves a procedure, a schema of the other kind and a folder as they are, and says why', async () => {
     const dir = tempFolder('stepwright-output-');
     mkdirSync(join(dir, 'procedures'));

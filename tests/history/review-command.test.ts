@@ -66,6 +66,15 @@ describe('stepwright review', () => {
     expect(r.stdout).toContain('%0AMake the change a new revision');
     const summary = readFileSync(join(repo.dir, 'review.md'), 'utf8');
     expect(summary).toMatch(/^## Stepwright review against /);
+    // Written again over its own summary; never over a file of the user's.
+    writeFileSync(join(repo.dir, 'review.md'), `${summary}\nAn older summary.\n`);
+    expect((await runCli(['review', '--base', commits.effective2, '--output', 'review.md'], repo.dir)).code).toBe(1);
+    expect(readFileSync(join(repo.dir, 'review.md'), 'utf8')).toBe(summary);
+    writeFileSync(join(repo.dir, 'review.md'), '# Notes for the review meeting\n');
+    const refused = await runCli(['review', '--base', commits.effective2, '--output', 'review.md'], repo.dir);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toContain("'review.md' already exists and is not a review summary written by 'stepwright review'; it was left as it is.");
+    expect(readFileSync(join(repo.dir, 'review.md'), 'utf8')).toBe('# Notes for the review meeting\n');
     rmSync(join(repo.dir, 'review.md'));
   });
 
