@@ -2,7 +2,7 @@
 import type { PathKey } from '../parse/read-source.ts';
 import type { Procedure } from '../model/procedure.ts';
 import type { StepPlace } from '../model/walk-steps.ts';
-import { isKnownUnit, parseQuantity, sameDimension } from './units.ts';
+import { isKnownUnit, parseQuantity, sameDimension, unitHint } from './units.ts';
 
 export type QuantityProblem =
   | { kind: 'undeclared-name'; message: string; hint: string }
@@ -43,7 +43,7 @@ export function collectQuantities(procedure: Procedure, steps: StepPlace[]): Qua
     if (!parsed.ok) {
       const unitOnly = text.trim().split(/\s+/).slice(1).join(' ');
       problems.push(unitOnly && !isKnownUnit(unitOnly)
-        ? { kind: 'unknown-unit', message: `'${unitOnly}' is not a unit Stepwright knows.`, hint: 'Use a unit from the format reference, e.g. degC, bar, kg, L/min.' }
+        ? { kind: 'unknown-unit', message: `'${unitOnly}' is not a unit Stepwright knows.`, hint: unitHint(unitOnly, declared?.unit && isKnownUnit(declared.unit) ? { unit: declared.unit, name: signal } : undefined) }
         : { kind: 'bad-quantity', message: `'${text}' is not a quantity: ${parsed.message}`, hint: parsed.hint });
     } else {
       quantity = { value: parsed.value, unit: parsed.unit };

@@ -151,19 +151,71 @@ function unitError(message: string, hint: string): UnitError {
   return { ok: false, message, hint };
 }
 
-function suggestUnit(unit: string): string {
-  if (['ton', 'tons', 'T'].includes(unit)) return tonHint;
-  const instead = insteadOf[unit];
-  if (instead) return `Did you mean ${instead}?`;
+/** The spelling to write instead of `unit`, from the table of common spellings (own keys only: never "valueOf"). */
+function insteadFor(unit: string): string | undefined {
+  return Object.hasOwn(insteadOf, unit) ? insteadOf[unit] : undefined;
+}
+
+/** The signal a quantity is written for: a unit suggestion must fit it. */
+export interface UnitFit {
+  /** The signal's unit. */
+  unit: string;
+  /** The signal's name, for the hint. */
+  name?: string;
+}
+
+/**
+ * The documented unit meant by a spelling Stepwright does not read, or null: a known other spelling (C, °C, bar(g)),
+ * a unit written apart (bar g, kPa (g), deg C), a compound of such, a unit in the wrong case, or a near typing slip.
+ */
+export function unitSpellingFor(written: string, options: { near?: boolean } = {}): string | null {
+  const unit = written.trim();
+  if (documented.has(unit)) return null;
+  const instead = insteadFor(unit);
+  if (instead) return instead;
+  // Written apart: "bar g", "kPa (g)", "deg C", "psi_a": one word is meant.
+  const joined = unit.replace(/\s+/g, '');
+  if (joined !== unit) return documented.has(joined) ? joined : unitSpellingFor(joined, { near: false });
+  const marked = /^(.+?)[(_]([gGaA])\)?$/.exec(unit);
+  if (marked && documented.has(`${marked[1]}${marked[2].toLowerCase()}`)) return `${marked[1]}${marked[2].toLowerCase()}`;
   if (unit.includes('/')) {
-    const parts = unit.split('/').map((p) => (documented.has(p) ? p : insteadOf[p] ?? null));
-    if (parts.length === 2 && parts.every(Boolean)) return `Did you mean ${parts.join('/')}?`;
+    const parts = unit.split('/').map((p) => (documented.has(p) ? p : insteadFor(p) ?? null));
+    if (parts.length === 2 && parts.every(Boolean)) return parts.join('/');
   }
+  if (options.near === false) return null;
   const exact = commonUnits.find((u) => u.toLowerCase() === unit.toLowerCase());
-  if (exact) return `Did you mean ${exact}? Units are case-sensitive.`;
+  if (exact) return exact;
   const near = closest(unit, commonUnits);
-  if (distance(unit, near) <= Math.max(1, Math.floor(unit.length / 3))) return `Did you mean ${near}?`;
+  if (distance(unit, near) <= Math.max(1, Math.floor(unit.length / 3))) return near;
+  return null;
+}
+
+/**
+ * The one hint for a unit Stepwright does not read, wherever a quantity is written (a condition, a limit, a setpoint,
+ * the register). With `fit`, a suggestion is only made in the signal's dimension; a spelling that means a unit of
+ * another dimension is said not to fit the signal.
+ */
+export function unitHint(written: string, fit?: UnitFit): string {
+  const unit = written.trim();
+  const fitDimension = fit ? unitDimension(fit.unit) : null;
+  const signal = fit?.name ?? 'the signal';
+  if (['ton', 'tons', 'T'].includes(unit) && (!fitDimension || fitDimension === 'mass')) return tonHint;
+  const meant = unitSpellingFor(unit);
+  const meantDimension = meant ? unitDimension(meant) : null;
+  if (meant && (!fitDimension || meantDimension === fitDimension)) {
+    if (/[\s()_]/.test(unit)) return `Write ${meant}: a unit is one word, without spaces or brackets (barg, kPag, psig, degC).`;
+    if (!insteadFor(unit) && meant.toLowerCase() === unit.toLowerCase()) return `Did you mean ${meant}? Units are case-sensitive.`;
+    return `Did you mean ${meant}?`;
+  }
+  if (fit && fitDimension) {
+    const instead = meant && meantDimension ? ` ('${unit}' would be ${meant}, a unit of ${meantDimension}, which does not fit ${signal})` : '';
+    return `${capitalizeFirst(signal)} is a ${fitDimension} in ${fit.unit}: write the value in ${fit.unit} or another ${fitDimension} unit${instead}.`;
+  }
   return 'Write a unit such as degC, kPa, mmHg, kg, m3/h, min or %.';
+}
+
+function capitalizeFirst(s: string): string {
+  return s ? s[0].toUpperCase() + s.slice(1) : s;
 }
 
 function dimensionKey(dimensions: readonly number[]): string {
@@ -190,11 +242,11 @@ function describe(unit: string): UnitFacts | UnitError {
 export function readUnit(unit: string): UnitFacts | UnitError {
   const trimmed = unit.trim();
   if (trimmed === '') return unitError('The unit is missing.', 'Write a unit such as degC, kPa, kg or min.');
-  if (/\s/.test(trimmed)) return unitError(`The unit '${trimmed}' contains a space.`, 'Write the unit without spaces, e.g. m3/h.');
+  if (/\s/.test(trimmed)) return unitError(`The unit '${trimmed}' contains a space.`, unitSpellingFor(trimmed) ? unitHint(trimmed) : 'Write the unit without spaces, e.g. m3/h.');
   if (/^[\d.+-]/.test(trimmed)) return unitError(`'${trimmed}' is not a unit.`, 'Write a unit such as degC, kPa, kg or min.');
   const parts = normalizeUnit(trimmed).split('/');
   if (parts.length > 2 || !parts.every((p) => documented.has(p))) {
-    return unitError(`'${trimmed}' is not a unit Stepwright knows.`, suggestUnit(trimmed));
+    return unitError(`'${trimmed}' is not a unit Stepwright knows.`, unitHint(trimmed));
   }
   return fromTable(parts) ?? readWithLibrary(trimmed);
 }
@@ -222,14 +274,14 @@ export function readWithLibrary(trimmed: string): UnitFacts | UnitError {
   try {
     parsed = math.unit(normalizeUnit(trimmed));
   } catch {
-    return unitError(`'${trimmed}' is not a known unit.`, suggestUnit(trimmed));
+    return unitError(`'${trimmed}' is not a known unit.`, unitHint(trimmed));
   }
   if (parsed.value !== null) return unitError(`'${trimmed}' is not a unit.`, 'Write a unit such as degC, kPa, kg or min.');
   let scale = 1;
   for (const part of parsed.units as unknown as MathjsUnitPart[]) {
     // mathjs accepts "kdegC"; a prefixed temperature scale is nonsense in a procedure.
     if (part.unit.offset !== 0 && part.prefix.value !== 1) {
-      return unitError(`'${trimmed}' is not a known unit.`, suggestUnit(trimmed));
+      return unitError(`'${trimmed}' is not a known unit.`, unitHint(trimmed));
     }
     scale *= (part.unit.value * part.prefix.value) ** part.power;
   }
@@ -283,10 +335,11 @@ export function pressureConversionNote(a: string | undefined, b: string | undefi
   return ` (${a} and ${b} were compared by converting gauge to absolute pressure with the standard atmosphere, 101.325 kPa)`;
 }
 
-/** Why a unit is not usable, or null when it is. */
-export function checkUnit(unit: string): UnitError | null {
+/** Why a unit is not usable, or null when it is; with `fit`, the hint suggests only units that fit the signal. */
+export function checkUnit(unit: string, fit?: UnitFit): UnitError | null {
   const facts = describe(unit);
-  return 'ok' in facts ? facts : null;
+  if (!('ok' in facts)) return null;
+  return fit && unit.trim() !== '' && !/^[\d.+-]/.test(unit.trim()) ? { ...facts, hint: unitHint(unit, fit) } : facts;
 }
 
 /** A stable key per physical dimension ("temperature", "pressure", "ratio", ...), or null for an unknown unit. */
@@ -377,7 +430,7 @@ export function formatConverted(value: number, unit: string, against: ReadonlyAr
 const numberPattern = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?/;
 
 /** Reads "238 degC", "-5 degC", "15 %", "2.5 m3/h". */
-export function parseQuantity(text: string): ParsedQuantity {
+export function parseQuantity(text: string, fit?: UnitFit): ParsedQuantity {
   const trimmed = text.trim();
   if (trimmed === '') return unitError('The quantity is empty.', 'Write a number with its unit, e.g. 238 degC.');
   const match = numberPattern.exec(trimmed);
@@ -385,7 +438,7 @@ export function parseQuantity(text: string): ParsedQuantity {
   const rest = trimmed.slice(match[0].length).trim();
   if (/^,\d/.test(rest)) return unitError(`'${trimmed}' uses a comma in the number.`, 'Write decimals with a point, e.g. 2.5 m3/h.');
   if (rest === '') return unitError(`'${trimmed}' has no unit.`, 'Write its unit after the number, as in 238 degC or 600 kg.');
-  const problem = checkUnit(rest);
+  const problem = checkUnit(rest, fit);
   if (problem) return problem;
   return { ok: true, value: Number(match[0]), unit: rest };
 }

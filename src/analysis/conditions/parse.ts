@@ -1,6 +1,7 @@
 // Recursive-descent parser for transition and trip conditions: not binds tighter than and, and than or.
 import type { CompareOp, Condition, ConditionParseResult, ConditionSyntaxError, Literal, NameRef, Span } from './ast.ts';
 import { tokenize, type Keyword, type Token } from './tokenize.ts';
+import { unitHint, unitSpellingFor } from '../units.ts';
 
 const exampleHint = 'Write a condition such as TI-210 >= 238 degC or lab-result == pass.';
 const valueHint = 'Write a number with its unit, e.g. TI-210 >= 238 degC, or a word, e.g. lab-result == pass.';
@@ -170,6 +171,15 @@ function parseTokens(tokens: Token[]): Condition {
     if (token.type === 'number' && before.type === 'name') {
       const unit = peek(1).type === 'unit' ? ` ${peek(1).text}` : '';
       fail(`Expected a comparison operator between '${before.text}' and '${token.text}'.`, `Write e.g. ${before.text} >= ${token.text}${unit}.`, token.span);
+    }
+    if (before.type === 'unit') {
+      // "6 bar g", "6 kPa(g)", "6 deg C": a unit written apart, which the tokens split after its first part.
+      const group = token.type === '(' && peek(1).type === 'name' && peek(2).type === ')' ? [token, peek(1), peek(2)] : token.type === 'name' ? [token] : [];
+      const written = group.length ? `${before.text}${token.type === '(' ? '' : ' '}${group.map((t) => t.text).join('')}` : '';
+      const meant = written ? unitSpellingFor(written, { near: false }) : null;
+      if (meant) {
+        fail(`The unit '${written}' is written apart.`, unitHint(written), { from: before.span.from, to: group[group.length - 1].span.to });
+      }
     }
     if (token.type === 'op') {
       fail('Comparisons cannot be chained.', "Compare one name at a time and join with 'and', e.g. TI-210 >= 200 degC and TI-210 <= 240 degC.", token.span);

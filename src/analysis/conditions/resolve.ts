@@ -52,7 +52,7 @@ function problem(kind: ResolveProblemKind, span: Span, message: string, hint: st
 /** The unit problem of a quantity literal compared with a signal in `unit` (a `dimension` quantity). */
 function checkQuantity(literal: Extract<Literal, { kind: 'quantity' }>, name: string, unit: string, dimension: string | null, inUnit = true): ResolveProblem | null {
   const unitSpan = literal.unitSpan ?? literal.span;
-  const unknown = checkUnit(literal.unit);
+  const unknown = checkUnit(literal.unit, dimension === null ? undefined : { unit, name });
   if (unknown) return problem('unknown-unit', unitSpan, unknown.message, unknown.hint);
   if (dimension === null) return null; // The signal's own unit is reported where it is declared.
   const found = unitDimension(literal.unit);

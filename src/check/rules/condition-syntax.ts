@@ -10,7 +10,8 @@ export default defineFileRule(
     docs: `Conditions (\`until\`, \`when\`, \`trips-when\`) compare declared signals with values:
 \`TI-210 >= 238 degC\`, \`lab-result == pass\`, combined with \`and\`, \`or\`, \`not\` and parentheses. The
 built-ins \`done\` and \`elapsed\` (\`elapsed >= 90 min\`) are always available. A sentence for the operator
-belongs in \`confirm\`, not in \`until\`.`,
+belongs in \`confirm\`, not in \`until\`. A unit written apart (\`6 bar g\`, \`6 kPa(g)\`, \`6 deg C\`) is reported as such,
+with the one-word spelling to write (\`barg\`, \`kPag\`, \`degC\`).`,
     examples: { bad: 'until: kettle is hot', good: 'until: TI-210 >= 180 degC' },
   },
   (ctx) => {

@@ -1,6 +1,6 @@
 // Reports a unit Stepwright does not know, in a condition, setpoint, limit or signal declaration.
 import { defineFileRule } from '../define-rule.ts';
-import { isKnownUnit } from '../../analysis/units.ts';
+import { isKnownUnit, unitHint } from '../../analysis/units.ts';
 import { reportProblemsOfKind } from '../report-condition-problems.ts';
 
 export default defineFileRule(
@@ -15,7 +15,10 @@ inHg and the gauge (kPag barg psig ...) and absolute (kPaa bara psia ...) forms;
 s min h d; percent or %, ppm; mm m kW rpm A V gpm; and two of them joined by one '/' (kg/h, m3/h, mg/g). Anything
 else is refused with the spelling to use instead: \`C\` is not degC (a unit library reads it as the coulomb), \`mt\`
 is not the metric tonne (it reads as a millitonne), \`gal\` does not say which gallon, and \`ton\` has three
-meanings. Unit names are case-sensitive (\`degC\`, not \`DEGC\`).`,
+meanings. Unit names are case-sensitive (\`degC\`, not \`DEGC\`). The spelling suggested is the same wherever the
+quantity is written (a condition, a limit, a setpoint, the register), and fits the signal: on a pressure in barg,
+\`5 C\` is not answered with degC (a temperature) but with the signal's own kind of unit. A unit written apart
+(\`bar g\`, \`kPa(g)\`, \`deg C\`) is told to be written as one word (\`barg\`, \`kPag\`, \`degC\`).`,
     examples: { bad: 'unit: celsius', good: 'unit: degC' },
   },
   (ctx) => {
@@ -26,7 +29,7 @@ meanings. Unit names are case-sensitive (\`degC\`, not \`DEGC\`).`,
         ctx.report({
           path: [...signal.path, 'unit'],
           message: `Signal '${signal.name}' has unit '${signal.unit}', which Stepwright does not know.`,
-          hint: 'Use a unit from the format reference, e.g. degC, bar, kg, m3/h, percent.',
+          hint: unitHint(signal.unit),
         });
       }
     }
