@@ -137,7 +137,7 @@ Options:
 Exit codes: 0 written, 1 a key file already exists or could not be written, 2 usage failure.
 `;
 
-export const newHelp = `Usage: stepwright new KIND ID [--title TEXT] [--dir FOLDER]
+export const newHelp = `Usage: stepwright new KIND ID [--title TEXT] [--dir FOLDER] [--procedures DIR]
 
 Writes FOLDER/<id>.md, a new draft procedure with every section its kind needs. Each thing you must
 supply is marked TODO; 'stepwright check' lists the ones left (rule placeholder-text).
@@ -148,11 +148,13 @@ ID   is the document number, upper-case letters, digits and hyphens, e.g. U2-K21
 
 Options:
   --title <text>    the title (otherwise a TODO placeholder)
-  --dir <folder>    where to write it (default: the procedures folder: $STEPWRIGHT_PROCEDURES,
-                    else 'procedures' in the config file, else procedures/)
+  --dir <folder>    where to write it, inside the procedures folder (default: the procedures folder)
+  --procedures <dir>  the procedures folder (default: $STEPWRIGHT_PROCEDURES, else 'procedures' in the
+                    config file, else procedures/)
   -h, --help        show this help
 
-Exit codes: 0 written, 1 not written (file exists or id in use), 2 usage error.
+Exit codes: 0 written, 1 not written (file exists, id in use, or --dir outside the procedures folder),
+2 usage error.
 `;
 
 export const reviewHelp = `Usage: stepwright review --base <ref> [options] [paths…]

@@ -4,6 +4,7 @@ import { parseArgs } from 'node:util';
 import type { CliIo } from './io.ts';
 import { privateKeyFile, publicKeyFile, writeKeyPair } from './site-manifest.ts';
 import { keygenHelp } from './command-help.ts';
+import { shellWord } from '../model/shell-word.ts';
 
 export { keygenHelp };
 
@@ -27,6 +28,6 @@ export async function runKeygen(argv: string[], io: CliIo): Promise<number> {
     return 1;
   }
   io.stdout.write(`Wrote ${show(privatePath)} (private: keep it secret, never commit it) and ${show(publicPath)} (public).\n`
-    + `Sign builds with: stepwright build --sign-key ${show(privatePath)}\nVerify with:      stepwright verify --public-key ${show(publicPath)} <site>\n`);
+    + `Sign builds with: stepwright build --sign-key ${shellWord(show(privatePath))}\nVerify with:      stepwright verify --public-key ${shellWord(show(publicPath))} <site>\n`);
   return 0;
 }

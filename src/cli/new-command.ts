@@ -1,6 +1,6 @@
 // `stepwright new KIND ID`: writes a new procedure with the sections its kind needs; never overwrites a file.
 import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
-import { dirname, join, relative, resolve } from 'node:path';
+import { dirname, isAbsolute, join, relative, resolve, sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { checkSources } from '../check/run-checks.ts';
 import { kinds, procedureIdPattern } from '../model/schema.ts';
@@ -11,6 +11,7 @@ import { schemaReference } from './package-files.ts';
 import { projectRoot, proceduresFolder } from './project.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { newHelp } from './command-help.ts';
+import { shellWord } from '../model/shell-word.ts';
 
 export { newHelp };
 
@@ -18,7 +19,7 @@ export async function runNew(argv: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { title: { type: 'string' }, dir: { type: 'string' }, help: { type: 'boolean', short: 'h' } },
+    options: { title: { type: 'string' }, dir: { type: 'string' }, procedures: { type: 'string' }, help: { type: 'boolean', short: 'h' } },
     strict: true,
   });
   if (values.help) {
@@ -32,11 +33,22 @@ export async function runNew(argv: string[], io: CliIo): Promise<number> {
   if (!procedureIdPattern.test(id)) throw new UsageError(`'${id}' is not a procedure id: use upper-case letters, digits and hyphens, e.g. U2-K210-SD-002.`);
   if (values.title !== undefined && values.title.trim() === '') throw new UsageError('The title must not be empty.');
 
-  const procedures = proceduresFolder(io);
+  const procedures = proceduresFolder(io, { procedures: values.procedures });
   const dir = values.dir ?? procedures;
   const folder = resolve(io.cwd, dir);
   const target = join(folder, `${id.toLowerCase()}.md`);
   const shown = relative(io.cwd, target) || target;
+  // A procedure outside the procedures folder is never checked with the manual, built into it or reviewed: refuse,
+  // rather than write a file that silently never reaches the operators.
+  const proceduresPath = resolve(io.cwd, procedures);
+  if (!isInside(folder, proceduresPath)) {
+    const named = relative(io.cwd, proceduresPath) || '.';
+    const given = relative(io.cwd, folder);
+    io.stderr.write(`stepwright new: ${given.startsWith('..') || isAbsolute(given) ? folder : given || '.'} is outside the procedures folder ${named}/, so a procedure written there would not be checked with the manual, built into it or reviewed; nothing was written.
+Give a folder inside it, e.g. --dir ${shellWord(join(named, 'new-area').split(sep).join('/'))}, or, if the manual's procedures are elsewhere, name that folder with --procedures (or 'procedures:' in stepwright.config.yaml).
+`);
+    return 1;
+  }
   if (existsSync(target)) {
     io.stderr.write(`stepwright new: ${shown} already exists; nothing was written.\nOpen it to edit, or choose another id.\n`);
     return 1;
@@ -65,7 +77,9 @@ export async function runNew(argv: string[], io: CliIo): Promise<number> {
   const others = checked.diagnostics.length - todos;
   io.stdout.write(`Created ${shown} (${kind}, draft, revision 0).
 ${todos} placeholders marked TODO are waiting to be filled in${others ? `; ${others} other findings` : ''}.
-Next: fill them in, then run 'npx stepwright check ${shown}', and 'npx stepwright dev' to preview it.
+Next: fill them in, then check it and preview it:
+  npx stepwright check ${shellWord(shown.split(sep).join('/'))}
+  npx stepwright dev
 `);
   return 0;
 }
@@ -79,4 +93,10 @@ function idInUse(id: string, paths: string[], cwd: string): string | undefined {
     if (match?.[1] === id) return input.file;
   }
   return undefined;
+}
+
+/** True when `path` is `folder` or lies inside it (both absolute). */
+function isInside(path: string, folder: string): boolean {
+  const rel = relative(folder, path);
+  return rel === '' || (!rel.startsWith('..') && !isAbsolute(rel));
 }

@@ -8,6 +8,7 @@ import { UsageError, type CliIo } from './io.ts';
 import { siteBase } from '../engine/project.ts';
 import { parseBase } from '../model/site-base.ts';
 import { serveHelp } from './command-help.ts';
+import { shellWord } from '../model/shell-word.ts';
 
 export { serveHelp };
 
@@ -93,7 +94,9 @@ export async function runServe(argv: string[], io: CliIo): Promise<number> {
   const dir = resolve(io.cwd, values.dir);
   const base = values.base !== undefined ? siteBase(io, values) : ((await builtFor(dir)) ?? siteBase(io, values));
   if (!(await stat(join(dir, 'index.html')).catch(() => null))) {
-    io.stderr.write(`stepwright serve: no built manual in ${values.dir}/; run 'stepwright build' first.\n`);
+    // The build writes into dist/ unless told otherwise: name the folder this serve looks in.
+    const build = values.dir.replace(/[\\/]+$/, '') === 'dist' ? 'stepwright build' : `stepwright build --out ${shellWord(values.dir)}`;
+    io.stderr.write(`stepwright serve: no built manual in ${values.dir}/; run '${build}' first.\n`);
     return 1;
   }
   let url: string;

@@ -1,5 +1,6 @@
 // Finds the previous committed version of each procedure file, for the history rules of `check` and `review`.
 import { GitError, showFiles, type Git } from './git.ts';
+import { shellWord } from '../model/shell-word.ts';
 
 export interface PreviousVersion {
   text: string;
@@ -50,7 +51,7 @@ export async function resolveCommit(git: Git, ref: string): Promise<string> {
   } catch (error) {
     if ((error as GitError).missingGit) throw error;
     throw new GitError(
-      `The base '${ref}' is not in this clone. Fetch it first (e.g. 'git fetch origin ${ref.replace(/^origin\//, '')}'), ` +
+      `The base '${ref}' is not in this clone. Fetch it first (e.g. 'git fetch origin ${shellWord(ref.replace(/^origin\//, ''))}'), ` +
         "or clone with full history (GitHub Actions: actions/checkout with 'fetch-depth: 0').",
       ['rev-parse', ref], '',
     );

@@ -1,5 +1,5 @@
 // `stepwright new`: scaffolds that check clean apart from their TODO placeholders, and never overwrite.
-import { readFileSync, writeFileSync, mkdirSync, existsSync } from 'node:fs';
+import { readFileSync, writeFileSync, mkdirSync, existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { main } from '../../src/cli/main.ts';
@@ -79,6 +79,37 @@ describe('stepwright new', () => {
     expect(await main(['new', 'normal', 'U2-X-002', '--dir', 'procedures/elsewhere'], io)).toBe(1);
     expect(existsSync(join(dir, 'procedures', 'elsewhere', 'u2-x-002.md'))).toBe(false);
     expect(err()).toContain('procedures/area/other-name.md');
+  });
+
+  it('quotes a path with a space or a shell character in the command it suggests', async () => {
+    const dir = tempFolder('sw-new-');
+    for (const [folder, shown] of [
+      ['procedures/new folder', '"procedures/new folder/u2-new-001.md"'],
+      ["procedures/it's $unit", `'procedures/it'\\''s $unit/u2-new-001.md'`],
+    ]) {
+      const { io, out } = fakeIo(dir);
+      expect(await main(['new', 'normal', 'U2-NEW-001', '--dir', folder], io)).toBe(0);
+      expect(out()).toContain(`\n  npx stepwright check ${shown}\n`);
+      rmSync(join(dir, 'procedures'), { recursive: true });
+    }
+  });
+
+  it('refuses a folder outside the procedures folder and names the procedures folder', async () => {
+    const dir = tempFolder('sw-new-');
+    const elsewhere = tempFolder('sw-new-elsewhere-');
+    mkdirSync(join(dir, 'procedures'));
+    const { io, err, out } = fakeIo(dir);
+    expect(await main(['new', 'normal', 'U2-NEW-002', '--dir', elsewhere], io)).toBe(1);
+    expect(await main(['new', 'normal', 'U2-NEW-002', '--dir', 'procedure/k-210'], io)).toBe(1);
+    expect(existsSync(join(elsewhere, 'u2-new-002.md'))).toBe(false);
+    expect(existsSync(join(dir, 'procedure'))).toBe(false);
+    expect(out()).toBe('');
+    expect(err()).toContain(`${elsewhere} is outside the procedures folder procedures/`);
+    expect(err()).toContain('procedure/k-210 is outside the procedures folder procedures/');
+    expect(err()).toContain('--dir procedures/new-area');
+    // Another procedures folder, named as for every command, makes it the place.
+    expect(await main(['new', 'normal', 'U2-NEW-002', '--dir', join(elsewhere, 'area'), '--procedures', elsewhere], io)).toBe(0);
+    expect(existsSync(join(elsewhere, 'area', 'u2-new-002.md'))).toBe(true);
   });
 
   it.each([

@@ -2,6 +2,7 @@
 import { closest, distance } from 'fastest-levenshtein';
 import { callSitesOf } from '../../analysis/inline-calls.ts';
 import { defineManualRule } from '../define-rule.ts';
+import { shellWord } from '../../model/shell-word.ts';
 
 export default defineManualRule(
   {
@@ -30,7 +31,7 @@ checked (info) rather than as unknown.`,
           ctx.report(file, {
             path: site.path, severity: 'info',
             message: `Step '${site.step.id}' calls procedure '${site.callee}', which is not among the files checked, so the call was not checked (${leftOut(ctx.partial)}).`,
-            hint: `Check the whole procedures folder (stepwright check ${ctx.partial.folder}) to check the call.`,
+            hint: `Check the whole procedures folder (stepwright check ${shellWord(ctx.partial.folder)}) to check the call.`,
           });
           continue;
         }

@@ -1,5 +1,6 @@
 // Reports register entries that no procedure uses.
 import { defineManualRule } from '../define-rule.ts';
+import { shellWord } from '../../model/shell-word.ts';
 
 export default defineManualRule(
   {
@@ -26,7 +27,7 @@ checked (some files of the procedures folder), entries are not judged: one note 
       ctx.reportInRegister(first.file, {
         path: [],
         message: `Register entries that no procedure uses were not looked for: ${files} in ${ctx.partial.folder.replace(/\/+$/, "")}/ were not checked, and they may use them.`,
-        hint: `Check the whole procedures folder (stepwright check ${ctx.partial.folder}) to find unused register entries.`,
+        hint: `Check the whole procedures folder (stepwright check ${shellWord(ctx.partial.folder)}) to find unused register entries.`,
       });
       return;
     }

@@ -2,6 +2,7 @@
 import { closest, distance } from 'fastest-levenshtein';
 import { defineManualRule } from '../define-rule.ts';
 import { filesById, requiresOf } from '../requires-sites.ts';
+import { shellWord } from '../../model/shell-word.ts';
 
 export default defineManualRule(
   {
@@ -34,7 +35,7 @@ checked (info) rather than as unknown.`,
           ctx.report(file, {
             path: [...site.path], severity: 'info',
             message: `${file.procedure.id || 'This procedure'} requires '${site.id}', which is not among the files checked, so the requirement was not checked (${left} in ${ctx.partial.folder.replace(/\/+$/, '')}/ were not checked).`,
-            hint: `Check the whole procedures folder (stepwright check ${ctx.partial.folder}) to check it.`,
+            hint: `Check the whole procedures folder (stepwright check ${shellWord(ctx.partial.folder)}) to check it.`,
           });
           continue;
         }
