@@ -120,7 +120,7 @@ function checkSignal(signal: RegisterSignal, register: PlantRegister, users: Map
   ];
   for (const [what, q] of quantities) {
     if (!q) continue;
-    const parsed = parseQuantity(q.value);
+    const parsed = parseQuantity(q.value, usable ? { unit: signal.unit!, name: signal.id } : undefined);
     if (!parsed.ok) {
       report(signal.file, q.path, `The ${what} of ${signal.id} ('${q.value}') does not read: ${parsed.message.replace(/\.$/, '')}${who}.`, parsed.hint);
       continue;
