@@ -81,7 +81,7 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
         return { name, full, link: true };
       }
     });
-    for (const { name, full } of [...kinds.filter((k) => !k.link), ...kinds.filter((k) => k.link)]) {
+    for (const { name, full, link } of [...kinds.filter((k) => !k.link), ...kinds.filter((k) => k.link)]) {
       let target: Stats;
       try {
         target = statSync(full);
@@ -89,6 +89,12 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
         // A dangling link or a link loop (ELOOP): only worth a report when it looks like a procedure.
         if (isMarkdownName(name)) add(full, describeError(error));
         else if ((error as NodeJS.ErrnoException).code === 'ELOOP') add(full, describeError(error));
+        continue;
+      }
+      if (!target.isDirectory() && link && isMarkdownName(name)) {
+        // A file reached through a link is taken after every folder has been read, so that a file is read under its
+        // own name wherever the link sits, and the link is the one reported.
+        linkedFiles.push({ full, target, discovered });
         continue;
       }
       if (target.isDirectory()) {
@@ -107,6 +113,7 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
       }
     }
   };
+  const linkedFiles: Array<{ full: string; target: Stats; discovered: boolean }> = [];
   const addFile = (absolute: string, stats: Stats) => {
     const problem = notRegular(stats);
     if (problem) return add(absolute, problem);
@@ -147,6 +154,11 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
       discovered = false;
     } else addFile(absolute, stats);
   }
+  for (const { full, target, discovered: found } of linkedFiles) {
+    discovered = found;
+    addFile(full, target);
+  }
+  discovered = false;
   return out;
 }
 

@@ -44,6 +44,23 @@ describe('reading a procedures folder that fights back', () => {
     expect(errorOf('huge.md')).toMatch(new RegExp(`limit .* ${maxProcedureBytes} bytes`));
   });
 
+  it('reads a file under its own name when a link to it sits in a folder read earlier, and reports the link', () => {
+    const plant = mkdtempSync(join(tmpdir(), 'sw-hostile-'));
+    try {
+      mkdirSync(join(plant, 'a-first'));
+      mkdirSync(join(plant, 'z-last'));
+      writeFileSync(join(plant, 'z-last', 'real.md'), base);
+      symlinkSync(join('..', 'z-last', 'real.md'), join(plant, 'a-first', 'alias.md'));
+      const found = readProcedureFiles([plant], plant);
+      const real = found.find((f) => f.file === 'z-last/real.md')!;
+      const alias = found.find((f) => f.file === 'a-first/alias.md')!;
+      expect('text' in real).toBe(true);
+      expect('error' in alias && alias.error).toMatch(/second name \(a link\) for z-last\/real\.md/);
+    } finally {
+      rmSync(plant, { recursive: true, force: true });
+    }
+  });
+
   it('a FIFO given by name is refused without being opened', () => {
     const [only] = findProcedureFiles([join(dir, 'pipe.md')], dir);
     expect(only.missing).toMatch(/named pipe/);

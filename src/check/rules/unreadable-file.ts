@@ -13,6 +13,6 @@ cannot be read is reported and the other files are still checked.`,
   },
   (ctx) => {
     if (ctx.readError === undefined) return;
-    ctx.report({ range: { line: 1, column: 1, endLine: 1, endColumn: 1 }, message: `The file could not be read: ${ctx.readError}`, hint: 'Check that the file exists, is readable and is UTF-8 text.' });
+    ctx.report({ range: { line: 1, column: 1, endLine: 1, endColumn: 1 }, message: `The file could not be read: ${ctx.readError}`, hint: /^it is (a second name|a link)/.test(ctx.readError ?? '') ? 'Remove the link: each procedure is read once, under its own name.' : 'Check that the file exists, is readable and is UTF-8 text.' });
   },
 );
