@@ -150,8 +150,15 @@ export type SequenceItemInput = StepInput | ParallelInput | ChooseInput;
 
 export const sequenceSchema: z.ZodType<SequenceItemInput[]> = z.lazy(() => z.array(sequenceItemSchema));
 
+/** Messages of an empty parallel block and an empty branch (src/model/validate.ts gives them their hints). */
+export const emptyParallelMessage = 'holds no branches: a parallel block runs two or more branches at once';
+export const emptyBranchMessage = 'is an empty parallel branch: a branch needs at least one step';
+
 export const parallelSchema: z.ZodType<ParallelInput> = z.strictObject({
-  parallel: z.record(z.string().regex(stepIdPattern, 'branch names must be lower-case letters, digits and hyphens'), sequenceSchema)
+  parallel: z.record(
+    z.string().regex(stepIdPattern, 'branch names must be lower-case letters, digits and hyphens'),
+    z.lazy(() => z.array(sequenceItemSchema).min(1, emptyBranchMessage)),
+  ).refine((branches) => Object.keys(branches).length > 0, emptyParallelMessage)
     .describe('Branches that run at once; the block ends when every branch has ended.'),
 });
 

@@ -1,7 +1,7 @@
 // Validates front-matter data against the procedure schema and flattens the result into plain issues.
 import type { z } from 'zod';
 import type { PathKey } from '../parse/read-source.ts';
-import { procedureSchema } from './schema.ts';
+import { emptyBranchMessage, emptyParallelMessage, procedureSchema } from './schema.ts';
 
 export type SchemaIssueCode = 'unknown-key' | 'missing-key' | 'bad-format' | 'bad-type' | 'bad-value';
 
@@ -12,6 +12,10 @@ export interface SchemaIssue {
   message: string;
   /** For unknown-key and missing-key: the keys the mapping may hold. */
   knownKeys?: string[];
+  /** For missing-key: the values the missing key takes, when it takes one of a set. */
+  values?: string[];
+  /** What to do, when the problem has a hint of its own. */
+  hint?: string;
 }
 
 type RawIssue = z.core.$ZodIssue;
@@ -59,9 +63,25 @@ function flatten(issue: RawIssue, base: PathKey[], root: unknown, out: SchemaIss
       out.push({ code: 'bad-format', path, message: `${name} ${issue.message}.` });
       return;
     case 'invalid_value':
+      if (input === undefined) {
+        // A key that takes one of a set of values and is absent: say that it is missing, and which values it takes.
+        out.push({ code: 'missing-key', path, message: `The required key ${name} is missing.`, values: issue.values.map((v) => String(v)) });
+        return;
+      }
       out.push({ code: 'bad-value', path, message: `${name} must be one of ${issue.values.map((v) => `'${String(v)}'`).join(', ')}, not ${describe(input)}.` });
       return;
     default:
+      if (issue.message === emptyParallelMessage || issue.message === emptyBranchMessage) {
+        const parallel = issue.message === emptyParallelMessage;
+        out.push({
+          code: 'bad-value', path,
+          message: `${parallel ? 'This parallel block' : `Branch ${name}`} ${issue.message}.`,
+          hint: parallel
+            ? "Give 'parallel' a branch for each line of work that runs at the same time, each a list of steps (branch: [- step: ...]); steps that run one after another need no parallel block."
+            : 'Add the steps of this branch, or remove the branch from the parallel block.',
+        });
+        return;
+      }
       out.push({ code: 'bad-value', path, message: `${name} ${issue.message.replace(/^Invalid input: /, '')}.` });
   }
 }

@@ -14,7 +14,7 @@ YYYY-MM-DD, \`kind\`, \`status\` and hazard \`level\` one of their listed words,
   (ctx) => {
     for (const issue of ctx.schemaIssues) {
       if (issue.code === 'bad-type' || issue.code === 'bad-value' || (issue.code === 'bad-format' && !isIdPath(issue.path))) {
-        ctx.report({ path: issue.path, message: issue.message, hint: 'See the format reference for the values this key takes.' });
+        ctx.report({ path: issue.path, message: issue.message, hint: issue.hint ?? 'See the format reference for the values this key takes.' });
       }
     }
   },

@@ -19,7 +19,7 @@ an interlock needs \`tag\`, \`trips-when\` and \`action\`; a hazard needs \`leve
       ctx.report({
         path: issue.path.slice(0, -1),
         message: issue.path.length === 1 ? `The procedure has no '${key}'.` : `This entry has no '${key}', which it requires.`,
-        hint: `Add '${key}: ...' here.`,
+        hint: issue.values ? `Add '${key}' here, one of ${issue.values.map((v) => `'${v}'`).join(', ')}.` : `Add '${key}: ...' here.`,
       });
     }
   },
