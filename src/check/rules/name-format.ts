@@ -4,6 +4,7 @@ import { defineFileRule, type Report } from '../define-rule.ts';
 import { describeCharacter, firstNonAscii } from '../../parse/suspicious-characters.ts';
 import { walkSteps } from '../../model/walk-steps.ts';
 import type { PathKey } from '../../parse/read-source.ts';
+import { mergeKey } from '../../parse/merge-keys.ts';
 
 /** The condition language reads names with this pattern; a signal named otherwise can never be tested. */
 export const signalNamePattern = /^[A-Za-z][A-Za-z0-9_-]*$/;
@@ -49,6 +50,7 @@ and a file name), and a tag may not end like a file of the site (\`index.html\`)
       ctx.report(r);
     };
     const checkSignal = (name: string, path: PathKey[], what: string) => {
+      if (name === mergeKey) return; // A YAML merge key, not a name: unknown-key says so.
       const problem = patternProblem(name, signalNamePattern, `${what} '${showName(name)}'`, "names are ASCII letters, digits, '-' and '_', starting with a letter");
       if (problem) report({ path, part: 'key', ...problem });
       else if (name.length > maxNameLength) report({ path, part: 'key', ...tooLong(`${what} '${name.slice(0, 20)}…'`, name.length) });
