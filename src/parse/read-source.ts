@@ -1,13 +1,12 @@
 // Reads a procedure file: the front-matter's data with a table of where each value is written, and an mdast tree of the body.
 import { deserialize, serialize } from 'node:v8';
 import { LineCounter, parseDocument, isMap, isSeq, type Document } from 'yaml';
-import { unified } from 'unified';
-import remarkParse from 'remark-parse';
 import type { Root } from 'mdast';
 import type { Diagnostic, SourceRange } from './diagnostic.ts';
 import { splitFrontMatter } from './split-front-matter.ts';
 import { prescanBodyNesting, prescanBodySize, prescanYamlNesting } from './nesting-prescan.ts';
 import { groupDigits } from './group-digits.ts';
+import { parseNarrative } from './narrative-markdown.ts';
 import { quickYamlData } from './fast-yaml.ts';
 import { quickPositionTable } from './quick-positions.ts';
 import { locateIn, positionTable, trimTrailingSpace, type PathKey, type PositionTable } from './yaml-positions.ts';
@@ -297,11 +296,8 @@ function assemble(file: string, text: string, { split, at, bodyStartLine }: Retu
   };
 }
 
-/** One frozen processor for every body: building it costs as much as parsing a short body. */
-const markdownParser = unified().use(remarkParse).freeze();
-
 function parseBody(markdown: string, startLine: number): Root {
-  const tree = markdownParser.parse(markdown) as Root;
+  const tree = parseNarrative(markdown);
   // Shift body positions so they point into the whole file.
   const shift = startLine - 1;
   if (shift > 0) {

@@ -46,6 +46,17 @@ function sectionsOf(body: Root): Section[] {
   return out.filter((s) => s.nodes.length > 0);
 }
 
+/** Link definitions and footnotes, wherever they are written (in a list or a quote too), in the order written. */
+function definitionsIn(body: Root): RootContent[] {
+  const out: RootContent[] = [];
+  const visit = (node: Root | RootContent) => {
+    if (node.type === 'definition' || node.type === 'footnoteDefinition') out.push(node);
+    else if ('children' in node) for (const child of node.children) visit(child);
+  };
+  visit(body);
+  return out;
+}
+
 const conditionsHeading = /\b(conditions?|triggers?|when to (start|use)|initiat)/i;
 const responsibilityHeading = /\b(responsib|who )/i;
 const scopeHeading = /\bscope\b/i;
@@ -56,10 +67,13 @@ export function emergencyLead(body: Root, rows: TableRow[], maxActions = 6): Eme
   const conditions = pick(conditionsHeading) ?? pick(scopeHeading);
   const responsibility = pick(responsibilityHeading);
   const used = new Set([conditions, responsibility].filter(Boolean));
-  const render = (s: Section | undefined): LeadSection | undefined => s && {
+  // Each part is rendered on its own, but a link or footnote in one may be defined in another: every part is given
+  // the body's definitions, first (the first of a label is the one used, as on a page of one part).
+  const definitions = definitionsIn(body);
+  const render = (s: Section | undefined, idPrefix: string): LeadSection | undefined => s && {
     title: s.title,
     // The heading itself becomes the lead block's own heading.
-    html: renderBodyHtml({ type: 'root', children: s.nodes.filter((n) => n.type !== 'heading' || n !== s.nodes[0]) }, 2),
+    html: renderBodyHtml({ type: 'root', children: [...definitions, ...s.nodes.filter((n) => n.type !== 'heading' || n !== s.nodes[0])] }, 2, idPrefix),
   };
   const actions: StepRow[] = [];
   let total = 0;
@@ -75,7 +89,7 @@ export function emergencyLead(body: Root, rows: TableRow[], maxActions = 6): Eme
   }
   const rest = sections.filter((s) => !used.has(s)).flatMap((s) => s.nodes);
   return {
-    conditions: render(conditions), responsibility: render(responsibility), actions, remaining: total - actions.length,
-    restHtml: renderBodyHtml({ type: 'root', children: rest }),
+    conditions: render(conditions, 'lead-conditions-'), responsibility: render(responsibility, 'lead-responsibility-'), actions, remaining: total - actions.length,
+    restHtml: renderBodyHtml({ type: 'root', children: [...definitions, ...rest] }),
   };
 }

@@ -1,9 +1,7 @@
 // The rule reference for the site, generated from each rule's own metadata so docs and code cannot drift.
-import { unified } from 'unified';
-import remarkParse from 'remark-parse';
-import type { Root } from 'mdast';
 import type { RuleCategory } from '../check/define-rule.ts';
 import { rules } from '../check/rules/index.ts';
+import { parseNarrative } from '../parse/narrative-markdown.ts';
 import { renderBodyHtml } from './body-html.ts';
 import { pagePath, rootBase, siteUrl, type SiteBase } from './site-url.ts';
 
@@ -32,8 +30,6 @@ const categoryTitles: Record<RuleCategory, string> = {
   history: 'History',
 };
 
-const parser = unified().use(remarkParse);
-
 const made = new Map<string, RuleReference[]>();
 
 /**
@@ -54,7 +50,7 @@ export function ruleReferences(base: SiteBase = rootBase): RuleReference[] {
         defaultSeverity: rule.meta.defaultSeverity,
         severityNote: /\*\*warning\*\* while the procedure is a `draft`/.test(rule.meta.docs) ? 'warning in draft, error from in-review on' : undefined,
         get docsHtml() {
-          docsHtml ??= renderBodyHtml(parser.parse(rule.meta.docs) as Root, 1);
+          docsHtml ??= renderBodyHtml(parseNarrative(rule.meta.docs), 1);
           return docsHtml;
         },
         source: rule.meta.source,
