@@ -2,6 +2,7 @@
 import type { Rule } from '../define-rule.ts';
 import approvalMissing from './approval-missing.ts';
 import authorOnlyApprover from './author-only-approver.ts';
+import bodyNotShown from './body-not-shown.ts';
 import bodyTooDeep from './body-too-deep.ts';
 import bodyTooLarge from './body-too-large.ts';
 import badIdFormat from './bad-id-format.ts';
@@ -126,6 +127,7 @@ export const rules = {
   'step-need-unmet': stepNeedUnmet,
   'approval-missing': approvalMissing,
   'author-only-approver': authorOnlyApprover,
+  'body-not-shown': bodyNotShown,
   'body-too-deep': bodyTooDeep,
   'bad-id-format': badIdFormat,
   'bypass-procedure-unknown': bypassProcedureUnknown,

@@ -36,7 +36,7 @@ this rule covers the register's levels and the limits a procedure declares.`,
         ? 'the instrument stops reading before the relief device lifts'
         : 'the instrument can never read it';
       reportAtPlace(ctx, level.at, file, {
-        message: `${capitalize(describeLevel(level))} is outside the range of ${level.signal} (${range[0]}..${range[1]} ${unit}): ${why}${pressureConversionNote(level.unit, unit)}.`,
+        message: `${capitalize(describeLevel(level))} is outside the range of ${level.signal} (${Math.min(...range)}..${Math.max(...range)} ${unit}): ${why}${pressureConversionNote(level.unit, unit)}.`,
         hint: 'Correct the value, or the range if the instrument reads further.',
       });
     });

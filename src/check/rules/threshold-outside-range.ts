@@ -30,7 +30,7 @@ the step. Thresholds are converted into the signal's unit before the comparison.
         if (threshold >= Math.min(low, high) && threshold <= Math.max(low, high)) continue;
         ctx.report({
           range: ctx.source.rangeInScalar(site.path, cmp.value.span.from, cmp.value.span.to),
-          message: `Threshold ${cmp.value.value} ${cmp.value.unit} is outside the declared range of ${signal.name} (${signal.range[0]}..${signal.range[1]} ${signal.unit}), so '${cmp.name.name} ${cmp.op} ...' can never change${pressureConversionNote(cmp.value.unit, signal.unit)}.`,
+          message: `Threshold ${cmp.value.value} ${cmp.value.unit} is outside the declared range of ${signal.name} (${Math.min(...signal.range)}..${Math.max(...signal.range)} ${signal.unit}), so '${cmp.name.name} ${cmp.op} ...' can never change${pressureConversionNote(cmp.value.unit, signal.unit)}.`,
           hint: 'Correct the threshold, or the declared range if the instrument reads further.',
           related: [{ path: [...signal.path, 'range'], message: 'declared range' }],
         });
