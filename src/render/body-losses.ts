@@ -64,6 +64,20 @@ function anyAddress(node: HastRoot | Element): boolean {
  */
 export function addressKept(of: 'link' | 'image', url: string): boolean {
   if (url === '') return true;
+  const key = `${of} ${url}`;
+  let kept = keptAddresses.get(key);
+  if (kept === undefined) {
+    // A manual links to the same few addresses again and again; the answer depends on nothing else.
+    if (keptAddresses.size >= 2000) keptAddresses.clear();
+    kept = askRenderer(of, url);
+    keptAddresses.set(key, kept);
+  }
+  return kept;
+}
+
+const keptAddresses = new Map<string, boolean>();
+
+function askRenderer(of: 'link' | 'image', url: string): boolean {
   const inline = of === 'image' ? { type: 'image' as const, url, alt: 'x' } : { type: 'link' as const, url, children: [{ type: 'text' as const, value: 'x' }] };
   return anyAddress(bodyHast({ type: 'root', children: [{ type: 'paragraph', children: [inline] }] }));
 }
