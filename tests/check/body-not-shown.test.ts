@@ -8,7 +8,7 @@ import type { Diagnostic } from '../../src/parse/diagnostic.ts';
 import { parseNarrative } from '../../src/parse/narrative-markdown.ts';
 import { readSource } from '../../src/parse/read-source.ts';
 import { renderBodyHtml } from '../../src/render/body-html.ts';
-import { bodyLosses } from '../../src/render/body-losses.ts';
+import { bodyLosses } from '../../src/analysis/body-losses.ts';
 
 // jsdom ships no type declarations; type the one constructor used here.
 const { JSDOM } = (await import('jsdom' as string)) as { JSDOM: new (html: string) => { window: Window & typeof globalThis } };

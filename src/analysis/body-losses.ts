@@ -1,9 +1,9 @@
 // What the published page leaves out of a narrative body, found in the tree the page is rendered from and judged by
-// the renderer's own steps (body-html.ts): raw HTML, link and image addresses the sanitizer removes, and link
+// the steps that decide what the page keeps (body-kept.ts, which the renderer builds on): raw HTML, link and image addresses the sanitizer removes, and link
 // definitions and footnotes nothing refers to. The body-not-shown rule reports each one.
 import type { FootnoteDefinition, Nodes, Root } from 'mdast';
 import type { Element, Root as HastRoot } from 'hast';
-import { bodyHast } from './body-html.ts';
+import { keptBodyHast } from './body-kept.ts';
 
 export interface Place {
   line: number;
@@ -79,7 +79,7 @@ const keptAddresses = new Map<string, boolean>();
 
 function askRenderer(of: 'link' | 'image', url: string): boolean {
   const inline = of === 'image' ? { type: 'image' as const, url, alt: 'x' } : { type: 'link' as const, url, children: [{ type: 'text' as const, value: 'x' }] };
-  return anyAddress(bodyHast({ type: 'root', children: [{ type: 'paragraph', children: [inline] }] }));
+  return anyAddress(keptBodyHast({ type: 'root', children: [{ type: 'paragraph', children: [inline] }] }));
 }
 
 /** Everything of `body` the page built from it will not show, in the order written. */
