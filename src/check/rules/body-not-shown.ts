@@ -1,5 +1,5 @@
 // Reports what the narrative says that the published page will not show: raw HTML, addresses the page removes, and
-// link definitions and footnotes nothing refers to. The list comes from the renderer's own steps (body-losses.ts).
+// link definitions and footnotes nothing refers to. The list comes from the tree the page is made from (analysis/body-losses.ts).
 import { bodyLosses, type BodyLoss } from '../../analysis/body-losses.ts';
 import { bodySchema } from '../../analysis/body-kept.ts';
 import { defineFileRule, type FileContext } from '../define-rule.ts';
