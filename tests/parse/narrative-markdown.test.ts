@@ -11,7 +11,7 @@ const pieces = [
   '# Purpose\n', '## Notes\n', 'Open valve XV-2101.', ' ', '\n', '\n\n', '- item\n', '* item\n', '1. first\n', '   ',
   '[link](#steps)', '[ref]', '[ref]: #x\n', '![pump](p.png)', '**bold**', '_em_', '`code`', '```\nblock\n```\n', '> quote\n',
   '<https://alder-reach.example>', '<div>', '</div>', '<!-- note -->', 'x', 'X', '[', ']', '[-]', '[xx]', '---\n', ':', 'w', 'ww.', '.',
-  '\\', '&amp;', '25 %', '200 degC', 'TI-210 >= 80 degC', 'a_b_c', '1)', '+ plus\n', '\t', '    indented\n',
+  ':-', '-:', '\\', '&amp;', '25 %', '200 degC', 'TI-210 >= 80 degC', 'a_b_c', '1)', '+ plus\n', '\t', '    indented\n',
 ];
 // And the additions themselves, so that a body with them is read in full.
 const additions = ['| A | B |\n| --- | --- |\n| 1 | 2 |\n', '~~gone~~', '[^1]\n\n[^1]: Note.\n', '- [ ] open\n', '- [x] done\n', 'www.alder-reach.example', 'https://alder-reach.example', 'shift@alder-reach.example'];
@@ -25,6 +25,24 @@ describe('the narrative reader', () => {
       }),
       { numRuns: 1000 },
     );
+  });
+
+  it('reads a table of one column without pipes as GitHub does', () => {
+    // A delimiter row with a colon under a line makes a table of one column (found by the property above).
+    for (const body of ['.# Purpose\n:---\n', 'Valve\n:--\nXV-2101\n', 'Valve\n--:\n']) {
+      expect(parseNarrative(body)).toEqual(parseNarrativeInFull(body));
+      expect(JSON.stringify(parseNarrative(body))).toContain('"type":"table"');
+    }
+  });
+
+  it('gives the full tree for every short text made of the characters the additions start with', () => {
+    const alphabet = ['x', '-', ':', ' ', '\n', '.', '[', ']', '^', '/', '~', '|', '@', 'w'];
+    let texts = [''];
+    for (let n = 0; n < 4; n++) texts = texts.flatMap((t) => alphabet.map((c) => t + c));
+    for (const t of texts) {
+      const body = `x\n${t}`;
+      expect(parseNarrative(body), JSON.stringify(body)).toEqual(parseNarrativeInFull(body));
+    }
   });
 
   it('gives the full tree for bodies with them (property)', () => {
