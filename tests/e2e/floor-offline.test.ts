@@ -94,13 +94,13 @@ describe('offline copy', () => {
     const newer = { ...manifest, version: 'f00dfeedf00dfeed' };
     server.override.set('/offline-manifest.json', JSON.stringify(newer));
     await page.reload();
-    await expect.poll(() => stale.isVisible(), { timeout: 10_000 }).toBe(true);
+    await expect.poll(() => stale.isVisible(), { timeout: 30_000 }).toBe(true);
     await expect(stale.textContent()).resolves.toMatch(/older than the published manual/);
 
     // Offline, the warning stays: the tablet remembers the newer manual it saw.
     await context.setOffline(true);
     await page.reload();
-    await expect.poll(() => stale.isVisible(), { timeout: 10_000 }).toBe(true);
+    await expect.poll(() => stale.isVisible(), { timeout: 30_000 }).toBe(true);
 
     // Back on the network with the newer file list published (the same files: nothing to download), the copy
     // switches to it and the warning goes away.
