@@ -34,6 +34,8 @@ export interface Banner {
   tone: 'stop' | 'hold';
   title: string;
   text: string;
+  /** Where to go instead, only when the manual knows it for certain. */
+  link?: { href: string; text: string };
 }
 
 export interface ReviewMark {
@@ -138,16 +140,24 @@ export function reviewMark(procedure: Pick<Procedure, 'reviewBy' | 'status'>, to
   return { state: 'ok', text: procedure.reviewBy };
 }
 
-export function statusBanner(procedure: Pick<Procedure, 'status' | 'effective'>, today: string): Banner | undefined {
+/**
+ * The banner over a procedure that must not (or not yet) be used. It says only what the manual knows: the format
+ * has no key that names the document replacing a superseded one, so the banner names none (a revision page of the
+ * same procedure says which revision replaced it, see render/revision-banner.ts).
+ */
+export function statusBanner(procedure: Pick<Procedure, 'status' | 'effective'> & { owner?: string }, today: string): Banner | undefined {
   switch (procedure.status) {
     case 'draft':
       return { tone: 'hold', title: 'DRAFT — NOT FOR USE', text: 'This procedure is a draft. It has not been approved; do not operate the plant from it.' };
     case 'in-review':
       return { tone: 'hold', title: 'IN REVIEW — NOT FOR USE', text: 'This procedure is being reviewed. It has not been approved; do not operate the plant from it.' };
     case 'superseded':
-      return { tone: 'stop', title: 'SUPERSEDED — DO NOT USE', text: 'A newer revision replaces this one. Use the current revision.' };
+      return {
+        tone: 'stop', title: 'SUPERSEDED — DO NOT USE',
+        text: `This procedure is superseded and must not be used. This manual does not record which document replaces it: ask ${askOwner(procedure.owner)} for the procedure in force.`,
+      };
     case 'retired':
-      return { tone: 'stop', title: 'RETIRED — DO NOT USE', text: 'This procedure no longer applies to the plant.' };
+      return { tone: 'stop', title: 'RETIRED — DO NOT USE', text: 'This procedure is retired and must not be used: it no longer applies to the plant.' };
     case 'approved':
       if (procedure.effective && procedure.effective > today) {
         return { tone: 'hold', title: 'APPROVED — NOT YET EFFECTIVE', text: `This revision takes effect on ${procedure.effective}. Until then use the revision in force.` };
@@ -156,6 +166,10 @@ export function statusBanner(procedure: Pick<Procedure, 'status' | 'effective'>,
     default:
       return undefined;
   }
+}
+
+function askOwner(owner: string | undefined): string {
+  return owner?.trim() ? `the procedure owner (${owner.trim()})` : 'the procedure owner';
 }
 
 function addDays(date: string, days: number): string {

@@ -176,4 +176,14 @@ describe.skipIf(!haveChromium)('operator manual in Chromium', () => {
       expect(bannerBox!.y).toBeLessThan(h1Box!.y);
     }
   });
+
+  it('says of a procedure superseded by another document only what the manual knows', async () => {
+    const cip = view.procedures.find((x) => x.id === 'U2-T230-CIP-001')!;
+    expect(cip.status).toBe('superseded');
+    const page = await open(cip.url);
+    const text = await page.locator('[data-status-banner]').innerText();
+    expect(text).toContain('This procedure is superseded and must not be used.');
+    expect(text).not.toMatch(/newer revision|current revision/i);
+    expect(text).toContain('ask the procedure owner (Unit 2 Operations, Blending)');
+  });
 });

@@ -20,6 +20,25 @@ describe('review marks and status banners', () => {
     expect(statusBanner({ status: 'effective', effective: '2025-01-01' }, '2026-01-01')).toBeUndefined();
     expect(statusBanner({ status: 'approved', effective: '2026-06-01' }, '2026-01-01')?.title).toContain('NOT YET EFFECTIVE');
   });
+
+  it('does not claim a newer revision replaces a superseded procedure: the format does not say what replaced it', () => {
+    const banner = statusBanner({ status: 'superseded', owner: 'Unit 2 Operations, Blending' }, '2026-01-01')!;
+    expect(banner.title).toBe('SUPERSEDED — DO NOT USE');
+    expect(banner.text).toContain('This procedure is superseded and must not be used.');
+    expect(banner.text).not.toMatch(/newer revision|current revision/i);
+    expect(banner.text).toContain('ask the procedure owner (Unit 2 Operations, Blending)');
+    // No link is made up: the manual knows no replacing page.
+    expect(banner.link).toBeUndefined();
+    expect(statusBanner({ status: 'superseded' }, '2026-01-01')!.text).toContain('ask the procedure owner for');
+  });
+
+  it('says a retired procedure must not be used, without pointing at a replacement', () => {
+    const banner = statusBanner({ status: 'retired' }, '2026-01-01')!;
+    expect(banner.title).toBe('RETIRED — DO NOT USE');
+    expect(banner.text).toContain('must not be used');
+    expect(banner.text).not.toMatch(/newer revision|replace/i);
+    expect(banner.link).toBeUndefined();
+  });
 });
 
 describe('manual view', () => {
