@@ -87,6 +87,7 @@ import sentenceTooLong from './sentence-too-long.ts';
 import sequenceDeadlock from './sequence-deadlock.ts';
 import sequenceTooLarge from './sequence-too-large.ts';
 import setpointAtTrip from './setpoint-at-trip.ts';
+import waitBeyondTrip from './wait-beyond-trip.ts';
 import setpointBlocksTransition from './setpoint-blocks-transition.ts';
 import setpointOutsideLimits from './setpoint-outside-limits.ts';
 import statusLifecycle from './status-lifecycle.ts';
@@ -212,6 +213,7 @@ export const rules = {
   'sequence-deadlock': sequenceDeadlock,
   'sequence-too-large': sequenceTooLarge,
   'setpoint-at-trip': setpointAtTrip,
+  'wait-beyond-trip': waitBeyondTrip,
   'setpoint-blocks-transition': setpointBlocksTransition,
   'setpoint-outside-limits': setpointOutsideLimits,
   'status-lifecycle': statusLifecycle,
