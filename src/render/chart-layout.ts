@@ -5,6 +5,7 @@ import type { ChooseBlock, HazardLevel, ParallelBlock, Procedure, SequenceItem, 
 import { numberSteps, type StepNumbers } from './step-numbers.ts';
 import { textWidth, wrapText } from './text-metrics.ts';
 import { performerMarker, verifyMarker } from './step-roles.ts';
+import { callOf } from '../analysis/inline-calls.ts';
 
 export const chartFont = { size: 14, line: 18, small: 12 } as const;
 const boxTextMax = 200;
@@ -162,7 +163,9 @@ export function layoutChart(procedure: Pick<Procedure, 'steps' | 'hazards'>, num
     return transitionBlock(pending.lines.length ? pending.lines : ['(no transition)'], pending.from);
   };
 
+  // A call step ends when the procedure it runs has ended, with its own condition too when it has one.
   const guardLines = (step: Step): string[] => [
+    ...(callOf(step) ? [`${callOf(step)!.callee} ended`] : []),
     ...(step.until ? [step.until.value] : []),
     ...(step.confirm ? [`confirm: ${step.confirm.value}`] : []),
   ];

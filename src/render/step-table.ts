@@ -1,7 +1,8 @@
 // Turns the step sequence into the rows of the numbered step table: hazards repeated before the steps they
 // name (DOE-STD-1029 practice), parallel blocks spelled out, decisions as "IF … THEN go to step N", loops marked.
-import type { Hazard, HazardLevel, Procedure, SequenceItem, Step } from '../model/procedure.ts';
+import type { Hazard, HazardLevel, Procedure, SequenceItem, StateAction, Step } from '../model/procedure.ts';
 import { honouredWaivers } from '../check/waivers.ts';
+import { callOf } from '../analysis/inline-calls.ts';
 import { conditionInWords } from './condition-words.ts';
 import { hazardRank } from './signal-words.ts';
 import { verifyLabel } from './step-roles.ts';
@@ -38,6 +39,46 @@ export interface StepRow {
   timeLimit?: { max: string; then: string; goto?: StepTarget };
   /** What to do when the expected result does not come (the contingency). */
   ifNot?: { actions: string[]; goto?: StepTarget };
+  /** A condition that must hold before the step starts (`needs`), and the same in plant words when it can be said. */
+  needs?: string;
+  needsWords?: string;
+  /** The states the step puts equipment in (`state`), each in words: "Leaves XV-2107 open". */
+  state?: StateWords[];
+  /** Interlocks the step trips on purpose (a trip test). */
+  trips?: string[];
+  /** Latched interlocks the step resets. */
+  resets?: string[];
+  /** The shared operation the step runs (`call`): the step ends when that procedure has ended. */
+  call?: { procedure: string; revision?: number };
+  /** True when a decision directly follows the step: its branch conditions end the step. */
+  decisionFollows?: boolean;
+}
+
+/** A lasting action in words, in parts so a page can link the tag: `${verb} ${signal} ${value} ${tail}`. */
+export interface StateWords {
+  verb: 'Leaves' | 'Holds';
+  signal: string;
+  value: string;
+  /** How long it lasts or when it starts, e.g. "during this step", "for 30 s at most"; empty for a stored state. */
+  tail: string;
+  /** The whole sentence. */
+  words: string;
+}
+
+/** A lasting action (`state` entry) in words an operator reads. */
+export function stateWords(action: Pick<StateAction, 'signal' | 'value' | 'lasts' | 'duration' | 'whileActive'>): StateWords {
+  const duration = action.duration ? formatDuration(action.duration.value) : '';
+  const [verb, tail]: [StateWords['verb'], string] =
+    action.lasts === 'step' ? ['Holds', 'during this step']
+      : action.lasts === 'limited' ? ['Holds', `for ${duration} at most, not past this step`]
+        : action.lasts === 'delayed' ? (action.whileActive ? ['Holds', `from ${duration} into this step until it ends`] : ['Leaves', `from ${duration} into this step`])
+          : ['Leaves', ''];
+  return { verb, signal: action.signal, value: action.value, tail, words: [verb, action.signal, action.value, tail].filter(Boolean).join(' ') };
+}
+
+/** What ends a call step in words: "When U2-K210-INERT-001 has ended". */
+export function callEndWords(procedure: string): string {
+  return `When ${procedure} has ended`;
 }
 
 /** A step a contingency or time limit sends the operator to. */
@@ -102,7 +143,7 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
 
   const loopFrom = new Map<string, string[]>();
 
-  const stepRow = (step: Step): StepRow => ({
+  const stepRow = (step: Step, decisionFollows: boolean): StepRow => ({
     kind: 'step', id: step.id, number: numbers.ofStep.get(step.id) ?? '?', actions: step.actions, phase: step.phase,
     setpoints: step.set.map((s) => ({ signal: s.signal, quantity: s.quantity, text: procedure.signals[s.signal]?.text })),
     params: step.params.map((p) => ({ name: p.name, value: String(p.value) })),
@@ -115,6 +156,12 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
     ...(step.maxDrop?.length ? { maxDrop: step.maxDrop.map((d) => ({ signal: d.signal, quantity: d.quantity })) } : {}),
     ...(step.timeLimit ? { timeLimit: { max: formatDuration(step.timeLimit.max.value), then: step.timeLimit.then, ...(step.timeLimit.goto ? { goto: target(step.timeLimit.goto.value) } : {}) } } : {}),
     ...(step.ifNot ? { ifNot: { actions: step.ifNot.actions, ...(step.ifNot.goto ? { goto: target(step.ifNot.goto.value) } : {}) } } : {}),
+    ...(step.needs ? { needs: step.needs.value, ...withWords('needsWords', conditionInWords(step.needs.value, procedure.signals)) } : {}),
+    ...(step.state?.length ? { state: step.state.map(stateWords) } : {}),
+    ...(step.trips?.length ? { trips: step.trips.map((t) => t.value) } : {}),
+    ...(step.resets?.length ? { resets: step.resets.map((t) => t.value) } : {}),
+    ...callOfRow(step),
+    ...(decisionFollows ? { decisionFollows: true } : {}),
   });
   const target = (id: string): StepTarget => ({ id, number: numbers.ofStep.get(id) });
 
@@ -126,7 +173,7 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
         for (const h of hazardsAt.get(item.id) ?? []) {
           rows.push({ kind: 'hazard', level: h.level, hazard: h.hazard, consequence: h.consequence, avoid: h.avoid, beforeStep: item.id });
         }
-        rows.push(stepRow(item));
+        rows.push(stepRow(item, items[index + 1]?.kind === 'choose'));
         return;
       }
       const own = numbers.ofBlock.get(item)!;
@@ -215,6 +262,15 @@ function lastStepId(items: SequenceItem[]): string | undefined {
 function lastNumber(items: SequenceItem[], numbers: StepNumbers): string | undefined {
   const id = lastStepId(items);
   return id ? numbers.ofStep.get(id) : undefined;
+}
+
+function withWords(key: 'needsWords', words: string | undefined): { needsWords?: string } {
+  return words ? { [key]: words } : {};
+}
+
+function callOfRow(step: Step): { call?: StepRow['call'] } {
+  const call = callOf(step);
+  return call ? { call: { procedure: call.callee, ...(call.revision !== undefined ? { revision: call.revision } : {}) } } : {};
 }
 
 function joinWords(words: string[]): string {
