@@ -220,6 +220,25 @@ describe('the demo manual', () => {
     expect(until).toContain('Until Kettle temperature TI-210 at or above 205 degC TI-210 >= 205 degC');
   });
 
+  it('shows in each step row what the step needs before it starts, the states it leaves and the trips it tests', async () => {
+    // Links in table cells are touch targets (inline-flex), so their text comes with line breaks around it.
+    const words = async (locator: { innerText(): Promise<string> }) => (await locator.innerText()).replace(/\s+/g, ' ').trim();
+    const page = await open(demo, '/procedures/u2-k210-batch-001/', desk);
+    const tip = page.locator('tr#step-tip-anhydride');
+    const needs = await words(tip.locator('.needs'));
+    expect(needs).toMatch(/^Before starting: .*DX-213 == running and bags-bonded == true$/);
+    expect(await words(page.locator('tr#step-open-chute .plant-state'))).toContain('Leaves XV-2107 open');
+    expect(await words(page.locator('tr#step-charge-solvent .plant-state'))).toContain('Holds FV-211 open during this step');
+    expect(await page.locator('tr#step-open-chute .plant-state a.tag').getAttribute('href')).toMatch(/\/(tags|register)\//);
+    const startUp = await open(demo, '/procedures/u2-k210-tar-su-001/', desk);
+    const inert = startUp.locator('tr#step-inert');
+    const ends = inert.locator('.call-end a');
+    expect(await words(ends)).toBe('When U2-K210-INERT-001 has ended');
+    expect(await ends.getAttribute('href')).toMatch(/\/procedures\/u2-k210-inert-001\/$/);
+    expect(await inert.innerText()).not.toContain('See the decision below');
+    expect(await words(startUp.locator('tr#step-test-trips .plant-state'))).toContain('Trips TSHH-210 on purpose (trip test)');
+  });
+
   it('fits 800 px without hidden clipping: wraps, stacks, or scrolls in an area that says so', async () => {
     const paths = ['/', '/tags/', '/procedures/u2-k210-batch-001/', '/procedures/u2-k210-esd-001/', '/procedures/u2-h220-em-001/', '/procedures/u2-t230-cip-002/', '/procedures/u2-k210-batch-001/audit/'];
     for (const path of paths) {
