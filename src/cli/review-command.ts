@@ -175,9 +175,14 @@ async function buildReview(repo: Repository, io: CliIo, base: string, request: R
       },
     )
     : [];
+  // Errors anywhere else stop the build as well: a caller of a deleted procedure, a register entry at odds with a
+  // changed trip. They are listed apart, since the change may or may not have caused them.
+  const reviewed = new Set(files.map((f) => f.path));
+  const configFile = run.config.file?.file;
+  const otherErrors = run.diagnostics.filter((d) => d.severity === 'error' && d.file !== configFile && !reviewed.has(repoPath(repo, resolve(io.cwd, d.file))));
   return {
-    input: { base, baseCommit, files, policySource: policy.source, notices, registerChanges },
-    diagnostics: [...configErrors, ...files.flatMap((f) => f.diagnostics)],
+    input: { base, baseCommit, files, policySource: policy.source, notices, registerChanges, otherErrors },
+    diagnostics: [...configErrors, ...files.flatMap((f) => f.diagnostics), ...otherErrors],
   };
 }
 
@@ -210,7 +215,7 @@ function reviewPolicyOf(run: CheckRun): { policy: PolicyEntry[]; source: string 
 }
 
 /** The review as JSON for tools: the facts of the Markdown summary without the rendered tables and charts. */
-function reviewJson(input: { base: string; baseCommit: string; files: ReviewedFile[]; policySource: string; notices: string[] }, diagnostics: Array<{ severity: string }>): string {
+function reviewJson(input: { base: string; baseCommit: string; files: ReviewedFile[]; policySource: string; notices: string[]; otherErrors?: unknown[] }, diagnostics: Array<{ severity: string }>): string {
   const side = (p: Procedure | undefined) => (p ? { id: p.id, revision: p.revision, status: p.status } : null);
   return `${JSON.stringify({
     base: input.base,
@@ -227,5 +232,6 @@ function reviewJson(input: { base: string; baseCommit: string; files: ReviewedFi
       signOffs: f.signOffs.map((s) => ({ role: s.role, reasons: s.reasons, signed: s.signedBy ? { name: s.signedBy.name, date: s.signedBy.date } : null })),
       diagnostics: f.diagnostics,
     })),
+    otherErrors: input.otherErrors ?? [],
   }, null, 2)}\n`;
 }

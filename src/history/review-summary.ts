@@ -29,6 +29,23 @@ export interface ReviewInput {
   notices: string[];
   /** Entries of the plant register that changed, with every procedure that uses each. */
   registerChanges?: RegisterEntryChange[];
+  /**
+   * Errors the check finds in files the change did not touch (a procedure that calls a deleted one, a register entry
+   * at odds with a changed trip): the build stops on them as on any other.
+   */
+  otherErrors?: Diagnostic[];
+}
+
+/** How many errors elsewhere are listed one by one; the rest are counted. */
+const otherErrorsListed = 30;
+
+function otherErrorsSection(errors: Diagnostic[]): string[] {
+  if (!errors.length) return [];
+  const out = ['#### Errors in files this change did not touch', '', 'The build stops on these too. The change may have caused them (a call to a procedure it deletes, a trip it moves) or they were there before; either way they must be fixed before the manual can be published.', ''];
+  for (const d of errors.slice(0, otherErrorsListed)) out.push(`- \`${d.file}:${d.line}:${d.column}\` **${d.rule}**: ${inline(d.message)}`);
+  if (errors.length > otherErrorsListed) out.push(`- … and ${errors.length - otherErrorsListed} more: run \`stepwright check\` for all of them.`);
+  out.push('');
+  return out;
 }
 
 /** How every review summary starts (a file that starts so is an earlier summary, which `review --output` may replace). */
@@ -39,8 +56,11 @@ export function renderReviewMarkdown(input: ReviewInput): string {
   out.push(`${reviewHeading} ${describeBase(input.base, input.baseCommit).replace(/^(\S+)/, '`$1`')}`, '');
   for (const n of input.notices) out.push(`> [!WARNING]`, `> ${n}`, '');
   out.push(...registerSection(input.registerChanges ?? []));
+  const elsewhere = input.otherErrors ?? [];
+  const elsewhereNote = elsewhere.length ? ` And ${plural(elsewhere.length, 'error')} in files this change did not touch (listed below).` : '';
   if (!input.files.length) {
-    out.push('No procedure changed.', '');
+    out.push(`No procedure changed.${elsewhereNote}`, '');
+    out.push(...otherErrorsSection(elsewhere));
     return `${out.join('\n')}\n`;
   }
   const errors = input.files.flatMap((f) => f.diagnostics).filter((d) => d.severity === 'error').length;
@@ -48,7 +68,7 @@ export function renderReviewMarkdown(input: ReviewInput): string {
   const withSafety = input.files.filter((f) => safetyItems(f).length > 0).length;
   out.push(
     `${plural(input.files.length, 'procedure')} changed, ${withSafety} with safety-relevant changes. ` +
-      `Check: ${plural(errors, 'error')}, ${plural(warnings, 'warning')}.`,
+      `Check: ${plural(errors, 'error')}, ${plural(warnings, 'warning')} in the changed procedures.${elsewhereNote}`,
     '',
     '| Procedure | Change | Revision | Status | Safety-relevant | Sign-offs still needed |',
     '| --- | --- | --- | --- | --- | --- |',
@@ -66,6 +86,7 @@ export function renderReviewMarkdown(input: ReviewInput): string {
     ]));
   }
   out.push('');
+  out.push(...otherErrorsSection(elsewhere));
   for (const f of input.files) out.push(...fileSection(f, input.policySource));
   return `${out.join('\n').replace(/\n{3,}/g, '\n\n')}\n`;
 }
