@@ -213,7 +213,9 @@ the SHA-256 of every published file): a changed page, an added or a removed file
 plant's public key the manifest's ed25519 signature is checked too, so a forged manifest is named.
 Then every procedure page against the procedure sources: each page carries the SHA-256 of the source
 text it was built from; verify names every page whose source has changed or is gone, and every source
-that has no page. It also says what it found at the site path (a link to a published version, a folder,
+that has no page. Each page also records the plant register files and the configuration it was built
+with; verify names a page whose register file or configuration has changed since, and says of a page of
+an older build, which records none, that it was not checked against the register. It also says what it found at the site path (a link to a published version, a folder,
 or nothing because a build was stopped while publishing).
 
 Options:
@@ -224,8 +226,9 @@ Options:
   --repair             when a stopped build left no site at the path, put the newest complete one back
   -h, --help           show this help
 
-Exit codes: 0 everything matches, 1 a file, the signature, a page or a source does not match, or there is
-no site, 2 usage failure.
+Exit codes: 0 everything matches, 1 a file, the signature, a page, a source, a register file or the
+configuration does not match (or a page could not be checked against the register), or there is no
+site, 2 usage failure.
 `;
 
 export const commandHelp: Record<string, string> = {

@@ -2,7 +2,7 @@
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { integrityMeta, sourceDigest, sourceKey } from '../render/source-integrity.ts';
+import { integrityMeta, inputsMeta, parseBuildInputs, sourceDigest, sourceKey, type BuildInputs } from '../render/source-integrity.ts';
 import { proceduresFolder } from './project.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
@@ -17,6 +17,15 @@ export interface PageStamp {
   page: string;
   source: string;
   digest: string;
+  /** The register files and configuration the page was built from; absent on a page built before they were recorded. */
+  inputs?: BuildInputs;
+}
+
+/** A page whose register or configuration is no longer the one it was built from. */
+export interface InputMismatch {
+  page: string;
+  /** Each file, relative to the folder verify runs in, and what became of it. */
+  files: Array<{ file: string; what: 'changed' | 'removed' | 'added' }>;
 }
 
 export interface VerifyResult {
@@ -112,11 +121,27 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
   for (const c of result.changed) io.stdout.write(`${show(c.page)}: does not match its source ${join(folder, c.source)} (page built from sha256 ${c.digest.slice(0, 12)}…, source is ${c.expected.slice(0, 12)}…)\n`);
   for (const o of result.orphaned) io.stdout.write(`${show(o.page)}: its source ${join(folder, o.source)} is not in ${folder}\n`);
   for (const s of result.unpublished) io.stdout.write(`${join(folder, s)}: has no page in ${positionals[0]}${unreadable.includes(s) ? ' (the file could not be read)' : ''}\n`);
-  const problems = result.changed.length + result.orphaned.length + result.unpublished.length;
+  // The register files and the configuration each page was drawn with: a page shows the register's trips and limits.
+  const inputs = compareInputs(pages, io.cwd);
+  const words = { changed: 'has changed since the build', removed: 'is gone since the build', added: 'was added to the register since the build' };
+  for (const m of inputs.mismatched) {
+    io.stdout.write(`${show(m.page)}: built from a register or configuration that no longer matches: ${m.files.map((f) => `${f.file} ${words[f.what]}`).join('; ')}. The page may show old trips, limits or signals; rebuild the manual (stepwright build).\n`);
+  }
+  if (inputs.unrecorded.length) {
+    const n = inputs.unrecorded.length;
+    io.stdout.write(`${n} procedure page${n === 1 ? '' : 's'} (e.g. ${show(inputs.unrecorded[0].page)}) ${n === 1 ? 'does' : 'do'} not record the register files and configuration ${n === 1 ? 'it was' : 'they were'} built from (built by an older version): not checked against the register. Rebuild the manual to check ${n === 1 ? 'it' : 'them'}.\n`);
+  }
+  const problems = result.changed.length + result.orphaned.length + result.unpublished.length + inputs.mismatched.length + inputs.unrecorded.length;
   if (skipped) io.stdout.write(`${skipped} markdown file${skipped === 1 ? '' : 's'} in ${folder} ${skipped === 1 ? 'is' : 'are'} not a procedure and need${skipped === 1 ? 's' : ''} no page.\n`);
+  const sourceProblems = result.changed.length + result.orphaned.length + result.unpublished.length;
+  const registerNote = inputs.mismatched.length || inputs.unrecorded.length
+    ? `; against the register and configuration: ${inputs.mismatched.length} out of date, ${inputs.unrecorded.length} not checked`
+    : '';
   io.stdout.write(problems === 0
     ? `All ${result.matching.length} procedure pages match their sources.\n`
-    : `${problems} mismatch${problems === 1 ? '' : 'es'}: ${result.changed.length} changed, ${result.orphaned.length} without source, ${result.unpublished.length} without page; ${result.matching.length} pages match.\n`);
+    : sourceProblems === 0
+      ? `All ${result.matching.length} procedure pages match their procedure sources${registerNote}.\n`
+      : `${sourceProblems} mismatch${sourceProblems === 1 ? '' : 'es'}: ${result.changed.length} changed, ${result.orphaned.length} without source, ${result.unpublished.length} without page; ${result.matching.length} pages match${registerNote}.\n`);
   return problems === 0 && fileProblems === 0 ? 0 : 1;
 }
 
@@ -135,6 +160,77 @@ export function compareStamps(pages: PageStamp[], sources: Map<string, string>):
   return result;
 }
 
+/**
+ * Each page's recorded register files and configuration against the files as they are now (paths relative to `cwd`,
+ * the project folder the build ran in): a file changed or gone, and a register file added to the register folder.
+ */
+export function compareInputs(pages: PageStamp[], cwd: string): { mismatched: InputMismatch[]; unrecorded: PageStamp[] } {
+  const digests = new Map<string, string | null>();
+  const digestOf = (file: string): string | null => {
+    if (!digests.has(file)) {
+      let digest: string | null = null;
+      try {
+        digest = sourceDigest(readFileSync(resolve(cwd, file), 'utf8'));
+      } catch {
+        digest = null;
+      }
+      digests.set(file, digest);
+    }
+    return digests.get(file)!;
+  };
+  const listings = new Map<string, string[]>();
+  const registerFiles = (folder: string): string[] => {
+    if (!listings.has(folder)) listings.set(folder, yamlFilesUnder(resolve(cwd, folder)).map((f) => relative(cwd, f).split('\\').join('/')));
+    return listings.get(folder)!;
+  };
+  const mismatched: InputMismatch[] = [];
+  const unrecorded: PageStamp[] = [];
+  for (const page of pages) {
+    if (!page.inputs) {
+      unrecorded.push(page);
+      continue;
+    }
+    const files: InputMismatch['files'] = [];
+    const { register, config } = page.inputs;
+    if (register) {
+      for (const [file, digest] of Object.entries(register.files)) {
+        const now = digestOf(file);
+        if (now === null) files.push({ file, what: 'removed' });
+        else if (now !== digest) files.push({ file, what: 'changed' });
+      }
+      for (const file of registerFiles(register.folder)) if (!(file in register.files)) files.push({ file, what: 'added' });
+    }
+    if (config) {
+      const now = digestOf(config.file);
+      if (now === null) files.push({ file: config.file, what: 'removed' });
+      else if (now !== config.sha256) files.push({ file: config.file, what: 'changed' });
+    }
+    if (files.length) mismatched.push({ page: page.page, files });
+  }
+  return { mismatched, unrecorded };
+}
+
+/** The register's files as the build reads them: *.yaml and *.yml under the folder, hidden names left out. */
+function yamlFilesUnder(folder: string): string[] {
+  const out: string[] = [];
+  const walk = (dir: string) => {
+    let names: string[];
+    try {
+      names = readdirSync(dir).sort();
+    } catch {
+      return;
+    }
+    for (const name of names) {
+      if (name.startsWith('.')) continue;
+      const full = join(dir, name);
+      if (isDirectory(full)) walk(full);
+      else if (/\.ya?ml$/i.test(name)) out.push(full);
+    }
+  };
+  walk(folder);
+  return out;
+}
+
 /** Every HTML page under the site folder that carries the fingerprint meta elements. */
 export function readStamps(site: string): PageStamp[] {
   const out: PageStamp[] = [];
@@ -146,7 +242,8 @@ export function readStamps(site: string): PageStamp[] {
         const html = readFileSync(full, 'utf8');
         const digest = metaContent(html, integrityMeta.digest);
         const source = metaContent(html, integrityMeta.source);
-        if (digest && source) out.push({ page: relative(site, full).split('\\').join('/'), source, digest });
+        const inputs = parseBuildInputs(metaContent(html, inputsMeta));
+        if (digest && source) out.push({ page: relative(site, full).split('\\').join('/'), source, digest, ...(inputs ? { inputs } : {}) });
       }
     }
   };

@@ -18,3 +18,44 @@ export function sourceKey(file: string, root: string): string {
   const r = root.split('\\').join('/').replace(/^\.\//, '').replace(/\/+$/, '');
   return r && f.startsWith(`${r}/`) ? f.slice(r.length + 1) : f;
 }
+
+/**
+ * What else a procedure page was built from besides its source: every file of the plant register (its folder, so
+ * that a file added later is seen too) and the configuration, each with its SHA-256. Paths are relative to the
+ * folder the build ran in, with forward slashes. `null` where the build had none.
+ */
+export interface BuildInputs {
+  register: { folder: string; files: Record<string, string> } | null;
+  config: { file: string; sha256: string } | null;
+}
+
+/** Name of the <meta> element that carries the build inputs (as JSON). */
+export const inputsMeta = 'stepwright-built-from';
+
+const slashes = (path: string) => path.split('\\').join('/').replace(/^\.\//, '');
+
+export function buildInputs(
+  register: { folder: string; sources: ReadonlyArray<{ file: string; source: { text: string } }> } | undefined,
+  config: { file: string; text: string } | undefined,
+): BuildInputs {
+  return {
+    register: register
+      ? { folder: slashes(register.folder), files: Object.fromEntries(register.sources.map((s) => [slashes(s.file), sourceDigest(s.source.text)]).sort(([a], [b]) => a.localeCompare(b))) }
+      : null,
+    config: config ? { file: slashes(config.file), sha256: sourceDigest(config.text) } : null,
+  };
+}
+
+/** The record read back from a page; undefined when it is absent or not readable. */
+export function parseBuildInputs(text: string | undefined): BuildInputs | undefined {
+  if (!text) return undefined;
+  try {
+    const data = JSON.parse(text) as Partial<BuildInputs>;
+    const register = data.register === null ? null : data.register && typeof data.register.folder === 'string' && typeof data.register.files === 'object' && data.register.files ? data.register : undefined;
+    const config = data.config === null ? null : data.config && typeof data.config.file === 'string' && typeof data.config.sha256 === 'string' ? data.config : undefined;
+    if (register === undefined || config === undefined) return undefined;
+    return { register, config };
+  } catch {
+    return undefined;
+  }
+}

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { buildManifest, manifestFile, manifestText, privateKeyFile, publicKeyFile, readPrivateKey, writeSiteManifest } from '../../src/cli/site-manifest.ts';
-import { integrityMeta, sourceDigest } from '../../src/render/source-integrity.ts';
+import { buildInputs, inputsMeta, integrityMeta, sourceDigest } from '../../src/render/source-integrity.ts';
 import { runCli } from './run-cli.ts';
 
 const fixture = join(import.meta.dirname, '../fixtures/rules/yaml-syntax/valid-base.md');
@@ -16,7 +16,7 @@ function site(root: string) {
   const text = readFileSync(join(dir, 'procedures', 'valid-base.md'), 'utf8');
   mkdirSync(join(root, 'procedures', 'valid-base', 'audit'), { recursive: true });
   mkdirSync(join(root, 'tags', 'k-210'), { recursive: true });
-  writeFileSync(join(root, 'procedures', 'valid-base', 'index.html'), `<!doctype html><html><head><meta name="${integrityMeta.source}" content="valid-base.md"><meta name="${integrityMeta.digest}" content="${sourceDigest(text)}"></head><body><table><tr><td>Heat to 230 degC</td></tr></table></body></html>`);
+  writeFileSync(join(root, 'procedures', 'valid-base', 'index.html'), `<!doctype html><html><head><meta name="${integrityMeta.source}" content="valid-base.md"><meta name="${integrityMeta.digest}" content="${sourceDigest(text)}"><meta name="${inputsMeta}" content="${JSON.stringify(buildInputs(undefined, undefined)).replace(/"/g, '&quot;')}"></head><body><table><tr><td>Heat to 230 degC</td></tr></table></body></html>`);
   writeFileSync(join(root, 'procedures', 'valid-base', 'audit', 'index.html'), '<!doctype html><html><body>Audit: revision 1 approved</body></html>');
   writeFileSync(join(root, 'tags', 'k-210', 'index.html'), '<!doctype html><html><body>K-210</body></html>');
   writeFileSync(join(root, 'index.html'), '<!doctype html><html><body>Home</body></html>');
