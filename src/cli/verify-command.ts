@@ -122,7 +122,7 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
   for (const o of result.orphaned) io.stdout.write(`${show(o.page)}: its source ${join(folder, o.source)} is not in ${folder}\n`);
   for (const s of result.unpublished) io.stdout.write(`${join(folder, s)}: has no page in ${positionals[0]}${unreadable.includes(s) ? ' (the file could not be read)' : ''}\n`);
   // The register files and the configuration each page was drawn with: a page shows the register's trips and limits.
-  const inputs = compareInputs(pages, io.cwd);
+  const inputs = compareInputs(pages, resolve(io.cwd, folder), io.cwd);
   const words = { changed: 'has changed since the build', removed: 'is gone since the build', added: 'was added to the register since the build' };
   for (const m of inputs.mismatched) {
     io.stdout.write(`${show(m.page)}: built from a register or configuration that no longer matches: ${m.files.map((f) => `${f.file} ${words[f.what]}`).join('; ')}. The page may show old trips, limits or signals; rebuild the manual (stepwright build).\n`);
@@ -161,16 +161,18 @@ export function compareStamps(pages: PageStamp[], sources: Map<string, string>):
 }
 
 /**
- * Each page's recorded register files and configuration against the files as they are now (paths relative to `cwd`,
- * the project folder the build ran in): a file changed or gone, and a register file added to the register folder.
+ * Each page's recorded register files and configuration against the files as they are now: a file changed or gone,
+ * and a register file added to the register folder. The record's paths are relative to the procedures folder
+ * (`root`); the files are named relative to `cwd`.
  */
-export function compareInputs(pages: PageStamp[], cwd: string): { mismatched: InputMismatch[]; unrecorded: PageStamp[] } {
+export function compareInputs(pages: PageStamp[], root: string, cwd: string): { mismatched: InputMismatch[]; unrecorded: PageStamp[] } {
+  const shown = (file: string) => relative(cwd, resolve(root, file)).split('\\').join('/') || file;
   const digests = new Map<string, string | null>();
   const digestOf = (file: string): string | null => {
     if (!digests.has(file)) {
       let digest: string | null = null;
       try {
-        digest = sourceDigest(readFileSync(resolve(cwd, file), 'utf8'));
+        digest = sourceDigest(readFileSync(resolve(root, file), 'utf8'));
       } catch {
         digest = null;
       }
@@ -180,7 +182,7 @@ export function compareInputs(pages: PageStamp[], cwd: string): { mismatched: In
   };
   const listings = new Map<string, string[]>();
   const registerFiles = (folder: string): string[] => {
-    if (!listings.has(folder)) listings.set(folder, yamlFilesUnder(resolve(cwd, folder)).map((f) => relative(cwd, f).split('\\').join('/')));
+    if (!listings.has(folder)) listings.set(folder, yamlFilesUnder(resolve(root, folder)).map((f) => relative(root, f).split('\\').join('/')));
     return listings.get(folder)!;
   };
   const mismatched: InputMismatch[] = [];
@@ -195,15 +197,15 @@ export function compareInputs(pages: PageStamp[], cwd: string): { mismatched: In
     if (register) {
       for (const [file, digest] of Object.entries(register.files)) {
         const now = digestOf(file);
-        if (now === null) files.push({ file, what: 'removed' });
-        else if (now !== digest) files.push({ file, what: 'changed' });
+        if (now === null) files.push({ file: shown(file), what: 'removed' });
+        else if (now !== digest) files.push({ file: shown(file), what: 'changed' });
       }
-      for (const file of registerFiles(register.folder)) if (!(file in register.files)) files.push({ file, what: 'added' });
+      for (const file of registerFiles(register.folder)) if (!(file in register.files)) files.push({ file: shown(file), what: 'added' });
     }
     if (config) {
       const now = digestOf(config.file);
-      if (now === null) files.push({ file: config.file, what: 'removed' });
-      else if (now !== config.sha256) files.push({ file: config.file, what: 'changed' });
+      if (now === null) files.push({ file: shown(config.file), what: 'removed' });
+      else if (now !== config.sha256) files.push({ file: shown(config.file), what: 'changed' });
     }
     if (files.length) mismatched.push({ page: page.page, files });
   }

@@ -1,5 +1,6 @@
 // The fingerprint a published procedure page carries of the source text it was built from.
 import { createHash } from 'node:crypto';
+import { relative, resolve } from 'node:path';
 
 /** Names of the <meta> elements on every procedure page. */
 export const integrityMeta = {
@@ -22,7 +23,8 @@ export function sourceKey(file: string, root: string): string {
 /**
  * What else a procedure page was built from besides its source: every file of the plant register (its folder, so
  * that a file added later is seen too) and the configuration, each with its SHA-256. Paths are relative to the
- * folder the build ran in, with forward slashes. `null` where the build had none.
+ * procedures folder, as the page's source is, with forward slashes, so verify finds them from any working folder.
+ * `null` where the build had none.
  */
 export interface BuildInputs {
   register: { folder: string; files: Record<string, string> } | null;
@@ -37,12 +39,15 @@ const slashes = (path: string) => path.split('\\').join('/').replace(/^\.\//, ''
 export function buildInputs(
   register: { folder: string; sources: ReadonlyArray<{ file: string; source: { text: string } }> } | undefined,
   config: { file: string; text: string } | undefined,
+  /** Where the paths are made relative to: the procedures folder (as the command line names it, or absolute). */
+  root = '.',
 ): BuildInputs {
+  const from = (file: string) => slashes(relative(resolve(root), resolve(file)) || '.');
   return {
     register: register
-      ? { folder: slashes(register.folder), files: Object.fromEntries(register.sources.map((s) => [slashes(s.file), sourceDigest(s.source.text)]).sort(([a], [b]) => a.localeCompare(b))) }
+      ? { folder: from(register.folder), files: Object.fromEntries(register.sources.map((s) => [from(s.file), sourceDigest(s.source.text)]).sort(([a], [b]) => a.localeCompare(b))) }
       : null,
-    config: config ? { file: slashes(config.file), sha256: sourceDigest(config.text) } : null,
+    config: config ? { file: from(config.file), sha256: sourceDigest(config.text) } : null,
   };
 }
 

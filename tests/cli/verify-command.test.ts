@@ -1,7 +1,7 @@
 // `stepwright verify`: every procedure page's source fingerprint against the sources as they are now.
 import { cpSync, mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync, readFileSync, unlinkSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { basename, join } from 'node:path';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { buildInputs, inputsMeta, integrityMeta, sourceDigest } from '../../src/render/source-integrity.ts';
 import { runCli } from './run-cli.ts';
@@ -12,7 +12,7 @@ let dir: string;
 
 /** The register files (paths relative to the project folder) as the build records them. */
 function registerOf(project: string, files: string[]) {
-  return { folder: 'register', sources: files.map((file) => ({ file, source: { text: readFileSync(join(project, file), 'utf8') } })) };
+  return { folder: join(project, 'register'), sources: files.map((file) => ({ file: join(project, file), source: { text: readFileSync(join(project, file), 'utf8') } })) };
 }
 
 const attribute = (text: string) => text.replace(/&/g, '&amp;').replace(/"/g, '&quot;');
@@ -74,7 +74,7 @@ describe('stepwright verify', () => {
       writeFileSync(join(dir, 'register', 'areas.yaml'), 'areas:\n  T-230: { name: Blending }\n');
       writeFileSync(join(dir, 'stepwright.config.yaml'), 'procedures: procedures\n');
       rmSync(join(dir, 'dist'), { recursive: true });
-      publish(join(dir, 'procedures'), join(dir, 'dist'), buildInputs(registerOf(dir, ['register/areas.yaml', 'register/t-230.yaml']), { file: 'stepwright.config.yaml', text: readFileSync(join(dir, 'stepwright.config.yaml'), 'utf8') }));
+      publish(join(dir, 'procedures'), join(dir, 'dist'), buildInputs(registerOf(dir, ['register/areas.yaml', 'register/t-230.yaml']), { file: join(dir, 'stepwright.config.yaml'), text: readFileSync(join(dir, 'stepwright.config.yaml'), 'utf8') }, join(dir, 'procedures')));
     });
 
     it('passes while the register and the configuration are as the pages were built from', async () => {
@@ -94,6 +94,12 @@ describe('stepwright verify', () => {
       expect(out.stdout).not.toMatch(/areas\.yaml/);
       expect(out.stdout).not.toMatch(/^All 2 procedure pages match their sources\.$/m);
       expect(out.stdout).toMatch(/against the register and configuration: 2 out of date, 0 not checked/);
+      // From another working folder the register is found from the procedures folder, as the sources are.
+      const name = basename(dir);
+      const elsewhere = await runCli(['verify', `${name}/dist`, '--procedures', `${name}/procedures`], join(dir, '..'));
+      expect(elsewhere.code).toBe(1);
+      expect(elsewhere.stdout).toContain(`${name}/dist/procedures/valid-base/index.html: built from a register or configuration that no longer matches: ${name}/register/t-230.yaml has changed since the build.`);
+      expect(elsewhere.stdout).not.toMatch(/is gone since the build/);
     });
 
     it('reports a register file removed or added, and a changed configuration', async () => {
