@@ -9,6 +9,7 @@ import type { Browser, Page } from 'playwright-core';
 import { PDFParse } from 'pdf-parse';
 import { artifactsDir, builtSite, launchChromium, serveSite, type SiteServer } from './floor-fixture.ts';
 import { PagePool } from './page-pool.ts';
+import { seriousViolations } from './accessibility-scan.ts';
 import { loadRegister } from '../../src/engine/load-register.ts';
 
 vi.setConfig({ testTimeout: 120_000, hookTimeout: 600_000 });
@@ -130,6 +131,23 @@ describe('register pages', () => {
     expect(await redline.locator('[data-register-as-built]').count()).toBe(1);
     // Moving the trips into the register is not shown as taking them away.
     expect(await redline.locator('article').innerText()).not.toMatch(/HS-2201\s+removed/);
+  });
+
+  it('says on a revision in force which register entries it takes over changed after it took effect', async () => {
+    // The kettle's emergency shutdown took effect on 2026-12-02; the register's TI-210 changed on 2026-12-03 (in this
+    // repository's history).
+    const page = await open('/procedures/u2-k210-esd-001/');
+    const note = page.locator('[data-register-changed-since]');
+    expect(await note.count()).toBe(1);
+    const text = await note.innerText();
+    expect(text).toMatch(/Plant register changed since this revision took effect/);
+    expect(text).toMatch(/This revision took effect on 2026-12-02/);
+    expect(text).toMatch(/TI-210 changed on 2026-12-03/);
+    expect(await note.locator('a', { hasText: 'TI-210' }).getAttribute('href')).toBe('/register/ti-210/');
+    expect(await seriousViolations(page)).toEqual([]);
+    // A draft's page says nothing of the kind: it shows what it will be approved with.
+    const draft = await open('/procedures/u2-n2-su-001/next/');
+    expect(await draft.locator('[data-register-changed-since]').count()).toBe(0);
   });
 
   it('prints an entry with its values, where it is used and the standing caution', async () => {
