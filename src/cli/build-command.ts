@@ -10,8 +10,8 @@ import { proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
 import { linksOutsideBase, pageFolder, pagePath, type SiteBase } from '../render/site-url.ts';
 import { finishPages, type FinishedPage } from './index-site.ts';
-import { isAlive, publishSite, recoverSite, startRetiring } from './publish-site.ts';
-import { outputPlaceProblem, type GuardedPlace } from './output-place.ts';
+import { isAlive, publishSite, recoverSite, startRetiring, versionsFolder } from './publish-site.ts';
+import { foreignLink, outputPlaceProblem, type GuardedPlace } from './output-place.ts';
 import { findConfigFile, projectRoot } from '../engine/project.ts';
 import { findRegisterFolder } from '../engine/load-register.ts';
 import { readPrivateKey, writeSiteManifest } from './site-manifest.ts';
@@ -83,6 +83,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   }
   const late = placeProblem(loaded.run.register?.folder);
   if (late) throw new UsageError(late);
+  const linkedElsewhere = foreignLink(outDir);
   // What each procedure's pages are made from, kept next to the result cache: a rebuild draws only what changed.
   const cacheFolder = resultCacheFolder(io);
   const recordFile = cacheFolder ? pageRecordPath(cacheFolder, outDir) : undefined;
@@ -197,6 +198,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     await retiring;
     if (work !== tmp) moveFolder(work, tmp);
     const published = publishSite(tmp, outDir);
+    if (linkedElsewhere) io.stderr.write(`stepwright build: ${relative(io.cwd, outDir) || '.'} was a link to ${relative(io.cwd, linkedElsewhere) || '.'}; it now links to the new manual in ${relative(io.cwd, versionsFolder(outDir))}/, and what it linked to is left as it was.\n`);
     // The record describes this build's own version folder: another build publishing meanwhile cannot slip its
     // files under this build's keys.
     if (recordFile && keys) writePageRecord(recordFile, outDir, keys, pages, published);

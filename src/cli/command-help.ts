@@ -15,7 +15,8 @@ The review date marks use $STEPWRIGHT_TODAY or the date of the last commit, so b
 Options:
   --out <dir>           where the site goes (default: dist): a new or empty folder, or one a build published
                         before; a folder holding other files, or the procedures, the register, the
-                        configuration or the repository, is refused and left as it is
+                        configuration or the repository, is refused and left as it is; a link
+                        there is replaced by the build's own (what it pointed to is left as it was)
   --procedures <dir>    the procedures folder, same as the folder argument (default: $STEPWRIGHT_PROCEDURES,
                         else 'procedures' in the config file, else procedures/)
   --config <file>       the configuration (default: the nearest stepwright.config.yaml from this

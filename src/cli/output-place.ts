@@ -1,7 +1,7 @@
 // Where `stepwright build --out` may publish. Publishing puts a link to the new version at the output path and keeps
 // the folder that was there as an older version, which a later build removes (cli/publish-site.ts). So the output
-// path must be nothing yet, an empty folder, or a site a build published there (its manifest says so) — never a
-// folder of the user's own, and never a folder that holds the procedures, the register, the configuration, the
+// path must be nothing yet, an empty folder, a site a build published there (its manifest says so), or a link (which
+// is replaced, what it points to left as it was) — never a folder of the user's own, and never a folder that holds the procedures, the register, the configuration, the
 // folder the command runs in or the repository.
 import { lstatSync, readdirSync, readlinkSync } from 'node:fs';
 import { dirname, isAbsolute, relative, resolve } from 'node:path';
@@ -58,17 +58,8 @@ export function outputPlaceProblem(outDir: string, cwd: string, guarded: Guarded
     return undefined;
   }
   if (kind === 'other') return `The output path '${out}' is a file, not a folder; it was left alone. ${hint}`;
-  if (kind === 'link') {
-    // A build links the output path to a version folder of its own: <out>.versions/site-….
-    let target = '';
-    try {
-      target = resolve(dirname(outDir), readlinkSync(outDir));
-    } catch {
-      // Unreadable: treated as not the build's.
-    }
-    if (target && isInside(target, versionsFolder(outDir)) && target !== versionsFolder(outDir)) return undefined;
-    return `The output path '${out}' is a link to ${target ? `'${shown(target, cwd)}'` : 'somewhere'} that a build did not make; a build would replace it. It was left alone. ${hint}`;
-  }
+  // A link is replaced by the build's own link, in one step; what it pointed to is left as it was (see foreignLink).
+  if (kind === 'link') return undefined;
   let names: string[];
   try {
     names = readdirSync(outDir);
@@ -78,4 +69,20 @@ export function outputPlaceProblem(outDir: string, cwd: string, guarded: Guarded
   // Empty, or a manual published there (by a build that could not make links, or before builds made them).
   if (names.length === 0 || names.includes(manifestFile)) return undefined;
   return `The output folder '${out}' holds files a build did not write (${someNames(names)}): a build replaces its output folder with the new manual and later removes what was there, so it was left alone. Move those files elsewhere, or ${hint.charAt(0).toLowerCase()}${hint.slice(1)}`;
+}
+
+/**
+ * Where the output path links to when it is a link a build did not make (a build links it to a version folder of its
+ * own, <out>.versions/site-…), else undefined. Publishing replaces that link with the build's own; the build says so.
+ */
+export function foreignLink(outDir: string): string | undefined {
+  let target: string;
+  try {
+    if (!lstatSync(outDir).isSymbolicLink()) return undefined;
+    target = resolve(dirname(outDir), readlinkSync(outDir));
+  } catch {
+    return undefined;
+  }
+  const versions = versionsFolder(outDir);
+  return isInside(target, versions) && target !== versions ? undefined : target;
 }

@@ -7,7 +7,7 @@ import { cpSync, lstatSync, mkdirSync, readdirSync, readFileSync, symlinkSync, w
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { outputPlaceProblem } from '../../src/cli/output-place.ts';
+import { foreignLink, outputPlaceProblem } from '../../src/cli/output-place.ts';
 import { runCli } from './run-cli.ts';
 import { tempFolder } from '../temp-folder.ts';
 
@@ -49,13 +49,11 @@ describe('where a build may publish', () => {
     ['..', /'\.\.' holds the folder the command runs in/],
     ['.git', /'\.git' is git's own folder/],
     ['notes.md', /'notes\.md' is a file, not a folder/],
-    ['elsewhere', /'elsewhere' is a link to '.*' that a build did not make/],
   ])('refuses --out %s before reading anything, and leaves everything as it was', async (out, message) => {
     const dir = plant();
     mkdirSync(join(dir, 'site'));
     writeFileSync(join(dir, 'site', 'notes.txt'), 'Shift notes');
     writeFileSync(join(dir, 'notes.md'), 'Notes');
-    symlinkSync('site', join(dir, 'elsewhere'));
     const before = snapshot(dir);
     const run = await runCli(['build', '--config', 'config/stepwright.config.yaml', '--out', out], dir);
     expect(run.code).toBe(2);
@@ -85,6 +83,12 @@ describe('where a build may publish', () => {
     mkdirSync(join(dir, 'dist.versions', 'site-001796498372183-4242'), { recursive: true });
     symlinkSync(join('dist.versions', 'site-001796498372183-4242'), join(dir, 'dist'));
     expect(outputPlaceProblem(join(dir, 'dist'), dir, guarded)).toBeUndefined();
+    expect(foreignLink(join(dir, 'dist'))).toBeUndefined();
+    // A link the build did not make (to a web server's folder, say) is replaced by the build's own link; what it
+    // points to is left as it was, and the build says so.
+    symlinkSync('old', join(dir, 'web'));
+    expect(outputPlaceProblem(join(dir, 'web'), dir, guarded)).toBeUndefined();
+    expect(foreignLink(join(dir, 'web'))).toBe(join(dir, 'old'));
   });
 
   it('refuses any output path that is or holds a guarded place, and any inside one that must not hold it (property)', () => {
