@@ -122,6 +122,8 @@ const block = fc.oneof(
     '- word\n- [ ] word\n- [x] <i>word</i>', '> word <kbd>word</kbd>', '## word', '[d1]: https://alder-reach.example/word',
     '[d2]: file://srv/word', '[d1]: https://alder-reach.example/word', '[^f1]: word', '[^f2]: word[^f3]', '[^f3]: word', '[^f1]: word',
     '```\n<b>word</b>\n```', '    <i>word</i>',
+    // Bare addresses: the page links them, and removes one it does not keep.
+    'Call xmpp:word@alder-reach.example', 'See www.alder-reach.example/word', 'Mail word@alder-reach.example',
   ),
 );
 const bodies = fc.tuple(fc.array(block, { minLength: 1, maxLength: 8 }), fc.array(fc.constantFrom('\n', '\n\n'), { minLength: 8, maxLength: 8 })).map(([blocks, gaps]): Made => {

@@ -4,6 +4,8 @@ import { bodyLosses, type BodyLoss } from '../../analysis/body-losses.ts';
 import { bodySchema } from '../../analysis/body-kept.ts';
 import { defineFileRule, type FileContext } from '../define-rule.ts';
 
+const mayLoseText = /[<[]|xmpp:/i;
+
 const linkProtocols = (bodySchema.protocols?.href ?? []).join(', ');
 const imageProtocols = (bodySchema.protocols?.src ?? []).join(', ');
 
@@ -40,6 +42,10 @@ The list is made by the same steps that make the page, so what this rule does no
     },
   },
   (ctx) => {
+    // Every loss starts at a '<' (HTML, an address in angle brackets) or a '[' (a link, an image, a definition, a
+    // footnote), or is a bare xmpp: address (the only bare address the page does not keep): a body with none of them
+    // loses nothing, and its tree is not even read.
+    if (!mayLoseText.test(ctx.source.bodyText)) return;
     for (const loss of bodyLosses(ctx.source.body)) report(ctx, loss);
   },
 );

@@ -9,6 +9,27 @@ import { limitBounds } from '../limit-bounds.ts';
 import { unnamedRegisterTrips } from '../register-trips.ts';
 import { defineFileRule } from '../define-rule.ts';
 
+/**
+ * What a condition gives, by its text and the declarations of the signals it names: the same wait or trip written in
+ * many procedures (a shared operation's copies, every procedure of one unit) is worked out once.
+ */
+const worked = new Map<string, Map<string, IntervalSet>>();
+
+function memo(kind: string, text: string, condition: Condition, signals: Readonly<Record<string, SignalInfo>>, work: () => Map<string, IntervalSet>): Map<string, IntervalSet> {
+  const declared = [...new Set(comparisonsIn(condition).map((c) => c.name.name))].sort().map((n) => {
+    const s = signals[n];
+    return s ? [n, s.unit ?? '', s.range ?? null, s.values ?? null] : [n];
+  });
+  const key = `${kind}\u0000${text}\u0000${JSON.stringify(declared)}`;
+  let found = worked.get(key);
+  if (!found) {
+    found = work();
+    if (worked.size >= 20_000) worked.clear();
+    worked.set(key, found);
+  }
+  return found;
+}
+
 /** The values of each numeric signal the condition compares at which it can be true (SI base units). */
 function valuesWhereTrue(condition: Condition, signals: Readonly<Record<string, SignalInfo>>): Map<string, IntervalSet> {
   const out = new Map<string, IntervalSet>();
@@ -75,20 +96,30 @@ its running limit as a transfer ends).`,
     const valuesOfTrip = (key: string, condition: Condition) => {
       let sets = tripValues.get(key);
       if (!sets) {
-        try {
-          sets = tripSets(condition, signals);
-        } catch (error) {
-          if (!(error instanceof NotAnalysable)) throw error;
-          sets = new Map();
-        }
+        sets = memo('trip', key, condition, signals, () => {
+          try {
+            return tripSets(condition, signals);
+          } catch (error) {
+            if (!(error instanceof NotAnalysable)) throw error;
+            return new Map();
+          }
+        });
         tripValues.set(key, sets);
       }
       return sets;
     };
     const stopping = stoppingKinds.has(String(ctx.procedure.kind));
+    // Only a wait on a signal that has a trip or a high limit can be reported: others are passed over unread.
+    const guarded = new Set<string>();
+    for (const trip of trips) if (trip.result.ok) for (const c of comparisonsIn(trip.result.condition)) guarded.add(c.name.name);
+    for (const [signal, limit] of bounds) if (limit.high) guarded.add(signal);
+    const registerGuards = (signal: string) => unnamedRegisterTrips(ctx.register, ctx.procedure!, signal).length > 0;
     for (const site of ctx.facts.conditions) {
       if (site.role !== 'until' || !site.result.ok || site.problems.length) continue;
-      const ending = valuesWhereTrue(site.result.condition, signals);
+      const names = comparisonsIn(site.result.condition).filter((c) => c.value.kind === 'quantity').map((c) => c.name.name);
+      if (!names.some((n) => guarded.has(n) || registerGuards(n))) continue;
+      const condition = site.result.condition;
+      const ending = memo('wait', site.text, condition, signals, () => valuesWhereTrue(condition, signals));
       for (const [signal, values] of ending) {
         // A wait for a signal to fall (every value that ends it is below some value): in a procedure that stops the
         // plant, flows and pressures falling through their low trips is what stopping does.
@@ -107,7 +138,7 @@ its running limit as a transfer ends).`,
           });
         }
         for (const trip of unnamedRegisterTrips(ctx.register, ctx.procedure, signal)) {
-          const at = valuesOfTrip(`register\u0000${trip.tag}`, trip.condition).get(signal);
+          const at = valuesOfTrip(`register\u0000${trip.tag}\u0000${trip.text}`, trip.condition).get(signal);
           if (!at || !within(values, at)) continue;
           tripped = true;
           ctx.report({
