@@ -10,6 +10,7 @@ import { isNotAProcedure } from '../engine/not-a-procedure.ts';
 import { describeSite, recoverSite } from './publish-site.ts';
 import { checkSiteManifest, manifestFile, publicKeyFile, readPublicKey, signatureFile } from './site-manifest.ts';
 import { verifyHelp } from './command-help.ts';
+import { registerFiles as registerFilesUnder } from '../engine/load-register.ts';
 
 export { verifyHelp };
 
@@ -182,7 +183,7 @@ export function compareInputs(pages: PageStamp[], root: string, cwd: string): { 
   };
   const listings = new Map<string, string[]>();
   const registerFiles = (folder: string): string[] => {
-    if (!listings.has(folder)) listings.set(folder, yamlFilesUnder(resolve(root, folder)).map((f) => relative(root, f).split('\\').join('/')));
+    if (!listings.has(folder)) listings.set(folder, registerFilesUnder(resolve(root, folder)).map((f) => relative(root, f).split('\\').join('/')));
     return listings.get(folder)!;
   };
   const mismatched: InputMismatch[] = [];
@@ -212,26 +213,6 @@ export function compareInputs(pages: PageStamp[], root: string, cwd: string): { 
   return { mismatched, unrecorded };
 }
 
-/** The register's files as the build reads them: *.yaml and *.yml under the folder, hidden names left out. */
-function yamlFilesUnder(folder: string): string[] {
-  const out: string[] = [];
-  const walk = (dir: string) => {
-    let names: string[];
-    try {
-      names = readdirSync(dir).sort();
-    } catch {
-      return;
-    }
-    for (const name of names) {
-      if (name.startsWith('.')) continue;
-      const full = join(dir, name);
-      if (isDirectory(full)) walk(full);
-      else if (/\.ya?ml$/i.test(name)) out.push(full);
-    }
-  };
-  walk(folder);
-  return out;
-}
 
 /** Every HTML page under the site folder that carries the fingerprint meta elements. */
 export function readStamps(site: string): PageStamp[] {

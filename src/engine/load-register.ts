@@ -51,23 +51,16 @@ export function readRegisterFolder(location: RegisterLocation, cwd: string): Pla
   }
   const sources: RegisterSource[] = [];
   const problems: Array<{ file: string; message: string }> = [];
-  const walk = (dir: string) => {
-    for (const name of readdirSync(dir).sort()) {
-      if (name.startsWith('.')) continue;
-      const full = join(dir, name);
-      if (isFolder(full)) walk(full);
-      else if (/\.ya?ml$/i.test(name)) {
-        const file = shown(full);
-        try {
-          const text = new TextDecoder('utf-8', { fatal: true }).decode(readFileSync(full));
-          sources.push({ file, source: readYamlSource(file, text) });
-        } catch (error) {
-          problems.push({ file, message: (error as Error).name === 'TypeError' ? 'it is not valid UTF-8 text' : (error as Error).message });
-        }
-      }
+  const files = registerFiles(location.absolute, (dir, error) => problems.push({ file: shown(dir), message: `the folder could not be read (${(error as NodeJS.ErrnoException).code ?? (error as Error).message})` }));
+  for (const full of files) {
+    const file = shown(full);
+    try {
+      const text = new TextDecoder('utf-8', { fatal: true }).decode(readFileSync(full));
+      sources.push({ file, source: readYamlSource(file, text) });
+    } catch (error) {
+      problems.push({ file, message: (error as Error).name === 'TypeError' ? 'it is not valid UTF-8 text' : (error as Error).message });
     }
-  };
-  walk(location.absolute);
+  }
   const register = buildRegister(folder, sources);
   for (const p of problems) {
     register.diagnostics.push({
@@ -77,6 +70,31 @@ export function readRegisterFolder(location: RegisterLocation, cwd: string): Pla
     });
   }
   return register;
+}
+
+/**
+ * The register's files, as every command reads them: *.yaml and *.yml under the folder, sorted, hidden names left
+ * out. A folder that cannot be listed is told to `unreadable` and passed over.
+ */
+export function registerFiles(folder: string, unreadable: (dir: string, error: unknown) => void = () => undefined): string[] {
+  const out: string[] = [];
+  const walk = (dir: string) => {
+    let names: string[];
+    try {
+      names = readdirSync(dir).sort();
+    } catch (error) {
+      unreadable(dir, error);
+      return;
+    }
+    for (const name of names) {
+      if (name.startsWith('.')) continue;
+      const full = join(dir, name);
+      if (isFolder(full)) walk(full);
+      else if (/\.ya?ml$/i.test(name)) out.push(full);
+    }
+  };
+  walk(folder);
+  return out;
 }
 
 /** The register for a command: found from the configuration, read, or undefined when the plant has none. */

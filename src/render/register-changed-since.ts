@@ -1,7 +1,16 @@
 // The plant register entries a procedure takes over that changed after the revision shown took effect: the page
 // shows them as the register defines them now, which is not what the revision's approvers saw. Said on the page,
 // with each change, so that a value no approval covered never passes as approved.
-import type { RegisterEntryRevision } from '../history/register-history.ts';
+
+/** What the page needs of one change of a register entry (the history reads it from git). */
+export interface EntryChange {
+  /** Undefined for a change not committed yet. */
+  commit?: string;
+  /** YYYY-MM-DD of the commit. */
+  date?: string;
+  change: 'added' | 'removed' | 'changed';
+  details: string[];
+}
 
 export interface RegisterChangeSince {
   id: string;
@@ -9,7 +18,7 @@ export interface RegisterChangeSince {
   /** YYYY-MM-DD of the change; undefined for a change not committed yet. */
   date?: string;
   details: string[];
-  change: RegisterEntryRevision['change'];
+  change: EntryChange['change'];
 }
 
 /** A change's details as a line of the page: short ones as they are; a long one (a whole block) is left to the entry's page. */
@@ -23,7 +32,7 @@ const longestDetail = 120;
 export function registerChangedSince(
   revision: { status: string; effective?: string },
   entries: ReadonlyArray<{ id: string; url: string }>,
-  history: ReadonlyMap<string, readonly RegisterEntryRevision[]>,
+  history: ReadonlyMap<string, readonly EntryChange[]>,
 ): RegisterChangeSince[] {
   const effective = revision.effective;
   if (revision.status !== 'effective' || !effective) return [];
