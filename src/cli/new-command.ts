@@ -8,7 +8,7 @@ import type { Kind } from '../model/procedure.ts';
 import { scaffoldProcedure } from '../render/procedure-scaffold.ts';
 import { todayOf, UsageError, type CliIo } from './io.ts';
 import { schemaReference } from './package-files.ts';
-import { projectRoot, proceduresFolder } from './project.ts';
+import { isInside, projectRoot, proceduresFolder } from './project.ts';
 import { readProcedureFiles } from './read-procedure-files.ts';
 import { newHelp } from './command-help.ts';
 import { shellWord } from '../model/shell-word.ts';
@@ -95,8 +95,3 @@ function idInUse(id: string, paths: string[], cwd: string): string | undefined {
   return undefined;
 }
 
-/** True when `path` is `folder` or lies inside it (both absolute). */
-function isInside(path: string, folder: string): boolean {
-  const rel = relative(folder, path);
-  return rel === '' || (!rel.startsWith('..') && !isAbsolute(rel));
-}

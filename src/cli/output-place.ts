@@ -4,7 +4,8 @@
 // is replaced, what it points to left as it was) — never a folder of the user's own, and never a folder that holds the procedures, the register, the configuration, the
 // folder the command runs in or the repository.
 import { lstatSync, readdirSync, readlinkSync } from 'node:fs';
-import { dirname, isAbsolute, relative, resolve } from 'node:path';
+import { dirname, relative, resolve } from 'node:path';
+import { isInside } from '../engine/project.ts';
 import { manifestFile } from './site-manifest.ts';
 import { versionsFolder } from './publish-site.ts';
 
@@ -16,11 +17,6 @@ export interface GuardedPlace {
   what: string;
   /** A folder the output must not be put inside either (the procedures folder, the register). */
   notInside?: boolean;
-}
-
-function isInside(path: string, folder: string): boolean {
-  const rel = relative(folder, path);
-  return rel === '' || (!rel.startsWith('..') && !isAbsolute(rel));
 }
 
 function shown(path: string, cwd: string): string {

@@ -1,7 +1,8 @@
 // Finds and reads the plant register: the folder named by `register:` in stepwright.config.yaml (relative to
 // that file), else `register/` next to the configuration or in the working folder. No folder, no register.
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
-import { dirname, isAbsolute, join, relative, resolve } from 'node:path';
+import { dirname, join, relative, resolve } from 'node:path';
+import { isInside } from './project.ts';
 import { readYamlSource } from '../parse/read-yaml-source.ts';
 import { buildRegister, type PlantRegister, type RegisterSource } from '../model/register.ts';
 
@@ -31,10 +32,6 @@ export function findRegisterFolder(cwd: string, configPath: string | undefined, 
   return undefined;
 }
 
-function isInside(path: string, folder: string): boolean {
-  const rel = relative(folder, path);
-  return rel === '' || (!rel.startsWith('..') && !isAbsolute(rel));
-}
 
 /** Reads every *.yaml / *.yml file under the folder (sorted, recursively) into the register model. */
 export function readRegisterFolder(location: RegisterLocation, cwd: string): PlantRegister {

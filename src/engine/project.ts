@@ -1,7 +1,7 @@
 // The user's project as a command sees it: which configuration file applies and which folder holds the
 // procedures. Every command takes the procedures folder from here, so the default is decided in one place.
 import { existsSync, readFileSync, statSync } from 'node:fs';
-import { dirname, join, relative, resolve, sep } from 'node:path';
+import { dirname, isAbsolute, join, relative, resolve } from 'node:path';
 import { parseDocument } from 'yaml';
 import { configFileName } from '../check/config.ts';
 import { parseBase, type SiteBase } from '../model/site-base.ts';
@@ -79,7 +79,7 @@ export function proceduresFolder(io: { cwd: string; env: Record<string, string |
 function defaultFolder(cwd: string, configFile: string | undefined): string {
   const start = resolve(cwd);
   const top = configFile ? dirname(configFile) : projectRoot(start);
-  const inside = start === top || start.startsWith(top.endsWith(sep) ? top : top + sep);
+  const inside = isInside(start, top);
   for (let here = start; inside; here = dirname(here)) {
     const candidate = join(here, defaultProceduresFolder);
     if (statSync(candidate, { throwIfNoEntry: false })?.isDirectory()) return relative(cwd, candidate) || '.';
@@ -106,4 +106,10 @@ export function siteBase(io: { cwd: string }, options: { base?: string; config?:
     throw new UsageError(options.base !== undefined ? `--base: ${parsed.problem}` : `'base' in the configuration file: ${parsed.problem}`);
   }
   return parsed.base;
+}
+
+/** True when `path` is `folder` or lies inside it (both absolute). */
+export function isInside(path: string, folder: string): boolean {
+  const rel = relative(folder, path);
+  return rel === '' || (!rel.startsWith('..') && !isAbsolute(rel));
 }
