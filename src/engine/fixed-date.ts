@@ -2,15 +2,9 @@
 // calendar date is refused with a message, never passed over: a check that quietly used the clock instead would
 // judge review and effective dates by another day than the one the user asked for.
 import { UsageError } from './usage-error.ts';
+import { isCalendarDate, isoDatePattern } from '../model/calendar-date.ts';
 
-/** Whether a text is a calendar date written YYYY-MM-DD (2026-02-30 is not). */
-export function isCalendarDate(text: string): boolean {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text);
-  if (!m) return false;
-  const [year, month, day] = [Number(m[1]), Number(m[2]), Number(m[3])];
-  const date = new Date(Date.UTC(year, month - 1, day));
-  return date.getUTCFullYear() === year && date.getUTCMonth() === month - 1 && date.getUTCDate() === day;
-}
+export { isCalendarDate };
 
 /**
  * The date STEPWRIGHT_TODAY fixes (spaces around it allowed), or undefined when it is unset or empty. Throws a
@@ -21,7 +15,7 @@ export function fixedToday(env: Record<string, string | undefined>): string | un
   if (raw === undefined || raw.trim() === '') return undefined;
   const value = raw.trim();
   if (isCalendarDate(value)) return value;
-  const why = /^\d{4}-\d{2}-\d{2}$/.test(value)
+  const why = isoDatePattern.test(value)
     ? 'which is not a day of the calendar'
     : /^\d{4}-\d{1,2}-\d{1,2}$/.test(value)
       ? 'which needs two digits for the month and the day'

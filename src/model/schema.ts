@@ -1,10 +1,10 @@
 // The one schema of a procedure's front-matter: the CLI, the site and the editor's JSON Schema all use it.
 import { z } from 'zod';
 import { kinds } from './kinds.ts';
+import { isCalendarDate, isoDatePattern } from './calendar-date.ts';
 
 export const procedureIdPattern = /^[A-Z0-9][A-Z0-9-]*$/;
 export const stepIdPattern = /^[a-z0-9][a-z0-9-]*$/;
-const isoDate = /^\d{4}-\d{2}-\d{2}$/;
 
 export { kinds };
 export const statuses = ['draft', 'in-review', 'approved', 'effective', 'superseded', 'retired'] as const;
@@ -13,8 +13,8 @@ export const hazardLevels = ['danger', 'warning', 'caution', 'notice'] as const;
 const text = z.string().trim().min(1, 'must not be empty');
 const date = z
   .string()
-  .regex(isoDate, 'must be a date written YYYY-MM-DD')
-  .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), 'is not a calendar date');
+  .regex(isoDatePattern, 'must be a date written YYYY-MM-DD')
+  .refine(isCalendarDate, 'is not a calendar date');
 /** A quantity written as text, e.g. "238 degC"; its unit is checked by the rules, not here. */
 const quantityText = z.union([z.string(), z.number()]);
 
