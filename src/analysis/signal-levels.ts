@@ -112,6 +112,35 @@ export function tripSets(condition: Condition, signals: Readonly<Record<string, 
   return out;
 }
 
+/**
+ * The values of each numeric signal the condition compares at which it can be true (SI base units), whatever the
+ * other signals are: what a step's `until` can end at (the sibling of tripSets). Empty when it cannot be analysed.
+ */
+export function valuesWhereTrue(condition: Condition, signals: Readonly<Record<string, SignalInfo>>): Map<string, IntervalSet> {
+  const out = new Map<string, IntervalSet>();
+  let space: SignalSpace;
+  let region;
+  try {
+    space = new SignalSpace(signals, [condition], { useRanges: false });
+    region = space.regionOf(condition, true);
+  } catch (error) {
+    if (error instanceof NotAnalysable) return out;
+    throw error;
+  }
+  const compared = new Set(comparisonsIn(condition).filter((c) => c.value.kind === 'quantity').map((c) => c.name.name));
+  for (const name of compared) {
+    const variable = space.variables.get(name);
+    if (variable?.kind !== 'number') continue;
+    let set: IntervalSet = [];
+    for (const box of region) {
+      const values = box.get(name);
+      set = union(set, values?.kind === 'number' ? values.set : variable.domain);
+    }
+    out.set(name, set);
+  }
+  return out;
+}
+
 /** A trip level at a bound of its set, shown as the condition writes that threshold when it does. */
 function tripLevel(side: Side, signal: string, base: number, condition: Condition, unit: string | undefined, at: LevelPlace, extra: Partial<Level>): Level {
   const written = comparisonsIn(condition).find((c) => c.name.name === signal && c.value.kind === 'quantity' && snap(toBase(c.value.value, c.value.unit) ?? Number.NaN) === base);

@@ -2,9 +2,9 @@
 // limits, whatever the other signals do: the step can only end with the plant tripped, or out of its limits.
 import type { Condition } from '../../analysis/conditions/ast.ts';
 import { comparisonsIn } from '../../analysis/conditions/parse.ts';
-import { isEmpty, subtract, union, type IntervalSet } from '../../analysis/decisions/interval-set.ts';
-import { NotAnalysable, SignalSpace, type SignalInfo } from '../../analysis/decisions/signal-space.ts';
-import { tripSets } from '../../analysis/signal-levels.ts';
+import { isEmpty, subtract, type IntervalSet } from '../../analysis/decisions/interval-set.ts';
+import { NotAnalysable, type SignalInfo } from '../../analysis/decisions/signal-space.ts';
+import { tripSets, valuesWhereTrue } from '../../analysis/signal-levels.ts';
 import { limitBounds } from '../limit-bounds.ts';
 import { unnamedRegisterTrips } from '../register-trips.ts';
 import { defineFileRule } from '../define-rule.ts';
@@ -28,32 +28,6 @@ function memo(kind: string, text: string, condition: Condition, signals: Readonl
     worked.set(key, found);
   }
   return found;
-}
-
-/** The values of each numeric signal the condition compares at which it can be true (SI base units). */
-function valuesWhereTrue(condition: Condition, signals: Readonly<Record<string, SignalInfo>>): Map<string, IntervalSet> {
-  const out = new Map<string, IntervalSet>();
-  let space: SignalSpace;
-  let region;
-  try {
-    space = new SignalSpace(signals, [condition], { useRanges: false });
-    region = space.regionOf(condition, true);
-  } catch (error) {
-    if (error instanceof NotAnalysable) return out;
-    throw error;
-  }
-  const compared = new Set(comparisonsIn(condition).filter((c) => c.value.kind === 'quantity').map((c) => c.name.name));
-  for (const name of compared) {
-    const variable = space.variables.get(name);
-    if (variable?.kind !== 'number') continue;
-    let set: IntervalSet = [];
-    for (const box of region) {
-      const values = box.get(name);
-      set = union(set, values?.kind === 'number' ? values.set : variable.domain);
-    }
-    out.set(name, set);
-  }
-  return out;
 }
 
 /** Procedures that stop the plant: signals falling through their low trips is what they do. */
