@@ -29,4 +29,4 @@ export function useColour(io: CliIo, stream: OutputStream): boolean {
 }
 
 /** Thrown for bad command lines; main turns it into a message and exit code 2. */
-export { UsageError } from '../engine/usage-error.ts';
+export { isUsageError, UsageError } from '../engine/usage-error.ts';

@@ -3,7 +3,7 @@
 // and load none of the checker, the units, the language model or the site stack.
 import { closest, distance } from 'fastest-levenshtein';
 import { commandHelp } from './command-help.ts';
-import { UsageError, type CliIo } from './io.ts';
+import { isUsageError, type CliIo } from './io.ts';
 import { packageVersion } from './version.ts';
 
 type Runner = (argv: string[], io: CliIo) => Promise<number>;
@@ -102,7 +102,7 @@ export async function main(argv: string[], io: CliIo): Promise<number> {
     const run = await command.load();
     return await run(rest, io);
   } catch (error) {
-    if (error instanceof UsageError || (error as { code?: string }).code?.startsWith?.('ERR_PARSE_ARGS')) {
+    if (isUsageError(error) || (error as { code?: string }).code?.startsWith?.('ERR_PARSE_ARGS')) {
       io.stderr.write(`stepwright ${name}: ${(error as Error).message}\nRun 'stepwright help ${name}' for usage.\n`);
       return 2;
     }

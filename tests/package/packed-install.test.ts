@@ -113,6 +113,12 @@ describe('the packed package in a plant repository', { timeout: 300_000 }, () =>
     expect(check.stdout).toMatch(/0 errors/);
     expect(check.stdout).toMatch(/README\.md.*not-a-procedure|not-a-procedure.*README\.md/);
     expect(check.status).toBe(0);
+    // A setting the user must fix is said as such (exit 2, how to fix it), not as a fault of the tool, from the
+    // bundled check command too.
+    const badDate = spawnSync(join(plant, 'node_modules', '.bin', 'stepwright'), ['check'], { cwd: plant, env: { ...env, STEPWRIGHT_TODAY: '2030-1-1' }, encoding: 'utf8' });
+    expect(badDate.status).toBe(2);
+    expect(badDate.stderr).toContain("stepwright check: STEPWRIGHT_TODAY is '2030-1-1', which needs two digits for the month and the day");
+    expect(badDate.stderr).not.toContain('internal failure');
     const review = stepwright(['review', '--base', 'HEAD~1']);
     expect(review.stderr).toBe('');
     expect(review.stdout).toContain('U2-UNL-XYL-001');
