@@ -112,11 +112,15 @@ export function tripSets(condition: Condition, signals: Readonly<Record<string, 
   return out;
 }
 
+/** The values a condition can be true at, per signal; or why they could not be worked out. */
+export type EndingValues = { ok: true; values: Map<string, IntervalSet> } | { ok: false; reason: string };
+
 /**
  * The values of each numeric signal the condition compares at which it can be true (SI base units), whatever the
- * other signals are: what a step's `until` can end at (the sibling of tripSets). Empty when it cannot be analysed.
+ * other signals are: what a step's `until` can end at (the sibling of tripSets). Not ok, with the reason, when the
+ * condition cannot be analysed (too many cases, a signal compared with numbers and words).
  */
-export function valuesWhereTrue(condition: Condition, signals: Readonly<Record<string, SignalInfo>>): Map<string, IntervalSet> {
+export function valuesWhereTrue(condition: Condition, signals: Readonly<Record<string, SignalInfo>>): EndingValues {
   const out = new Map<string, IntervalSet>();
   let space: SignalSpace;
   let region;
@@ -124,7 +128,7 @@ export function valuesWhereTrue(condition: Condition, signals: Readonly<Record<s
     space = new SignalSpace(signals, [condition], { useRanges: false });
     region = space.regionOf(condition, true);
   } catch (error) {
-    if (error instanceof NotAnalysable) return out;
+    if (error instanceof NotAnalysable) return { ok: false, reason: error.message };
     throw error;
   }
   const compared = new Set(comparisonsIn(condition).filter((c) => c.value.kind === 'quantity').map((c) => c.name.name));
@@ -138,7 +142,7 @@ export function valuesWhereTrue(condition: Condition, signals: Readonly<Record<s
     }
     out.set(name, set);
   }
-  return out;
+  return { ok: true, values: out };
 }
 
 /** A trip level at a bound of its set, shown as the condition writes that threshold when it does. */

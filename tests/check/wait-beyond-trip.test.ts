@@ -59,4 +59,17 @@ describe('wait-beyond-trip', () => {
     // A rising wait beyond a high trip is reported in a shutdown too.
     expect(found(procedure('shutdown', 'TI-900 >= 210 degC'))).toHaveLength(1);
   });
+
+  it('says so when a wait on a tripped signal is too large to work out, instead of passing it over', () => {
+    // Ten groups of three alternatives over thirty pressures: more cases than the value analysis takes.
+    const pressures = Array.from({ length: 30 }, (_, i) => `  PI-${i}: { text: Pressure ${i}, unit: barg, range: [0, 10] }`).join('\n');
+    const groups = Array.from({ length: 10 }, (_, i) => `(PI-${3 * i} > 1 barg or PI-${3 * i + 1} > 2 barg or PI-${3 * i + 2} < 3 barg)`).join(' and ');
+    const text = procedure('batch', `TI-900 >= 210 degC and ${groups}`).replace('signals:\n', `signals:\n${pressures}\n`);
+    const [d, ...more] = found(text);
+    expect(more).toEqual([]);
+    expect(d.severity).toBe('info');
+    expect(d.message).toMatch(/^The values at which step 'heat' can end \(until TI-900 >= 210 degC and .*\) could not be worked out \(too many cases\), so they were not compared with the trips and high limits on TI-900\.$/);
+    // The same wait on signals without trips or limits is not reported at all.
+    expect(found(text.replace(/^interlocks:[\s\S]*?(?=^steps:)/m, '').replace(/^limits:\n.*\n/m, ''))).toEqual([]);
+  });
 });

@@ -13,16 +13,16 @@ import { defineFileRule } from '../define-rule.ts';
  * What a condition gives, by its text and the declarations of the signals it names: the same wait or trip written in
  * many procedures (a shared operation's copies, every procedure of one unit) is worked out once.
  */
-const worked = new Map<string, Map<string, IntervalSet>>();
+const worked = new Map<string, unknown>();
 
-function memo(kind: string, text: string, condition: Condition, signals: Readonly<Record<string, SignalInfo>>, work: () => Map<string, IntervalSet>): Map<string, IntervalSet> {
+function memo<T>(kind: string, text: string, condition: Condition, signals: Readonly<Record<string, SignalInfo>>, work: () => T): T {
   const declared = [...new Set(comparisonsIn(condition).map((c) => c.name.name))].sort().map((n) => {
     const s = signals[n];
     return s ? [n, s.unit ?? '', s.range ?? null, s.values ?? null] : [n];
   });
   const key = `${kind}\u0000${text}\u0000${JSON.stringify(declared)}`;
-  let found = worked.get(key);
-  if (!found) {
+  let found = worked.get(key) as T | undefined;
+  if (found === undefined) {
     found = work();
     if (worked.size >= 20_000) worked.clear();
     worked.set(key, found);
@@ -55,7 +55,8 @@ step can only end out of limits: a warning. A wait that can also end at values c
 limits is not reported. Not reported either, because they are what the procedure is for: in \`shutdown\`,
 \`emergency-shutdown\` and \`emergency\` procedures, a wait for a signal to fall (a flow or a pressure falling through
 its low trip as the plant stops); and in every procedure, a wait below a low operating limit (a flow falling below
-its running limit as a transfer ends).`,
+its running limit as a transfer ends). A wait whose values cannot be worked out (too many cases, a signal compared
+with numbers and words) is not judged, and an info line names it and the signals it was not compared on.`,
     examples: {
       bad: "limits: {TI-210: {high: 245 degC}}\ninterlocks: [{tag: TSHH-210, trips-when: 'TI-210 >= 255 degC'}]\nsteps: [{step: heat, do: Heat the kettle, until: 'TI-210 >= 260 degC'}]",
       good: "steps: [{step: heat, do: Heat the kettle, until: 'TI-210 >= 238 degC'}]",
@@ -94,7 +95,18 @@ its running limit as a transfer ends).`,
       if (!names.some((n) => guarded.has(n) || registerGuards(n))) continue;
       const condition = site.result.condition;
       const ending = memo('wait', site.text, condition, signals, () => valuesWhereTrue(condition, signals));
-      for (const [signal, values] of ending) {
+      if (!ending.ok) {
+        // Never passed over in silence: the reviewer learns which wait was not compared with its trips and limits.
+        const on = [...new Set(names.filter((n) => guarded.has(n) || registerGuards(n)))].join(', ');
+        ctx.report({
+          path: site.path,
+          severity: 'info',
+          message: `The values at which step '${site.owner}' can end (until ${site.text}) could not be worked out (${ending.reason}), so they were not compared with the trips and high limits on ${on}.`,
+          hint: 'Split the wait into simpler conditions (one signal against one value, joined by and), or check it against the trips by hand.',
+        });
+        continue;
+      }
+      for (const [signal, values] of ending.values) {
         // A wait for a signal to fall (every value that ends it is below some value): in a procedure that stops the
         // plant, flows and pressures falling through their low trips is what stopping does.
         if (stopping && values.every((part) => part.hi !== Infinity)) continue;
