@@ -96,7 +96,11 @@ export function collectFacts(procedure: Procedure): ProcedureFacts {
     get state() {
       let state = stateMemo.get(facts);
       if (!state) {
-        const extra = conditions.filter((c) => c.role === 'needs' || c.role === 'hazard-when').map((c) => c.text);
+        // The conditions of latching trips that a step resets: reset-while-tripped asks whether they can hold there.
+        const reset = new Set(steps.flatMap(({ step }) => (step.resets ?? []).map((r) => r.value)));
+        const latching = new Set(procedure.interlocks.filter((i) => i.latches && reset.has(i.tag)).map((i) => i.tag));
+        const extra = conditions.filter((c) => c.role === 'needs' || c.role === 'hazard-when' || (c.role === 'trips-when' && latching.has(c.owner!)))
+          .map((c) => c.text);
         stateMemo.set(facts, (state = analyseState(stateInputOf(procedure, graphOnce()), extra)));
       }
       return state;

@@ -42,6 +42,8 @@ export interface StateAnalysis {
   pathTo(node: number): string[];
   /** The condition as a region of the space, or undefined when it cannot be analysed. */
   regionOf(text: string): Region | undefined;
+  /** Why `regionOf(text)` gave nothing, once it has been asked (undefined for a text that does not parse). */
+  whyNotAnalysed(text: string): string | undefined;
 }
 
 const builtIns = new Set(['elapsed', 'done']);
@@ -58,6 +60,8 @@ interface Node {
 
 export function analyseState(input: StateInput, extraConditions: string[] = [], budget = defaultBudget): StateAnalysis {
   const gaps: string[] = [];
+  /** Why a condition could not be analysed, by its text. */
+  const reasons = new Map<string, string>();
   const parsed = new Map<string, Condition | null>();
   const parse = (text: string): Condition | null => {
     if (!parsed.has(text)) {
@@ -83,6 +87,7 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
       usable.push(c);
     } catch (e) {
       gaps.push(`'${text}' cannot be analysed (${(e as Error).message})`);
+      reasons.set(text, (e as Error).message);
       parsed.set(text, null);
     }
   }
@@ -105,6 +110,7 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
           region = space.regionOf(c).map(stripBuiltIns);
         } catch (e) {
           gaps.push(`'${text}' cannot be analysed (${(e as Error).message})`);
+          reasons.set(text, (e as Error).message);
         }
       }
       regionCache.set(text, region);
@@ -122,6 +128,9 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
     return out;
   };
   const and = (boxes: Box[], region: Region | undefined): Box[] => (region ? space.and(boxes, region).map(complete) : boxes);
+  // The conditions the rules will ask about are worked out now, so that `gaps` names those that cannot be analysed
+  // whichever rule asks first.
+  for (const text of extraConditions) regionOf(text);
 
   const heldBy = new Map<string, Array<{ trip: string; value: string }>>();
   for (const t of latching) for (const h of t.holds) heldBy.set(h.signal, [...(heldBy.get(h.signal) ?? []), { trip: t.tag, value: h.value }]);
@@ -373,6 +382,7 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
       return out;
     },
     regionOf,
+    whyNotAnalysed: (text) => reasons.get(text),
   };
 }
 

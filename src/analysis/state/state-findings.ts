@@ -1,5 +1,5 @@
 // Questions asked of the plant state at each step: can a hazard's condition hold, may a step's needs fail,
-// does a step drive an output that a latched trip holds.
+// does a step drive an output that a latched trip holds, does a step reset a trip whose cause can be present.
 import type { Region } from '../decisions/signal-space.ts';
 import type { Step } from '../../model/procedure.ts';
 import type { StepGraph } from '../step-graph.ts';
@@ -86,6 +86,39 @@ export function heldOutputConflicts(analysis: StateAnalysis, graph: StepGraph, t
           done.add(key);
           out.push({ step, path: analysis.pathTo(view.node), values: `${trip.tag} in force`, trip: trip.tag, signal: h.signal, wanted: a.value, held: h.value });
         }
+      }
+    }
+  }
+  return out;
+}
+
+export interface ResetFinding extends StateFinding {
+  /** The latching trip the step resets while its condition can hold. */
+  trip: string;
+}
+
+/**
+ * Steps that reset a latching trip while its condition can still hold there, on some path: the reset is tried with
+ * the cause present. A step's own `needs` is taken as holding when it starts (step-need-unmet reports it where it may
+ * not); `trips` maps each latching trip whose condition could be analysed to that condition as a region.
+ */
+export function resetsWithCausePresent(analysis: StateAnalysis, graph: StepGraph, trips: ReadonlyMap<string, Region>): ResetFinding[] {
+  const out: ResetFinding[] = [];
+  for (const { place, step } of steps(graph)) {
+    const resets = (step.resets ?? []).filter((r) => trips.has(r.value));
+    if (!resets.length) continue;
+    const need = step.needs ? analysis.regionOf(step.needs.value) : undefined;
+    const done = new Set<string>();
+    for (const view of analysis.views.get(place) ?? []) {
+      const boxes = need ? analysis.space.and([view.box], need) : [view.box];
+      if (!boxes.length) continue;
+      for (const r of resets) {
+        if (done.has(r.value)) continue;
+        const cause = trips.get(r.value)!;
+        const met = analysis.space.and(boxes, cause);
+        if (!met.length) continue;
+        done.add(r.value);
+        out.push({ step, trip: r.value, path: analysis.pathTo(view.node), values: analysis.space.describe(restrict(met[0], cause)) });
       }
     }
   }
