@@ -26,9 +26,14 @@ const commonMarkParser = unified().use(remarkParse).freeze();
  */
 const additionStart = /[|~@]|\[\^|\[[\sxX]\]|www\.|:\/\/|:-|-:/i;
 
+/** Whether one of GitHub's additions may start in `markdown`; when not, it is read as CommonMark alone. */
+export function mayHoldAdditions(markdown: string): boolean {
+  return additionStart.test(markdown);
+}
+
 /** The mdast tree of a narrative (or of a rule's docs), with positions counted from the start of `markdown`. */
 export function parseNarrative(markdown: string): Root {
-  return (additionStart.test(markdown) ? narrativeParser : commonMarkParser).parse(markdown) as Root;
+  return (mayHoldAdditions(markdown) ? narrativeParser : commonMarkParser).parse(markdown) as Root;
 }
 
 /** The tree with GitHub's additions always on (for tests that hold parseNarrative to it). */

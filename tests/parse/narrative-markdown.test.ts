@@ -3,7 +3,7 @@
 import fc from 'fast-check';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { parseNarrative, parseNarrativeInFull } from '../../src/parse/narrative-markdown.ts';
+import { mayHoldAdditions, parseNarrative, parseNarrativeInFull } from '../../src/parse/narrative-markdown.ts';
 import { readProcedureFiles } from '../../src/cli/read-procedure-files.ts';
 
 // Pieces of markdown, with characters near the additions' own ([, ], x, -, :, w, .) but none of their starts.
@@ -36,13 +36,15 @@ describe('the narrative reader', () => {
   });
 
   it('gives the full tree for every short text made of the characters the additions start with', () => {
-    const alphabet = ['x', '-', ':', ' ', '\n', '.', '[', ']', '^', '/', '~', '|', '@', 'w'];
+    // A text in which an addition may start is read by the full reader itself; every other one is compared. '|',
+    // '~' and '@' alone send a text to the full reader, so they are left out of the texts compared.
+    expect(['|', '~', '@'].every((c) => mayHoldAdditions(`x\n${c}`))).toBe(true);
+    const alphabet = ['x', '-', ':', ' ', '\n', '.', '[', ']', '^', '/', 'w'];
     let texts = [''];
     for (let n = 0; n < 4; n++) texts = texts.flatMap((t) => alphabet.map((c) => t + c));
-    for (const t of texts) {
-      const body = `x\n${t}`;
-      expect(parseNarrative(body), JSON.stringify(body)).toEqual(parseNarrativeInFull(body));
-    }
+    const compared = texts.map((t) => `x\n${t}`).filter((body) => !mayHoldAdditions(body));
+    expect(compared.length).toBeGreaterThan(10_000);
+    for (const body of compared) expect(parseNarrative(body), JSON.stringify(body)).toEqual(parseNarrativeInFull(body));
   });
 
   it('gives the full tree for bodies with them (property)', () => {
