@@ -134,9 +134,9 @@ describe('register pages', () => {
   });
 
   it('says on a revision in force which register entries it takes over changed after it took effect', async () => {
-    // The kettle's emergency shutdown took effect on 2026-12-02; the register's TI-210 changed on 2026-12-03 (in this
+    // The kettle's normal shutdown took effect on 2026-12-02; the register's TI-210 changed on 2026-12-03 (in this
     // repository's history).
-    const page = await open('/procedures/u2-k210-esd-001/');
+    const page = await open('/procedures/u2-k210-sd-001/');
     const note = page.locator('[data-register-changed-since]');
     expect(await note.count()).toBe(1);
     const text = await note.innerText();
