@@ -1,7 +1,6 @@
 // Compiles the package for publishing: src/**/*.ts → lib/**/*.js (relative imports rewritten to .js), and
 // the site's own files (.astro pages and components, styles, the service worker) copied next to them with
 // their imports of engine modules pointed at the compiled .js. `npm pack` runs this first (prepack).
-import { spawnSync } from 'node:child_process';
 import { cpSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, extname, join, relative } from 'node:path';
@@ -12,16 +11,40 @@ const src = join(root, 'src');
 const lib = join(root, 'lib');
 
 rmSync(lib, { recursive: true, force: true });
-const tsc = createRequire(import.meta.url).resolve('typescript/bin/tsc');
-const run = spawnSync(process.execPath, [tsc, '-p', join(root, 'tsconfig.build.json')], { cwd: root, stdio: 'inherit' });
-if (run.status !== 0) {
-  process.stderr.write('compile: the TypeScript compiler reported errors; no package was made.\n');
-  process.exit(1);
-}
+const { build, transform } = await import(createRequire(import.meta.url).resolve('esbuild'));
 
+// The sources use only syntax that can be erased (tsconfig: erasableSyntaxOnly, verbatimModuleSyntax), which is what
+// a development checkout runs with Node stripping the types: the compiled modules are those sources with the types
+// taken out and relative imports of .ts files pointed at .js. The types themselves are checked by `npm test`
+// (tsc --noEmit), before anything is committed; a module esbuild cannot read stops the compile.
+const failed = [];
+async function compileTree(dir) {
+  for (const name of readdirSync(dir)) {
+    const from = join(dir, name);
+    if (statSync(from).isDirectory()) {
+      await compileTree(from);
+      continue;
+    }
+    if (!name.endsWith('.ts') || name.endsWith('.d.ts')) continue;
+    const to = join(lib, relative(src, from)).replace(/\.ts$/, '.js');
+    try {
+      const out = await transform(readFileSync(from, 'utf8'), { loader: 'ts', format: 'esm', target: 'node22', sourcefile: relative(root, from), logLevel: 'silent' });
+      mkdirSync(dirname(to), { recursive: true });
+      writeFileSync(to, pointAtCompiled(out.code));
+    } catch (error) {
+      failed.push(`${relative(root, from)}: ${error.errors?.[0]?.text ?? error.message}`);
+    }
+  }
+}
 /** `from '../x.ts'`, `import '../x.ts'`, `import('../x.ts')` → `.js`; bare and non-TypeScript imports stay. */
 export function pointAtCompiled(text) {
   return text.replace(/(\b(?:from|import)\s*\(?\s*)(['"])(\.{1,2}\/[^'"\n]+?)\.ts\2/g, '$1$2$3.js$2');
+}
+
+await compileTree(src);
+if (failed.length) {
+  process.stderr.write(`compile: these modules could not be compiled; no package was made:\n${failed.join('\n')}\n`);
+  process.exit(1);
 }
 
 let copied = 0;
@@ -63,7 +86,6 @@ if (leftovers.length) {
 // libraries it holds are written next to it. The modules that build paths from import.meta (the package root, the
 // libraries) sit one folder below lib/, as the bundle does, so those paths resolve the same. The separate modules
 // stay for the other commands and the site.
-const { build } = await import(createRequire(import.meta.url).resolve('esbuild'));
 // The part of mathjs the unit conversions use, as one file that loads in about two thirds of the whole library's
 // time (see scripts/mathjs-units.mjs and src/analysis/load-mathjs.ts).
 const { writeMathjsUnits } = await import('./mathjs-units.mjs');
