@@ -14,6 +14,7 @@ import callRevisionMismatch from './call-revision-mismatch.ts';
 import callUnknownProcedure from './call-unknown-procedure.ts';
 import requiresCycle from './requires-cycle.ts';
 import tripLeftLatched from './trip-left-latched.ts';
+import resetWhileTripped from './reset-while-tripped.ts';
 import correctionCausesHazard from './correction-causes-hazard.ts';
 import holdTestBeyondCriterion from './hold-test-beyond-criterion.ts';
 import tripSharesAlarmSensor from './trip-shares-alarm-sensor.ts';
@@ -142,6 +143,7 @@ export const rules = {
   'requires-not-in-force': requiresNotInForce,
   'requires-cycle': requiresCycle,
   'trip-left-latched': tripLeftLatched,
+  'reset-while-tripped': resetWhileTripped,
   'correction-causes-hazard': correctionCausesHazard,
   'hold-test-beyond-criterion': holdTestBeyondCriterion,
   'trip-shares-alarm-sensor': tripSharesAlarmSensor,

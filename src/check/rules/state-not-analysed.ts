@@ -8,7 +8,7 @@ export default defineFileRule(
     category: 'sequence',
     defaultSeverity: 'warning',
     source: 'Common practice: a check that could not run says so',
-    docs: `Hazard conditions, step needs and latched trips are checked against the plant state at every step. When
+    docs: `Hazard conditions, step needs, latched trips and the trips a step resets are checked against the plant state at every step. When
 a condition cannot be analysed exactly (a name that is not declared, a unit that does not convert, too many
 cases) or the procedure has more combinations of steps and states than the check explores, the rest of the
 procedure was not checked for them, and this rule says which part. Fix the reported condition, or split the
@@ -19,7 +19,7 @@ procedure.`,
     if (!ctx.facts || !ctx.procedure) return;
     const p = ctx.procedure;
     const usesState = p.hazards.some((h) => h.when) || p.interlocks.some((i) => i.latches && i.holds.length)
-      || ctx.facts.steps.some(({ step }) => step.needs);
+      || ctx.facts.steps.some(({ step }) => step.needs || (step.resets ?? []).some((r) => p.interlocks.some((i) => i.latches && i.tag === r.value)));
     if (!usesState) return;
     const gaps = ctx.facts.state.gaps;
     if (!gaps.length) return;
