@@ -15,6 +15,7 @@ import callUnknownProcedure from './call-unknown-procedure.ts';
 import requiresCycle from './requires-cycle.ts';
 import tripLeftLatched from './trip-left-latched.ts';
 import resetWhileTripped from './reset-while-tripped.ts';
+import emergencyWaitWithoutTimeLimit from './emergency-wait-without-time-limit.ts';
 import correctionCausesHazard from './correction-causes-hazard.ts';
 import holdTestBeyondCriterion from './hold-test-beyond-criterion.ts';
 import tripSharesAlarmSensor from './trip-shares-alarm-sensor.ts';
@@ -144,6 +145,7 @@ export const rules = {
   'requires-cycle': requiresCycle,
   'trip-left-latched': tripLeftLatched,
   'reset-while-tripped': resetWhileTripped,
+  'emergency-wait-without-time-limit': emergencyWaitWithoutTimeLimit,
   'correction-causes-hazard': correctionCausesHazard,
   'hold-test-beyond-criterion': holdTestBeyondCriterion,
   'trip-shares-alarm-sensor': tripSharesAlarmSensor,
