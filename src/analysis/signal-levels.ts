@@ -57,7 +57,7 @@ export function levelOf(kind: LevelKind, side: Side, signal: string, text: strin
 }
 
 /** A trip condition's levels on the signals it trips on, or why the condition could not be read as values. */
-export type TripLevels = { ok: true; levels: Level[] } | { ok: false; reason: string };
+export type TripLevels = { ok: true; levels: Level[]; onlyWith: string[] } | { ok: false; reason: string };
 
 /**
  * The levels of a trip condition, read from the set of values at which it trips rather than from how it is
@@ -65,7 +65,8 @@ export type TripLevels = { ok: true; levels: Level[] } | { ok: false; reason: st
  * signal the condition names, the values of that signal at which it trips whatever the other signals do; a part
  * of that set unbounded above is a high trip, one unbounded below a low trip, a bounded part a band (a level with
  * `band`, judged by whether a value lies in it). A signal the condition trips on only together with another
- * condition (`PI >= 400 kPag and burner == on`) gets no level. `ok: false` when the condition does not parse or
+ * condition (`PI >= 400 kPag and burner == on`) gets no level and is listed in `onlyWith`. `ok: false` when the
+ * condition does not parse or
  * cannot be read as values (an undeclared name, a unit that does not fit, too many cases), with the reason.
  */
 export function tripLevels(condition: string, signals: Readonly<Record<string, SignalInfo>>, at: LevelPlace, owner: string): TripLevels {
@@ -88,7 +89,9 @@ export function tripLevels(condition: string, signals: Readonly<Record<string, S
       else levels.push({ ...tripLevel('high', signal, part.lo, parsed.condition, unit, at, extra), band: { low: part.lo, high: part.hi } });
     }
   }
-  return { ok: true, levels };
+  const compared = comparisonsIn(parsed.condition).filter((c) => c.value.kind === 'quantity').map((c) => c.name.name);
+  const onlyWith = [...new Set(compared)].filter((name) => !sets.has(name) && name !== 'elapsed' && name !== 'done');
+  return { ok: true, levels, onlyWith };
 }
 
 /**
@@ -157,15 +160,23 @@ function tripLevel(side: Side, signal: string, base: number, condition: Conditio
   return { kind: 'trip', side, signal, text: `${formatNumber(value)} ${shownUnit}`.trim(), value, unit: shownUnit, base, at, ...extra };
 }
 
-/** A trip whose condition could not be read as values, so the levels it sets were not judged. */
+/**
+ * A trip whose levels were not judged: its condition could not be read as values (`reason`), or it acts on the
+ * signals in `onlyWith` only together with the rest of its condition (`PI >= 400 kPag and burner == on`), so it has
+ * no level of its own on them.
+ */
 export interface TripNotAnalysed {
   owner: string;
   condition: string;
-  reason: string;
+  reason?: string;
+  onlyWith?: string[];
   at: LevelPlace;
 }
 
-/** The trips of the register, or those a procedure declares itself, whose conditions could not be read as values. */
+/**
+ * The trips of the register, or those a procedure declares itself, whose conditions could not be read as values or
+ * that act on a signal only together with another condition.
+ */
 export function tripsNotAnalysed(source: { register: PlantRegister } | { procedure: Procedure }): TripNotAnalysed[] {
   const out: TripNotAnalysed[] = [];
   if ('register' in source) {
@@ -175,6 +186,7 @@ export function tripsNotAnalysed(source: { register: PlantRegister } | { procedu
       const at = { file: fn.file, path: fn.tripsWhen.path, inRegister: true };
       const read = tripLevels(fn.tripsWhen.value, signals, at, fn.id);
       if (!read.ok) out.push({ owner: fn.id, condition: fn.tripsWhen.value.trim(), reason: read.reason, at });
+      else if (read.onlyWith.length) out.push({ owner: fn.id, condition: fn.tripsWhen.value.trim(), onlyWith: read.onlyWith, at });
     }
     return out;
   }
@@ -184,6 +196,7 @@ export function tripsNotAnalysed(source: { register: PlantRegister } | { procedu
     const at = { file: procedure.file, path: interlock.tripsWhen.path, inRegister: false };
     const read = tripLevels(interlock.tripsWhen.value, procedure.signals, at, interlock.tag);
     if (!read.ok) out.push({ owner: interlock.tag, condition: interlock.tripsWhen.value.trim(), reason: read.reason, at });
+    else if (read.onlyWith.length) out.push({ owner: interlock.tag, condition: interlock.tripsWhen.value.trim(), onlyWith: read.onlyWith, at });
   }
   return out;
 }

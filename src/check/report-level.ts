@@ -43,13 +43,23 @@ export function checkLevels(
 }
 
 /**
- * Says, as info, which trips a level check could not judge because their conditions could not be read as values:
- * the register's once, in the register file, and each procedure's own where it declares them. `wanted` picks
- * the trips that matter to the rule; `what` names what was not compared ("with the operating limits and alarms").
+ * Says, as info, which trips a level check could not judge: those whose conditions could not be read as values, and
+ * those that act on a signal only together with another condition (no level of their own on it). The register's
+ * once, in the register file, and each procedure's own where it declares them. `wanted` picks the trips that matter
+ * to the rule; `what` names what was not compared ("with the operating limits and alarms").
  */
 export function reportTripsNotAnalysed(ctx: ManualContext, what: string, wanted: (trip: TripNotAnalysed) => boolean = () => true): void {
   const say = (trip: TripNotAnalysed, file: FileContext | undefined) => {
     if (!wanted(trip)) return;
+    if (trip.onlyWith) {
+      const signals = trip.onlyWith.join(' and ');
+      reportAtPlace(ctx, trip.at, file, {
+        severity: 'info',
+        message: `Trip ${trip.owner} (${trip.condition}) acts on ${signals} only when the rest of its condition holds as well, so it has no level of its own there and was not compared ${what}.`,
+        hint: 'A trip that acts only in one mode (a cleaning line-up, a burner lit) is judged against the levels of that mode by hand; give the mode its own limits in the procedure that runs it.',
+      });
+      return;
+    }
     reportAtPlace(ctx, trip.at, file, {
       severity: 'info',
       message: `Trip ${trip.owner} (${trip.condition}) was not compared ${what}: its condition could not be read as a set of values (${trip.reason}).`,

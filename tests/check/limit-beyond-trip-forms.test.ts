@@ -68,4 +68,18 @@ describe('limit-beyond-trip reads a trip as the values at which it trips', () =>
     expect(found[0].severity).toBe('info');
     expect(found[0].message).toMatch(/was not compared/);
   });
+
+  it('says, as info, that a trip acting on a signal only together with another condition was not judged there', () => {
+    // Below the high limit or above it, a trip gated by another signal sets no level of its own: never an error,
+    // always the one info line, on the signal it names.
+    fc.assert(fc.property(fc.integer({ min: 20, max: 290 }), fc.constantFrom('lab-result == fail', 'PI-210 >= 2 bar'), (trip, gate) => {
+      const found = checkSources([{ file: 'p.md', text: procedure(245, 15, `TI-210 >= ${trip} degC and ${gate}`) }], { today: '2026-12-01', rules: rule }).diagnostics
+        .filter((d) => d.rule === 'limit-beyond-trip');
+      const onTemperature = found.filter((d) => /acts on TI-210( and PI-210)? only when the rest of its condition holds/.test(d.message));
+      expect(found.map((d) => d.severity)).toEqual(['info']);
+      expect(onTemperature).toHaveLength(1);
+    }), { numRuns: 20 });
+    // The same trip without the gate is judged, and says nothing when it is clear of the limit.
+    expect(findings(procedure(245, 15, 'TI-210 >= 255 degC'))).toEqual([]);
+  });
 });

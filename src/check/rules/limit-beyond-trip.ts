@@ -22,7 +22,8 @@ whatever the other signals do, and without an upper end, make a high trip; witho
 that acts only between two values (\`TI-901 >= 180 degC and TI-901 <= 300 degC\`) is a band: a limit or alarm inside
 the band is reported (a limit outside it is not, since the rule cannot tell from which side the process comes). A
 trip that acts on a signal only together with another condition (\`PI-253 >= 400 kPag and burner-on == true\`)
-sets no level on that signal and is not judged against it. A trip whose condition cannot be read as values (an
+sets no level on that signal and is not judged against it; the rule says so (info), so that its level is compared
+with the limits of the mode it acts in by hand. A trip whose condition cannot be read as values (an
 undeclared name, a unit that does not fit the signal, too many cases) is not judged, and the rule says so (info),
 next to the other diagnostics on that condition. Units are converted exactly before comparing; a gauge and an
 absolute pressure are compared through the standard atmosphere (101.325 kPa) and the message says so.
