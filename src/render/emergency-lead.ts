@@ -5,7 +5,7 @@ import type { Root, RootContent } from 'mdast';
 import { renderBodyHtml } from './body-html.ts';
 import type { StepRow, TableRow } from './step-table.ts';
 
-export const emergencyKinds: ReadonlySet<string> = new Set(['emergency', 'emergency-shutdown']);
+export { emergencyKinds } from '../model/kinds.ts';
 
 export interface LeadSection {
   title: string;

@@ -4,8 +4,8 @@ import type { Procedure, Step } from '../../model/procedure.ts';
 import { walkSteps } from '../../model/walk-steps.ts';
 import { comparisonsIn, parseCondition } from '../../analysis/conditions/parse.ts';
 import { defineFileRule } from '../define-rule.ts';
+import { emergencyKinds } from '../../model/kinds.ts';
 
-const emergencyKinds = new Set(['emergency', 'emergency-shutdown']);
 const movedWords = /\b(open|opened|closed|shut|stopped|running|started|isolated|tripped|moved|in position)\b/i;
 const stateWords = /^(open|opened|closed|shut|stopped|running|started|on|off|isolated|tripped|latched|cip|product)$/i;
 /** A plant tag: letters, a hyphen, digits (XV-2101, M-210, P-221A). */

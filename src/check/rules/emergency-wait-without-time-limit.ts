@@ -1,8 +1,8 @@
 // Reports, in emergency and emergency-shutdown procedures, a step that waits for a process signal with no time limit.
 import { namesIn } from '../../analysis/conditions/parse.ts';
 import { defineFileRule } from '../define-rule.ts';
+import { emergencyKinds } from '../../model/kinds.ts';
 
-const emergencyKinds = new Set(['emergency', 'emergency-shutdown']);
 /** Built-in names that are no process signal: time in the step, and the step's own actions done. */
 const notProcess = new Set(['elapsed', 'done']);
 

@@ -11,8 +11,7 @@ import { conditionPressureNote } from '../../analysis/condition-pressure-note.ts
 import type { Hazard, Procedure, Signal } from '../../model/procedure.ts';
 import { defineManualRule, type FileContext } from '../define-rule.ts';
 import { showPath } from '../state-path.ts';
-
-const emergencyKinds = new Set(['emergency', 'emergency-shutdown']);
+import { emergencyKinds } from '../../model/kinds.ts';
 
 export default defineManualRule(
   {

@@ -5,8 +5,8 @@ import type { HazardLevel, Procedure } from '../../model/procedure.ts';
 import type { PlantRegister, RegisterChemical, RegisterEquipment } from '../../model/register.ts';
 import { contentSeverity } from '../content-severity.ts';
 import { defineFileRule } from '../define-rule.ts';
+import { emergencyKinds } from '../../model/kinds.ts';
 
-const emergencyKinds = new Set(['emergency', 'emergency-shutdown']);
 
 interface Need {
   level: HazardLevel;

@@ -2,9 +2,7 @@
 import { latched, tripVariable } from '../../analysis/state/state-input.ts';
 import { defineFileRule } from '../define-rule.ts';
 import { showPath } from '../state-path.ts';
-
-/** Procedures that may end with the plant tripped on purpose: making it safe is what they are for. */
-const mayEndTripped = new Set(['emergency', 'emergency-shutdown', 'shutdown']);
+import { stoppingKinds } from '../../model/kinds.ts';
 
 export default defineFileRule(
   {
@@ -28,7 +26,8 @@ latched there, with a path that leads there. Add a reset step after the test (an
   },
   (ctx) => {
     const p = ctx.procedure;
-    if (!p || !ctx.facts || mayEndTripped.has(String(p.kind))) return;
+    // A procedure that stops the plant may end with it tripped on purpose: making it safe is what it is for.
+    if (!p || !ctx.facts || stoppingKinds.has(String(p.kind))) return;
     const tripping = ctx.facts.steps.filter(({ step }) => (step.trips ?? []).length > 0);
     if (!tripping.length) return;
     const latching = new Set(p.interlocks.filter((i) => i.latches).map((i) => i.tag));

@@ -8,6 +8,7 @@ import { tripSets, valuesWhereTrue } from '../../analysis/signal-levels.ts';
 import { limitBounds } from '../limit-bounds.ts';
 import { unnamedRegisterTrips } from '../register-trips.ts';
 import { defineFileRule } from '../define-rule.ts';
+import { stoppingKinds } from '../../model/kinds.ts';
 
 /**
  * What a condition gives, by its text and the declarations of the signals it names: the same wait or trip written in
@@ -29,9 +30,6 @@ function memo<T>(kind: string, text: string, condition: Condition, signals: Read
   }
   return found;
 }
-
-/** Procedures that stop the plant: signals falling through their low trips is what they do. */
-const stoppingKinds = new Set(['shutdown', 'emergency-shutdown', 'emergency']);
 
 /** Whether every value of `a` lies in `b` (and `a` has some). */
 function within(a: IntervalSet, b: IntervalSet): boolean {
