@@ -1,7 +1,7 @@
 // The whole operator manual as view models: checked procedures in, everything the pages print out.
 // Pure: the caller reads the files and decides the build date.
 import type { CheckedFile } from '../check/run-checks.ts';
-import type { Approval, HazardLevel, Procedure } from '../model/procedure.ts';
+import type { Approval, HazardLevel, Interlock, Procedure } from '../model/procedure.ts';
 import { kinds } from '../model/schema.ts';
 import { areaName, type AreaSource } from './area-names.ts';
 import { renderBodyHtml } from './body-html.ts';
@@ -14,6 +14,8 @@ import { hazardRank, signalWordColours } from './signal-words.ts';
 import { numberSteps, type StepNumbers } from './step-numbers.ts';
 import { buildStepTable, type TableRow } from './step-table.ts';
 import { tagUsesIn, type TagRole, type TagUse } from './where-used.ts';
+import { latchingWords, tripLatching, type TripSource } from './trip-latching.ts';
+import { limitAlarms, splitQuantity, type AlarmSource } from './limit-alarms.ts';
 import { pagePath, rootBase, siteUrl, type SiteBase } from './site-url.ts';
 import { procedureIdsOf, tagPartLinks, type TagPartLink } from './tag-parts.ts';
 
@@ -23,10 +25,42 @@ export interface ManualInput {
   root: string;
   /** The build date, YYYY-MM-DD, for review marks. */
   today: string;
-  /** The plant register, when there is one: area names come from it. */
-  register?: AreaSource;
+  /** The plant register, when there is one: area names, trips' latching and reset, and alarms come from it. */
+  register?: PlantSource;
   /** Where the manual is served ("/" or e.g. "/manual/"); every URL in the view starts with it. */
   base?: SiteBase;
+}
+
+/** What the procedure pages need of a plant register. */
+export type PlantSource = AreaSource & TripSource & AlarmSource;
+
+/** An interlock as the "Interlocks and safety systems" table shows it. */
+export interface InterlockView {
+  tag: string;
+  tripsWhen: string;
+  tripsWhenWords?: string;
+  action: string;
+  tagUrl: string;
+  /** Whether the trip latches, only where a source states it (render/trip-latching.ts). */
+  latches?: boolean;
+  /** That in one sentence: "Latches through ESD-210: it stays tripped until it is reset." */
+  latching?: string;
+  /** The register's reset instruction, and the function it belongs to when that is one the trip starts. */
+  reset?: { text: string; through?: string };
+}
+
+/** An operating limit as the "Operating limits" table shows it, with the register's alarms on the signal. */
+export interface LimitView {
+  signal: string;
+  text?: string;
+  low?: string;
+  high?: string;
+  unit?: string;
+  /** The register's alarms, as the number in `unit` when they are written in it, else as written. */
+  alarmLow?: string;
+  alarmHigh?: string;
+  consequence?: string;
+  correction?: string;
 }
 
 export interface Banner {
@@ -71,8 +105,8 @@ export interface ProcedureView {
   ppe: string[];
   banner?: Banner;
   hazards: Array<{ level: HazardLevel; word: string; hazard: string; consequence?: string; avoid?: string; steps: Array<{ id: string; number: string }> }>;
-  interlocks: Array<{ tag: string; tripsWhen: string; tripsWhenWords?: string; action: string; tagUrl: string }>;
-  limits: Array<{ signal: string; text?: string; low?: string; high?: string; unit?: string; consequence?: string; correction?: string }>;
+  interlocks: InterlockView[];
+  limits: LimitView[];
   /**
    * The sequence chart, drawn when a page asks for it: a manual keeps every procedure's view for the whole build,
    * and the drawings are its largest part (two thousand procedures held hundreds of megabytes of SVG).
@@ -82,7 +116,7 @@ export interface ProcedureView {
   /**
    * The step table, the body as HTML and the emergency lead are made when a page first reads them (and kept): only
    * the pages of the procedure itself show them, and a rebuild draws the pages of few procedures. They follow from
-   * the procedure's text and the code alone (see withoutDrawnParts).
+   * the procedure's text, the code and the view's own interlocks (see withoutDrawnParts).
    */
   readonly rows: TableRow[];
   readonly bodyHtml: string;
@@ -186,14 +220,7 @@ function areaOf(file: string, root: string): string {
   return parts.length > 1 ? parts[0] : '(top level)';
 }
 
-/** Splits `15 degC` into number and unit so the limits table can show the unit once. */
-function splitQuantity(text: string | undefined): { value?: string; unit?: string } {
-  if (text === undefined) return {};
-  const m = /^\s*(-?[0-9][0-9.,]*(?:e-?[0-9]+)?)\s*(.*?)\s*$/i.exec(text);
-  return m ? { value: m[1], unit: m[2] || undefined } : { value: text };
-}
-
-export function buildProcedureView(file: CheckedFile & { procedure: Procedure }, root: string, today: string, register?: AreaSource, base: SiteBase = rootBase): ProcedureView {
+export function buildProcedureView(file: CheckedFile & { procedure: Procedure }, root: string, today: string, register?: PlantSource, base: SiteBase = rootBase): ProcedureView {
   const p = file.procedure;
   const numbers = numberSteps(p.steps);
   const slug = slugOf(p.id);
@@ -205,7 +232,7 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
       level: h.level, word: signalWordColours[h.level]?.word ?? String(h.level).toUpperCase(), hazard: h.hazard, consequence: h.consequence, avoid: h.avoid,
       steps: h.at.filter((a) => stepIds.has(a.value)).map((a) => ({ id: a.value, number: numbers.ofStep.get(a.value) ?? '?' })),
     }));
-  const limits = p.limits.map((l) => {
+  const limits = p.limits.map((l): LimitView => {
     const low = splitQuantity(l.low?.value);
     const high = splitQuantity(l.high?.value);
     const signal = p.signals[l.signal];
@@ -214,9 +241,12 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     return {
       signal: l.signal, text: signal?.text,
       low: unit ? low.value : l.low?.value, high: unit ? high.value : l.high?.value, unit,
+      ...limitAlarms(l.signal, unit, p, register),
       consequence: l.consequence, correction: l.correction,
     };
   });
+  const interlocks = p.interlocks.map((i) => interlockView(i, p, register, base));
+  const resetsByTag = new Map(interlocks.flatMap((i) => (i.reset ? [[i.tag, i.reset] as const] : [])));
   const tagNames = [...new Set([...p.equipment, ...p.interlocks.map((i) => i.tag), ...Object.keys(p.signals)])];
   const steps = file.facts?.steps.length ?? 0;
   let rows: TableRow[] | undefined;
@@ -230,12 +260,12 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     approvals: p.approvals.map(({ role, name, date, meaning }) => ({ role, name, date, meaning })),
     certifications: p.certifications.map(({ name, role, date }) => ({ name, role, date })).sort((x, y) => y.date.localeCompare(x.date)),
     equipment: p.equipment, ppe: p.ppe, banner: statusBanner(p, today), hazards,
-    interlocks: p.interlocks.map((i) => ({ tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: siteUrl(base, pagePath.tag(slugOf(i.tag))) })),
+    interlocks,
     limits,
     chart: () => drawChart(p, numbers, steps),
     stepCount: steps,
     get rows() {
-      return (rows ??= buildStepTable(p, numbers));
+      return (rows ??= buildStepTable(p, numbers, resetsByTag));
     },
     get bodyHtml() {
       return (bodyHtml ??= renderBodyHtml(p.body));
@@ -246,6 +276,18 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
     tags: tagNames.map((t) => ({ tag: t, url: siteUrl(base, pagePath.tag(slugOf(t))) })),
     lineUp: p.lineUp.map((l) => ({ condition: l.value, ...withWords(conditionInWords(l.value, p.signals)) })),
     requires: p.requires.map((r) => ({ id: r.value })),
+  };
+}
+
+/** One row of the interlocks table: the trip, what it does, and whether it latches and how it is reset. */
+function interlockView(i: Interlock, p: Procedure, register: TripSource | undefined, base: SiteBase): InterlockView {
+  const latching = tripLatching(i, p, register);
+  const words = latchingWords(latching);
+  return {
+    tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: siteUrl(base, pagePath.tag(slugOf(i.tag))),
+    ...(latching.latches !== undefined ? { latches: latching.latches } : {}),
+    ...(words ? { latching: words } : {}),
+    ...(latching.reset ? { reset: { text: latching.reset, ...(latching.resetThrough ? { through: latching.resetThrough } : {}) } } : {}),
   };
 }
 

@@ -11,6 +11,7 @@ import type { ManualView, ProcedureView } from './manual.ts';
 import { slugOf } from './manual.ts';
 import { numberSteps } from './step-numbers.ts';
 import { mentionsTag } from './where-used.ts';
+import { staysTrippedWords } from './trip-latching.ts';
 
 export type RegisterSection = RegisterEntry['section'];
 
@@ -160,7 +161,7 @@ export function buildRegisterView(register: PlantRegister, files: CheckedFile[],
         fact('Opens', links(entry.opens));
         fact('Stops', links(entry.stops));
         fact('Keeps running', links(entry.keepsRunning));
-        if (entry.latches !== undefined) fact('Latches', entry.latches ? 'Yes: it stays tripped until it is reset' : 'No');
+        if (entry.latches !== undefined) fact('Latches', entry.latches ? `Yes: ${staysTrippedWords}` : 'No');
         fact('Reset', entry.reset);
         if (entry.bypass) {
           fact('Bypass', entry.bypass.allowed

@@ -48,6 +48,8 @@ export interface StepRow {
   trips?: string[];
   /** Latched interlocks the step resets. */
   resets?: string[];
+  /** For each of them whose reset instruction a source gives (the plant register), that instruction. */
+  resetHow?: ResetHow[];
   /** The shared operation the step runs (`call`): the step ends when that procedure has ended. */
   call?: { procedure: string; revision?: number };
   /** True when a decision directly follows the step: its branch conditions end the step. */
@@ -79,6 +81,17 @@ export function stateWords(action: Pick<StateAction, 'signal' | 'value' | 'lasts
 /** What ends a call step in words: "When U2-K210-INERT-001 has ended". */
 export function callEndWords(procedure: string): string {
   return `When ${procedure} has ended`;
+}
+
+/** How a trip is reset: the instruction, and the function it belongs to when that is one the trip starts. */
+export interface ResetInstruction {
+  text: string;
+  through?: string;
+}
+
+/** The reset instruction of one trip a step resets. */
+export interface ResetHow extends ResetInstruction {
+  tag: string;
 }
 
 /** A step a contingency or time limit sends the operator to. */
@@ -124,7 +137,15 @@ export function formatDuration(text: string): string {
   return text.replace(/\s*\.\.\s*/g, '–');
 }
 
-export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 'signals'>, numbers: StepNumbers = numberSteps(procedure.steps)): TableRow[] {
+/**
+ * The rows of the step table. `resetsByTag` gives the reset instruction of trips by tag (render/trip-latching.ts):
+ * a step that resets one of them shows it.
+ */
+export function buildStepTable(
+  procedure: Pick<Procedure, 'steps' | 'hazards' | 'signals'>,
+  numbers: StepNumbers = numberSteps(procedure.steps),
+  resetsByTag: ReadonlyMap<string, ResetInstruction> = new Map(),
+): TableRow[] {
   const rows: TableRow[] = [];
   const hazardsAt = new Map<string, Hazard[]>();
   for (const h of procedure.hazards) for (const at of h.at) hazardsAt.set(at.value, [...(hazardsAt.get(at.value) ?? []), h]);
@@ -159,7 +180,7 @@ export function buildStepTable(procedure: Pick<Procedure, 'steps' | 'hazards' | 
     ...(step.needs ? { needs: step.needs.value, ...withWords('needsWords', conditionInWords(step.needs.value, procedure.signals)) } : {}),
     ...(step.state?.length ? { state: step.state.map(stateWords) } : {}),
     ...(step.trips?.length ? { trips: step.trips.map((t) => t.value) } : {}),
-    ...(step.resets?.length ? { resets: step.resets.map((t) => t.value) } : {}),
+    ...(step.resets?.length ? { resets: step.resets.map((t) => t.value), ...resetHowOf(step.resets.map((t) => t.value), resetsByTag) } : {}),
     ...callOfRow(step),
     ...(decisionFollows ? { decisionFollows: true } : {}),
   });
@@ -266,6 +287,14 @@ function lastNumber(items: SequenceItem[], numbers: StepNumbers): string | undef
 
 function withWords(key: 'needsWords', words: string | undefined): { needsWords?: string } {
   return words ? { [key]: words } : {};
+}
+
+function resetHowOf(tags: string[], resetsByTag: ReadonlyMap<string, ResetInstruction>): { resetHow?: ResetHow[] } {
+  const how = tags.flatMap((tag) => {
+    const known = resetsByTag.get(tag);
+    return known ? [{ tag, text: known.text, ...(known.through ? { through: known.through } : {}) }] : [];
+  });
+  return how.length ? { resetHow: how } : {};
 }
 
 function callOfRow(step: Step): { call?: StepRow['call'] } {

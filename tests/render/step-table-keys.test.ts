@@ -51,6 +51,8 @@ const shownAs: Record<string, (row: StepRow) => unknown> = {
 const notShown: Record<string, string> = {
   'waive (without a reason, or of a rule that cannot be waived)':
     'Such a waiver is not honoured: the checker reports it and still applies the rule, so the page must not say the rule is set aside.',
+  'resets (how to reset a trip that no source says how to reset)':
+    'A procedure interlock has no reset text, and a register safety function may leave out its reset: the row names the trip it resets and invents no instruction.',
 };
 
 /** A sample value for every optional key; the steps 'target' and 'other' exist for the jumps. */
@@ -159,6 +161,15 @@ describe('step table: needs, lasting states, trips and resets', () => {
     expect(rowOf(rows, 'test').trips).toEqual(['TSHH-1', 'PSHH-1']);
     expect(rowOf(rows, 'reset').resets).toEqual(['TSHH-1', 'PSHH-1']);
     expect(rowOf(rows, 'open').trips).toBeUndefined();
+  });
+
+  it('gives the reset instruction of each reset trip a source gives one for, and none for the others', () => {
+    const how = new Map([['PSHH-1', { text: 'At the kettle panel by the board operator', through: 'ESD-1' }]]);
+    const row = rowOf(buildStepTable(procedure, undefined, how), 'reset');
+    expect(row.resets).toEqual(['TSHH-1', 'PSHH-1']);
+    expect(row.resetHow).toEqual([{ tag: 'PSHH-1', text: 'At the kettle panel by the board operator', through: 'ESD-1' }]);
+    expect(rowOf(rows, 'reset').resetHow).toBeUndefined();
+    expect(rowOf(buildStepTable(procedure, undefined, how), 'test').resetHow).toBeUndefined();
   });
 
   it('words a state from its parts', () => {
