@@ -96,6 +96,37 @@ describe('requires', () => {
     ]);
   });
 
+  it('a line-up whose conditions can each hold after the required procedure, but never together, is reported as a whole', () => {
+    const signals = 'signals:\n  XV-1: { text: Chute valve, values: [open, closed] }\n  XV-2: { text: Vent valve, values: [open, closed] }\n  lab-result: { text: Lab release, values: [pass, fail] }\n';
+    // The required procedure ends with the chute valve open (lab pass) or with the vent valve open (lab fail).
+    const required = procedure('U2-R-001', 'effective', [], `${signals}line-up: [XV-1 == closed, XV-2 == closed]\n`);
+    required.text = required.text.replace(/^steps:[\s\S]*(?=^---)/m, `steps:
+  - step: await-lab
+    do: Wait for the lab result
+    confirm: Lab result received
+  - choose:
+      - when: lab-result == pass
+        steps:
+          - step: open-chute
+            do: Open chute valve XV-1
+            state: { XV-1: open }
+            until: XV-1 == open
+      - when: lab-result == fail
+        steps:
+          - step: open-vent
+            do: Open vent valve XV-2
+            state: { XV-2: open }
+            until: XV-2 == open
+`);
+    const both = procedure('U2-A-001', 'effective', ['U2-R-001'], `${signals}line-up: [XV-1 == closed, XV-2 == closed]\n`);
+    const one = procedure('U2-B-001', 'effective', ['U2-R-001'], `${signals}line-up: [XV-1 == closed]\n`);
+    const either = procedure('U2-C-001', 'effective', ['U2-R-001'], `${signals}line-up: [XV-1 == open or XV-2 == open, XV-1 == closed]\n`);
+    const found = of('line-up-contradicts-required', [required, both, one, either]);
+    expect(found.map((d) => `${d.file}:${d.line} ${d.message}`)).toEqual([
+      'U2-A-001.md:12 The line-up\'s conditions XV-1 == closed, XV-2 == closed can each hold when U2-R-001, which this procedure requires, has ended, but never all together: it ends with XV-1 = open and XV-2 = closed; or XV-1 = closed and XV-2 = open.',
+    ]);
+  });
+
   it('reports exactly the requirements that lie on a circle, on random manuals (checked against a transitive closure)', () => {
     const graph = fc.integer({ min: 1, max: 6 }).chain((n) => fc.tuple(fc.constant(n), fc.array(fc.tuple(fc.nat(n - 1), fc.nat(n - 1)), { maxLength: 10 })));
     fc.assert(fc.property(graph, ([n, edges]) => {
