@@ -239,6 +239,37 @@ describe('the demo manual', () => {
     expect(await words(startUp.locator('tr#step-test-trips .plant-state'))).toContain('Trips TSHH-210 on purpose (trip test)');
   });
 
+  it('shows on the K-210 emergency shutdown how each trip latches and is reset, the reset at the step that resets, and the alarm beside the limit', async () => {
+    const words = async (locator: { innerText(): Promise<string> }) => (await locator.innerText()).replace(/\s+/g, ' ').trim();
+    const page = await open(demo, '/procedures/u2-k210-esd-001/', tablet);
+    const reset = 'At the K-210 panel by the board operator, once the shift supervisor has found and cleared the cause';
+    // The register's trip starts ESD-210: its latching and reset are that function's, and the page says so.
+    const trip = page.locator('tr[data-interlock="TSHH-210"] td.latching');
+    expect(await words(trip)).toBe(`Latches through ESD-210: it stays tripped until it is reset. Reset (ESD-210): ${reset}`);
+    expect(await trip.locator('[data-latches]').getAttribute('data-latches')).toBe('true');
+    // The relief valve's register entry says nothing of latching or reset: nor does the page.
+    expect(await words(page.locator('tr[data-interlock="PSV-210"] td.latching'))).toBe('Not stated');
+    const header = await page.locator('tr[data-interlock]').first().locator('xpath=ancestor::table//thead//th').allInnerTexts();
+    expect(header.map((h) => h.toLowerCase())).toEqual(['tag', 'trips when', 'what it does', 'latching and reset']);
+    // The reset step gives the instruction beside each trip it resets.
+    for (const tag of ['TSHH-210', 'PSHH-210']) {
+      expect(await words(page.locator(`tr#step-reset-trips li[data-resets="${tag}"]`))).toBe(`Resets ${tag} How to reset (ESD-210): ${reset}`);
+    }
+    // The register's high alarm on TI-210 (240 degC) under the procedure's high limit (245 degC), in the row's unit.
+    const limit = page.locator('tr[data-limit="TI-210"]');
+    const cells = await limit.locator('td').allInnerTexts();
+    expect(cells.slice(1, 4).map((c) => c.replace(/\s+/g, ' ').trim())).toEqual(['15', '245 Alarm at 240', 'degC']);
+    expect(await limit.locator('[data-alarm="high"]').count()).toBe(1);
+    expect(await page.locator('tr[data-limit="PI-210"] [data-alarm]').count()).toBe(0);
+    // All of it is on the upright tablet's screen width, not cut off.
+    for (const part of [trip, page.locator('tr#step-reset-trips .reset-how').first(), limit.locator('[data-alarm="high"]')]) {
+      const box = (await part.boundingBox())!;
+      expect(box.x + box.width).toBeLessThanOrEqual(tablet.width);
+    }
+    await page.locator('#interlocks').scrollIntoViewIfNeeded();
+    await shot(page, 'esd-interlocks-800x1280');
+  });
+
   it('fits 800 px without hidden clipping: wraps, stacks, or scrolls in an area that says so', async () => {
     const paths = ['/', '/tags/', '/procedures/u2-k210-batch-001/', '/procedures/u2-k210-esd-001/', '/procedures/u2-h220-em-001/', '/procedures/u2-t230-cip-002/', '/procedures/u2-k210-batch-001/audit/'];
     for (const path of paths) {
