@@ -137,7 +137,7 @@ function revisionView(entry: RevisionEntry, root: string, today: string, base: s
   if (views.has(key)) return views.get(key);
   const read = readCommitted(entry.path, entry.text, register);
   const view = read.procedure
-    ? buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, root, today, undefined, base)
+    ? buildProcedureView({ file: entry.path, source: read.source, procedure: read.procedure, facts: read.facts, diagnostics: [] }, root, today, register, base)
     : undefined;
   views.set(key, view);
   return view;
