@@ -127,6 +127,25 @@ describe('requires', () => {
     ]);
   });
 
+  it('takes a signal moved to a threshold to end near it: names the value, and passes a line-up within a reading of it (property)', () => {
+    // A vent stopped at PI-1 <= sp leaves a reading near sp. A line-up 1 kPa below it can be met (1 % of the
+    // 600 kPa range is 6 kPa); one 10 kPa below cannot.
+    fc.assert(fc.property(fc.integer({ min: 20, max: 580 }), fc.constantFrom('kPa', 'kPaa'), (setpoint, unit) => {
+      const signals = `signals:\n  PI-1: { text: Kettle pressure, unit: ${unit}, range: [0, 600] }\n`;
+      const required = procedure('U2-R-001', 'effective', [], `${signals}line-up: [PI-1 >= ${setpoint + 15} ${unit}]\n`);
+      required.text = required.text.replace(/^steps:[\s\S]*(?=^---)/m, `steps:
+  - step: vent
+    do: Vent the kettle down to ${setpoint} ${unit}
+    set: { PI-1: ${setpoint} ${unit} }
+    until: PI-1 <= ${setpoint} ${unit}
+`);
+      const far = procedure('U2-A-001', 'effective', ['U2-R-001'], `${signals}line-up: [PI-1 <= ${setpoint - 10} ${unit}]\n`);
+      const near = procedure('U2-B-001', 'effective', ['U2-R-001'], `${signals}line-up: [PI-1 <= ${setpoint - 1} ${unit}]\n`);
+      const found = of('line-up-contradicts-required', [required, far, near]);
+      expect(found.map((d) => `${d.file} ${d.message}`)).toEqual([`U2-A-001.md The line-up says PI-1 <= ${setpoint - 10} ${unit}, but U2-R-001, which this procedure requires, always ends with PI-1 = ${setpoint} ${unit}.`]);
+    }), { numRuns: 30 });
+  });
+
   it('reports exactly the requirements that lie on a circle, on random manuals (checked against a transitive closure)', () => {
     const graph = fc.integer({ min: 1, max: 6 }).chain((n) => fc.tuple(fc.constant(n), fc.array(fc.tuple(fc.nat(n - 1), fc.nat(n - 1)), { maxLength: 10 })));
     fc.assert(fc.property(graph, ([n, edges]) => {

@@ -31,6 +31,9 @@ export const otherValue = '\u0000other';
 /** Most disjoint cases a decision is split into; beyond it the decision is reported as not analysed. */
 export const maxBoxes = 2048;
 
+/** How wide, relative to its value, a set of values may be and still be shown as one point (see showInterval). */
+export const sliverWidth = 4e-6;
+
 /** Unit conversion leaves float noise (212 degF → 373.15000000000003 K); 12 significant digits keep real differences such as 760 mmHg vs 1 atm (1.4e-7). */
 export function snap(value: number): number {
   return Number.isFinite(value) ? Number(value.toPrecision(12)) : value;
@@ -382,6 +385,13 @@ export class SignalSpace {
     const lo = this.showNumber(v, i.lo);
     const hi = this.showNumber(v, i.hi);
     if (i.lo === i.hi) return `${name} = ${lo}`;
+    // A sliver (a value reaching a setpoint or a threshold, a millionth wide): the point it stands for, not two
+    // numbers that differ in the sixth digit.
+    if (Number.isFinite(i.lo) && Number.isFinite(i.hi) && i.hi - i.lo <= sliverWidth * Math.max(1, Math.abs(i.hi))) {
+      if (i.loOpen && !i.hiOpen) return `${name} just above ${lo}`;
+      if (i.hiOpen && !i.loOpen) return `${name} just below ${hi}`;
+      return `${name} = ${lo.length <= hi.length ? lo : hi}`;
+    }
     if (i.lo === -Infinity) return `${name} ${i.hiOpen ? '<' : '<='} ${hi}`;
     if (i.hi === Infinity) return `${name} ${i.loOpen ? '>' : '>='} ${lo}`;
     return `${lo} ${i.loOpen ? '<' : '<='} ${name} ${i.hiOpen ? '<' : '<='} ${hi}`;

@@ -1,6 +1,7 @@
 // Reports a line-up condition that a procedure this one requires never leaves true when it ends.
 import { namesIn, parseCondition } from '../../analysis/conditions/parse.ts';
 import type { Region } from '../../analysis/decisions/signal-space.ts';
+import { nearReadings } from '../../analysis/state/near-readings.ts';
 import { unitDimension } from '../../analysis/units.ts';
 import type { Procedure, Signal } from '../../model/procedure.ts';
 import { defineManualRule, type FileContext } from '../define-rule.ts';
@@ -23,7 +24,8 @@ and transitions) and compares each line-up condition that speaks only of signals
 A condition the required procedure leaves open (it may or may not hold) is not reported; only one that cannot
 hold. The conditions are also taken together: when each can hold at some end of the required procedure but no end
 leaves all of them true (it ends with the chute valve open, or with the vent valve open, and the line-up wants both
-closed), the line-up is reported as a whole. Add the step that brings the plant into the line-up (to either procedure), or correct the line-up.`,
+closed), the line-up is reported as a whole. A signal the required procedure moves until a threshold is taken to end
+near that threshold, within 1 % of its range, not exactly on it: a line-up just inside it is not reported. Add the step that brings the plant into the line-up (to either procedure), or correct the line-up.`,
     examples: {
       bad: 'U2-K210-INERT-001 ends with XV-2107 open\nU2-K210-BATCH-001: requires: [U2-K210-INERT-001], line-up: [XV-2107 == closed]',
       good: 'U2-K210-INERT-001 ends with a step that closes XV-2107',
@@ -49,7 +51,8 @@ closed), the line-up is reported as a whole. Add the step that brings the plant 
         const analysis = required.facts.state;
         const ends = analysis.endViews.get('') ?? [];
         if (!analysis.complete || !ends.length) continue;
-        const ended = ends.map((e) => e.box);
+        // Where a signal was moved to a threshold, the readings near it: the end is not that exact on a plant.
+        const ended = nearReadings(analysis.space, ends.map((e) => e.box));
         const endsWith = (names: string[]) => [...new Set(ends.map((e) => analysis.space.describe(new Map([...e.box].filter(([k]) => names.includes(k))) as never)))].slice(0, 3).join('; or ');
         const related = [{ file: required.file, range: required.source.rangeOf(['steps']), message: `the steps of ${site.id}` }];
         // The conditions compared, each with the values where it holds: each on its own first, then all of them together.
