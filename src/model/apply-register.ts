@@ -1,7 +1,7 @@
 // Reads a procedure against the plant register: the entries it uses (under `uses`, or by naming a register
 // signal in a condition or setpoint) supply their declarations, so the analyses and pages see one definition.
 import type { PathKey } from '../parse/read-source.ts';
-import type { FromRegister, Interlock, Procedure, RegisterUse, Signal } from './procedure.ts';
+import type { FromRegister, Interlock, Procedure, RegisterUse, Signal, UnheldOutput } from './procedure.ts';
 import { describeSafetyFunction, type PlantRegister, type RegisterEntry, type RegisterReliefDevice, type RegisterSafetyFunction, type RegisterSignal } from './register.ts';
 import { walkBlocks, walkSteps } from './walk-steps.ts';
 
@@ -105,36 +105,70 @@ export function applyRegister(procedure: Procedure, register: PlantRegister | un
   for (const i of procedure.interlocks) if (register.entries.has(i.tag)) use(i.tag, i.path, false);
   procedure.equipment.forEach((tag, i) => use(tag, ['equipment', i], false));
 
+  // A register trip's held outputs are mapped onto the procedure's signals once every declaration is in.
+  for (let i = 0; i < interlocks.length; i++) {
+    const trip = interlocks[i];
+    const fn = trip.from && !procedure.interlocks.includes(trip) ? register.safetyFunctions.get(trip.tag) : undefined;
+    if (!fn) continue;
+    const { holds, unheld } = heldOutputs(fn, register, signals, trip.path);
+    const { unheld: _before, ...rest } = trip;
+    interlocks[i] = { ...rest, holds, ...(unheld.length ? { unheld } : {}) };
+  }
+
   return { ...procedure, signals, limits, interlocks, registerUses: uses, ...(Object.keys(paramSignals).length ? { paramSignals } : {}) };
 }
 
 /** A register safety function as the interlock a procedure shows: its trip and one description of what it does. */
-export function tripOf(fn: RegisterSafetyFunction, register: PlantRegister, path: PathKey[]): Interlock {
+export function tripOf(fn: RegisterSafetyFunction, register: PlantRegister, path: PathKey[], signals: Readonly<Record<string, Signal>> = {}): Interlock {
+  const { holds, unheld } = heldOutputs(fn, register, signals, path);
   return {
     from: { id: fn.id, file: fn.file, path: fn.path },
     tag: fn.id,
     tripsWhen: { value: fn.tripsWhen?.value ?? '', path },
     action: describeSafetyFunction(fn, register),
     latches: fn.latches ?? (fn.starts ? register.safetyFunctions.get(fn.starts)?.latches : undefined) ?? false,
-    holds: heldOutputs(fn, register, path),
+    holds,
+    ...(unheld.length ? { unheld } : {}),
     path,
   };
 }
 
-/** The outputs a safety function forces, as states of register signals that can take those values. */
-function heldOutputs(fn: RegisterSafetyFunction, register: PlantRegister, path: PathKey[]): Interlock['holds'] {
-  const out: Interlock['holds'] = [];
-  const add = (tags: string[], value: string) => {
-    for (const tag of tags) {
-      const values = register.signals.get(tag)?.values?.map(String);
-      if (values?.includes(value)) out.push({ signal: tag, value, path });
+/**
+ * The words a declared value may use for the state a safety function forces. Common practice: valve positions
+ * are named open/closed (or shut), machines running/stopped (or on/off).
+ */
+const stateWords: Record<string, string[]> = {
+  closed: ['closed', 'shut', 'close'],
+  open: ['open', 'opened'],
+  stopped: ['stopped', 'off', 'stop'],
+};
+
+/**
+ * The outputs a safety function forces, with those of the functions it starts (a trip that starts the unit
+ * emergency shutdown closes what the shutdown closes), as states of the procedure's enumerated signals, named as
+ * the signal names its values. `keeps-running` is not a held output: the function leaves the machine alone.
+ */
+export function heldOutputs(fn: RegisterSafetyFunction, register: PlantRegister, signals: Readonly<Record<string, Signal>>, path: PathKey[]): { holds: Interlock['holds']; unheld: UnheldOutput[] } {
+  const holds: Interlock['holds'] = [];
+  const unheld: UnheldOutput[] = [];
+  const seen = new Set<string>();
+  const visited = new Set<string>();
+  for (let f: RegisterSafetyFunction | undefined = fn; f && !visited.has(f.id); f = f.starts ? register.safetyFunctions.get(f.starts) : undefined) {
+    visited.add(f.id);
+    const via = f === fn ? undefined : f.id;
+    for (const [tags, state] of [[f.closes, 'closed'], [f.opens, 'open'], [f.stops, 'stopped']] as const) {
+      for (const tag of tags) {
+        if (seen.has(tag)) continue;
+        seen.add(tag);
+        const signal = Object.hasOwn(signals, tag) ? signals[tag] : undefined;
+        const values = (signal?.values ?? register.signals.get(tag)?.values ?? []).map(String);
+        const value = values.find((v) => stateWords[state].includes(v.toLowerCase()));
+        if (value !== undefined && signal) holds.push({ signal: tag, value, path });
+        else unheld.push({ signal: tag, state, why: !signal ? 'not-declared' : !values.length ? 'no-values' : 'no-matching-value', ...(via ? { via } : {}) });
+      }
     }
-  };
-  add(fn.closes, 'closed');
-  add(fn.opens, 'open');
-  add(fn.stops, 'stopped');
-  add(fn.keepsRunning, 'running');
-  return out;
+  }
+  return { holds, unheld };
 }
 
 /** A relief device as the interlock a procedure shows: it lifts when its signal reaches the set pressure. */

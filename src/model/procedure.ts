@@ -60,7 +60,21 @@ export interface Interlock {
   latches: boolean;
   /** Outputs the trip forces while in force. */
   holds: StateEntry[];
+  /**
+   * Outputs a plant-register function forces (its `closes`, `opens`, `stops`, and those of the function it
+   * `starts`) that could not be taken as held outputs of this procedure, and why; `via` names the started function.
+   */
+  unheld?: UnheldOutput[];
   path: PathKey[];
+}
+
+/** An output a register safety function forces that is not mapped onto an enumerated signal of the procedure. */
+export interface UnheldOutput {
+  signal: string;
+  /** The state the register gives it: closed, open or stopped. */
+  state: string;
+  why: 'not-declared' | 'no-values' | 'no-matching-value';
+  via?: string;
 }
 
 /** A signal and the value a step, trip or line-up gives it. */

@@ -1,5 +1,9 @@
-// Reports a step that needs or drives an output that a latched trip holds, with no reset step in between.
+// Reports a step that needs or drives an output that a latched trip holds, with no reset step in between; the
+// outputs of a plant-register function are held too, and those that cannot be mapped onto the procedure's signals are said.
 import { heldOutputConflicts, unmetNeeds } from '../../analysis/state/state-findings.ts';
+import { startsAfterTrip } from '../../analysis/state/state-input.ts';
+import type { Procedure, Step, UnheldOutput } from '../../model/procedure.ts';
+import type { Report } from '../define-rule.ts';
 import { defineFileRule } from '../define-rule.ts';
 import { showPath } from '../state-path.ts';
 
@@ -16,6 +20,13 @@ until a step resets it (\`resets: [PSHH-210]\`). A step that trips it on purpose
 that opens a valve the trip keeps closed (\`state: { XV-2102: open }\`), or that needs it open, cannot work as
 written: the valve stays closed, the step waits for ever, or the operator is tempted to bypass the trip.
 
+A plant-register safety function the procedure uses holds its outputs in the same way while it is latched: its
+\`closes\`, \`opens\` and \`stops\` lists, and those of the function it \`starts\` (TSHH-210 starts ESD-210, which
+closes XV-2101 and opens drown valve XV-2109). Each is read as the value of the procedure's enumerated signal that
+names that state (\`closed\` or \`shut\`, \`open\`, \`stopped\` or \`off\`); \`keeps-running\` forces nothing. An
+output that is not an enumerated signal of the procedure, or whose values have no word for the state, is not
+checked, and an info line on the trip says which and why, where the trip can be latched.
+
 Fix it by adding a step that resets the trip, once its cause is cleared, before the step that needs the output;
 or use another way that the trip does not block.`,
     examples: {
@@ -25,6 +36,7 @@ or use another way that the trip does not block.`,
   },
   (ctx) => {
     if (!ctx.facts || !ctx.procedure) return;
+    reportUnheld(ctx.procedure, ctx.facts.steps.map(({ step }) => step), ctx.report);
     if (!ctx.procedure.interlocks.some((i) => i.latches && i.holds.length)) return;
     const state = ctx.facts.state;
     const trips = ctx.procedure.interlocks.map((i) => ({ tag: i.tag, latches: i.latches, holds: i.holds }));
@@ -48,3 +60,41 @@ or use another way that the trip does not block.`,
     }
   },
 );
+
+const whyWords: Record<UnheldOutput['why'], string> = {
+  'not-declared': 'not a signal of this procedure',
+  'no-values': 'a signal without declared values',
+  'no-matching-value': 'a signal with no value for that state',
+};
+
+/**
+ * A register function's outputs that could not be mapped onto the procedure's signals are not checked: said once
+ * per latching trip that can be in force (tripped by a step, or at the start of an emergency procedure), and once
+ * per started function for all the trips that start it.
+ */
+function reportUnheld(p: Procedure, steps: Step[], report: (r: Report) => void): void {
+  const tripped = new Set(steps.flatMap((s) => (s.trips ?? []).map((t) => t.value)));
+  const said = new Set<string>();
+  for (const i of p.interlocks) {
+    if (!i.latches || !i.unheld?.length || !(startsAfterTrip.has(p.kind) || tripped.has(i.tag))) continue;
+    const left = i.unheld.filter((u) => !said.has(`${u.via ?? i.tag}|${u.signal}`));
+    if (!left.length) continue;
+    for (const u of left) said.add(`${u.via ?? i.tag}|${u.signal}`);
+    const groups = new Map<string, string[]>();
+    for (const u of left) {
+      const key = `${u.why}|${u.state}`;
+      groups.set(key, [...(groups.get(key) ?? []), u.signal]);
+    }
+    const parts = [...groups].map(([key, tags]) => {
+      const [why, state] = key.split('|') as [UnheldOutput['why'], string];
+      return `${tags.join(', ')} (${state}: ${whyWords[why]})`;
+    });
+    const via = [...new Set(left.map((u) => u.via).filter((v) => v))];
+    report({
+      path: i.path,
+      severity: 'info',
+      message: `While ${i.tag} is latched${via.length ? ` (through ${via.join(', ')})` : ''}, the plant register says it holds outputs that were not checked against the steps: ${parts.join('; ')}.`,
+      hint: 'Declare the outputs the steps drive as enumerated signals with values such as open/closed or running/stopped; the others need no change.',
+    });
+  }
+}
