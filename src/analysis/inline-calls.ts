@@ -101,7 +101,8 @@ export interface InlineResult {
 /**
  * Expands every call (recursively). A call that cannot be expanded (unknown procedure, or one that would
  * recurse) stays as the call step. Called steps keep their own YAML paths, which point into the callee's file;
- * `extra.inlinedFrom` says which procedure and call step they came from.
+ * `extra.inlinedFrom` says which procedure and call step they came from; `extra.callTimeLimit` and
+ * `extra.callIfNot` name the call step (the nearest one) whose time limit or if-not covers a called step.
  */
 export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): InlineResult {
   const problems: InlineProblem[] = [];
@@ -176,7 +177,9 @@ export function inlineCalls(procedure: Procedure, lookup: ProcedureLookup): Inli
       interlocks.push(...callee.interlocks.filter((i) => !interlocks.some((j) => j.tag === i.tag)).map((i) => rebasePaths(i, base)));
       hazards.push(...callee.hazards.map((h): Hazard => rebasePaths({ ...h, at: h.at.map((a) => ({ ...a, value: inner + a.value })) }, base)));
       const calleeSteps = callee.steps.map((s) => rebasePaths(s, base));
-      const body = expandSequence(calleeSteps, [...stack, callee.id], inner).map((s) => markOrigin(s, callee, step.id));
+      let body = expandSequence(calleeSteps, [...stack, callee.id], inner).map((s) => markOrigin(s, callee, step.id));
+      // A time limit or if-not on the call step covers every called step: say so on each (the call step is gone).
+      if (item.timeLimit || item.ifNot) body = body.map((s) => markCallContingency(s, step.id, item));
       // The call step's own transition still has to hold once the called procedure has ended.
       if (item.until || item.confirm) {
         body.push({ ...step, actions: [`End of ${callee.id}`], expect: undefined, extra: { ...step.extra, call: undefined } });
@@ -211,4 +214,16 @@ function markOrigin(item: SequenceItem, callee: Procedure, callStep: string): Se
   }
   if (item.kind === 'parallel') return { ...item, branches: item.branches.map((b) => ({ ...b, items: b.items.map((s) => markOrigin(s, callee, callStep)) })) };
   return { ...item, branches: item.branches.map((b) => ({ ...b, items: b.items?.map((s) => markOrigin(s, callee, callStep)) })) };
+}
+
+/** Marks each step of called content with the call step whose time limit or if-not covers it (the nearest kept). */
+function markCallContingency(item: SequenceItem, callStep: string, call: Step): SequenceItem {
+  if (item.kind === 'step') {
+    const extra = { ...item.extra };
+    if (call.timeLimit) extra.callTimeLimit ??= callStep;
+    if (call.ifNot && (call.ifNot.actions.length || call.ifNot.goto)) extra.callIfNot ??= callStep;
+    return { ...item, extra };
+  }
+  if (item.kind === 'parallel') return { ...item, branches: item.branches.map((b) => ({ ...b, items: b.items.map((s) => markCallContingency(s, callStep, call)) })) };
+  return { ...item, branches: item.branches.map((b) => ({ ...b, items: b.items?.map((s) => markCallContingency(s, callStep, call)) })) };
 }

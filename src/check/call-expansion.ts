@@ -1,7 +1,8 @@
 // Call expansion, a pass of the check engine. Each procedure is checked on its own first; a procedure with
 // `call` steps is then checked once more with every call expanded into the called steps (analysis/inline-calls),
-// by the sequence, condition and limit rules. What those rules find only in the combination is reported at the
-// call step, under the rule id `call-expansion-problem`.
+// by the sequence, condition and limit rules (and the rules marked `inCallExpansion`, such as the emergency rules,
+// which hold the steps an emergency procedure runs through a call to what they hold its own steps to). What those
+// rules find only in the combination is reported at the call step, under the rule id `call-expansion-problem`.
 //
 // Findings are compared by place, not by wording: a finding's key is its rule id plus the procedure whose own
 // text holds it and its YAML path there. Expanded content keeps the callee's paths under the call's path
@@ -17,6 +18,15 @@ import { groupDigits } from '../parse/group-digits.ts';
 
 /** Rule categories whose findings can change when a called procedure runs inside its caller. */
 export const expansionCategories: ReadonlySet<string> = new Set(['sequence', 'conditions', 'limits']);
+
+/**
+ * Whether a rule runs again on callers with their calls expanded: the rules of `expansionCategories`, and a rule
+ * marked `inCallExpansion` (one that holds a caller's kind of procedure to more than a called procedure asks of
+ * itself, such as the emergency rules on the steps an emergency procedure runs through a call).
+ */
+export function takesPartInExpansion(meta: RuleMeta): boolean {
+  return expansionCategories.has(meta.category) || meta.inCallExpansion === true;
+}
 
 /** One report of a file rule, as the pass compares it: the rule and where it points. */
 export interface RawFinding {
@@ -69,7 +79,7 @@ export function findingKey(finding: RawFinding, procedure: Pick<Procedure, 'id' 
 
 export interface CallExpansionInput {
   files: FileContext[];
-  /** The file rules the engine runs (only those in `expansionCategories` take part). */
+  /** The file rules the engine runs (only those that `takesPartInExpansion` take part). */
   rules: FileRule[];
   /** What each file rule reported on a file alone, when the engine ran them (not for results from the cache). */
   ownFindings: Map<FileContext, RawFinding[]>;
@@ -81,7 +91,7 @@ export interface CallExpansionInput {
 
 /** Runs the pass over every procedure that calls others. */
 export function expandCalls(input: CallExpansionInput): void {
-  const checked = input.rules.filter((r) => expansionCategories.has(r.meta.category));
+  const checked = input.rules.filter((r) => takesPartInExpansion(r.meta));
   const byId = new Map<string, FileContext>();
   for (const f of input.files) if (f.procedure?.id && !byId.has(f.procedure.id)) byId.set(f.procedure.id, f);
   const lookup: Lookup = (id) => byId.get(id)?.procedure ?? undefined;

@@ -25,6 +25,12 @@ export interface RuleMeta {
    * it must not be in a category that takes part in call expansion (tests/check/dated-rules.test.ts holds both).
    */
   dated?: true;
+  /**
+   * The rule also runs on a caller with its calls expanded, whatever its category (call expansion takes the
+   * sequence, condition and limit rules by category): a rule that holds a kind of procedure to more than each
+   * called procedure asks of itself, so that steps run through a call are held to it too (the emergency rules).
+   */
+  inCallExpansion?: true;
 }
 
 export interface Report {

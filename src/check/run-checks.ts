@@ -8,7 +8,7 @@ import type { ProcedureFacts } from '../analysis/procedure-facts.ts';
 import { forgetRuleAnalysesOf } from '../analysis/rule-memo.ts';
 import { readProcedure, type GivenReading } from '../read/read-procedure.ts';
 import { toDiagnostic, type FileContext, type FileHistory, type FileRule, type Report, type Rule, type RuleMeta } from './define-rule.ts';
-import { expandCalls, expansionCategories, type RawFinding } from './call-expansion.ts';
+import { expandCalls, takesPartInExpansion, type RawFinding } from './call-expansion.ts';
 import { applyWaivers, type WaivedDiagnostic } from './waivers.ts';
 import { allRules } from './rules/index.ts';
 import { cacheKey, type ResultCache } from './result-cache.ts';
@@ -158,7 +158,7 @@ export function checkSources(inputs: SourceInput[], options: CheckOptions): Chec
     let current: RuleMeta = rules[0]?.meta;
     // A file the rules will read is read in full at once, so that a fault while reading it is reported as one.
     const context = lazyFileContext(input, previous, options, (report) => {
-      if (expansionCategories.has(current.category)) ownFindings.get(context)?.push({ rule: current, report });
+      if (takesPartInExpansion(current)) ownFindings.get(context)?.push({ rule: current, report });
       emit(context, current, report);
     }, !known, partsOf, onRead, earlier);
     sink.set(context, []);

@@ -1,6 +1,7 @@
 // Call expansion as an engine pass: a caller is checked once more with its calls expanded; findings are told
 // apart by rule and place (the path with call-site prefixes removed), and the call step to report at is found
 // from the path, whatever the underlying rule's message says.
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkSources, type SourceInput } from '../../src/check/run-checks.ts';
 import { openResultCache } from '../../src/check/result-cache.ts';
@@ -142,5 +143,91 @@ describe('call expansion pass', () => {
     // The call value itself, and the caller's own content, stay in the caller.
     expect(placeOf(c, ['steps', 1, 'call'], lookup)).toEqual({ procedure: 'U2-T-CALLER', path: ['steps', 1, 'call'] });
     expect(placeOf(c, ['limits', 'PI-1', 'high'], lookup)).toEqual({ procedure: 'U2-T-CALLER', path: ['limits', 'PI-1', 'high'] });
+  });
+});
+
+// The emergency rules (contingency-missing, emergency-wait-without-time-limit) hold the steps an emergency procedure
+// runs through a call to what they hold its own steps to; the called procedure is fine on its own in normal use.
+interface DrownCase { kind: string; calledIfNot: boolean; calledTimeLimit: boolean; callIfNot: boolean; callTimeLimit: boolean }
+
+function drownFiles(c: DrownCase): SourceInput[] {
+  const callee = `---
+id: U2-T-DROWN
+title: Drown kettle K-210
+kind: normal
+revision: 1
+status: draft
+signals:
+  XV-2109: { text: Drown valve, values: [open, closed] }
+  LI-210: { text: Kettle level, unit: percent, range: [0, 100] }
+steps:
+  - step: open-drown
+    do: Open drown valve XV-2109
+    state: { XV-2109: open }
+    until: XV-2109 == open
+${c.calledIfNot ? '    if-not: { do: Open hand valve HV-2109 }\n' : ''}${c.calledTimeLimit ? '    time-limit: { max: 1 min, then: Open hand valve HV-2109 }\n' : ''}  - step: wait-drain
+    do: Wait for the kettle to drain
+    until: LI-210 <= 5 percent
+${c.calledTimeLimit ? '    time-limit: { max: 20 min, then: Tell the shift supervisor }\n' : ''}---
+`;
+  const caller = `---
+id: U2-T-ESD
+title: Shut down kettle K-210 on high temperature
+kind: ${c.kind}
+revision: 0
+status: draft
+signals:
+  LI-210: { text: Kettle level, unit: percent, range: [0, 100] }
+steps:
+  - step: alarm
+    do: Press the kettle shutdown button
+    confirm: Button is pressed
+  - step: drown
+    do: Drown the kettle
+    call: U2-T-DROWN
+${c.callIfNot ? '    if-not: { do: Open hand valve HV-2109 }\n' : ''}${c.callTimeLimit ? '    time-limit: { max: 30 min, then: Tell the shift supervisor }\n' : ''}---
+`;
+  return [{ file: 'p/esd.md', text: caller }, { file: 'p/drown.md', text: callee }];
+}
+
+const emergencyFindings = (files: SourceInput[]) => checkSources(files, { today }).diagnostics
+  .filter((d) => d.rule === 'call-expansion-problem' && /^rule (contingency-missing|emergency-wait-without-time-limit)$/.test(d.trace?.[0] ?? ''));
+
+describe('call expansion and the emergency rules', () => {
+  const plain: DrownCase = { kind: 'emergency-shutdown', calledIfNot: false, calledTimeLimit: false, callIfNot: false, callTimeLimit: false };
+
+  it('reports the called steps at the call step of the emergency procedure, naming the called procedure and step', () => {
+    const files = drownFiles(plain);
+    const found = emergencyFindings(files);
+    expect(found.map((d) => [d.trace![0], d.severity]).sort()).toEqual([
+      ['rule contingency-missing', 'error'],
+      ['rule emergency-wait-without-time-limit', 'warning'],
+      ['rule emergency-wait-without-time-limit', 'warning'],
+    ]);
+    for (const d of found) {
+      expect(d.file).toBe('p/esd.md');
+      expect(d.line).toBe(lineOf((files[0] as { text: string }).text, 'call: U2-T-DROWN'));
+      expect(d.message).toMatch(/^With 'U2-T-DROWN' run by step 'drown': Emergency step 'drown\/(open-drown|wait-drain)'/);
+    }
+    // The called procedure is fine on its own: nothing of either rule in its file.
+    const own = checkSources(files, { today }).diagnostics.filter((d) => d.file === 'p/drown.md');
+    expect(own.filter((d) => d.rule === 'contingency-missing' || d.rule === 'emergency-wait-without-time-limit')).toEqual([]);
+  });
+
+  it('holds a called step to a rule exactly when the caller is an emergency procedure and nothing answers for the step', () => {
+    fc.assert(fc.property(
+      fc.record({
+        kind: fc.constantFrom('emergency', 'emergency-shutdown', 'normal', 'shutdown'),
+        calledIfNot: fc.boolean(), calledTimeLimit: fc.boolean(), callIfNot: fc.boolean(), callTimeLimit: fc.boolean(),
+      }),
+      (c) => {
+        const emergency = c.kind.startsWith('emergency');
+        const found = emergencyFindings(drownFiles(c)).map((d) => d.trace![0]);
+        const missing = found.filter((r) => r === 'rule contingency-missing').length;
+        const waits = found.filter((r) => r === 'rule emergency-wait-without-time-limit').length;
+        expect(missing).toBe(emergency && !c.calledIfNot && !c.callIfNot ? 1 : 0);
+        expect(waits).toBe(emergency && !c.calledTimeLimit && !c.callTimeLimit ? 2 : 0);
+      },
+    ), { numRuns: 40 });
   });
 });

@@ -6,7 +6,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkSources, type CheckResult } from '../../src/check/run-checks.ts';
 import { allRules } from '../../src/check/rules/index.ts';
-import { expansionCategories } from '../../src/check/call-expansion.ts';
+import { takesPartInExpansion } from '../../src/check/call-expansion.ts';
 import type { FileContext, ManualContext, Rule } from '../../src/check/define-rule.ts';
 import { fixtureFolders, inputsOf, loadFolder, previousOf, registerOf } from './rule-fixture-folders.ts';
 
@@ -107,8 +107,8 @@ describe('rules with the dated mark', () => {
   });
 
   it('take no part in call expansion', () => {
-    // Call expansion runs the file rules of its categories on each caller with its calls expanded.
-    const inExpansion = allRules.filter((r) => r.scope === 'file' && expansionCategories.has(r.meta.category));
+    // Call expansion runs the file rules of its categories (and those marked for it) on each caller with its calls expanded.
+    const inExpansion = allRules.filter((r) => r.scope === 'file' && takesPartInExpansion(r.meta));
     expect(inExpansion.length).toBeGreaterThan(0);
     expect(inExpansion.filter((r) => r.meta.dated).map((r) => r.meta.id)).toEqual([]);
   });

@@ -17,6 +17,7 @@ export default defineFileRule(
     summary: 'An emergency step that checks equipment moved does not say what to do if it did not.',
     category: 'safety',
     defaultSeverity: 'error',
+    inCallExpansion: true,
     source: 'DOE-STD-1029-92, Writer\'s Guide for Technical Procedures (contingency actions); HSE HSG48 (plan for the expected failure)',
     docs: `In an emergency the valve that should close sometimes does not. Every step of an \`emergency\` or
 \`emergency-shutdown\` procedure that checks that equipment moved (its \`until\` compares a valve, motor or other
@@ -30,7 +31,13 @@ second column and placekeeping offers it.
   until: XV-2101 == closed
   if-not:
     do: [Close hand valve HV-2101 upstream of XV-2101, Tell the shift supervisor]
-\`\`\``,
+\`\`\`
+
+The steps an emergency procedure runs through a \`call\` are held to the same rule, call after call: the called
+procedure may be a \`normal\` shared operation that is fine in normal use, but in the emergency its stuck valve is
+the emergency's. Such a step is reported at the call step of the emergency procedure, under
+\`call-expansion-problem\`, naming the called procedure and step. Give the called step an \`if-not\`, or give the
+call step one (a response for the whole called operation, which then covers each of its steps).`,
     examples: {
       bad: 'kind: emergency-shutdown\nsteps: [{ step: check-closed, until: XV-2101 == closed }]',
       good: "steps: [{ step: check-closed, until: XV-2101 == closed, if-not: { do: Close hand valve HV-2101 } }]",
@@ -40,12 +47,16 @@ second column and placekeeping offers it.
     if (!ctx.procedure || !emergencyKinds.has(ctx.procedure.kind)) return;
     for (const { step } of walkSteps(ctx.procedure.steps)) {
       if (step.ifNot && (step.ifNot.actions.length || step.ifNot.goto)) continue;
+      // A step run through a call (checked with the calls expanded) whose call step has an if-not is covered by it.
+      if (step.extra.callIfNot) continue;
       const why = checksMovement(step, ctx.procedure);
       if (!why) continue;
       ctx.report({
         path: [...step.path, 'step'],
         message: `Emergency step '${step.id}' checks that ${why}, but does not say what to do if it did not.`,
-        hint: 'Add if-not with the response (do: the actions, e.g. close the hand valve upstream) or a goto to the step to go to.',
+        hint: step.extra.inlinedFrom
+          ? 'Add if-not with the response (do: the actions, e.g. close the hand valve upstream) to the called step, or to the call step for the whole called operation.'
+          : 'Add if-not with the response (do: the actions, e.g. close the hand valve upstream) or a goto to the step to go to.',
       });
     }
   },
