@@ -429,12 +429,33 @@ export function formatConverted(value: number, unit: string, against: ReadonlyAr
 
 const numberPattern = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?/;
 
+/** A number written in hexadecimal, binary or octal, or with digit separators: said as such, not as a strange unit. */
+function otherNotation(text: string): UnitError | null {
+  const first = /^\S+/.exec(text)?.[0] ?? '';
+  const based = /^([+-]?)0([xob])([0-9a-f_]+)$/i.exec(first);
+  if (based) {
+    const radix = { x: 16, o: 8, b: 2 }[based[2].toLowerCase() as 'x' | 'o' | 'b'];
+    const digits = based[3].replaceAll('_', '');
+    const value = Number.parseInt(digits, radix);
+    const name = { 16: 'hexadecimal', 8: 'octal', 2: 'binary' }[radix];
+    const rest = text.slice(first.length).trim();
+    const valid = Number.isFinite(value) && [...digits.toLowerCase()].every((d) => Number.parseInt(d, radix) < radix);
+    return unitError(`'${first}' is written in ${name}; quantities are written in decimal.`, valid ? `Write ${based[1] === '-' ? '-' : ''}${value}${rest ? ` ${rest}` : ''}.` : 'Write the number in decimal, e.g. 238 degC.');
+  }
+  if (/^[+-]?\d[\d_]*_\d/.test(first)) {
+    return unitError(`'${first}' groups its digits with '_'; write the digits without separators.`, `Write ${text.replace(/^(\S+)/, (n) => n.replaceAll('_', ''))}.`);
+  }
+  return null;
+}
+
 /** Reads "238 degC", "-5 degC", "15 %", "2.5 m3/h". */
 export function parseQuantity(text: string, fit?: UnitFit): ParsedQuantity {
   const trimmed = text.trim();
   if (trimmed === '') return unitError('The quantity is empty.', 'Write a number with its unit, e.g. 238 degC.');
   const match = numberPattern.exec(trimmed);
   if (!match) return unitError(`'${trimmed}' does not start with a number.`, 'Write a number with its unit, e.g. 238 degC.');
+  const other = otherNotation(trimmed);
+  if (other) return other;
   const rest = trimmed.slice(match[0].length).trim();
   if (/^,\d/.test(rest)) return unitError(`'${trimmed}' uses a comma in the number.`, 'Write decimals with a point, e.g. 2.5 m3/h.');
   if (rest === '') return unitError(`'${trimmed}' has no unit.`, 'Write its unit after the number, as in 238 degC or 600 kg.');

@@ -128,7 +128,8 @@ function buildStep(r: Data, path: PathKey[]): Step {
     id: asText(r.step) ?? '',
     actions,
     phase: asText(r.phase),
-    set: Object.entries(asRecord(r.set)).map(([signal, q]) => ({ signal, quantity: String(q), path: [...path, 'set', signal] })),
+    // An empty setpoint is reported by the schema check; it is not read again as the quantity 'null'.
+    set: Object.entries(asRecord(r.set)).filter(([, q]) => q !== null && q !== undefined).map(([signal, q]) => ({ signal, quantity: String(q), path: [...path, 'set', signal] })),
     maxDrop: Object.entries(asRecord(r['max-drop'])).map(([signal, q]) => ({ signal, quantity: String(q), path: [...path, 'max-drop', signal] })),
     params: Object.entries(asRecord(r.params)).map(([name, v]) => ({
       name, value: typeof v === 'number' || typeof v === 'boolean' ? v : String(v), path: [...path, 'params', name],

@@ -56,7 +56,7 @@ function flatten(issue: RawIssue, base: PathKey[], root: unknown, out: SchemaIss
       if (input === undefined) {
         out.push({ code: 'missing-key', path, message: `The required key ${name} is missing.` });
       } else {
-        out.push({ code: 'bad-type', path, message: `${name} should be ${article(issue.expected)}, not ${describe(input)}.` });
+        out.push({ code: 'bad-type', path, message: setpointProblem(path, input) ?? `${name} should be ${article(issue.expected)}, not ${describe(input)}.` });
       }
       return;
     case 'invalid_format':
@@ -150,6 +150,15 @@ function nameOf(path: PathKey[]): string {
   if (last === undefined) return 'The front-matter';
   if (typeof last === 'number') return `Item ${last + 1} of '${String(path.at(-2) ?? 'the list')}'`;
   return `'${last}'`;
+}
+
+/** What is wrong with a value under a step's `set`, said as a setpoint (null when the path is not one). */
+function setpointProblem(path: PathKey[], input: unknown): string | null {
+  const signal = path.at(-1);
+  if (path.at(-2) !== 'set' || typeof signal !== 'string') return null;
+  const write = 'write a quantity with its unit, such as 180 degC, or one of the values of an enumerated signal';
+  if (input === null) return `The setpoint of '${signal}' is empty: ${write}.`;
+  return `The setpoint of '${signal}' is ${describe(input)}: ${write}.`;
 }
 
 function describe(value: unknown): string {

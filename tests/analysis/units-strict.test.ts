@@ -328,3 +328,28 @@ steps:
     expect(found('260 kPaa', 'PI-7 >= 310 kPaa').every((m) => !m.includes('101.325'))).toBe(true);
   });
 });
+
+describe('numbers in another notation', () => {
+  it('says a hexadecimal, octal or binary number is one, with its decimal value, instead of reading a strange unit', () => {
+    // Source: ECMAScript 2024 (ECMA-262), 12.9.3 Numeric Literals: 0x, 0o and 0b prefixes for bases 16, 8 and 2.
+    fc.assert(fc.property(fc.integer({ min: 0, max: 100_000 }), fc.constantFrom(['x', 16], ['o', 8], ['b', 2]), fc.constantFrom('degC', 'kPag', 'kg'), (value, [prefix, radix], unit) => {
+      const written = `0${prefix}${value.toString(radix as number)} ${unit}`;
+      const parsed = parseQuantity(written);
+      expect(parsed.ok).toBe(false);
+      if (parsed.ok) return;
+      expect(parsed.message).toMatch(/is written in (hexadecimal|octal|binary); quantities are written in decimal\.$/);
+      expect(parsed.hint).toBe(`Write ${value} ${unit}.`);
+    }), { numRuns: 60 });
+    const grouped = parseQuantity('1_000 kg');
+    expect(grouped.ok ? null : [grouped.message, grouped.hint]).toEqual(["'1_000' groups its digits with '_'; write the digits without separators.", 'Write 1000 kg.']);
+    // Decimal numbers with exponents are still read as they were.
+    expect(parseQuantity('2.55e2 degC')).toEqual({ ok: true, value: 255, unit: 'degC' });
+  });
+
+  it('calls an empty or unit-less setpoint a setpoint, once', () => {
+    const text = (value: string) => `---\nid: FX-S-001\ntitle: Heat\nkind: normal\nrevision: 0\nstatus: draft\nsignals:\n  TI-210: { text: Kettle temperature, unit: degC, range: [0, 300] }\nsteps:\n  - step: heat\n    do: Heat the kettle\n    set: { TI-210: ${value} }\n    until: TI-210 >= 100 degC\n---\n`;
+    const errors = (value: string) => checkSources([{ file: 's.md', text: text(value) }], { today: '2026-12-01' }).diagnostics.filter((d) => d.severity === 'error').map((d) => `${d.rule} ${d.message}`);
+    expect(errors('null')).toEqual(["invalid-value The setpoint of 'TI-210' is empty: write a quantity with its unit, such as 180 degC, or one of the values of an enumerated signal."]);
+    expect(errors('180')).toEqual(["value-not-allowed '180' is not a quantity: '180' has no unit."]);
+  });
+});
