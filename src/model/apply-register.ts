@@ -129,6 +129,7 @@ export function tripOf(fn: RegisterSafetyFunction, register: PlantRegister, path
     latches: fn.latches ?? (fn.starts ? register.safetyFunctions.get(fn.starts)?.latches : undefined) ?? false,
     holds,
     ...(unheld.length ? { unheld } : {}),
+    ...(fn.latches === undefined && fn.starts && register.safetyFunctions.get(fn.starts)?.latches ? { latchesThrough: fn.starts } : {}),
     path,
   };
 }

@@ -65,6 +65,8 @@ export interface Interlock {
    * `starts`) that could not be taken as held outputs of this procedure, and why; `via` names the started function.
    */
   unheld?: UnheldOutput[];
+  /** The plant-register function whose latch this trip shares (the function it `starts`, when that latches). */
+  latchesThrough?: string;
   path: PathKey[];
 }
 

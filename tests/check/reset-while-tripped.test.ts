@@ -96,7 +96,12 @@ ${steps}
     const resetRegister = '  - { step: reset-trip, do: Reset TSHH-210 at the panel, resets: [TSHH-210], confirm: Reset shown }';
     const [d] = found(text([test, resetRegister].join('\n')), register);
     expect(d?.message).toContain('resets latching trip TSHH-210, but its condition TI-210 >= 255 degC can still be true there');
-    const check = "  - { step: check-clear, do: Check TI-210 below its trip point, until: 'TI-210 < 240 degC' }";
+    // TSHH-210 latches through ESD-210, which PSHH-210 and HS-2190 also start: the reset is judged against all three.
+    const checkTemperature = "  - { step: check-clear, do: Check TI-210 below its trip point, until: 'TI-210 < 240 degC' }";
+    // Their signals are not the procedure's here, so an info line says they were not judged, naming each.
+    const notJudged = found(text([test, checkTemperature, resetRegister].join('\n')), register);
+    expect(notJudged.map((d) => [d.severity, /also resets (\S+) /.exec(d.message)?.[1]])).toEqual([['info', 'HS-2190'], ['info', 'PSHH-210']]);
+    const check = "  - { step: check-clear, do: Check every cause of ESD-210 clear, until: 'TI-210 < 240 degC and PI-210 < 250 kPaa and esd-active == false' }";
     expect(found(text([test, check, resetRegister].join('\n')), register)).toEqual([]);
   });
 
@@ -124,5 +129,47 @@ describe('reset-while-tripped source', () => {
     // Source: OSHA 29 CFR 1910.119(f)(1)(iv): safety systems and their functions; resetting only once the cause has
     // cleared: common practice
     expect(rules['reset-while-tripped'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(iv\).*common practice/);
+  });
+});
+
+describe('reset-while-tripped: trips that share one latch', () => {
+  const register = registerOf('reset-while-tripped')!;
+  const shared = (clears: string[], reset: string) => `---
+id: FX-K210-ESD
+title: Reset the K-210 emergency shutdown
+kind: emergency-shutdown
+revision: 0
+status: draft
+uses: [TSHH-210, PSHH-210, HS-2190, ESD-210]
+steps:
+${clears.length ? `  - { step: clear, do: Bring the kettle back, until: '${clears.join(' and ')}', time-limit: { max: 4 h, then: Tell the shift supervisor } }\n` : ''}  - { step: reset, do: Reset the shutdown, resets: [${reset}], confirm: The panel shows no latched trip }
+---
+`;
+  const causes = { 'TSHH-210': 'TI-210 < 240 degC', 'PSHH-210': 'PI-210 < 250 kPaa', 'HS-2190': 'esd-active == false' } as const;
+  const judged = (text: string) =>
+    checkSources([{ file: 'e.md', text }], { today: '2026-12-01', register }).diagnostics.filter((d) => d.rule === 'reset-while-tripped' || d.rule === 'state-reference-unknown');
+
+  it('judges the reset of one trip against every trip that starts the same latching function', () => {
+    const found = judged(shared(['TI-210 < 240 degC'], 'TSHH-210'));
+    expect(found.map((d) => d.message.split(',')[0])).toEqual([
+      "Step 'reset' resets latching trip PSHH-210 (it resets TSHH-210",
+      "Step 'reset' resets latching trip HS-2190 (it resets TSHH-210",
+    ]);
+  });
+
+  it('lets a step reset the latching function by its own name, judged the same way', () => {
+    const found = judged(shared(['TI-210 < 240 degC'], 'ESD-210'));
+    expect(found.map((d) => d.rule)).toEqual(['reset-while-tripped', 'reset-while-tripped']);
+    expect(judged(shared(Object.values(causes), 'ESD-210'))).toEqual([]);
+  });
+
+  it('property: whatever it names, a reset of the shared latch reports exactly the causes not cleared before it', () => {
+    const tags = Object.keys(causes) as Array<keyof typeof causes>;
+    fc.assert(fc.property(fc.subarray(tags), fc.constantFrom('TSHH-210', 'PSHH-210', 'HS-2190', 'ESD-210'), (cleared, reset) => {
+      const found = judged(shared(cleared.map((t) => causes[t]), reset));
+      const reported = found.map((d) => /latching trip ([^\s,]+)/.exec(d.message)![1]).sort();
+      expect(found.every((d) => d.rule === 'reset-while-tripped' && d.severity === 'error')).toBe(true);
+      expect(reported).toEqual(tags.filter((t) => !cleared.includes(t)).sort());
+    }), { numRuns: 24 });
   });
 });

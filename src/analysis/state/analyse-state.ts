@@ -198,7 +198,7 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
 
   const enter = (box: Box, step: Step): Box => {
     const out = new Map(box);
-    for (const r of step.resets ?? []) setTrip(out, r.value, clear);
+    for (const r of step.resets ?? []) for (const tag of input.resetsAlso?.get(r.value) ?? [r.value]) setTrip(out, tag, clear);
     for (const t of step.trips ?? []) setTrip(out, t.value, latched);
     for (const a of storedActions(step)) assignWord(out, a.signal, a.value, a.lasts === 'delayed');
     for (const m of motionOf(step)) {

@@ -93,8 +93,10 @@ export function heldOutputConflicts(analysis: StateAnalysis, graph: StepGraph, t
 }
 
 export interface ResetFinding extends StateFinding {
-  /** The latching trip the step resets while its condition can hold. */
+  /** The latching trip whose condition can hold when the step resets it. */
   trip: string;
+  /** The name the step resets: the trip itself, another trip sharing its latch, or the latching function. */
+  reset: string;
 }
 
 /**
@@ -102,10 +104,12 @@ export interface ResetFinding extends StateFinding {
  * the cause present. A step's own `needs` is taken as holding when it starts (step-need-unmet reports it where it may
  * not); `trips` maps each latching trip whose condition could be analysed to that condition as a region.
  */
-export function resetsWithCausePresent(analysis: StateAnalysis, graph: StepGraph, trips: ReadonlyMap<string, Region>): ResetFinding[] {
+export function resetsWithCausePresent(
+  analysis: StateAnalysis, graph: StepGraph, trips: ReadonlyMap<string, Region>, causesOf: (reset: string) => string[] = (r) => [r],
+): ResetFinding[] {
   const out: ResetFinding[] = [];
   for (const { place, step } of steps(graph)) {
-    const resets = (step.resets ?? []).filter((r) => trips.has(r.value));
+    const resets = (step.resets ?? []).flatMap((r) => causesOf(r.value).filter((c) => trips.has(c)).map((c) => ({ value: c, reset: r.value })));
     if (!resets.length) continue;
     const need = step.needs ? analysis.regionOf(step.needs.value) : undefined;
     const done = new Set<string>();
@@ -118,7 +122,7 @@ export function resetsWithCausePresent(analysis: StateAnalysis, graph: StepGraph
         const met = analysis.space.and(boxes, cause);
         if (!met.length) continue;
         done.add(r.value);
-        out.push({ step, trip: r.value, path: analysis.pathTo(view.node), values: analysis.space.describe(restrict(met[0], cause)) });
+        out.push({ step, trip: r.value, reset: r.reset, path: analysis.pathTo(view.node), values: analysis.space.describe(restrict(met[0], cause)) });
       }
     }
   }

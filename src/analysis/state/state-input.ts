@@ -19,6 +19,11 @@ export interface StateInput {
   /** Latching trips that may already be in force at the start (an emergency procedure starts after a trip). */
   latchedAtStart: string[];
   graph: StepGraph;
+  /**
+   * A reset that clears more than the trip it names: the trips that share one latch (each starts the same latching
+   * function), by the name a step resets (one of them, or the function itself).
+   */
+  resetsAlso?: ReadonlyMap<string, string[]>;
 }
 
 /** Emergency procedures start when something has gone wrong: any latching trip may be in force. */
@@ -32,7 +37,20 @@ export function stateInputOf(procedure: Procedure, graph: StepGraph = compileSte
     lineUp: (procedure.lineUp ?? []).map((l) => l.value),
     latchedAtStart: startsAfterTrip.has(procedure.kind) ? trips.filter((t) => t.latches).map((t) => t.tag) : [],
     graph,
+    resetsAlso: sharedLatches(procedure),
   };
+}
+
+/** Each trip that latches through a function, and the function, mapped to every trip latching through it. */
+export function sharedLatches(procedure: Procedure): Map<string, string[]> {
+  const by = new Map<string, string[]>();
+  for (const i of procedure.interlocks) if (i.latches && i.latchesThrough) by.set(i.latchesThrough, [...(by.get(i.latchesThrough) ?? []), i.tag]);
+  const out = new Map<string, string[]>();
+  for (const [fn, tags] of by) {
+    out.set(fn, tags);
+    for (const t of tags) out.set(t, tags);
+  }
+  return out;
 }
 
 /** The variable that says whether a latching trip is in force; ':' never occurs in a signal name. */

@@ -1,6 +1,9 @@
-// Reports a step that resets a latching trip while the trip's cause can still be present there, on some path.
+// Reports a step that resets a latching trip while the trip's cause can still be present there, on some path; a
+// reset of a shared latch (trips that start one latching register function) is judged against each of its trips.
 import type { Region } from '../../analysis/decisions/signal-space.ts';
 import { resetsWithCausePresent } from '../../analysis/state/state-findings.ts';
+import { sharedLatches } from '../../analysis/state/state-input.ts';
+import type { PathKey } from '../../parse/read-source.ts';
 import { defineFileRule } from '../define-rule.ts';
 import { showPath } from '../state-path.ts';
 
@@ -25,6 +28,13 @@ an error in every kind of procedure: an emergency procedure resets trips too, an
 present. A trip whose condition cannot be analysed (or that has none) is not judged, and an info line says so at the
 reset.
 
+Trips that latch through one plant-register function share its latch: TSHH-210, PSHH-210 and HS-2190 each start
+ESD-210, which latches, and its reset at the panel resets the shutdown whichever trip caused it. So a reset of any
+of them, or of the function itself (\`resets: [ESD-210]\`, when the procedure uses it), is judged against every trip
+that the register says starts the function: cooling below the temperature trip is not enough while the pressure
+or the push-button can still be at its trip. A trip whose signals the procedure does not declare is named in an
+info line at the reset.
+
 Fix it with a step before the reset whose \`until\` brings the signal back clear of the trip
 (\`until: TI-210 <= 200 degC\`), or a \`needs\` on the reset step that says the cause has cleared.`,
     examples: {
@@ -38,12 +48,30 @@ Fix it with a step before the reset whose \`until\` brings the signal back clear
     const resetting = ctx.facts.steps.filter(({ step }) => (step.resets ?? []).length > 0);
     if (!resetting.length) return;
     const latching = new Map(p.interlocks.filter((i) => i.latches).map((i) => [i.tag, i]));
-    if (!resetting.some(({ step }) => step.resets!.some((r) => latching.has(r.value)))) return;
+    // A trip that latches through a function (TSHH-210 starts ESD-210) shares that function's latch: its reset
+    // resets the function, so it is judged against every trip that starts the function, and a step may name the
+    // function itself. Common practice: a shutdown is reset once every cause of it has cleared.
+    const shared = sharedLatches(p);
+    const causesOf = (reset: string): string[] => {
+      const fn = latching.get(reset)?.latchesThrough ?? (shared.has(reset) && !latching.has(reset) ? reset : undefined);
+      return fn ? [...new Set([...(latching.has(reset) ? [reset] : []), ...(shared.get(fn) ?? []), ...startersOf(fn)])] : [reset];
+    };
+    const startersOf = (fn: string): string[] => [...(ctx.register?.safetyFunctions.values() ?? [])].filter((f) => f.starts === fn && f.tripsWhen).map((f) => f.id);
+    const causeText = new Map<string, { text: string; path?: PathKey[] }>();
+    for (const [tag, i] of latching) causeText.set(tag, { text: i.tripsWhen.value.trim(), path: i.tripsWhen.path });
+    for (const { step } of resetting) {
+      for (const r of step.resets!) {
+        for (const c of causesOf(r.value)) {
+          const fn = ctx.register?.safetyFunctions.get(c);
+          if (!causeText.has(c) && fn?.tripsWhen) causeText.set(c, { text: fn.tripsWhen.value.trim() });
+        }
+      }
+    }
+    if (!resetting.some(({ step }) => step.resets!.some((r) => causesOf(r.value).some((c) => causeText.has(c))))) return;
     const analysis = ctx.facts.state;
     const regions = new Map<string, Region>();
     const notJudged = new Map<string, string>();
-    for (const [tag, interlock] of latching) {
-      const text = interlock.tripsWhen.value.trim();
+    for (const [tag, { text }] of causeText) {
       if (!text) {
         notJudged.set(tag, 'it states no trip condition');
         continue;
@@ -60,25 +88,29 @@ Fix it with a step before the reset whose \`until\` brings the signal back clear
     // Never passed over in silence: each reset of a trip that could not be judged says so where it is written.
     for (const { step } of resetting) {
       for (const r of step.resets!) {
-        const why = notJudged.get(r.value);
-        if (!why) continue;
-        ctx.report({
-          path: r.path,
-          severity: 'info',
-          message: `Step '${step.id}' resets ${r.value}, but whether the trip's cause can still be present there was not checked: ${why}.`,
-          hint: 'Correct the trip condition as the other diagnostics on it say; until then make sure by hand that a step before the reset brings the signal clear of the trip.',
-        });
+        for (const c of causesOf(r.value)) {
+          const why = notJudged.get(c);
+          if (!why) continue;
+          ctx.report({
+            path: r.path,
+            severity: 'info',
+            message: c === r.value
+              ? `Step '${step.id}' resets ${r.value}, but whether the trip's cause can still be present there was not checked: ${why}.`
+              : `Step '${step.id}' resets ${r.value}, which also resets ${c} (the same latch), but whether the cause of ${c} can still be present there was not checked: ${why}.`,
+          hint: 'Correct the trip condition as the other diagnostics on it say (or declare its signals); until then make sure by hand that a step before the reset brings the signal clear of the trip.',
+          });
+        }
       }
     }
-    for (const f of resetsWithCausePresent(analysis, ctx.facts.graph, regions)) {
-      const interlock = latching.get(f.trip)!;
-      const at = f.step.resets!.find((r) => r.value === f.trip)!;
-      const condition = interlock.tripsWhen.value.trim();
+    for (const f of resetsWithCausePresent(analysis, ctx.facts.graph, regions, causesOf)) {
+      const cause = causeText.get(f.trip)!;
+      const at = f.step.resets!.find((r) => r.value === f.reset)!;
+      const through = f.reset === f.trip ? '' : ` (it resets ${f.reset}, which shares the latch of ${f.trip})`;
       ctx.report({
         path: at.path,
-        message: `Step '${f.step.id}' resets latching trip ${f.trip}, but its condition ${condition} can still be true there (${f.values}): the reset may be tried with the cause present. Path: ${showPath(f.path)}.`,
+        message: `Step '${f.step.id}' resets latching trip ${f.trip}${through}, but its condition ${cause.text} can still be true there (${f.values}): the reset may be tried with the cause present. Path: ${showPath(f.path)}.`,
         hint: `Add a step before the reset whose until brings the signal clear of the trip, or a needs on this step that the cause of ${f.trip} has cleared.`,
-        related: [{ path: interlock.tripsWhen.path, message: `trip condition of ${f.trip}` }],
+        related: cause.path ? [{ path: cause.path, message: `trip condition of ${f.trip}` }] : [],
         trace: f.path,
       });
     }

@@ -2,6 +2,7 @@
 import { parseQuantity, unitDimension } from '../../analysis/units.ts';
 import type { PathKey } from '../../parse/read-source.ts';
 import { walkSteps } from '../../model/walk-steps.ts';
+import { sharedLatches } from '../../analysis/state/state-input.ts';
 import { defineFileRule } from '../define-rule.ts';
 
 export default defineFileRule(
@@ -13,7 +14,8 @@ export default defineFileRule(
     source: 'IEC 61131-3 SFC action qualifiers (an action names a declared variable); common practice',
     docs: `A step's lasting actions (\`state: { XV-2107: open }\`), an interlock's \`holds\`, a step's \`trips\` and
 \`resets\`, and the \`goto\` of \`if-not\` and \`time-limit\` must name what the procedure declares: an enumerated
-signal and one of its values, an interlock (a reset needs one with \`latches: true\`), a step id. A duration in
+signal and one of its values, an interlock (a reset needs one with \`latches: true\`, or the latching plant-register function that trips of
+the procedure start, such as \`resets: [ESD-210]\`), a step id. A duration in
 \`lasts\`, \`after\` or \`time-limit.max\` is a time such as \`30 s\`. A misspelt name would make the plant-state
 checks miss what the step does.
 
@@ -45,6 +47,8 @@ takes effect after a delay (D, or SD when it then stays).`,
     };
     for (const i of p.interlocks) for (const h of i.holds) checkValue(h.signal, h.value, h.path);
     const tags = new Map(p.interlocks.map((i) => [i.tag, i]));
+    // A latching register function that trips of this procedure start (ESD-210) may be reset by its own name.
+    const latchingFunctions = sharedLatches(p);
     for (const { step } of walkSteps(p.steps)) {
       for (const a of step.state ?? []) {
         checkValue(a.signal, a.value, a.path);
@@ -55,6 +59,7 @@ takes effect after a delay (D, or SD when it then stays).`,
       }
       for (const r of step.resets ?? []) {
         const i = tags.get(r.value);
+        if (!i && latchingFunctions.has(r.value)) continue;
         if (!i) ctx.report({ path: r.path, message: `'${r.value}' is not an interlock of this procedure.`, hint: 'Name an interlock listed under interlocks.' });
         else if (!i.latches) ctx.report({ path: r.path, message: `Interlock ${r.value} does not latch, so there is nothing to reset.`, hint: 'Mark the interlock latches: true with the outputs it holds, or remove the reset.' });
       }
