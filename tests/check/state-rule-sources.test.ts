@@ -15,6 +15,10 @@ describe('plant-state rules cite their source', () => {
     // Source: OSHA 29 CFR 1910.119(f)(1)(i) steps for each operating phase; line-ups: common practice
     expect(rules['step-need-unmet'].meta.source).toMatch(/1910\.119\(f\)\(1\)\(i\).*common practice/);
   });
+  it('end-state-differs', () => {
+    // Source: common practice (one known state whichever way the procedure went); OSHA 29 CFR 1910.119(f)(1)(i) steps for each operating phase
+    expect(rules['end-state-differs'].meta.source).toMatch(/Common practice.*1910\.119\(f\)\(1\)\(i\)/);
+  });
   it('contingency-missing', () => {
     // Source: DOE-STD-1029-92 contingency actions; HSE HSG48
     expect(rules['contingency-missing'].meta.source).toMatch(/DOE-STD-1029.*HSG48/);

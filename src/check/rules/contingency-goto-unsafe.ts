@@ -1,9 +1,8 @@
 // Reports a time-limit or if-not jump (goto) that does not lead the plant to a safe end: it leads back into the
 // step that failed, or the procedure can end from it with equipment in a state it never ends in otherwise.
-import { namesIn as conditionNames, parseCondition } from '../../analysis/conditions/parse.ts';
 import type { StepGraph } from '../../analysis/step-graph.ts';
+import { acceptedEndValues, enumValuesAt, enumeratedSignals, untilNames } from '../../analysis/state/end-states.ts';
 import { walkSteps } from '../../model/walk-steps.ts';
-import type { Step } from '../../model/procedure.ts';
 import { defineFileRule } from '../define-rule.ts';
 import { showPath } from '../state-path.ts';
 
@@ -43,14 +42,9 @@ adding those actions to the response's own steps.`,
     const graph = ctx.facts.graph;
     const analysis = ctx.facts.state;
     const stepById = new Map([...walkSteps(p.steps)].map(({ step }) => [step.id, step]));
-    const enumerated = Object.entries(p.signals).filter(([, s]) => (s.values?.length ?? 0) > 0).map(([n]) => n);
-    const normalEnd = valuesAt(analysis.endViews.get('') ?? [], enumerated);
+    const enumerated = enumeratedSignals(p);
     // The plant may be left as the procedure normally leaves it, or as the line-up found it.
-    const lineUp = valuesAt(analysis.start.map((box) => ({ box })) as Views, enumerated);
-    for (const [signal, values] of lineUp) {
-      if (values.size >= (p.signals[signal].values?.length ?? 0)) continue;
-      for (const v of values) normalEnd.get(signal)?.add(v);
-    }
+    const normalEnd = acceptedEndValues(analysis, p);
     for (const c of analysis.contingencies) {
       const step = stepById.get(c.step);
       if (!step) continue;
@@ -67,8 +61,8 @@ adding those actions to the response's own steps.`,
       }
       const ends = analysis.endViews.get(c.step) ?? [];
       if (!ends.length || !normalEnd.size) continue;
-      const waitedFor = namesIn(step);
-      const after = valuesAt(ends, enumerated);
+      const waitedFor = untilNames(step);
+      const after = enumValuesAt(ends, enumerated);
       const left: string[] = [];
       const odd = new Map<string, string[]>();
       for (const [signal, values] of after) {
@@ -95,33 +89,6 @@ adding those actions to the response's own steps.`,
     }
   },
 );
-
-type Views = Array<{ box: Map<string, { kind: string; set: unknown }> }>;
-
-/** Every value each enumerated signal can have in the views. */
-function valuesAt(views: Views, names: string[]): Map<string, Set<string>> {
-  const out = new Map<string, Set<string>>();
-  for (const { box } of views) {
-    for (const n of names) {
-      const v = box.get(n);
-      if (!v || v.kind !== 'enum') continue;
-      const set = out.get(n) ?? new Set<string>();
-      for (const w of v.set as string[]) set.add(String(w));
-      out.set(n, set);
-    }
-  }
-  return out;
-}
-
-/** The signals the step waits for (its until) or confirms by name. */
-function namesIn(step: Step): Set<string> {
-  const out = new Set<string>();
-  if (step.until) {
-    const parsed = parseCondition(step.until.value);
-    if (parsed.ok) for (const n of conditionNames(parsed.condition)) out.add(n.name);
-  }
-  return out;
-}
 
 /** Whether `to` can be entered again after `from` is entered (through transitions and contingency jumps). */
 function reaches(graph: StepGraph, jumps: Array<{ step: string; target: string }>, from: string, to: string): boolean {

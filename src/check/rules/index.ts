@@ -26,6 +26,7 @@ import tripTestIncomplete from './trip-test-incomplete.ts';
 import registerHazardNotStated from './register-hazard-not-stated.ts';
 import timeLimitBelowExpected from './time-limit-below-expected.ts';
 import contingencyGotoUnsafe from './contingency-goto-unsafe.ts';
+import endStateDiffers from './end-state-differs.ts';
 import requiresNotInForce from './requires-not-in-force.ts';
 import requiresUnknownProcedure from './requires-unknown-procedure.ts';
 import certificationInFuture from './certification-in-future.ts';
@@ -156,6 +157,7 @@ export const rules = {
   'register-hazard-not-stated': registerHazardNotStated,
   'time-limit-below-expected': timeLimitBelowExpected,
   'contingency-goto-unsafe': contingencyGotoUnsafe,
+  'end-state-differs': endStateDiffers,
   'certification-in-future': certificationInFuture,
   'caution-for-serious-injury': cautionForSeriousInjury,
   'caution-holds-action': cautionHoldsAction,
