@@ -113,6 +113,7 @@ import waiverWithoutReason from './waiver-without-reason.ts';
 import yamlSyntax from './yaml-syntax.ts';
 import contingencyMissing from './contingency-missing.ts';
 import hazardCanOccur from './hazard-can-occur.ts';
+import hazardReliesOnOldReading from './hazard-relies-on-old-reading.ts';
 import independentCheckByPerformer from './independent-check-by-performer.ts';
 import latchedTripHoldsOutput from './latched-trip-holds-output.ts';
 import retryWithoutLimit from './retry-without-limit.ts';
@@ -123,6 +124,7 @@ import stepNeedUnmet from './step-need-unmet.ts';
 export const rules = {
   'contingency-missing': contingencyMissing,
   'hazard-can-occur': hazardCanOccur,
+  'hazard-relies-on-old-reading': hazardReliesOnOldReading,
   'independent-check-by-performer': independentCheckByPerformer,
   'latched-trip-holds-output': latchedTripHoldsOutput,
   'retry-without-limit': retryWithoutLimit,
