@@ -61,12 +61,32 @@ const conditionsHeading = /\b(conditions?|triggers?|when to (start|use)|initiat)
 const responsibilityHeading = /\b(responsib|who )/i;
 const scopeHeading = /\bscope\b/i;
 
-export function emergencyLead(body: Root, rows: TableRow[], maxActions = 6): EmergencyLead {
+/** The front-matter form of the same content: `conditions-requiring` and `responsible` (emergency shutdown). */
+export interface LeadKeys {
+  conditions?: readonly string[];
+  responsible?: string;
+}
+
+const textNode = (value: string): RootContent => ({ type: 'paragraph', children: [{ type: 'text', value }] });
+
+/** The key's text as body nodes: one condition as a sentence, more as a list. */
+function keyNodes(items: readonly string[]): RootContent[] {
+  const kept = items.map((i) => i.trim()).filter(Boolean);
+  if (kept.length === 0) return [];
+  if (kept.length === 1) return [textNode(kept[0])];
+  return [{ type: 'list', ordered: false, spread: false, children: kept.map((i) => ({ type: 'listItem', spread: false, children: [textNode(i)] })) } as RootContent];
+}
+
+export function emergencyLead(body: Root, rows: TableRow[], maxActions = 6, keys: LeadKeys = {}): EmergencyLead {
   const sections = sectionsOf(body);
   const pick = (pattern: RegExp) => sections.find((s) => s.title && pattern.test(s.title));
-  const conditions = pick(conditionsHeading) ?? pick(scopeHeading);
-  const responsibility = pick(responsibilityHeading);
-  const used = new Set([conditions, responsibility].filter(Boolean));
+  const conditionKey = keyNodes(keys.conditions ?? []);
+  const responsibleKey = keyNodes(keys.responsible ? [keys.responsible] : []);
+  const conditionSection = pick(conditionsHeading);
+  // The scope stands in for the conditions only when neither the body nor the front matter states them.
+  const conditions = merged(conditionSection ?? (conditionKey.length ? undefined : pick(scopeHeading)), conditionKey, 'Conditions that require this shutdown');
+  const responsibility = merged(pick(responsibilityHeading), responsibleKey, 'Responsibility');
+  const used = new Set([conditionSection ?? conditions, pick(responsibilityHeading)].filter(Boolean));
   // Each part is rendered on its own, but a link or footnote in one may be defined in another: every part is given
   // the body's definitions, first (the first of a label is the one used, as on a page of one part).
   const definitions = definitionsIn(body);
@@ -92,4 +112,15 @@ export function emergencyLead(body: Root, rows: TableRow[], maxActions = 6): Eme
     conditions: render(conditions, 'lead-conditions-'), responsibility: render(responsibility, 'lead-responsibility-'), actions, remaining: total - actions.length,
     restHtml: renderBodyHtml({ type: 'root', children: [...definitions, ...rest] }),
   };
+}
+
+/**
+ * A lead part from the body section, the front-matter key, or both (the key's text first, then the section's):
+ * the author may use either form, and what is written in one is never dropped for the other.
+ */
+function merged(section: Section | undefined, keyContent: RootContent[], title: string): Section | undefined {
+  if (keyContent.length === 0) return section;
+  if (!section) return { title, nodes: [{ type: 'heading', depth: 2, children: [{ type: 'text', value: title }] }, ...keyContent] };
+  const [heading, ...rest] = section.nodes;
+  return heading?.type === 'heading' ? { title: section.title, nodes: [heading, ...keyContent, ...rest] } : { title: section.title, nodes: [...keyContent, ...section.nodes] };
 }

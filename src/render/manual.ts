@@ -271,7 +271,7 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
       return (bodyHtml ??= renderBodyHtml(p.body));
     },
     get lead() {
-      return (lead ??= emergencyKinds.has(String(p.kind)) ? { value: emergencyLead(p.body, this.rows) } : {}).value;
+      return (lead ??= emergencyKinds.has(String(p.kind)) ? { value: emergencyLead(p.body, this.rows, undefined, { conditions: p.shutdownConditions, responsible: p.responsible }) } : {}).value;
     },
     tags: tagNames.map((t) => ({ tag: t, url: siteUrl(base, pagePath.tag(slugOf(t))) })),
     lineUp: p.lineUp.map((l) => ({ condition: l.value, ...withWords(conditionInWords(l.value, p.signals)) })),

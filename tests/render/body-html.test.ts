@@ -78,3 +78,32 @@ describe('emergencyLead: the narrative in parts', () => {
     expect(lead.restHtml).toContain('id="body-fn-zone"');
   });
 });
+
+describe('emergencyLead: conditions and responsibility as front-matter keys', () => {
+  const scopeOnly = () => readSource('e.md', `---\nid: X\n---\n## Scope\n\nKettle K-210 only.\n\n## Notes\n\nKeep clear.\n`).body;
+
+  it('shows the keys where the body sections would be, and the scope stays in the narrative', () => {
+    const lead = emergencyLead(scopeOnly(), [], 6, { conditions: ['TI-210 at 250 degC or above', 'Loss of agitator M-210'], responsible: 'Board operator initiates; shift supervisor takes command' });
+    expect(lead.conditions?.title).toBe('Conditions that require this shutdown');
+    expect(lead.conditions?.html).toContain('<li>TI-210 at 250 degC or above</li>');
+    expect(lead.conditions?.html).toContain('<li>Loss of agitator M-210</li>');
+    expect(lead.responsibility?.title).toBe('Responsibility');
+    expect(lead.responsibility?.html).toContain('Board operator initiates; shift supervisor takes command');
+    expect(lead.restHtml).toContain('Kettle K-210 only.');
+  });
+
+  it('shows one condition as a sentence, and escapes the text', () => {
+    const lead = emergencyLead(scopeOnly(), [], 6, { conditions: ['PI-210 > 300 kPaa <script>'] });
+    expect(lead.conditions?.html).toContain('<p>PI-210 > 300 kPaa');
+    expect(lead.conditions?.html).not.toContain('<script>');
+    expect(lead.responsibility).toBeUndefined();
+  });
+
+  it('keeps both forms when the author wrote both: the key first, then the section', () => {
+    const body = readSource('e.md', `---\nid: X\n---\n## Responsibility\n\nThe area operator assists.\n`).body;
+    const lead = emergencyLead(body, [], 6, { responsible: 'Shift supervisor takes command' });
+    const html = lead.responsibility?.html ?? '';
+    expect(html.indexOf('Shift supervisor takes command')).toBeLessThan(html.indexOf('The area operator assists.'));
+    expect(lead.restHtml).not.toContain('The area operator assists.');
+  });
+});
