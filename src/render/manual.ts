@@ -3,6 +3,7 @@
 import type { CheckedFile } from '../check/run-checks.ts';
 import type { Approval, HazardLevel, Interlock, Procedure } from '../model/procedure.ts';
 import { kinds } from '../model/schema.ts';
+import { effectiveLater } from '../analysis/document-control.ts';
 import { areaName, type AreaSource } from './area-names.ts';
 import { renderBodyHtml } from './body-html.ts';
 import { conditionInWords } from './condition-words.ts';
@@ -14,7 +15,7 @@ import { hazardRank, signalWordColours } from './signal-words.ts';
 import { numberSteps, type StepNumbers } from './step-numbers.ts';
 import { buildStepTable, type TableRow } from './step-table.ts';
 import { tagUsesIn, type TagRole, type TagUse } from './where-used.ts';
-import { latchingWords, tripLatching, type TripSource } from './trip-latching.ts';
+import { holdsWords, latchingWords, tripLatching, type TripSource } from './trip-latching.ts';
 import { limitAlarms, splitQuantity, type AlarmSource } from './limit-alarms.ts';
 import { pagePath, rootBase, siteUrl, type SiteBase } from './site-url.ts';
 import { procedureIdsOf, tagPartLinks, type TagPartLink } from './tag-parts.ts';
@@ -47,6 +48,8 @@ export interface InterlockView {
   latching?: string;
   /** The register's reset instruction, and the function it belongs to when that is one the trip starts. */
   reset?: { text: string; through?: string };
+  /** The outputs it holds while in force, in one sentence: "Holds XV-2001 closed until reset." */
+  holds?: string;
 }
 
 /** An operating limit as the "Operating limits" table shows it, with the register's alarms on the signal. */
@@ -193,8 +196,11 @@ export function statusBanner(procedure: Pick<Procedure, 'status' | 'effective'> 
     case 'retired':
       return { tone: 'stop', title: 'RETIRED — DO NOT USE', text: 'This procedure is retired and must not be used: it no longer applies to the plant.' };
     case 'approved':
-      if (procedure.effective && procedure.effective > today) {
-        return { tone: 'hold', title: 'APPROVED — NOT YET EFFECTIVE', text: `This revision takes effect on ${procedure.effective}. Until then use the revision in force.` };
+    case 'effective':
+      // An effective status with a later effective date is not in force yet either (analysis/document-control.ts).
+      if (effectiveLater(procedure, today)) {
+        const title = procedure.status === 'approved' ? 'APPROVED — NOT YET EFFECTIVE' : `EFFECTIVE FROM ${procedure.effective} — NOT YET IN FORCE`;
+        return { tone: 'hold', title, text: `This revision takes effect on ${procedure.effective}. Until then use the revision in force.` };
       }
       return undefined;
     default:
@@ -283,10 +289,12 @@ export function buildProcedureView(file: CheckedFile & { procedure: Procedure },
 function interlockView(i: Interlock, p: Procedure, register: TripSource | undefined, base: SiteBase): InterlockView {
   const latching = tripLatching(i, p, register);
   const words = latchingWords(latching);
+  const held = holdsWords(i.holds, latching.latches ?? i.latches);
   return {
     tag: i.tag, tripsWhen: i.tripsWhen.value, tripsWhenWords: conditionInWords(i.tripsWhen.value, p.signals), action: i.action, tagUrl: siteUrl(base, pagePath.tag(slugOf(i.tag))),
     ...(latching.latches !== undefined ? { latches: latching.latches } : {}),
     ...(words ? { latching: words } : {}),
+    ...(held ? { holds: held } : {}),
     ...(latching.reset ? { reset: { text: latching.reset, ...(latching.resetThrough ? { through: latching.resetThrough } : {}) } } : {}),
   };
 }

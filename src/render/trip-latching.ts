@@ -63,3 +63,15 @@ export function latchingWords(latching: TripLatching): string | undefined {
   if (!latching.latches) return 'Does not latch.';
   return `Latches${latching.latchesThrough ? ` through ${latching.latchesThrough}` : ''}: ${staysTrippedWords}.`;
 }
+
+/**
+ * The outputs a trip holds, in one sentence for the interlocks table: "Holds XV-2001 closed until reset." A trip
+ * that does not latch holds them while it is tripped.
+ */
+export function holdsWords(holds: ReadonlyArray<{ signal: string; value: string }>, latches: boolean | undefined): string | undefined {
+  const seen = new Set<string>();
+  const parts = holds.map((h) => `${h.signal} ${h.value}`).filter((p) => !seen.has(p) && seen.add(p));
+  if (parts.length === 0) return undefined;
+  const list = parts.length === 1 ? parts[0] : `${parts.slice(0, -1).join(', ')} and ${parts[parts.length - 1]}`;
+  return `Holds ${list} ${latches === false ? 'while tripped' : 'until reset'}.`;
+}

@@ -6,7 +6,7 @@ import { checkSources } from '../../src/check/run-checks.ts';
 import { buildRegister } from '../../src/model/register.ts';
 import { readYamlSource } from '../../src/parse/read-yaml-source.ts';
 import { buildManualView, type ProcedureView } from '../../src/render/manual.ts';
-import { latchingWords } from '../../src/render/trip-latching.ts';
+import { holdsWords, latchingWords } from '../../src/render/trip-latching.ts';
 import type { StepRow } from '../../src/render/step-table.ts';
 
 const plant = `
@@ -153,5 +153,52 @@ describe('operating limits: the register\'s alarms beside them', () => {
   it('shows no alarm where the register sets none', () => {
     expect(limit('LI-900')).toMatchObject({ high: '80', unit: 'percent' });
     expect([limit('LI-900').alarmLow, limit('LI-900').alarmHigh]).toEqual([undefined, undefined]);
+  });
+});
+
+describe('interlocks: the outputs a trip holds', () => {
+  it('says which outputs a latched trip holds until reset, the procedure\'s own holds and the register\'s', () => {
+    const text = procedure
+      .replace('  TI-901: {', '  XV-905: { text: Feed valve, values: [open, closed] }\n  TI-901: {')
+      .replace('action: Closes the jacket steam valve, latches: true }', 'action: Closes the feed valve, latches: true, holds: { XV-905: closed } }');
+    const result = checkSources([{ file: 'procedures/r-900/esd.md', text }], { today: '2026-12-01', register });
+    const view = buildManualView({ files: result.files, root: 'procedures', today: '2026-12-01', register }).procedures[0];
+    expect(interlock(view, 'TSH-901').holds).toBe('Holds XV-905 closed until reset.');
+    expect(interlock(view, 'TSH-903').holds).toBeUndefined();
+  });
+
+  it('names each output once, and says "while tripped" for a trip that does not latch', () => {
+    expect(holdsWords([{ signal: 'XV-1', value: 'closed' }, { signal: 'XV-1', value: 'closed' }, { signal: 'M-1', value: 'stopped' }, { signal: 'XV-2', value: 'open' }], true))
+      .toBe('Holds XV-1 closed, M-1 stopped and XV-2 open until reset.');
+    expect(holdsWords([{ signal: 'XV-1', value: 'closed' }], false)).toBe('Holds XV-1 closed while tripped.');
+    expect(holdsWords([], true)).toBeUndefined();
+  });
+});
+
+describe('interlocks table: every interlock key is shown or listed as not shown', () => {
+  /** What the interlocks table shows for each key of an interlock (undefined or empty: not shown). */
+  const shownAs: Record<string, (i: ProcedureView['interlocks'][number]) => unknown> = {
+    tag: (i) => i.tag,
+    'trips-when': (i) => i.tripsWhen,
+    action: (i) => i.action,
+    latches: (i) => i.latching,
+    holds: (i) => i.holds,
+  };
+  /** Keys left out on purpose, with the reason (none so far). */
+  const notShown: Record<string, string> = {};
+
+  it('covers every key of the interlock schema exactly once', async () => {
+    const { interlockSchema } = await import('../../src/model/schema.ts');
+    const keys = Object.keys(interlockSchema.shape).sort();
+    expect([...Object.keys(shownAs), ...Object.keys(notShown)].sort()).toEqual(keys);
+  });
+
+  it('shows every key when an interlock carries them all', () => {
+    const text = procedure
+      .replace('  TI-901: {', '  XV-905: { text: Feed valve, values: [open, closed] }\n  TI-901: {')
+      .replace('action: Closes the jacket steam valve, latches: true }', 'action: Closes the feed valve, latches: true, holds: { XV-905: closed } }');
+    const result = checkSources([{ file: 'procedures/r-900/esd.md', text }], { today: '2026-12-01', register });
+    const i = interlock(buildManualView({ files: result.files, root: 'procedures', today: '2026-12-01', register }).procedures[0], 'TSH-901');
+    for (const [key, shown] of Object.entries(shownAs)) expect(shown(i), key).toBeTruthy();
   });
 });
