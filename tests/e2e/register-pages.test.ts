@@ -139,10 +139,16 @@ describe('register pages', () => {
     const page = await open('/procedures/u2-k210-sd-001/');
     const note = page.locator('[data-register-changed-since]');
     expect(await note.count()).toBe(1);
-    const text = await note.innerText();
-    expect(text).toMatch(/Plant register changed since this revision took effect/);
-    expect(text).toMatch(/This revision took effect on 2026-12-02/);
-    expect(text).toMatch(/TI-210 changed on 2026-12-03/);
+    expect(await note.innerText()).toMatch(/Plant register changed since this revision took effect/);
+    expect(await note.innerText()).toMatch(/after this revision took effect on 2026-12-02/);
+    // The list is closed at first, its summary saying how many entries changed; the keyboard opens it.
+    const summary = note.locator('summary');
+    expect(await summary.innerText()).toMatch(/^\d+ register (entry|entries) changed: show which$/);
+    expect(await note.locator('details').getAttribute('open')).toBeNull();
+    await summary.focus();
+    await page.keyboard.press('Enter');
+    expect(await note.locator('details').getAttribute('open')).not.toBeNull();
+    expect(await note.innerText()).toMatch(/TI-210 changed on 2026-12-03/);
     expect(await note.locator('a', { hasText: 'TI-210' }).getAttribute('href')).toBe('/register/ti-210/');
     expect(await seriousViolations(page)).toEqual([]);
     // A draft's page says nothing of the kind: it shows what it will be approved with.
