@@ -207,6 +207,15 @@ export function analyseState(input: StateInput, extraConditions: string[] = [], 
       const v = space.variables.get(m.signal)!;
       out.set(m.signal, { kind: 'number', set: intersect(v.kind === 'number' ? v.domain : before.set, hull(union(before.set, nearestPart(before.set, m.target)))) });
     }
+    // A hold test (`max-drop`) watches a signal that may fall while the step is active, by any amount: the test is
+    // there to find out how much. Its pass and fail branches are both reachable.
+    for (const drop of step.maxDrop ?? []) {
+      const before = out.get(drop.signal);
+      const v = space.variables.get(drop.signal);
+      if (before?.kind !== 'number' || v?.kind !== 'number' || !before.set.length) continue;
+      const top = before.set[before.set.length - 1];
+      out.set(drop.signal, { kind: 'number', set: intersect(v.domain, [{ lo: -Infinity, hi: top.hi, loOpen: true, hiOpen: top.hiOpen }]) });
+    }
     return out;
   };
   const overlay = (box: Box, steps: Step[]): Box => {

@@ -1,5 +1,6 @@
 // Says plainly when the plant-state checks could not look at all of a procedure.
-import { defineFileRule } from '../define-rule.ts';
+import { analyseSequence } from '../../analysis/soundness/analyse-sequence.ts';
+import { defineFileRule, type FileContext } from '../define-rule.ts';
 
 export default defineFileRule(
   {
@@ -12,7 +13,10 @@ export default defineFileRule(
 a condition cannot be analysed exactly (a name that is not declared, a unit that does not convert, too many
 cases) or the procedure has more combinations of steps and states than the check explores, the rest of the
 procedure was not checked for them, and this rule says which part. Fix the reported condition, or split the
-procedure.`,
+procedure. It also names a step the sequence reaches but no worked-out plant state does: a transition before it
+can never become true in the states the check works out, most often an \`until\` on a valve or switch that no step
+puts in that position with \`state\` (an \`until\` only waits; \`state: { XV-901: open }\` opens the valve). The
+steps from there on were not checked for hazards, needs and latched trips.`,
     examples: { bad: "hazards: [{ when: 'M-21O == running' }]  # a letter O, not a zero", good: "hazards: [{ when: 'M-210 == running' }]" },
   },
   (ctx) => {
@@ -21,7 +25,9 @@ procedure.`,
     const usesState = p.hazards.some((h) => h.when) || p.interlocks.some((i) => i.latches && i.holds.length)
       || ctx.facts.steps.some(({ step }) => step.needs || (step.resets ?? []).some((r) => p.interlocks.some((i) => i.latches && i.tag === r.value)));
     if (!usesState) return;
-    const gaps = ctx.facts.state.gaps;
+    const state = ctx.facts.state;
+    reportUnreached(ctx);
+    const gaps = state.gaps;
     if (!gaps.length) return;
     ctx.report({
       path: ['steps'],
@@ -31,3 +37,30 @@ procedure.`,
     });
   },
 );
+
+/**
+ * Steps the sequence can reach but the plant-state check never does: a transition before them can never become
+ * true in the states worked out (an until on a valve that no step's `state` opens). Everything from there on went
+ * unchecked for hazards, needs and trips, which is said at the first such step of each stretch.
+ */
+function reportUnreached(ctx: FileContext): void {
+  const facts = ctx.facts!;
+  const state = facts.state;
+  const sequence = analyseSequence(facts).result;
+  if (!state.complete || !sequence?.complete || sequence.problems.some((p) => p.kind === 'unsafe')) return;
+  const graph = facts.graph;
+  const unreached = graph.places.filter((pl) => pl.kind === 'step' && pl.step && !sequence.deadPlaces.has(pl.id) && !state.views.get(pl.id)?.length);
+  const ids = new Set(unreached.map((pl) => pl.id));
+  for (const place of unreached) {
+    const into = graph.transitions.filter((t) => t.to.includes(place.id) && t.from.some((f) => !ids.has(f)));
+    if (!into.length) continue;
+    // All parts of one transition must hold together; any of the transitions into the step would do.
+    const waits = [...new Set(into.map((t) => t.guard.filter((g) => g.kind === 'until' || g.kind === 'when').map((g) => g.text.trim()).join(' and ')).filter(Boolean))];
+    const after = unreached.length - 1;
+    ctx.report({
+      path: place.step!.path,
+      message: `The plant-state check finds no run that reaches step '${place.step!.id}'${after ? ` (nor ${after} other step${after === 1 ? '' : 's'} it leads to)` : ''}: ${waits.length ? `no state worked out before it makes ${waits.join(' or ')} true` : 'the transition into it never fires in the states worked out'}, so hazards, needs and latched trips were not checked there.`,
+      hint: 'Give the step that moves the equipment its `state` (an until only waits: `state: { XV-901: open }` opens the valve), or correct the condition.',
+    });
+  }
+}
