@@ -35,16 +35,35 @@ export interface TemporaryInForce {
 }
 
 /**
+ * Whether a revision has taken effect on `today`: its status is approved or effective and its effective date (when
+ * it has a readable one) is not after `today`. An effective status with a later date is not in force yet, just like
+ * an approved one: the date decides, the status only says the revision is released. Every "in force" decision (the
+ * manual's page, the history, the rules) goes through here. Source: common practice (a procedure applies from its
+ * effective date).
+ */
+export function hasTakenEffect(p: { status?: unknown; effective?: unknown }, today: string): boolean {
+  const status = String(p.status);
+  if (status !== 'approved' && status !== 'effective') return false;
+  const effective = typeof p.effective === 'string' ? p.effective : undefined;
+  return !isDate(effective) || effective <= today;
+}
+
+/** An approved or effective revision whose effective date is after `today` (so it is not in force yet). */
+export function effectiveLater(p: { status?: unknown; effective?: unknown }, today: string): string | undefined {
+  const status = String(p.status);
+  if (status !== 'approved' && status !== 'effective') return undefined;
+  return typeof p.effective === 'string' && isDate(p.effective) && p.effective > today ? p.effective : undefined;
+}
+
+/**
  * For each procedure id, the temporary procedures in force that modify it: approved or effective, kind temporary,
  * in force on `today` (effective date reached) and not past their end date. The site shows them on the modified procedure's page.
  */
 export function temporaryProceduresInForce(procedures: Procedure[], today: string): Map<string, TemporaryInForce[]> {
   const out = new Map<string, TemporaryInForce[]>();
   for (const p of procedures) {
-    if (p.kind !== 'temporary' || !['approved', 'effective'].includes(String(p.status))) continue;
+    if (p.kind !== 'temporary' || !hasTakenEffect(p, today)) continue;
     if (p.expires && p.expires < today) continue;
-    // Approved but not yet effective: not in force before its effective date.
-    if (isDate(p.effective) && p.effective > today) continue;
     for (const target of p.modifies) {
       const list = out.get(target.value) ?? [];
       list.push({ id: p.id, title: p.title, file: p.file, ...(p.expires ? { expires: p.expires } : {}) });
@@ -62,7 +81,7 @@ export function notInForce(p: Pick<Procedure, 'status' | 'effective' | 'kind' | 
   const status = String(p.status);
   if (status === 'superseded' || status === 'retired') return status;
   if (status !== 'effective' && status !== 'approved') return `'${status}', not yet in force`;
-  if (isDate(p.effective) && p.effective > today) return `in force only from ${p.effective}`;
+  if (!hasTakenEffect(p, today)) return `in force only from ${p.effective}`;
   if (p.kind === 'temporary' && p.expires && p.expires < today) return `a temporary procedure that expired on ${p.expires}`;
   return undefined;
 }

@@ -2,6 +2,7 @@
 // before, and an audit trail of every commit in order (who, when, why), nothing merged away or rewritten.
 import type { Approval } from '../model/procedure.ts';
 import { changedAreasBetween, type ContentArea } from '../analysis/document-content.ts';
+import { hasTakenEffect } from '../analysis/document-control.ts';
 import type { ProcedureHistory, Revision } from './revisions.ts';
 import type { VersionRecord } from './version-record.ts';
 
@@ -61,12 +62,19 @@ export interface HistoryView {
 
 const released = new Set(['approved', 'effective', 'superseded', 'retired']);
 
-/** Statuses a revision only reaches after it took effect. */
-const tookEffect = new Set(['effective', 'superseded', 'retired']);
+/**
+ * Whether a revision took effect: superseded and retired ones did; an effective one did once its effective date is
+ * reached (an effective status with a later date is not in force yet, see analysis/document-control.ts). Without
+ * `today` the date is not looked at.
+ */
+function tookEffect(r: { status?: string; effective?: string }, today: string | undefined): boolean {
+  if (r.status === 'superseded' || r.status === 'retired') return true;
+  return r.status === 'effective' && (today === undefined || hasTakenEffect(r, today));
+}
 
 export function buildHistoryView(
   history: ProcedureHistory,
-  identity: { id: string; slug: string; currentRevision: number; currentStatus?: string; url?: string },
+  identity: { id: string; slug: string; currentRevision: number; currentStatus?: string; currentEffective?: string; url?: string; today?: string },
 ): HistoryView {
   // Under the procedure's own page, which carries the manual's base (see render/site-url.ts).
   const base = (identity.url ?? `/procedures/${identity.slug}/`).replace(/\/$/, '');
@@ -75,8 +83,8 @@ export function buildHistoryView(
   for (const r of history.revisions) if (r.revision !== null) byNumber.set(r.revision, r);
   const numbers = [...byNumber.keys()].sort((a, b) => a - b);
   // A revision stays in force until a later one takes effect: a later draft or revision in review replaces nothing.
-  const effectiveRevisions = numbers.filter((n) => tookEffect.has(byNumber.get(n)!.status));
-  if (identity.currentStatus && tookEffect.has(identity.currentStatus)) effectiveRevisions.push(identity.currentRevision);
+  const effectiveRevisions = numbers.filter((n) => tookEffect(byNumber.get(n)!, identity.today));
+  if (identity.currentStatus && tookEffect({ status: identity.currentStatus, effective: identity.currentEffective }, identity.today)) effectiveRevisions.push(identity.currentRevision);
   const supersededBefore = Math.max(-Infinity, ...effectiveRevisions);
   const revisions = numbers.map((n, i): RevisionEntry => {
     const r = byNumber.get(n)!;

@@ -1,5 +1,7 @@
 // Which revision of a procedure is in force: the one the procedure page shows, search finds and the home page
-// lists. A newer draft or revision in review never replaces it; it gets its own page, linked from a notice.
+// lists. A newer draft or revision in review never replaces it; it gets its own page, linked from a notice. Nor
+// does a newer revision whose effective date is still ahead, whether its status says approved or effective.
+import { hasTakenEffect } from '../analysis/document-control.ts';
 
 /** The facts of one revision that decide whether it is in force. */
 export interface RevisionState {
@@ -8,11 +10,9 @@ export interface RevisionState {
   effective?: string;
 }
 
-/** A revision is in force once effective (or approved with its effective date reached), until replaced. */
+/** A revision is in force once approved or effective with its effective date reached, until replaced. */
 export function canBeInForce(r: Pick<RevisionState, 'status' | 'effective'>, today: string): boolean {
-  if (r.status === 'effective') return true;
-  if (r.status === 'approved') return !r.effective || r.effective <= today;
-  return false;
+  return hasTakenEffect(r, today);
 }
 
 export type InForce<E extends RevisionState> =
@@ -35,7 +35,7 @@ export function revisionInForce<E extends RevisionState>(newest: RevisionState, 
     .filter((e) => e.revision < newest.revision && canBeInForce(e, today))
     .sort((a, b) => b.revision - a.revision)[0];
   if (earlier) return { state: 'earlier', entry: earlier };
-  const what = newest.status === 'approved' ? `approved but takes effect on ${newest.effective}` : `${newest.status === 'in-review' ? 'in review' : newest.status || 'of unknown status'}`;
+  const what = newest.status === 'approved' || newest.status === 'effective' ? `${newest.status} but takes effect on ${newest.effective}` : `${newest.status === 'in-review' ? 'in review' : newest.status || 'of unknown status'}`;
   const before = newest.revision > 1
     ? ` No earlier revision in force is in this manual's history, so there is no revision of this procedure to operate from here; ask the procedure owner for the controlled copy in force.`
     : ' It has never been in force.';

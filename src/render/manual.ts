@@ -3,6 +3,7 @@
 import type { CheckedFile } from '../check/run-checks.ts';
 import type { Approval, HazardLevel, Interlock, Procedure } from '../model/procedure.ts';
 import { kinds } from '../model/schema.ts';
+import { effectiveLater } from '../analysis/document-control.ts';
 import { areaName, type AreaSource } from './area-names.ts';
 import { renderBodyHtml } from './body-html.ts';
 import { conditionInWords } from './condition-words.ts';
@@ -195,8 +196,11 @@ export function statusBanner(procedure: Pick<Procedure, 'status' | 'effective'> 
     case 'retired':
       return { tone: 'stop', title: 'RETIRED — DO NOT USE', text: 'This procedure is retired and must not be used: it no longer applies to the plant.' };
     case 'approved':
-      if (procedure.effective && procedure.effective > today) {
-        return { tone: 'hold', title: 'APPROVED — NOT YET EFFECTIVE', text: `This revision takes effect on ${procedure.effective}. Until then use the revision in force.` };
+    case 'effective':
+      // An effective status with a later effective date is not in force yet either (analysis/document-control.ts).
+      if (effectiveLater(procedure, today)) {
+        const title = procedure.status === 'approved' ? 'APPROVED — NOT YET EFFECTIVE' : `EFFECTIVE FROM ${procedure.effective} — NOT YET IN FORCE`;
+        return { tone: 'hold', title, text: `This revision takes effect on ${procedure.effective}. Until then use the revision in force.` };
       }
       return undefined;
     default:

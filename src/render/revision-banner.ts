@@ -2,27 +2,33 @@
 // when a later revision of the same procedure did take effect; a revision that was itself marked superseded or
 // retired, with nothing after it, is not said to have a newer revision.
 import type { Banner } from './manual.ts';
+import { hasTakenEffect } from '../analysis/document-control.ts';
 
-/** Statuses a revision only reaches after it took effect. */
-const tookEffect = new Set(['effective', 'superseded', 'retired']);
+/** Superseded and retired revisions took effect; an effective one once its effective date is reached (given `today`). */
+function tookEffect(r: { status: string; effective?: string }, today: string | undefined): boolean {
+  if (r.status === 'superseded' || r.status === 'retired') return true;
+  return r.status === 'effective' && (today === undefined || hasTakenEffect(r, today));
+}
 
 export interface RevisionBannerInput {
   /** The revision the page shows. */
   entry: { revision: number; status: string; superseded: boolean };
   /** Every committed revision of the procedure (any order). */
-  revisions: ReadonlyArray<{ revision: number; status: string }>;
+  revisions: ReadonlyArray<{ revision: number; status: string; effective?: string }>;
   /** The procedure as its file reads now, and its own page. */
-  current: { id: string; revision: number; status: string; url: string; owner?: string };
+  current: { id: string; revision: number; status: string; effective?: string; url: string; owner?: string };
+  /** The build date: a revision whose effective date is later has not taken effect. */
+  today?: string;
 }
 
 export interface RevisionBanner extends Banner {
   link: { href: string; text: string };
 }
 
-export function revisionBanner({ entry, revisions, current }: RevisionBannerInput): RevisionBanner {
+export function revisionBanner({ entry, revisions, current, today }: RevisionBannerInput): RevisionBanner {
   const n = entry.revision;
   const later = [...revisions.filter((r) => r.revision > n), ...(current.revision > n ? [current] : [])]
-    .filter((r) => tookEffect.has(r.status))
+    .filter((r) => tookEffect(r, today))
     .map((r) => r.revision);
   const replacedBy = later.length ? Math.min(...later) : undefined;
   const ended = current.status === 'superseded' || current.status === 'retired';
@@ -51,7 +57,7 @@ export function revisionBanner({ entry, revisions, current }: RevisionBannerInpu
   if (n < current.revision) {
     return {
       tone: 'hold', title: `RECORD COPY OF REVISION ${n}, STILL IN FORCE`,
-      text: `Revision ${current.revision} is ${current.status} and has not taken effect. Until it does, this revision applies.`,
+      text: `Revision ${current.revision} is ${current.status}${current.effective && today && current.effective > today ? ` from ${current.effective}` : ''} and has not taken effect. Until it does, this revision applies.`,
       link: { href: current.url, text: `See revision ${current.revision}` },
     };
   }

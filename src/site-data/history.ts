@@ -38,7 +38,7 @@ async function readAllHistories(loaded: LoadedManual): Promise<Map<string, Histo
   // History comes from the repository that holds the procedures (the check run has opened it already).
   const repo = loaded.run.repo ?? openRepository(io, loaded.root);
   const out = new Map<string, HistoryView>();
-  const identity = (p: ProcedureView) => ({ id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status, url: p.url });
+  const identity = (p: ProcedureView) => ({ id: p.id, slug: p.slug, currentRevision: p.revision, currentStatus: p.status, currentEffective: p.effective, url: p.url, today: loaded.today });
   if (!repo) {
     for (const p of view.procedures) {
       out.set(p.id, buildHistoryView({ path: p.file, revisions: [], shallow: false, notice: 'This manual was built outside a git checkout, so no earlier revisions are available.' }, identity(p)));

@@ -98,10 +98,10 @@ describe('rules with the dated mark', () => {
     expect([...reads].sort()).toEqual(dated.map((r) => r.meta.id).sort());
   });
 
-  it('are the seven that judge dates (review, certification, expiry, effective dates)', () => {
+  it('are the eight that judge dates (review, certification, expiry, effective dates)', () => {
     // Listed here so that marking or unmarking a rule is a deliberate change.
     expect(dated.map((r) => r.meta.id).sort()).toEqual([
-      'bypass-procedure-unknown', 'certification-in-future', 'param-differs-from-duty', 'requires-not-in-force',
+      'bypass-procedure-unknown', 'certification-in-future', 'effective-in-future', 'param-differs-from-duty', 'requires-not-in-force',
       'review-interval-too-long', 'review-overdue', 'temporary-expired',
     ]);
   });

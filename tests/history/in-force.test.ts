@@ -6,7 +6,10 @@ import { buildHistoryView } from '../../src/history/history-view.ts';
 import { canBeInForce, revisionInForce } from '../../src/history/in-force.ts';
 import { readHistory } from '../../src/history/revisions.ts';
 import { readProcedure } from '../../src/read/read-procedure.ts';
-import { ada, buildStory, createTempRepo, procedureText, stepsV2, type TempRepo } from './temp-repo.ts';
+import { notInForce } from '../../src/analysis/document-control.ts';
+import { statusBanner } from '../../src/render/manual.ts';
+import { revisionBanner } from '../../src/render/revision-banner.ts';
+import { ada, buildStory, createTempRepo, procedureText, stepsV1, stepsV2, type TempRepo } from './temp-repo.ts';
 
 let repo: TempRepo;
 
@@ -64,5 +67,52 @@ describe('revisionInForce', () => {
         if (r.state === 'none') expect(r.reason.length).toBeGreaterThan(20);
       },
     ));
+  });
+});
+
+describe('an effective status with an effective date still ahead', () => {
+  it('is not in force: the last revision in force is, as for an approved one', () => {
+    const r = revisionInForce({ revision: 9, status: 'effective', effective: '2027-01-15' }, [{ revision: 8, status: 'effective', effective: '2026-12-03' }], '2026-12-05');
+    expect(r).toMatchObject({ state: 'earlier', entry: { revision: 8 } });
+    const none = revisionInForce({ revision: 1, status: 'effective', effective: '2027-01-15' }, [], '2026-12-05');
+    expect(none.state === 'none' && none.reason).toMatch(/Revision 1 is effective but takes effect on 2027-01-15\./);
+    expect(revisionInForce({ revision: 9, status: 'effective', effective: '2026-12-05' }, [], '2026-12-05')).toEqual({ state: 'newest' });
+  });
+
+  it('is judged the same by the page, the rules and the history', () => {
+    const status = fc.constantFrom('draft', 'in-review', 'approved', 'effective', 'superseded', 'retired');
+    const date = fc.constantFrom('2026-01-01', '2026-06-01', '2027-01-01', undefined);
+    fc.assert(fc.property(fc.record({ status, effective: date }), (r) => {
+      const today = '2026-06-01';
+      expect(canBeInForce(r, today)).toBe(notInForce({ ...r, kind: 'batch' } as Parameters<typeof notInForce>[0], today) === undefined);
+      const later = (r.status === 'approved' || r.status === 'effective') && r.effective !== undefined && r.effective > today;
+      expect(Boolean(statusBanner(r, today))).toBe(later || ['draft', 'in-review', 'superseded', 'retired'].includes(r.status));
+    }));
+  });
+
+  it('does not supersede the revision before it, in the history or on its record page', async () => {
+    const own = createTempRepo();
+    try {
+      own.write('procedures/k-210/u2-test-001.md', procedureText({ revision: 8, status: 'effective', effective: '2026-12-03', steps: stepsV1, change: 'Rev 8.' }));
+      own.commit('rev 8', ada, '2026-12-03');
+      own.write('procedures/k-210/u2-test-001.md', procedureText({ revision: 9, status: 'effective', effective: '2027-01-15', steps: stepsV2, change: 'Rev 9.' }));
+      own.commit('rev 9, effective from 2027-01-15', ada, '2026-12-04');
+      const history = await readHistory(gitIn(own.dir), 'procedures/k-210/u2-test-001.md');
+      const identity = { id: 'U2-TEST-001', slug: 'u2-test-001', currentRevision: 9, currentStatus: 'effective', currentEffective: '2027-01-15' };
+      const view = buildHistoryView(history, { ...identity, today: '2026-12-05' });
+      expect(view.revisions.map((r) => [r.revision, r.superseded])).toEqual([[8, false], [9, false]]);
+      expect(revisionInForce({ revision: 9, status: 'effective', effective: '2027-01-15' }, view.revisions, '2026-12-05')).toMatchObject({ state: 'earlier', entry: { revision: 8 } });
+      const current = { id: 'U2-TEST-001', revision: 9, status: 'effective', effective: '2027-01-15', url: '/procedures/u2-test-001/' };
+      const banner = revisionBanner({ entry: view.revisions[0], revisions: view.revisions, current, today: '2026-12-05' });
+      expect(banner.title).toBe('RECORD COPY OF REVISION 8, STILL IN FORCE');
+      expect(banner.text).toContain('Revision 9 is effective from 2027-01-15 and has not taken effect');
+      // On its date revision 9 takes effect and replaces revision 8.
+      const later = buildHistoryView(history, { ...identity, today: '2027-01-15' });
+      expect(later.revisions.map((r) => [r.revision, r.superseded])).toEqual([[8, true], [9, false]]);
+      expect(statusBanner(current, '2026-12-05')?.title).toBe('EFFECTIVE FROM 2027-01-15 — NOT YET IN FORCE');
+      expect(statusBanner(current, '2027-01-15')).toBeUndefined();
+    } finally {
+      own.remove();
+    }
   });
 });

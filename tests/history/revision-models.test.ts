@@ -41,7 +41,9 @@ describe('the models of committed revisions', () => {
       .replace(/^effective: .*\n/m, '').replace(/^title: (.*)$/m, 'title: $1, with the fire-water monitors');
     writeFileSync(join(dir, file), revision5);
     git(dir, ['commit', '-q', '-am', 'Revision 5: title'], '2026-12-03');
-    const loaded = await loadManual({ cwd: dir, env: { STEPWRIGHT_TODAY: '2026-12-04', STEPWRIGHT_PROCEDURES: 'procedures', STEPWRIGHT_CACHE: 'off' } });
+    // Built on the day revision 4 takes effect (an effective date still ahead would leave nothing in force).
+    const today = /^effective: (\d{4}-\d{2}-\d{2})$/m.exec(revision4)![1];
+    const loaded = await loadManual({ cwd: dir, env: { STEPWRIGHT_TODAY: today, STEPWRIGHT_PROCEDURES: 'procedures', STEPWRIGHT_CACHE: 'off' } });
     expect(loaded.view, loaded.run.diagnostics.filter((d) => d.severity === 'error').map((d) => d.message).join('\n')).toBeDefined();
     const history = (await historiesOf(loaded)).get('U2-H220-EM-001')!;
     expect(history.revisions.map((r) => r.revision)).toEqual([4, 5]);

@@ -30,6 +30,7 @@ import endStateDiffers from './end-state-differs.ts';
 import requiresNotInForce from './requires-not-in-force.ts';
 import requiresUnknownProcedure from './requires-unknown-procedure.ts';
 import certificationInFuture from './certification-in-future.ts';
+import effectiveInFuture from './effective-in-future.ts';
 import cautionForSeriousInjury from './caution-for-serious-injury.ts';
 import cautionHoldsAction from './caution-holds-action.ts';
 import conditionSyntax from './condition-syntax.ts';
@@ -161,6 +162,7 @@ export const rules = {
   'contingency-goto-unsafe': contingencyGotoUnsafe,
   'end-state-differs': endStateDiffers,
   'certification-in-future': certificationInFuture,
+  'effective-in-future': effectiveInFuture,
   'caution-for-serious-injury': cautionForSeriousInjury,
   'caution-holds-action': cautionHoldsAction,
   'condition-syntax': conditionSyntax,
