@@ -9,7 +9,7 @@ import { scaffoldProcedure } from '../render/procedure-scaffold.ts';
 import { todayOf, UsageError, type CliIo } from './io.ts';
 import { schemaReference } from './package-files.ts';
 import { isInside, projectRoot, proceduresFolder } from './project.ts';
-import { readProcedureFiles } from './read-procedure-files.ts';
+import { readProcedureFiles, unreadFolderOf } from './read-procedure-files.ts';
 import { newHelp } from './command-help.ts';
 import { shellWord } from '../model/shell-word.ts';
 
@@ -46,6 +46,15 @@ export async function runNew(argv: string[], io: CliIo): Promise<number> {
     const given = relative(io.cwd, folder);
     io.stderr.write(`stepwright new: ${given.startsWith('..') || isAbsolute(given) ? folder : given || '.'} is outside the procedures folder ${named}/, so a procedure written there would not be checked with the manual, built into it or reviewed; nothing was written.
 Give a folder inside it, e.g. --dir ${shellWord(join(named, 'new-area').split(sep).join('/'))}, or, if the manual's procedures are elsewhere, name that folder with --procedures (or 'procedures:' in stepwright.config.yaml).
+`);
+    return 1;
+  }
+  // Nor into a folder the search passes over (node_modules, dist): the check would only name the file as not read.
+  const unread = unreadFolderOf(folder, proceduresPath);
+  if (unread) {
+    const named = relative(io.cwd, proceduresPath) || '.';
+    io.stderr.write(`stepwright new: ${shown} would lie in ${named}/${unread.folder}/, ${unread.why}, which check, build and verify do not read; nothing was written.
+Give another folder inside ${named}/, e.g. --dir ${shellWord(join(named, 'new-area').split(sep).join('/'))}.
 `);
     return 1;
   }

@@ -5,7 +5,7 @@ import { parseArgs } from 'node:util';
 import { integrityMeta, inputsMeta, parseBuildInputs, sourceDigest, sourceKey, type BuildInputs } from '../render/source-integrity.ts';
 import { proceduresFolder } from './project.ts';
 import { UsageError, type CliIo } from './io.ts';
-import { readProcedureFiles } from './read-procedure-files.ts';
+import { readProcedureFiles, type FileNotRead } from './read-procedure-files.ts';
 import { isNotAProcedure } from '../engine/not-a-procedure.ts';
 import { describeSite, recoverSite } from './publish-site.ts';
 import { checkSiteManifest, manifestFile, publicKeyFile, readPublicKey, signatureFile } from './site-manifest.ts';
@@ -110,7 +110,8 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
   const sources = new Map<string, string>();
   const unreadable: string[] = [];
   let skipped = 0;
-  for (const input of readProcedureFiles([folder], io.cwd)) {
+  const notRead: FileNotRead[] = [];
+  for (const input of readProcedureFiles([folder], io.cwd, notRead)) {
     const key = sourceKey(relative(resolve(io.cwd, folder), resolve(io.cwd, input.file)), '');
     // Markdown that is not a procedure (a README, notes) has no page, exactly as check and build skip it.
     if ('text' in input && isNotAProcedure(input.text)) skipped++;
@@ -133,6 +134,8 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
     io.stdout.write(`${n} procedure page${n === 1 ? '' : 's'} (e.g. ${show(inputs.unrecorded[0].page)}) ${n === 1 ? 'does' : 'do'} not record the register files and configuration ${n === 1 ? 'it was' : 'they were'} built from (built by an older version): not checked against the register. Rebuild the manual to check ${n === 1 ? 'it' : 'them'}.\n`);
   }
   const problems = result.changed.length + result.orphaned.length + result.unpublished.length + inputs.mismatched.length + inputs.unrecorded.length;
+  // Markdown the folder search passes over (node_modules, a .markdown name) is named, exactly as check and build name it.
+  for (const n of notRead) io.stdout.write(`${n.file}: not read (${n.reason}); it is not compared with the site.\n`);
   if (skipped) io.stdout.write(`${skipped} markdown file${skipped === 1 ? '' : 's'} in ${folder} ${skipped === 1 ? 'is' : 'are'} not a procedure and need${skipped === 1 ? 's' : ''} no page.\n`);
   const sourceProblems = result.changed.length + result.orphaned.length + result.unpublished.length;
   const registerNote = inputs.mismatched.length || inputs.unrecorded.length

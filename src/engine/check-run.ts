@@ -13,7 +13,7 @@ import type { Rule } from '../check/define-rule.ts';
 import { allRules } from '../check/rules/index.ts';
 import type { PreviousVersion } from '../history/previous-version.ts';
 import type { PlantRegister } from '../model/register.ts';
-import { findProcedureFiles, readFoundFiles, stdinName, type FoundFile } from './find-procedure-files.ts';
+import { findProcedureFiles, readFoundFiles, stdinName, type FileNotRead, type FoundFile } from './find-procedure-files.ts';
 import { loadConfig, type CommandConfig } from './load-config.ts';
 import { loadRegister } from './load-register.ts';
 import { commandCache } from './command-cache.ts';
@@ -59,6 +59,8 @@ export interface CheckRunRequest {
 export interface SkippedFile {
   file: string;
   reason: string;
+  /** Set for a file that is not read at all (in a folder that is not read, a .markdown name): reported as file-not-read. */
+  hint?: string;
 }
 
 export interface CheckRun {
@@ -89,7 +91,8 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   const paths = request.paths?.length
     ? [...request.paths, ...(request.procedures ? [request.procedures] : [])]
     : [proceduresFolder(request, { procedures: request.procedures, config: request.config })];
-  const found = await findWithStdin(paths, request);
+  const notRead: FileNotRead[] = [];
+  const found = await findWithStdin(paths, request, notRead);
   request.sized?.(found.length);
   // A large run reads its files on a second thread too (read/source-reader.ts). With no result cache to answer for
   // them, it starts now, to load its code while this thread reads the files, the configuration and the register; a
@@ -97,7 +100,7 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   const cacheMayAnswer = request.cache !== false && resultCacheHoldsEntries(request);
   if (found.length >= readerThreshold && !cacheMayAnswer) warmSourceReader();
   const partial = request.paths?.length ? manualLeftOut(request, found) : undefined;
-  const skipped: SkippedFile[] = [];
+  const skipped: SkippedFile[] = [...notRead];
   const inputs: SourceInput[] = [];
   const discoveredFiles = new Set(found.filter((f) => f.discovered).map((f) => f.file));
   for (const input of readFoundFiles(found)) {
@@ -140,7 +143,11 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   // A large run's entries are written on a thread of their own while the rules check: they are all on disk (or
   // given up on) before the run reports.
   await cache?.store.flush();
-  const skippedNotes = skipped.map((s): Diagnostic => ({
+  const skippedNotes = skipped.map((s): Diagnostic => s.hint !== undefined ? {
+    file: s.file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'info', rule: 'file-not-read',
+    message: `Not read: ${s.file} (${s.reason}).`,
+    hint: s.hint,
+  } : ({
     file: s.file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'info', rule: 'not-a-procedure',
     message: `Skipped: ${s.file} is not a procedure (${s.reason}).`,
     hint: 'Markdown without front-matter in the procedures folder is left alone. To make it a procedure, start it with a "---" line, the procedure keys and a closing "---".',
@@ -233,9 +240,9 @@ function manualLeftOut(request: CheckRunRequest, found: FoundFile[]): { folder: 
   return left ? { folder, left } : undefined;
 }
 
-async function findWithStdin(paths: string[], request: CheckRunRequest): Promise<FoundFile[]> {
+async function findWithStdin(paths: string[], request: CheckRunRequest, notRead: FileNotRead[]): Promise<FoundFile[]> {
   const named = paths.filter((p) => p !== '-');
-  const found = findProcedureFiles(named, request.cwd);
+  const found = findProcedureFiles(named, request.cwd, notRead);
   if (named.length < paths.length) {
     if (!request.stdin) found.push({ file: stdinName, absolute: stdinName, missing: 'standard input cannot be read here' });
     else found.push({ file: stdinName, absolute: stdinName, text: await request.stdin() });

@@ -5,7 +5,7 @@
 // or `-` for one procedure on standard input (handled by the engine). A path or glob that finds nothing is
 // reported, never dropped.
 import { closeSync, fstatSync, lstatSync, openSync, readdirSync, readSync, statSync, constants, type Stats } from 'node:fs';
-import { join, relative, resolve } from 'node:path';
+import { basename, join, relative, resolve } from 'node:path';
 import picomatch from 'picomatch';
 import { globSync } from 'tinyglobby';
 import type { SourceInput } from '../check/run-checks.ts';
@@ -13,7 +13,41 @@ import { isMarkdownName } from './markdown-name.ts';
 
 export { isMarkdownName };
 
-const skipDirs = new Set(['node_modules', 'dist', '.git', '.astro', '.stepwright']);
+/**
+ * Folders a folder search does not read, and why: installed packages, built sites and tool state are no procedures.
+ * Markdown found in them is named in a note (see FileNotRead), never dropped in silence. Every other folder is
+ * read, a dot-folder (`.drafts`) too.
+ */
+const skipDirs = new Map<string, string>([
+  ['node_modules', 'a folder of installed packages'],
+  ['dist', 'a folder a built manual is written to'],
+  ['.git', "git's own folder"],
+  ['.astro', 'a folder of the site builder\'s own files'],
+  ['.stepwright', "Stepwright's cache folder"],
+]);
+
+/**
+ * When a folder inside the procedures folder lies in (or is) a folder the search does not read: that folder, relative
+ * to the procedures folder, and why. Both paths absolute.
+ */
+export function unreadFolderOf(folder: string, procedures: string): { folder: string; why: string } | undefined {
+  const parts = relative(procedures, folder).split(/[\\/]/).filter(Boolean);
+  const at = parts.findIndex((part) => skipDirs.has(part));
+  return at === -1 ? undefined : { folder: parts.slice(0, at + 1).join('/'), why: skipDirs.get(parts[at])! };
+}
+
+/** Markdown names that are not read as procedures because only `.md` is: said in a note, with the fix. */
+const otherMarkdown = /\.(markdown|mdown|mkdn|mkd|mdx)$/i;
+
+/** Most markdown files named one by one inside one folder that is not read; the rest are counted in one more note. */
+export const maxNamedPerFolder = 20;
+
+/** A file under a searched folder that is not read, and why: reported as an info line, never left out silently. */
+export interface FileNotRead {
+  file: string;
+  reason: string;
+  hint: string;
+}
 
 /** The name a procedure read from standard input goes by in diagnostics. */
 export const stdinName = '<stdin>';
@@ -44,8 +78,37 @@ export interface FoundFile {
   text?: string;
 }
 
-export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
+/**
+ * The procedure files under `paths`. Markdown a folder search passes over (in a folder that is not read, a
+ * `.markdown` name, an editor's lock file) is added to `notRead` when given, so the caller can say so.
+ */
+export function findProcedureFiles(paths: string[], cwd: string, notRead?: FileNotRead[]): FoundFile[] {
   const out: FoundFile[] = [];
+  const note = (absolute: string, reason: string, hint: string) => notRead?.push({ file: displayPath(absolute, cwd), reason, hint });
+  /** Notes every markdown file inside a folder that is not read (not following links), up to maxNamedPerFolder. */
+  const noteSkippedFolder = (dir: string, why: string) => {
+    if (!notRead) return;
+    const files: string[] = [];
+    const visit = (here: string, depth: number) => {
+      let entries;
+      try {
+        entries = readdirSync(here, { withFileTypes: true });
+      } catch {
+        return;
+      }
+      for (const e of entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0))) {
+        const full = join(here, e.name);
+        if (e.isDirectory() && depth < maxFolderDepth) visit(full, depth + 1);
+        else if (!e.isDirectory() && (isMarkdownName(e.name) || otherMarkdown.test(e.name))) files.push(full);
+      }
+    };
+    visit(dir, 0);
+    const folder = displayPath(dir, cwd);
+    const hint = `Stepwright does not read ${folder}/ (${why}). Move a procedure out of it into the procedures folder to have it checked and published.`;
+    for (const f of files.slice(0, maxNamedPerFolder)) note(f, `it lies in ${folder}/, ${why}, which is not read`, hint);
+    const more = files.length - maxNamedPerFolder;
+    if (more > 0) notRead.push({ file: folder, reason: `${more} more markdown file${more === 1 ? '' : 's'} in it ${more === 1 ? 'is' : 'are'} not read either (${why})`, hint });
+  };
   const seen = new Set<string>();
   /** Real paths (device and inode) of folders and files read so far: a second way to the same one is a link. */
   const visited = new Map<string, string>();
@@ -73,7 +136,22 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
       return;
     }
     // Plain entries before links, so that a file or folder is read under its own name and the link is the one reported.
-    const kinds = entries.filter((name) => !name.startsWith('.') && !skipDirs.has(name)).map((name) => {
+    const kinds = entries.filter((name) => {
+      const why = skipDirs.get(name);
+      if (why !== undefined) {
+        const full = join(dir, name);
+        if (statSync(full, { throwIfNoEntry: false })?.isDirectory()) {
+          noteSkippedFolder(full, why);
+          return false;
+        }
+      }
+      const unread = unreadName(name);
+      if (unread) {
+        note(join(dir, name), unread.reason, unread.hint);
+        return false;
+      }
+      return true;
+    }).map((name) => {
       const full = join(dir, name);
       try {
         return { name, full, link: lstatSync(full).isSymbolicLink() };
@@ -130,9 +208,9 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
       const absent = (error as NodeJS.ErrnoException).code === 'ENOENT';
       if (absent && isGlob(p)) {
         const matches = globSync(anyCaseExtension(p.split('\\').join('/')), {
-          cwd, absolute: true, onlyFiles: true, dot: false, expandDirectories: false, followSymbolicLinks: false,
-          ignore: [...skipDirs].map((d) => `**/${d}/**`),
-        }).filter(isMarkdownName).map((f) => resolve(f)).sort();
+          cwd, absolute: true, onlyFiles: true, dot: true, expandDirectories: false, followSymbolicLinks: false,
+          ignore: [...skipDirs.keys()].map((d) => `**/${d}/**`),
+        }).filter((f) => isMarkdownName(f) && !unreadName(basename(f))).map((f) => resolve(f)).sort();
         if (!matches.length) add(absolute, `no markdown file matches the pattern ${p}`);
         discovered = true;
         for (const m of matches) {
@@ -162,8 +240,27 @@ export function findProcedureFiles(paths: string[], cwd: string): FoundFile[] {
   return out;
 }
 
-export function readProcedureFiles(paths: string[], cwd: string): SourceInput[] {
-  return readFoundFiles(findProcedureFiles(paths, cwd));
+export function readProcedureFiles(paths: string[], cwd: string, notRead?: FileNotRead[]): SourceInput[] {
+  return readFoundFiles(findProcedureFiles(paths, cwd, notRead));
+}
+
+/**
+ * Why a file with this name in a searched folder is not read, when it is not: a `.markdown` (or `.mkd`, `.mdx`) name,
+ * an editor's lock file (`.#name.md`, a link to nowhere while the file is open) or a macOS resource fork (`._name.md`,
+ * binary). Other dot-files are read like any file.
+ */
+function unreadName(name: string): { reason: string; hint: string } | undefined {
+  if (isMarkdownName(name) && name.startsWith('.#')) {
+    return { reason: "it is an editor's lock file (a name that starts with .#)", hint: 'The editor removes it when the file is saved or closed; the procedure itself is read under its own name.' };
+  }
+  if (isMarkdownName(name) && name.startsWith('._')) {
+    return { reason: 'it is a macOS resource-fork file (a name that starts with ._), not text', hint: 'macOS writes these beside files copied to some drives; delete it. The procedure itself is read under its own name.' };
+  }
+  const other = otherMarkdown.exec(name);
+  if (other) {
+    return { reason: `its name ends in .${other[1]}, and only files whose name ends in .md are procedures`, hint: `Rename it to end in .md to have it checked and published (${name.slice(0, -other[0].length)}.md).` };
+  }
+  return undefined;
 }
 
 const utf8 = new TextDecoder('utf-8', { fatal: true });
