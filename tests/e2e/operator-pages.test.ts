@@ -245,7 +245,7 @@ describe('the demo manual', () => {
     const reset = 'At the K-210 panel by the board operator, once the shift supervisor has found and cleared the cause';
     // The register's trip starts ESD-210: its latching and reset are that function's, and the page says so.
     const trip = page.locator('tr[data-interlock="TSHH-210"] td.latching');
-    expect(await words(trip)).toBe(`Latches through ESD-210: it stays tripped until it is reset. Reset (ESD-210): ${reset}`);
+    expect(await words(trip)).toBe(`Latches through ESD-210: it stays tripped until it is reset. Holds XV-2101 closed, XV-2102 closed, XV-2105 open and XV-2109 open until reset. Reset (ESD-210): ${reset}`);
     expect(await trip.locator('[data-latches]').getAttribute('data-latches')).toBe('true');
     // The relief valve's register entry says nothing of latching or reset: nor does the page.
     expect(await words(page.locator('tr[data-interlock="PSV-210"] td.latching'))).toBe('Not stated');

@@ -134,13 +134,13 @@ describe('register pages', () => {
   });
 
   it('says on a revision in force which register entries it takes over changed after it took effect', async () => {
-    // The kettle's normal shutdown took effect on 2026-12-02; the register's TI-210 changed on 2026-12-03 (in this
-    // repository's history).
-    const page = await open('/procedures/u2-k210-sd-001/');
+    // The kettle's inerting took effect on 2026-12-01; the register gained PI-210 and the other K-210 entries on
+    // 2026-12-02 (in this repository's history).
+    const page = await open('/procedures/u2-k210-inert-001/');
     const note = page.locator('[data-register-changed-since]');
     expect(await note.count()).toBe(1);
     expect(await note.innerText()).toMatch(/Plant register changed since this revision took effect/);
-    expect(await note.innerText()).toMatch(/after this revision took effect on 2026-12-02/);
+    expect(await note.innerText()).toMatch(/after this revision took effect on 2026-12-01/);
     // The list is closed at first, its summary saying how many entries changed; the keyboard opens it.
     const summary = note.locator('summary');
     expect(await summary.innerText()).toMatch(/^\d+ register (entry|entries) changed: show which$/);
@@ -148,8 +148,8 @@ describe('register pages', () => {
     await summary.focus();
     await page.keyboard.press('Enter');
     expect(await note.locator('details').getAttribute('open')).not.toBeNull();
-    expect(await note.innerText()).toMatch(/TI-210 changed on 2026-12-03/);
-    expect(await note.locator('a', { hasText: 'TI-210' }).getAttribute('href')).toBe('/register/ti-210/');
+    expect(await note.innerText()).toMatch(/PI-210 added to the register on 2026-12-02/);
+    expect(await note.locator('a', { hasText: /^PI-210$/ }).getAttribute('href')).toBe('/register/pi-210/');
     expect(await seriousViolations(page)).toEqual([]);
     // A draft's page says nothing of the kind: it shows what it will be approved with.
     const draft = await open('/procedures/u2-n2-su-001/next/');
