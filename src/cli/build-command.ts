@@ -6,7 +6,7 @@ import { parseArgs } from 'node:util';
 import { clearHandOff, formatCheckFailure, handOffManual, loadManual } from '../site-data/manual.ts';
 import { livePreviewVariable, siteBaseVariable } from '../site-data/site-mode.ts';
 import { UsageError, useColour, type CliIo } from './io.ts';
-import { proceduresFolder } from './project.ts';
+import { defaultOutputFolder, proceduresFolder } from './project.ts';
 import { siteBase } from '../engine/project.ts';
 import { linksOutsideBase, pageFolder, pagePath, type SiteBase } from '../render/site-url.ts';
 import { finishPages, type FinishedPage } from './index-site.ts';
@@ -42,7 +42,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
     args: argv,
     allowPositionals: true,
     options: {
-      out: { type: 'string', default: 'dist' }, 'no-index': { type: 'boolean', default: false }, 'sign-key': { type: 'string' },
+      out: { type: 'string' }, 'no-index': { type: 'boolean', default: false }, 'sign-key': { type: 'string' },
       help: { type: 'boolean', short: 'h' },
       procedures: { type: 'string' }, config: { type: 'string' }, base: { type: 'string' },
     },
@@ -60,7 +60,7 @@ export async function runBuild(argv: string[], io: CliIo): Promise<number> {
   const config = values.config ? resolve(io.cwd, values.config) : '';
   const base = siteBase(io, values);
   const env = { ...io.env, STEPWRIGHT_PROCEDURES: folder, STEPWRIGHT_CONFIG: config };
-  const outDir = resolve(io.cwd, values.out);
+  const outDir = resolve(io.cwd, values.out ?? defaultOutputFolder(io, values));
   // The output path is checked before anything is read, and again once the register's place is known.
   const placeProblem = (register?: string) => outputPlaceProblem(outDir, io.cwd, guardedPlaces(io.cwd, folder, config, register));
   const early = placeProblem();

@@ -13,7 +13,8 @@ with the same report as 'stepwright check' and leaves the last good site untouch
 The review date marks use $STEPWRIGHT_TODAY or the date of the last commit, so builds repeat exactly.
 
 Options:
-  --out <dir>           where the site goes (default: dist): a new or empty folder, or one a build published
+  --out <dir>           where the site goes (default: dist/ beside the config file found from here,
+                        else at the top of the repository): a new or empty folder, or one a build published
                         before; a folder holding other files, or the procedures, the register, the
                         configuration or the repository, is refused and left as it is; a link
                         there is replaced by the build's own (what it pointed to is left as it was)
@@ -81,7 +82,8 @@ Options:
                         else 'procedures' in the config file, else procedures/)
   --base <path>         serve the pages under this path, such as /manual/ (default: 'base' in the
                         config file, else the root)
-  --cache-dir <dir>     where the preview keeps its working files (default: .stepwright/dev); nothing
+  --cache-dir <dir>     where the preview keeps its working files (default: .stepwright/dev beside the config
+                        file, else at the top of the repository); nothing
                         is written into the installed package
   --config <file>       the configuration (default: the nearest stepwright.config.yaml from this
                         folder up to the top of the git repository)
@@ -198,7 +200,8 @@ export const serveHelp = `Usage: stepwright serve [options]
 Serves the built manual (see 'stepwright build') on http://localhost:4321.
 
 Options:
-  --dir <dir>     the site folder (default: dist)
+  --dir <dir>     the site folder (default: dist/ beside the config file, else at the top of the
+                  repository)
   --port <n>      port (default: 4321; 0 picks a free one)
   --host <host>   address to listen on (default: localhost)
   --base <path>   serve the manual under this path (default: the path the site was built for,
@@ -207,7 +210,7 @@ Options:
   -h, --help      show this help
 `;
 
-export const verifyHelp = `Usage: stepwright verify [options] <site folder>
+export const verifyHelp = `Usage: stepwright verify [options] [<site folder>]
 
 Checks a published manual, whole. First every file against the build's manifest (${manifestFile},
 the SHA-256 of every published file): a changed page, an added or a removed file is named. With the

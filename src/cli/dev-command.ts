@@ -7,7 +7,7 @@ import { parseArgs } from 'node:util';
 import { siteConfig, siteFolder } from '../site/astro-config.ts';
 import { livePreviewVariable, siteBaseVariable } from '../site-data/site-mode.ts';
 import { UsageError, type CliIo } from './io.ts';
-import { proceduresFolder } from './project.ts';
+import { proceduresFolder, projectFolder } from './project.ts';
 import { listenProblem } from './serve-command.ts';
 import { linkPackages } from './package-links.ts';
 import { siteBase } from '../engine/project.ts';
@@ -47,7 +47,7 @@ export async function runDev(argv: string[], io: CliIo): Promise<number> {
   const { dev } = await import('astro');
   // Astro's project root is a folder of the user's: its `.astro/` (types, data store, lock file) and the
   // caches go there, never into the site folder inside the installed package.
-  const root = resolve(io.cwd, values['cache-dir'] ?? join('.stepwright', 'dev'));
+  const root = values['cache-dir'] !== undefined ? resolve(io.cwd, values['cache-dir']) : join(projectFolder(io, values), '.stepwright', 'dev');
   const code = linkSiteCode(root);
   const config = siteConfig({
     root,

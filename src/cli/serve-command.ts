@@ -5,7 +5,7 @@ import { extname, join, normalize, resolve, sep } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { parseArgs } from 'node:util';
 import { UsageError, type CliIo } from './io.ts';
-import { siteBase } from '../engine/project.ts';
+import { defaultOutputFolder, siteBase } from '../engine/project.ts';
 import { parseBase } from '../model/site-base.ts';
 import { serveHelp } from './command-help.ts';
 import { shellWord } from '../model/shell-word.ts';
@@ -80,7 +80,7 @@ export async function runServe(argv: string[], io: CliIo): Promise<number> {
   const { values } = parseArgs({
     args: argv,
     options: {
-      dir: { type: 'string', default: 'dist' }, port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' },
+      dir: { type: 'string' }, port: { type: 'string', default: '4321' }, host: { type: 'string', default: 'localhost' },
       base: { type: 'string' }, config: { type: 'string' }, help: { type: 'boolean', short: 'h' },
     },
     strict: true,
@@ -91,12 +91,14 @@ export async function runServe(argv: string[], io: CliIo): Promise<number> {
   }
   const port = Number(values.port);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new UsageError(`'${values.port}' is not a port number.`);
-  const dir = resolve(io.cwd, values.dir);
+  // Default: dist/ of the project (beside the configuration file, else at the top of the repository).
+  const named = values.dir ?? defaultOutputFolder(io, values);
+  const dir = resolve(io.cwd, named);
   const base = values.base !== undefined ? siteBase(io, values) : ((await builtFor(dir)) ?? siteBase(io, values));
   if (!(await stat(join(dir, 'index.html')).catch(() => null))) {
     // The build writes into dist/ unless told otherwise: name the folder this serve looks in.
-    const build = values.dir.replace(/[\\/]+$/, '') === 'dist' ? 'stepwright build' : `stepwright build --out ${shellWord(values.dir)}`;
-    io.stderr.write(`stepwright serve: no built manual in ${values.dir}/; run '${build}' first.\n`);
+    const build = values.dir === undefined || values.dir.replace(/[\\/]+$/, '') === 'dist' ? 'stepwright build' : `stepwright build --out ${shellWord(values.dir)}`;
+    io.stderr.write(`stepwright serve: no built manual in ${named}/; run '${build}' first.\n`);
     return 1;
   }
   let url: string;
@@ -105,7 +107,7 @@ export async function runServe(argv: string[], io: CliIo): Promise<number> {
   } catch (error) {
     throw listenProblem(error, port, values.host) ?? error;
   }
-  io.stdout.write(`Serving the manual from ${values.dir}/ on ${url} (Ctrl+C stops).\n`);
+  io.stdout.write(`Serving the manual from ${named}/ on ${url} (Ctrl+C stops).\n`);
   await new Promise(() => {});
   return 0;
 }

@@ -3,7 +3,7 @@ import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, resolve } from 'node:path';
 import { parseArgs } from 'node:util';
 import { integrityMeta, inputsMeta, parseBuildInputs, sourceDigest, sourceKey, type BuildInputs } from '../render/source-integrity.ts';
-import { proceduresFolder } from './project.ts';
+import { defaultOutputFolder, proceduresFolder } from './project.ts';
 import { UsageError, type CliIo } from './io.ts';
 import { readProcedureFiles, type FileNotRead } from './read-procedure-files.ts';
 import { isNotAProcedure } from '../engine/not-a-procedure.ts';
@@ -49,7 +49,9 @@ export async function runVerify(argv: string[], io: CliIo): Promise<number> {
     io.stdout.write(verifyHelp);
     return 0;
   }
-  if (positionals.length !== 1) throw new UsageError('Give one site folder, e.g. stepwright verify dist');
+  if (positionals.length > 1) throw new UsageError('Give one site folder, e.g. stepwright verify dist');
+  // Default: the folder `stepwright build` writes to, dist/ of the project.
+  if (!positionals.length) positionals.push(defaultOutputFolder(io));
   const sitePath = resolve(io.cwd, positionals[0]);
   const folder = proceduresFolder(io, values);
   if (!isDirectory(resolve(io.cwd, folder))) throw new UsageError(`No procedures folder at ${folder}.`);

@@ -88,6 +88,28 @@ function defaultFolder(cwd: string, configFile: string | undefined): string {
   return relative(cwd, join(top, defaultProceduresFolder)) || '.';
 }
 
+/** The folder name the built manual goes in when nothing else says where. */
+export const defaultOutputName = 'dist';
+
+/**
+ * The project's own folder: the folder of the nearest configuration file (see findConfigFile), else the top of the
+ * repository (else the working folder). A configuration named with --config does not move it: such a file often sits
+ * in a folder of its own (config/), and the site stays where a build without it puts it. Defaults that name a place
+ * of the project are taken from here, so that a command finds the same place from any folder of the repository.
+ */
+export function projectFolder(io: { cwd: string }, options: { config?: string } = {}): string {
+  const configFile = options.config ? undefined : findConfigFile(io.cwd);
+  return configFile ? dirname(configFile) : projectRoot(io.cwd);
+}
+
+/**
+ * The folder `build` writes the manual to and `serve` and `verify` read it from when none is given: `dist/` in the
+ * project's folder (see projectFolder), relative to the working folder. An --out or --dir given stays as written.
+ */
+export function defaultOutputFolder(io: { cwd: string }, options: { config?: string } = {}): string {
+  return relative(io.cwd, join(projectFolder(io, options), defaultOutputName)) || '.';
+}
+
 /**
  * The path the manual is served under, as written: the --base option, else `base:` in the configuration file,
  * else "" (the site's root). The commands parse it with model/site-base.ts and refuse a bad one.

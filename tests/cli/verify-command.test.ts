@@ -126,7 +126,9 @@ describe('stepwright verify', () => {
   it('refuses a folder without fingerprinted pages, and reports usage errors with exit 2', async () => {
     mkdirSync(join(dir, 'empty'));
     expect((await runCli(['verify', 'empty'], dir)).code).toBe(1);
-    expect((await runCli(['verify'], dir)).code).toBe(2);
+    expect((await runCli(['verify', 'dist', 'empty'], dir)).code).toBe(2);
+    // Without a site folder, verify reads dist/ of the project, where build writes it.
+    expect((await runCli(['verify'], dir)).stdout).toBe((await runCli(['verify', 'dist'], dir)).stdout);
     const nowhere = await runCli(['verify', 'nowhere'], dir);
     expect(nowhere.stdout).toMatch(/no site at .*nowhere/);
     expect(nowhere.code).toBe(1);
