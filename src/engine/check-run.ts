@@ -4,7 +4,7 @@
 // from git (for the history rules), then runs every rule and the call expansion pass.
 import { execFileSync } from 'node:child_process';
 import { existsSync, statSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { relative, resolve, sep } from 'node:path';
 import type { Diagnostic } from '../parse/diagnostic.ts';
 import { compareDiagnostics } from '../parse/diagnostic.ts';
 import { checkSources, isDiagnostic, type CheckedFile, type CheckOptions, type CheckResult, type SourceInput } from '../check/run-checks.ts';
@@ -21,6 +21,8 @@ import { resultCacheHoldsEntries } from './cache-folder.ts';
 import { isNotAProcedure, notAProcedureReason } from './not-a-procedure.ts';
 import { fixedToday } from './fixed-date.ts';
 import { previousFromGit, repoPath as repoRelative, type Repository } from './repository.ts';
+import { deletedInForce } from '../history/deleted-procedures.ts';
+import { procedureIdIn } from '../history/previous-version.ts';
 import { proceduresFolder } from './project.ts';
 import { readerThreshold, warmSourceReader } from '../read/source-reader.ts';
 
@@ -127,6 +129,10 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   let repo: Repository | undefined;
   if (history && 'previous' in history) ({ previous, repo } = history);
   else if (fromGit) ({ previous, repo } = await fromGit);
+  // A check of whole folders against git also says which procedures in force at the base were deleted since.
+  const deletedNotes = repo && fromGit && history && !('previous' in history) && paths.every((p) => p !== '-' && isFolder(resolve(request.cwd, p)))
+    ? await deletedSinceBase(repo, history.base ?? 'HEAD', paths, inputs, request.cwd)
+    : [];
   const cache = request.cache === false ? undefined : commandCache(request, config.file?.text);
   const options = {
     previous, severity: config.policy, register, certificationIntervalMonths: config.config.certificationIntervalMonths,
@@ -152,7 +158,7 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     message: `Skipped: ${s.file} is not a procedure (${s.reason}).`,
     hint: 'Markdown without front-matter in the procedures folder is left alone. To make it a procedure, start it with a "---" line, the procedure keys and a closing "---".',
   }));
-  const diagnostics = [...config.diagnostics, ...checked.diagnostics, ...skippedNotes].sort(compareDiagnostics);
+  const diagnostics = [...config.diagnostics, ...checked.diagnostics, ...skippedNotes, ...deletedNotes].sort(compareDiagnostics);
   const texts = new Map(inputs.flatMap((i) => ('text' in i ? [[i.file, i.text] as const] : [])));
   if (config.file) texts.set(config.file.file, config.file.text);
   for (const r of register?.sources ?? []) texts.set(r.file, r.source.text);
@@ -163,6 +169,28 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
     errors: diagnostics.filter((d) => d.severity === 'error').length,
     texts,
   };
+}
+
+function isFolder(path: string): boolean {
+  return existsSync(path) && statSync(path).isDirectory();
+}
+
+/**
+ * An error for each procedure that was approved or effective at the base and is gone now under every name: kept with
+ * status retired or superseded, its revisions and audit trail stay readable, and the procedures naming it still
+ * point somewhere.
+ */
+async function deletedSinceBase(repo: Repository, base: string, folders: string[], inputs: SourceInput[], cwd: string): Promise<Diagnostic[]> {
+  const idsNow = new Set(inputs.flatMap((i) => ('text' in i ? [procedureIdIn(i.text)] : [])).filter((id): id is string => !!id));
+  const found = await deletedInForce(repo.git, base, folders.map((f) => repoRelative(repo, resolve(cwd, f)) || '.'), idsNow);
+  return found.map((d) => {
+    const file = relative(cwd, resolve(repo.root, d.path)).split(sep).join('/');
+    return {
+      file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'error', rule: 'procedure-deleted',
+      message: `${d.id}${d.revision ? ` (revision ${d.revision})` : ''} was ${d.status} at ${base} and its file is deleted: a procedure that was approved or in force is kept, with status retired or superseded, so that its revisions, its audit trail and the procedures that name it stay readable.`,
+      hint: `Restore the file (git checkout ${base} -- ${d.path}), then give it a new revision with status retired (or superseded, naming what replaces it in its change note).`,
+    };
+  });
 }
 
 /** The rules that read today's date: the only ones whose findings can differ between the clock and the build date. */

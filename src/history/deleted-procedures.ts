@@ -1,0 +1,43 @@
+// Procedures that were approved or in force at a base and that the working tree no longer holds under any name:
+// deleted where they should have been retired. Their revisions, their audit trail and the procedures that name them
+// go with the file, so a review must see the deletion as a finding of its own.
+import { changedPaths, procedureIdIn, resolveCommit } from './previous-version.ts';
+import { showFiles, type Git } from './git.ts';
+
+export interface DeletedProcedure {
+  /** Its path at the base, relative to the repository root. */
+  path: string;
+  id: string;
+  status: string;
+  revision?: string;
+}
+
+/** The status or revision a procedure's front-matter gives, read from its text without parsing it. */
+function headValue(text: string, key: string): string | undefined {
+  const head = /^\uFEFF?---[ \t]*\r?\n([\s\S]*?)\r?\n---[ \t]*(?:\r?\n|$)/.exec(text)?.[1];
+  const m = head && new RegExp(`^${key}:[ \\t]*['"]?([^'"\\s#]+)`, 'm').exec(head);
+  return m ? m[1] : undefined;
+}
+
+const inForceAtBase = new Set(['approved', 'effective']);
+
+/**
+ * The procedures under `folders` (paths relative to the repository root) deleted since `base` (the working tree
+ * included) that were approved or effective there and whose id no file of the run holds now (a moved file keeps it).
+ */
+export async function deletedInForce(git: Git, base: string, folders: string[], idsNow: ReadonlySet<string>): Promise<DeletedProcedure[]> {
+  const commit = await resolveCommit(git, base);
+  const changes = changedPaths(await git(['diff', '--name-status', '-M', '-z', commit, '--', ...folders]));
+  const deleted = changes.filter((c) => c.status === 'D' && /\.md$/i.test(c.path)).map((c) => c.path);
+  if (!deleted.length) return [];
+  const texts = await showFiles(git, deleted.map((path) => `${commit}:${path}`));
+  const out: DeletedProcedure[] = [];
+  for (const path of deleted) {
+    const text = texts.get(`${commit}:${path}`) ?? '';
+    const id = procedureIdIn(text);
+    const status = headValue(text, 'status');
+    if (!id || !status || !inForceAtBase.has(status) || idsNow.has(id)) continue;
+    out.push({ path, id, status, revision: headValue(text, 'revision') });
+  }
+  return out;
+}
