@@ -22,6 +22,7 @@ import { isNotAProcedure, notAProcedureReason } from './not-a-procedure.ts';
 import { fixedToday } from './fixed-date.ts';
 import { previousFromGit, repoPath as repoRelative, type Repository } from './repository.ts';
 import { deletedInForce } from '../history/deleted-procedures.ts';
+import { GitError } from '../history/git.ts';
 import { procedureIdIn } from '../history/previous-version.ts';
 import { proceduresFolder } from './project.ts';
 import { readerThreshold, warmSourceReader } from '../read/source-reader.ts';
@@ -131,7 +132,12 @@ export async function runCheckRun(request: CheckRunRequest): Promise<CheckRun> {
   else if (fromGit) ({ previous, repo } = await fromGit);
   // A check of whole folders against git also says which procedures in force at the base were deleted since.
   const deletedNotes = repo && fromGit && history && !('previous' in history) && paths.every((p) => p !== '-' && isFolder(resolve(request.cwd, p)))
-    ? await deletedSinceBase(repo, history.base ?? 'HEAD', paths, inputs, request.cwd)
+    ? await deletedSinceBase(repo, history.base ?? 'HEAD', paths, inputs, request.cwd).catch((error: unknown) => {
+      // Before the first commit there is no HEAD to compare with, and so nothing deleted since; a --base that cannot
+      // be read was reported when the previous versions were read.
+      if (history.base === undefined && error instanceof GitError && !error.missingGit) return [];
+      throw error;
+    })
     : [];
   const cache = request.cache === false ? undefined : commandCache(request, config.file?.text);
   const options = {
