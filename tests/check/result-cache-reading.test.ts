@@ -67,9 +67,10 @@ describe('a cache hit skips reading', () => {
     const edited = demo.map((i) => (i.file === second.file ? { file: i.file, text: second.text.replace(/^id: .+$/m, `id: ${id}`) } : i));
     const { store, result } = check(edited);
     // Every other file's results, and what reading it found (its parts), which the cross-file rules take instead of
-    // reading the file again, and its plant state judged against the manual's hazards; the caller's findings with its
-    // calls expanded and the waiving file's split. The edited file's own judgement misses with it.
-    expect(store.stats).toMatchObject({ hits: 3 * (demo.length - 1) + lineUps + 2, misses: 3 });
+    // reading the file again, and its plant state judged twice against the manual's hazards (hazards that can occur,
+    // hazards ruled out only by an old reading); the caller's findings with its calls expanded and the waiving file's
+    // split. The edited file's own judgements miss with it.
+    expect(store.stats).toMatchObject({ hits: 4 * (demo.length - 1) + lineUps + 2, misses: 4 });
     expect(result.diagnostics.filter((d) => d.rule === 'duplicate-procedure-id')).toHaveLength(2);
     expect(result.diagnostics).toEqual(checkSources(edited, { today }).diagnostics);
   });
