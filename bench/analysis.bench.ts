@@ -9,7 +9,7 @@ import { analyseDecisions } from '../src/analysis/decisions/analyse-decisions.ts
 import { generateProcedures, nestedProcedure, wideParallelProcedure, type GeneratedProcedure } from './generate-procedures.ts';
 import { quick, record } from './results.ts';
 
-const today = '2026-12-01';
+const today = '2026-12-05';
 
 /** Median wall time of `runs` calls, in milliseconds. */
 function time(run: () => void, runs = 7): number {

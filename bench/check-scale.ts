@@ -26,7 +26,7 @@ function demoFiles(dir: string): string[] {
 function run(args: string[], env: Record<string, string> = {}, cwd = repo): { seconds: number; cpu?: number; peakMb?: number; out: string } {
   const argv = timeBinary ? [timeBinary, '-f', 'peak-kb=%M cpu=%U+%S', process.execPath, ...args] : [process.execPath, ...args];
   const started = performance.now();
-  const r = spawnSync(argv[0], argv.slice(1), { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', STEPWRIGHT_TODAY: '2026-12-01', ...env }, maxBuffer: 256 * 1024 * 1024 });
+  const r = spawnSync(argv[0], argv.slice(1), { cwd, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', STEPWRIGHT_TODAY: '2026-12-05', ...env }, maxBuffer: 256 * 1024 * 1024 });
   const seconds = (performance.now() - started) / 1000;
   if (r.status !== 0 && r.status !== 1) throw new Error(`${args.join(' ')} failed (exit ${r.status}): ${r.stderr.slice(-2000)}`);
   const peak = /peak-kb=(\d+)/.exec(r.stderr)?.[1];

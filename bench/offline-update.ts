@@ -30,7 +30,7 @@ function write(folder: string, edit: boolean): void {
 function build(procedures: string, out: string): { seconds: number; report: string } {
   const started = performance.now();
   const run = spawnSync(process.execPath, ['bin/stepwright.mjs', 'build', procedures, '--out', out], {
-    cwd: repo, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ASTRO_TELEMETRY_DISABLED: '1', STEPWRIGHT_TODAY: '2026-12-01' }, maxBuffer: 64 * 1024 * 1024,
+    cwd: repo, encoding: 'utf8', env: { ...process.env, NO_COLOR: '1', ASTRO_TELEMETRY_DISABLED: '1', STEPWRIGHT_TODAY: '2026-12-05' }, maxBuffer: 64 * 1024 * 1024,
   });
   if (run.status !== 0) throw new Error(`build failed (exit ${run.status}):\n${run.stdout.slice(-3000)}\n${run.stderr.slice(-3000)}`);
   return { seconds: (performance.now() - started) / 1000, report: run.stdout.slice(run.stdout.indexOf('Offline copy:')) };

@@ -96,11 +96,11 @@ for (const count of sizes) {
     rmSync(join(baselineRoot, 'node_modules'), { recursive: true, force: true });
     const bare = run(process.execPath, [join(repo, 'node_modules/astro/bin/astro.mjs'), 'build', '--root', baselineRoot, '--outDir', join(work, 'bare-site'), '--silent'],
       { BASELINE_CONTENT: join(work, 'plain') });
-    const full = run(process.execPath, ['bin/stepwright.mjs', 'build', join(work, 'procedures'), '--out', join(work, 'site')], { STEPWRIGHT_TODAY: '2026-12-01', STEPWRIGHT_CACHE: join(work, 'cache') });
+    const full = run(process.execPath, ['bin/stepwright.mjs', 'build', join(work, 'procedures'), '--out', join(work, 'site')], { STEPWRIGHT_TODAY: '2026-12-05', STEPWRIGHT_CACHE: join(work, 'cache') });
     // One procedure edited, the same folder built again into the same output (its cache from the build before).
     const edited = join(work, 'procedures', procedures[Math.floor(procedures.length / 2)].file);
     writeFileSync(edited, readFileSync(edited, 'utf8').replace('## Purpose', '## Purpose\n\nEdited for the rebuild benchmark.'));
-    const rebuild = run(process.execPath, ['bin/stepwright.mjs', 'build', join(work, 'procedures'), '--out', join(work, 'site')], { STEPWRIGHT_TODAY: '2026-12-01', STEPWRIGHT_CACHE: join(work, 'cache') });
+    const rebuild = run(process.execPath, ['bin/stepwright.mjs', 'build', join(work, 'procedures'), '--out', join(work, 'site')], { STEPWRIGHT_TODAY: '2026-12-05', STEPWRIGHT_CACHE: join(work, 'cache') });
     const rebuildRatio = rebuild.seconds / full.seconds;
     const pages = readdirSync(join(work, 'site', 'procedures')).length;
     const barePages = readdirSync(join(work, 'bare-site', 'generated')).length;

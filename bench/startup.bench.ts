@@ -29,7 +29,7 @@ function measure(args: string[], cwd = root, extraEnv: Record<string, string> | 
   let status: number | null = 0;
   const timer = existsSync('/usr/bin/time') ? '/usr/bin/time' : undefined;
   for (let i = 0; i < runs; i++) {
-    const env = { ...process.env, STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1', ...(typeof extraEnv === 'function' ? extraEnv() : extraEnv) };
+    const env = { ...process.env, STEPWRIGHT_TODAY: '2026-12-05', NO_COLOR: '1', ...(typeof extraEnv === 'function' ? extraEnv() : extraEnv) };
     const started = performance.now();
     const run = timer
       ? spawnSync(timer, ['-f', '%M %U %S', node, ...args], { cwd, encoding: 'utf8', env })
