@@ -1,7 +1,7 @@
 // `stepwright review --base <ref>`: a Markdown summary of the procedure changes since a base, for a pull request.
 import { readFileSync } from 'node:fs';
 import { writeOutputFile } from './output-file.ts';
-import { join, resolve } from 'node:path';
+import { join, relative, resolve, sep } from 'node:path';
 import { parseArgs } from 'node:util';
 import { runCheckRun, type CheckRun } from '../engine/check-run.ts';
 import { readProcedure } from '../read/read-procedure.ts';
@@ -11,6 +11,7 @@ import { defaultReviewPolicy, parseReviewPolicy, requiredSignOffs, type PolicyEn
 import { GitError, showFiles } from '../history/git.ts';
 import { changedPaths, describeBase, resolveCommit, type ChangedPath } from '../history/previous-version.ts';
 import { redline } from '../history/redline.ts';
+import { deletedProcedureError, inForceAtBase } from '../history/deleted-procedures.ts';
 import { renderReviewMarkdown, reviewHeading, type ReviewedFile } from '../history/review-summary.ts';
 import { formatGithub } from './format-github.ts';
 import { UsageError, type CliIo } from './io.ts';
@@ -134,6 +135,12 @@ async function buildReview(repo: Repository, io: CliIo, base: string, request: R
   }
   const diagnosticsOf = new Map(result.files.map((f) => [repoPath(repo, resolve(io.cwd, f.file)), f.diagnostics]));
 
+  // A procedure approved or in force at the base and deleted (not moved: no file holds its id now) is an error, as
+  // in `check --base`.
+  const idsNow = new Set(result.files.flatMap((f) => (f.procedure?.id ? [f.procedure.id] : [])));
+  const deletedErrors = (before: Procedure, path: string) => before.id && inForceAtBase.has(String(before.status)) && !idsNow.has(before.id)
+    ? [deletedProcedureError({ path, id: before.id, status: String(before.status), revision: before.revision === undefined ? undefined : String(before.revision) }, base, relative(io.cwd, resolve(repo.root, path)).split(sep).join('/'))]
+    : [];
   const files: ReviewedFile[] = [];
   for (const c of changes) {
     const input = inputByPath.get(c.path);
@@ -156,7 +163,7 @@ async function buildReview(repo: Repository, io: CliIo, base: string, request: R
       ...(after ? { after } : {}),
       redline: lines,
       signOffs: requiredSignOffs(lines, policy.policy),
-      diagnostics: diagnosticsOf.get(c.path) ?? [],
+      diagnostics: c.status === 'D' && before ? deletedErrors(before, c.path) : diagnosticsOf.get(c.path) ?? [],
     });
   }
   const registerChanges = register || baseRegister

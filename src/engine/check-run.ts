@@ -21,7 +21,7 @@ import { resultCacheHoldsEntries } from './cache-folder.ts';
 import { isNotAProcedure, notAProcedureReason } from './not-a-procedure.ts';
 import { fixedToday } from './fixed-date.ts';
 import { previousFromGit, repoPath as repoRelative, type Repository } from './repository.ts';
-import { deletedInForce } from '../history/deleted-procedures.ts';
+import { deletedInForce, deletedProcedureError } from '../history/deleted-procedures.ts';
 import { GitError } from '../history/git.ts';
 import { procedureIdIn } from '../history/previous-version.ts';
 import { proceduresFolder } from './project.ts';
@@ -189,14 +189,7 @@ function isFolder(path: string): boolean {
 async function deletedSinceBase(repo: Repository, base: string, folders: string[], inputs: SourceInput[], cwd: string): Promise<Diagnostic[]> {
   const idsNow = new Set(inputs.flatMap((i) => ('text' in i ? [procedureIdIn(i.text)] : [])).filter((id): id is string => !!id));
   const found = await deletedInForce(repo.git, base, folders.map((f) => repoRelative(repo, resolve(cwd, f)) || '.'), idsNow);
-  return found.map((d) => {
-    const file = relative(cwd, resolve(repo.root, d.path)).split(sep).join('/');
-    return {
-      file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'error', rule: 'procedure-deleted',
-      message: `${d.id}${d.revision ? ` (revision ${d.revision})` : ''} was ${d.status} at ${base} and its file is deleted: a procedure that was approved or in force is kept, with status retired or superseded, so that its revisions, its audit trail and the procedures that name it stay readable.`,
-      hint: `Restore the file (git checkout ${base} -- ${d.path}), then give it a new revision with status retired (or superseded, naming what replaces it in its change note).`,
-    };
-  });
+  return found.map((d) => deletedProcedureError(d, base, relative(cwd, resolve(repo.root, d.path)).split(sep).join('/')));
 }
 
 /** The rules that read today's date: the only ones whose findings can differ between the clock and the build date. */

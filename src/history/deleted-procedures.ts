@@ -3,6 +3,7 @@
 // go with the file, so a review must see the deletion as a finding of its own.
 import { changedPaths, procedureIdIn, resolveCommit } from './previous-version.ts';
 import { showFiles, type Git } from './git.ts';
+import type { Diagnostic } from '../parse/diagnostic.ts';
 
 export interface DeletedProcedure {
   /** Its path at the base, relative to the repository root. */
@@ -19,7 +20,8 @@ function headValue(text: string, key: string): string | undefined {
   return m ? m[1] : undefined;
 }
 
-const inForceAtBase = new Set(['approved', 'effective']);
+/** The statuses a procedure may not be deleted from: it was approved or in force. */
+export const inForceAtBase: ReadonlySet<string> = new Set(['approved', 'effective']);
 
 /**
  * The procedures under `folders` (paths relative to the repository root) deleted since `base` (the working tree
@@ -40,4 +42,13 @@ export async function deletedInForce(git: Git, base: string, folders: string[], 
     out.push({ path, id, status, revision: headValue(text, 'revision') });
   }
   return out;
+}
+
+/** The error for a deleted procedure, at its path as the user sees it (`file`); `base` as the user named it. */
+export function deletedProcedureError(d: DeletedProcedure, base: string, file: string): Diagnostic {
+  return {
+    file, line: 1, column: 1, endLine: 1, endColumn: 1, severity: 'error', rule: 'procedure-deleted',
+    message: `${d.id}${d.revision ? ` (revision ${d.revision})` : ''} was ${d.status} at ${base} and its file is deleted: a procedure that was approved or in force is kept, with status retired or superseded, so that its revisions, its audit trail and the procedures that name it stay readable.`,
+    hint: `Restore the file (git checkout ${base} -- ${d.path}), then give it a new revision with status retired (or superseded, naming what replaces it in its change note).`,
+  };
 }

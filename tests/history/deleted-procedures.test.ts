@@ -41,6 +41,10 @@ describe('a procedure deleted since the base', () => {
     const committed = await runCli(['check', 'procedures', '--base', 'main'], dir);
     expect(deletions(committed.stdout)).toHaveLength(1);
     expect(committed.stdout).toContain('hint: Restore the file (git checkout main -- procedures/k-210/u2-k210-inert-001.md)');
+    // The review of the change says the same, and fails.
+    const review = await runCli(['review', '--base', 'main'], dir);
+    expect(review.code).toBe(1);
+    expect(review.stdout).toContain('`procedure-deleted` U2-K210-INERT-001 (revision 3) was effective at main and its file is deleted');
     // Against the branch's own last commit there is nothing deleted any more.
     expect(deletions((await runCli(['check', 'procedures'], dir)).stdout)).toEqual([]);
   });
@@ -52,5 +56,6 @@ describe('a procedure deleted since the base', () => {
     rmSync(join(dir, 'procedures', 'k-210', 'draft.md'));
     const run = await runCli(['check', 'procedures', '--base', 'main'], dir);
     expect(deletions(run.stdout)).toEqual([]);
+    expect((await runCli(['review', '--base', 'main'], dir)).stdout).not.toContain('procedure-deleted');
   });
 });
