@@ -45,7 +45,7 @@ describe('steps the plant-state check does not reach', () => {
   it('names the first step after an until on a valve that no step opens, and how many follow', () => {
     const found = unreached(procedure('  - step: open-drain\n    do: Open drain valve XV-901\n    until: XV-901 == open'));
     expect(found).toEqual([
-      "The plant-state check finds no run that reaches step 'drain' (nor 4 other steps it leads to): no state worked out before it makes XV-901 == open true, so hazards, needs and latched trips were not checked there.",
+      "The plant-state check finds no run that reaches step 'drain' (nor 4 other steps it leads to): no state worked out before it makes XV-901 == open true, so hazards, needs, latched trips and end states were not checked there.",
     ]);
     // The step that opens the valve says so with its state: everything is reached, nothing is said.
     expect(unreached(procedure('  - step: open-drain\n    do: Open drain valve XV-901\n    state: { XV-901: open }\n    until: XV-901 == open'))).toEqual([]);
@@ -56,7 +56,15 @@ describe('steps the plant-state check does not reach', () => {
     expect(unreached(procedure(opened, true))).toEqual([]);
     // Without max-drop the step names nothing that lowers the pressure: the leak branch is never reached, and said.
     expect(unreached(procedure(opened, false))).toEqual([
-      "The plant-state check finds no run that reaches step 'find-leak': no state worked out before it makes elapsed >= 30 min and PI-900 < 245 kPaa true, so hazards, needs and latched trips were not checked there.",
+      "The plant-state check finds no run that reaches step 'find-leak': no state worked out before it makes elapsed >= 30 min and PI-900 < 245 kPaa true, so hazards, needs, latched trips and end states were not checked there.",
     ]);
+  });
+
+  it('says so also for a procedure without hazards whose end states are judged (it moves equipment)', () => {
+    const text = procedure('  - step: open-drain\n    do: Open drain valve XV-901\n    until: XV-901 == open').replace(/^hazards:\n.*\n/m, '');
+    expect(text).not.toContain('hazards:');
+    expect(unreached(text)).toHaveLength(1);
+    // Without any step that moves equipment or trips on purpose, no plant-state rule follows it: nothing is said.
+    expect(unreached(text.replace(/    state: \{ XV-901: closed \}\n/, ''))).toEqual([]);
   });
 });

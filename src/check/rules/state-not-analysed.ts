@@ -24,9 +24,12 @@ steps from there on were not checked for hazards, needs and latched trips.`,
     const p = ctx.procedure;
     const usesState = p.hazards.some((h) => h.when) || p.interlocks.some((i) => i.latches && i.holds.length)
       || ctx.facts.steps.some(({ step }) => step.needs || (step.resets ?? []).some((r) => p.interlocks.some((i) => i.latches && i.tag === r.value)));
+    // The end-state rules (end-state-differs, contingency-goto-unsafe, trip-left-latched) follow every procedure that
+    // moves equipment or trips on purpose: a step they cannot reach is said for those too.
+    const judgedAtEnd = ctx.facts.steps.some(({ step }) => (step.state ?? []).length > 0 || (step.trips ?? []).length > 0);
+    if (usesState || judgedAtEnd) reportUnreached(ctx);
     if (!usesState) return;
     const state = ctx.facts.state;
-    reportUnreached(ctx);
     const gaps = state.gaps;
     if (!gaps.length) return;
     ctx.report({
@@ -59,7 +62,7 @@ function reportUnreached(ctx: FileContext): void {
     const after = unreached.length - 1;
     ctx.report({
       path: place.step!.path,
-      message: `The plant-state check finds no run that reaches step '${place.step!.id}'${after ? ` (nor ${after} other step${after === 1 ? '' : 's'} it leads to)` : ''}: ${waits.length ? `no state worked out before it makes ${waits.join(' or ')} true` : 'the transition into it never fires in the states worked out'}, so hazards, needs and latched trips were not checked there.`,
+      message: `The plant-state check finds no run that reaches step '${place.step!.id}'${after ? ` (nor ${after} other step${after === 1 ? '' : 's'} it leads to)` : ''}: ${waits.length ? `no state worked out before it makes ${waits.join(' or ')} true` : 'the transition into it never fires in the states worked out'}, so hazards, needs, latched trips and end states were not checked there.`,
       hint: 'Give the step that moves the equipment its `state` (an until only waits: `state: { XV-901: open }` opens the valve), or correct the condition.',
     });
   }
