@@ -1,7 +1,7 @@
 // Procedures that were approved or in force at a base and that the working tree no longer holds under any name:
 // deleted where they should have been retired. Their revisions, their audit trail and the procedures that name them
 // go with the file, so a review must see the deletion as a finding of its own.
-import { changedPaths, procedureIdIn, resolveCommit } from './previous-version.ts';
+import { changedPaths, frontMatterScalar, procedureIdIn, resolveCommit } from './previous-version.ts';
 import { showFiles, type Git } from './git.ts';
 import type { Diagnostic } from '../parse/diagnostic.ts';
 
@@ -11,13 +11,6 @@ export interface DeletedProcedure {
   id: string;
   status: string;
   revision?: string;
-}
-
-/** The status or revision a procedure's front-matter gives, read from its text without parsing it. */
-function headValue(text: string, key: string): string | undefined {
-  const head = /^\uFEFF?---[ \t]*\r?\n([\s\S]*?)\r?\n---[ \t]*(?:\r?\n|$)/.exec(text)?.[1];
-  const m = head && new RegExp(`^${key}:[ \\t]*['"]?([^'"\\s#]+)`, 'm').exec(head);
-  return m ? m[1] : undefined;
 }
 
 /** The statuses a procedure may not be deleted from: it was approved or in force. */
@@ -37,9 +30,9 @@ export async function deletedInForce(git: Git, base: string, folders: string[], 
   for (const path of deleted) {
     const text = texts.get(`${commit}:${path}`) ?? '';
     const id = procedureIdIn(text);
-    const status = headValue(text, 'status');
+    const status = frontMatterScalar(text, 'status');
     if (!id || !status || !inForceAtBase.has(status) || idsNow.has(id)) continue;
-    out.push({ path, id, status, revision: headValue(text, 'revision') });
+    out.push({ path, id, status, revision: frontMatterScalar(text, 'revision') });
   }
   return out;
 }

@@ -74,12 +74,28 @@ function renamesIn(changes: ChangedPath[]): Map<string, string> {
   return map;
 }
 
+/** The value of a top-level key of a procedure's front-matter, read from its text without parsing it. */
+export function frontMatterScalar(text: string, key: string): string | undefined {
+  const head = /^\uFEFF?---[ \t]*\r?\n([\s\S]*?)\r?\n---[ \t]*(?:\r?\n|$)/.exec(text)?.[1];
+  const m = head && scalarLine(key).exec(head);
+  const value = m ? (m[1] ?? m[2] ?? m[3]).trim() : undefined;
+  return value || undefined;
+}
+
+const scalarLines = new Map<string, RegExp>();
+/** `key: value`, `key: "value"` or `key: 'value'` on a line of its own, an end-of-line comment allowed. */
+function scalarLine(key: string): RegExp {
+  let found = scalarLines.get(key);
+  if (!found) {
+    found = new RegExp(`^${key}:[ \\t]*(?:"([^"\\r\\n]+)"|'([^'\\r\\n]+)'|([^\\s#][^\\r\\n#]*?))[ \\t]*(?:#.*)?$`, 'm');
+    scalarLines.set(key, found);
+  }
+  return found;
+}
+
 /** The `id` a procedure's front-matter gives, read from its text without parsing it (undefined when none). */
 export function procedureIdIn(text: string): string | undefined {
-  const head = /^\uFEFF?---[ \t]*\r?\n([\s\S]*?)\r?\n---[ \t]*(?:\r?\n|$)/.exec(text)?.[1];
-  const m = head && /^id:[ \t]*(?:"([^"\r\n]+)"|'([^'\r\n]+)'|([^\s#][^\r\n#]*?))[ \t]*(?:#.*)?$/m.exec(head);
-  const id = m ? (m[1] ?? m[2] ?? m[3]).trim() : undefined;
-  return id || undefined;
+  return frontMatterScalar(text, 'id');
 }
 
 /**
