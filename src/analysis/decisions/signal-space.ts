@@ -31,8 +31,13 @@ export const otherValue = '\u0000other';
 /** Most disjoint cases a decision is split into; beyond it the decision is reported as not analysed. */
 export const maxBoxes = 2048;
 
-/** How wide, relative to its value, a set of values may be and still be shown as one point (see showInterval). */
-export const sliverWidth = 4e-6;
+/**
+ * How far, relative to its value, the state analysis lets a moving signal reach past the point it stops at (a sliver
+ * each side of it: a value that stops at a threshold), and how wide a set of values may be and still be shown as
+ * that one point (see showInterval).
+ */
+export const sliverHalfWidth = 1e-6;
+export const sliverWidth = 4 * sliverHalfWidth;
 
 /** Unit conversion leaves float noise (212 degF → 373.15000000000003 K); 12 significant digits keep real differences such as 760 mmHg vs 1 atm (1.4e-7). */
 export function snap(value: number): number {

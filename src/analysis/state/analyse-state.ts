@@ -9,7 +9,7 @@
 // the line-up and, without one, its declared range.
 import type { Condition } from '../conditions/ast.ts';
 import { comparisonsIn, parseCondition } from '../conditions/parse.ts';
-import { NotAnalysable, SignalSpace, type Box, type Region, type SignalInfo, type ValueSet } from '../decisions/signal-space.ts';
+import { NotAnalysable, SignalSpace, sliverHalfWidth, type Box, type Region, type SignalInfo, type ValueSet } from '../decisions/signal-space.ts';
 import { contains, intersect, normalize, union, type IntervalSet } from '../decisions/interval-set.ts';
 import { parseQuantity, toBase } from '../units.ts';
 import type { Step } from '../../model/procedure.ts';
@@ -422,7 +422,7 @@ function nearestPart(from: IntervalSet, target: IntervalSet): IntervalSet {
         const edge = end < c.lo ? c.lo : end > c.hi ? c.hi : end;
         if (!Number.isFinite(edge)) continue;
         const d = Math.abs(edge - end);
-        const w = 1e-6 * Math.max(1, Math.abs(edge));
+        const w = sliverHalfWidth * Math.max(1, Math.abs(edge));
         const piece = intersect([c], [{ lo: edge - w, hi: edge + w, loOpen: false, hiOpen: false }]);
         if (!best || d < best.d) best = { d, piece };
       }
