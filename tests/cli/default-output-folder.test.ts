@@ -22,10 +22,18 @@ function repository(files: Record<string, string>): string {
   return dir;
 }
 
+/**
+ * The environment of a user's shell: without the STEPWRIGHT_ variables a build run in this test process earlier
+ * leaves behind for its pages (STEPWRIGHT_PROCEDURES would name another folder than the one found from `cwd`).
+ */
+function shellEnv(): NodeJS.ProcessEnv {
+  return Object.fromEntries(Object.entries(process.env).filter(([key]) => !key.startsWith('STEPWRIGHT_')));
+}
+
 /** The command as a user runs it, in its own process started in `cwd` (the site build reads the working folder). */
 function stepwright(args: string[], cwd: string) {
   const bin = resolve(import.meta.dirname, '..', '..', 'bin', 'stepwright.mjs');
-  const run = spawnSync(process.execPath, [bin, ...args], { cwd, encoding: 'utf8', env: { ...process.env, STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1' } });
+  const run = spawnSync(process.execPath, [bin, ...args], { cwd, encoding: 'utf8', env: { ...shellEnv(), STEPWRIGHT_TODAY: '2026-12-01', NO_COLOR: '1' } });
   return { code: run.status, stdout: run.stdout, stderr: run.stderr };
 }
 
